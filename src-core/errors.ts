@@ -1,0 +1,25 @@
+/**
+ * The one error type src-core throws for bad input. It says what is wrong, where, and how to fix it,
+ * so the app, the CLI and the tests can show it to a person without a stack trace.
+ */
+export class InputError extends Error {
+  /** Where the bad value sits: a parameter name, a JSON path, "file.csv line 12 column 3", ... */
+  readonly where: string
+  /** What to do about it, in plain words. */
+  readonly fix: string
+
+  constructor(where: string, problem: string, fix: string) {
+    super(`${where}: ${problem}. ${fix}`)
+    this.name = 'InputError'
+    this.where = where
+    this.fix = fix
+  }
+}
+
+/** Throws an InputError unless lo <= value <= hi (and value is a finite number). */
+export function requireInRange(where: string, value: number, lo: number, hi: number, unit = ''): void {
+  if (!Number.isFinite(value) || value < lo || value > hi) {
+    const u = unit ? ` ${unit}` : ''
+    throw new InputError(where, `${value}${u} is outside the valid range ${lo}${u} to ${hi}${u}`, `Give a value from ${lo} to ${hi}${u}.`)
+  }
+}

@@ -1,0 +1,12 @@
+export {
+  SPHERE_DOMAIN,
+  MieWorkspace,
+  seriesLength,
+  sizeParameter,
+  checkSphereDomain,
+  sphereEfficiencies,
+  efficienciesFromCoefficients
+} from './sphere.ts'
+export type { SphereEfficiencies } from './sphere.ts'
+export { angularFromCoefficients, newAngularScattering } from './angles.ts'
+export type { AngularScattering } from './angles.ts'

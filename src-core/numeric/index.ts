@@ -1,0 +1,2 @@
+export { gaussLegendre, gaussLegendreOn } from './gauss.ts'
+export type { QuadratureRule } from './gauss.ts'

@@ -1,0 +1,80 @@
+/**
+ * Reading numbers that people type: lengths with units ("120 nm", "0.12 um", "0.12 µm"), temperatures,
+ * and complex refractive indices ("1.53+0.01i"). mathjs does the unit arithmetic; this is for input,
+ * never for hot loops.
+ */
+import { complex, unit, type Unit } from 'mathjs'
+import { InputError } from './errors.ts'
+
+function normaliseUnitText(text: string): string {
+  return text.trim().replace(/[µμ]/g, 'u').replace(/,/g, '.')
+}
+
+function toUnit(text: string, where: string, example: string): Unit {
+  try {
+    return unit(normaliseUnitText(text))
+  } catch {
+    throw new InputError(where, `"${text}" is not a quantity with a unit`, `Write a number and a unit, for example "${example}".`)
+  }
+}
+
+/**
+ * A length typed by a person, in µm. A bare number is taken in `defaultUnit` ('nm' or 'um');
+ * without a default a unit is required.
+ */
+export function parseLength(text: string, where: string, defaultUnit?: 'nm' | 'um'): number {
+  const t = normaliseUnitText(text)
+  if (t === '') throw new InputError(where, 'no value was given', 'Type a length such as "120 nm" or "0.12 um".')
+  const bare = Number(t)
+  let value: number
+  if (Number.isFinite(bare)) {
+    if (!defaultUnit) throw new InputError(where, `"${text}" has no unit`, 'Add a unit, for example "550 nm" or "0.55 um".')
+    value = defaultUnit === 'nm' ? bare / 1000 : bare
+  } else {
+    const u = toUnit(t, where, '550 nm')
+    try {
+      value = u.toNumber('um')
+    } catch {
+      throw new InputError(where, `"${text}" is not a length`, 'Use a length unit such as nm, um (µm), mm or m.')
+    }
+  }
+  if (!Number.isFinite(value) || value <= 0) {
+    throw new InputError(where, `"${text}" is not a positive length`, 'Give a length greater than zero.')
+  }
+  return value
+}
+
+/** A temperature typed by a person, in K. A bare number is taken in kelvin. */
+export function parseTemperature(text: string, where: string): number {
+  const t = normaliseUnitText(text)
+  const bare = Number(t)
+  let value: number
+  if (t !== '' && Number.isFinite(bare)) value = bare
+  else {
+    const u = toUnit(t.replace(/°\s*C$/, 'degC').replace(/°\s*F$/, 'degF'), where, '298 K')
+    try {
+      value = u.toNumber('K')
+    } catch {
+      throw new InputError(where, `"${text}" is not a temperature`, 'Use K, degC or degF, for example "298 K".')
+    }
+  }
+  if (!Number.isFinite(value) || value <= 0) throw new InputError(where, `"${text}" is not above absolute zero`, 'Give a temperature in kelvin above 0, for example 298.')
+  return value
+}
+
+/** Complex refractive index m = n + ik written as "1.53+0.01i", "1.53 + 0.01i" or "1.33". k must be ≥ 0. */
+export function parseComplexIndex(text: string, where: string): { n: number; k: number } {
+  let c: { re: number; im: number }
+  try {
+    c = complex(text.replace(/\s+/g, '').replace(/j$/, 'i'))
+  } catch {
+    throw new InputError(where, `"${text}" is not a complex refractive index`, 'Write it as n+ki, for example "1.53+0.01i".')
+  }
+  if (!Number.isFinite(c.re) || !Number.isFinite(c.im)) {
+    throw new InputError(where, `"${text}" is not a complex refractive index`, 'Write it as n+ki, for example "1.53+0.01i".')
+  }
+  if (c.im < 0) {
+    throw new InputError(where, `the imaginary part of "${text}" is negative`, 'Motebench writes m = n + ik with k ≥ 0 for an absorbing material; drop the minus sign.')
+  }
+  return { n: c.re, k: c.im }
+}

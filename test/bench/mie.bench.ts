@@ -1,0 +1,35 @@
+// Bench cases for single spheres.
+import { angularFromCoefficients, MieWorkspace, newAngularScattering, sphereEfficiencies } from '../../src-core/index.ts'
+import { nsPerEvaluation, report } from './timing.ts'
+
+export function benchSphereGrid(): void {
+  const count = 2000
+  const xs = new Float64Array(count)
+  for (let i = 0; i < count; i++) xs[i] = 0.05 * Math.pow(10, (3.3 * i) / (count - 1))
+  const ws = new MieWorkspace()
+  let sink = 0
+  const ns = nsPerEvaluation(() => {
+    for (let i = 0; i < count; i++) sink += sphereEfficiencies(xs[i], 1.53, 0.01, ws).qext
+  }, count, 7, 1000 / 7)
+  report('sphere-grid', { evaluations: count, m: '1.53+0.01i', ns_per_eval: Math.round(ns) })
+  if (!Number.isFinite(sink)) throw new Error("sphere-grid produced a non-finite sum")
+}
+
+export function benchSphereLarge(): void {
+  const ws = new MieWorkspace()
+  for (const x of [1000, 10000]) {
+    const ns = nsPerEvaluation(() => void sphereEfficiencies(x, 1.33, 1e-8, ws), 1, 5, 200)
+    report('sphere-large', { x, m: '1.33+1e-8i', us_per_eval: Number((ns / 1000).toFixed(2)) })
+  }
+}
+
+export function benchSphereAngles(): void {
+  const ws = new MieWorkspace()
+  const angles = Array.from({ length: 181 }, (_, i) => i)
+  const out = newAngularScattering(angles)
+  const ns = nsPerEvaluation(() => {
+    const eff = sphereEfficiencies(50, 1.53, 0.01, ws)
+    angularFromCoefficients(50, ws, eff, out)
+  }, 1, 5, 200)
+  report('sphere-angles', { x: 50, angles: 181, us_per_eval: Number((ns / 1000).toFixed(2)) })
+}

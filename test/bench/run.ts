@@ -1,0 +1,12 @@
+// `npm run bench`: one JSON line of figures per case. `npm run bench -- sphere-grid` runs one case.
+import { benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
+
+const cases: Record<string, () => void | Promise<void>> = {
+  'sphere-grid': benchSphereGrid,
+  'sphere-large': benchSphereLarge,
+  'sphere-angles': benchSphereAngles
+}
+
+const wanted = process.argv.slice(2)
+for (const name of wanted) if (!cases[name]) throw new Error(`unknown bench case "${name}"; known: ${Object.keys(cases).join(', ')}`)
+for (const [name, run] of Object.entries(cases)) if (wanted.length === 0 || wanted.includes(name)) await run()
