@@ -1,1 +1,21 @@
-export {}
+/**
+ * Materials: the component catalogue, user components, mixing rules and water uptake (κ-Köhler).
+ * Wavelengths in µm, densities in g cm⁻³, RH in percent, temperatures in K.
+ */
+export type {
+  ComplexRefractiveIndex,
+  Material,
+  PhaseChange,
+  IndexModel,
+  TableIndex,
+  ConstantIndex,
+  ExpressionIndex
+} from './material.ts'
+export { refractiveIndexAt } from './material.ts'
+export { listMaterials, getMaterial } from './catalogue.ts'
+export type { UserIndexSpec, UserMaterialDefinition } from './user.ts'
+export { defineUserMaterial } from './user.ts'
+export type { MixingRule } from './mixing.ts'
+export { MIXING_RULES, mixRefractiveIndices } from './mixing.ts'
+export type { WaterUptakeOptions } from './growth.ts'
+export { KELVIN_TERM_CONSTANTS, growthFactor, mixtureKappa, waterVolumeFraction, wetRefractiveIndex } from './growth.ts'
