@@ -10,3 +10,5 @@ export {
 export type { SphereEfficiencies } from './sphere.ts'
 export { angularFromCoefficients, newAngularScattering } from './angles.ts'
 export type { AngularScattering } from './angles.ts'
+export { fillLogDerivative, fillPsi, seriesFromLogDerivatives } from './sphere.ts'
+export { CoatedWorkspace, coatedSphereEfficiencies } from './coated.ts'

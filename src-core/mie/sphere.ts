@@ -158,49 +158,57 @@ function logDerivativeByContinuedFraction(n: number, zr: number, zi: number, out
 const cfOut = new Float64Array(2)
 
 /**
- * Mie coefficients a_n, b_n of a homogeneous sphere into `ws` (n = 1..N), and the absorption sum into
- * ws.absorptionSum; returns N.
+ * D_n(z) for n = 1..nTerms into (re, im), by downward recurrence D_{n−1} = n/z − 1/(D_n + n/z) from the
+ * exact D_N(z) of the continued fraction. Starting at N itself (not higher) is what an exact start allows;
+ * the fraction's cost grows only as (|z| − N)/2.
  */
-function computeCoefficients(x: number, mr: number, mi: number, ws: MieWorkspace): number {
-  const nTerms = seriesLength(x)
-  ws.ensure(nTerms + 2)
-
-  // z = m x
-  const zr = mr * x
-  const zi = mi * x
-  const dRe = ws.dRe
-  const dIm = ws.dIm
-  const psi = ws.psi
-
-  // Exact starts at n = N: D_N(mx) and the real D_N(x), by the continued fraction. Starting at N
-  // itself (not higher) is what an exact start allows; the fraction's cost grows only as (|mx| − N)/2.
+export function fillLogDerivative(nTerms: number, zr: number, zi: number, re: Float64Array, im: Float64Array): void {
   logDerivativeByContinuedFraction(nTerms, zr, zi, cfOut)
   let dr = cfOut[0]
   let di = cfOut[1]
-  logDerivativeByContinuedFraction(nTerms, x, 0, cfOut)
-  let dx = cfOut[0]
-
-  // Downward: D_{n−1}(z) = n/z − 1/(D_n(z) + n/z), and the same for real x, whose terms also give
-  // the ratios psi_{n−1}(x)/psi_n(x) = D_n(x) + n/x. The two chains are independent and run together.
   const zz = zr * zr + zi * zi
   const izr = zr / zz
   const izi = -zi / zz
-  const ix = 1 / x
   for (let n = nTerms; n >= 1; n--) {
-    dRe[n] = dr
-    dIm[n] = di
-    const shrink = 1 / (dx + n * ix) // psi_n(x)/psi_{n−1}(x)
-    psi[n] = shrink
+    re[n] = dr
+    im[n] = di
     const tr = dr + n * izr
     const ti = di + n * izi
     const inv = 1 / (tr * tr + ti * ti)
     dr = n * izr - tr * inv
     di = n * izi + ti * inv
+  }
+}
+
+/**
+ * psi_n(x) = x j_n(x) for n = 0..nTerms into `psi`: the ratios psi_n/psi_{n−1} = 1/(D_n(x) + n/x) come
+ * from the real D_n(x) by downward recurrence (exact start), then psi_n = psi_0 · Π ratios with
+ * psi_0 = sin x. No cancellation, so tiny x keeps full relative accuracy.
+ */
+export function fillPsi(nTerms: number, x: number, psi: Float64Array): void {
+  logDerivativeByContinuedFraction(nTerms, x, 0, cfOut)
+  let dx = cfOut[0]
+  const ix = 1 / x
+  for (let n = nTerms; n >= 1; n--) {
+    const shrink = 1 / (dx + n * ix)
+    psi[n] = shrink
     dx = n * ix - shrink
   }
   psi[0] = Math.sin(x)
   for (let n = 1; n <= nTerms; n++) psi[n] *= psi[n - 1]
+}
 
+/**
+ * The series coefficients of a sphere of (outer) size parameter x and (outer) index m = mr + i mi, given
+ * the logarithmic derivatives that enter a_n (aD) and b_n (bD) at the outer surface. For a homogeneous
+ * sphere both are D_n(mx); a coated sphere passes its effective values. Writes a_n, b_n and the
+ * absorption sum into `ws`; psi_n(x) must already be in ws.psi.
+ */
+export function seriesFromLogDerivatives(
+  x: number, mr: number, mi: number, nTerms: number, ws: MieWorkspace,
+  aDRe: Float64Array, aDIm: Float64Array, bDRe: Float64Array, bDIm: Float64Array
+): void {
+  const psi = ws.psi
   // m = mr + i mi; 1/m
   const mm = mr * mr + mi * mi
   const imr = mr / mm
@@ -220,14 +228,16 @@ function computeCoefficients(x: number, mr: number, mi: number, ws: MieWorkspace
     const psiN = psi[n]
     const psiM = psi[n - 1]
     const nx = n / x
-    const dr = dRe[n]
-    const di = dIm[n]
-    // A = D/m + n/x
-    const ar = dr * imr - di * imi + nx
-    const ai = dr * imi + di * imr
-    // B = m D + n/x
-    const br = mr * dr - mi * di + nx
-    const bi = mr * di + mi * dr
+    // A = D_a/m + n/x
+    const dar = aDRe[n]
+    const dai = aDIm[n]
+    const ar = dar * imr - dai * imi + nx
+    const ai = dar * imi + dai * imr
+    // B = m D_b + n/x
+    const dbr = bDRe[n]
+    const dbi = bDIm[n]
+    const br = mr * dbr - mi * dbi + nx
+    const bi = mr * dbi + mi * dbr
     // a_n = P/(P − iQ)
     let pr = ar * psiN - psiM
     let pi = ai * psiN
@@ -256,6 +266,15 @@ function computeCoefficients(x: number, mr: number, mi: number, ws: MieWorkspace
   }
   ws.terms = nTerms
   ws.absorptionSum = absSum
+}
+
+/** Mie coefficients of a homogeneous sphere into `ws` (n = 1..N); returns N. */
+function computeCoefficients(x: number, mr: number, mi: number, ws: MieWorkspace): number {
+  const nTerms = seriesLength(x)
+  ws.ensure(nTerms + 2)
+  fillLogDerivative(nTerms, mr * x, mi * x, ws.dRe, ws.dIm)
+  fillPsi(nTerms, x, ws.psi)
+  seriesFromLogDerivatives(x, mr, mi, nTerms, ws, ws.dRe, ws.dIm, ws.dRe, ws.dIm)
   return nTerms
 }
 

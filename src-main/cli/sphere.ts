@@ -1,7 +1,8 @@
 // motebench sphere: one homogeneous (or, with --core-*, coated) sphere.
 import {
   angularFromCoefficients,
-  MieWorkspace,
+  coatedSphereEfficiencies,
+  CoatedWorkspace,
   newAngularScattering,
   parseComplexIndex,
   parseLength,
@@ -15,7 +16,10 @@ export const sphereHelp = `motebench sphere: efficiencies of one sphere
   --diameter D          diameter with a unit, e.g. 0.5um or 500nm
   --wavelength L        wavelength with a unit, e.g. 550nm
   --medium N            real index of the medium (default 1)
-  --m N+Ki              relative refractive index, e.g. 1.5+1i (k ≥ 0 absorbs)
+  --m N+Ki              refractive index (relative to the medium's when --medium is given), e.g. 1.5+1i (k ≥ 0 absorbs)
+  --core-x X            makes the sphere coated: core size parameter (then --x/--diameter and --m are the
+                        outer sphere and the shell); or --core-diameter D with --diameter and --wavelength
+  --core-m N+Ki         core refractive index (with --core-x or --core-diameter)
   --angles A:S:B        scattering angles in degrees (start:step:end or a list) adds S11, S12, S33, S34, phase
   --json                JSON output`
 
@@ -27,6 +31,9 @@ export function runSphere(argv: string[]): number {
     medium: { type: 'string' },
     m: { type: 'string' },
     angles: { type: 'string' },
+    'core-x': { type: 'string' },
+    'core-diameter': { type: 'string' },
+    'core-m': { type: 'string' },
     json: { type: 'boolean', default: false }
   })
   if (values.m === undefined) throw new UsageError('sphere: --m is required, for example --m 1.5+1i')
@@ -40,11 +47,28 @@ export function runSphere(argv: string[]): number {
     if (values.diameter === undefined || values.wavelength === undefined) throw new UsageError('sphere: give --x, or --diameter and --wavelength (e.g. --diameter 0.5um --wavelength 550nm)')
     x = sizeParameter(parseLength(values.diameter, '--diameter'), parseLength(values.wavelength, '--wavelength'), medium)
   }
-  const ws = new MieWorkspace()
-  const eff = sphereEfficiencies(x, m.n / medium, m.k / medium, ws)
+  const coated = values['core-x'] !== undefined || values['core-diameter'] !== undefined
+  if (coated !== (values['core-m'] !== undefined)) throw new UsageError('sphere: a coated sphere needs both a core size (--core-x or --core-diameter) and --core-m')
+  const ws = new CoatedWorkspace()
+  let eff
+  let core: Record<string, unknown> = {}
+  if (coated) {
+    const cm = parseComplexIndex(values['core-m']!, '--core-m')
+    let xCore: number
+    if (values['core-x'] !== undefined) xCore = readNumber(values['core-x'], '--core-x')
+    else {
+      if (values.wavelength === undefined) throw new UsageError('sphere: --core-diameter needs --diameter and --wavelength')
+      xCore = sizeParameter(parseLength(values['core-diameter']!, '--core-diameter'), parseLength(values.wavelength, '--wavelength'), medium)
+    }
+    eff = coatedSphereEfficiencies(xCore, cm.n / medium, cm.k / medium, x, m.n / medium, m.k / medium, ws)
+    core = { core_x: xCore, core_m: [cm.n, cm.k] }
+  } else {
+    eff = sphereEfficiencies(x, m.n / medium, m.k / medium, ws)
+  }
   const result: Record<string, unknown> = {
     x,
     m: [m.n, m.k],
+    ...core,
     qext: eff.qext,
     qsca: eff.qsca,
     qabs: eff.qabs,

@@ -1,11 +1,17 @@
 // Bench cases for single spheres.
-import { angularFromCoefficients, MieWorkspace, newAngularScattering, sphereEfficiencies } from '../../src-core/index.ts'
+import { angularFromCoefficients, coatedSphereEfficiencies, CoatedWorkspace, MieWorkspace, newAngularScattering, sphereEfficiencies } from '../../src-core/index.ts'
 import { nsPerEvaluation, report } from './timing.ts'
 
-export function benchSphereGrid(): void {
-  const count = 2000
+/** The sphere-grid sizes: x_i = 0.05 · 10^(3.3 i / 1999), i = 0 … 1999. */
+function gridSizes(count = 2000): Float64Array {
   const xs = new Float64Array(count)
   for (let i = 0; i < count; i++) xs[i] = 0.05 * Math.pow(10, (3.3 * i) / (count - 1))
+  return xs
+}
+
+export function benchSphereGrid(): void {
+  const xs = gridSizes()
+  const count = xs.length
   const ws = new MieWorkspace()
   let sink = 0
   const ns = nsPerEvaluation(() => {
@@ -32,4 +38,16 @@ export function benchSphereAngles(): void {
     angularFromCoefficients(50, ws, eff, out)
   }, 1, 5, 200)
   report('sphere-angles', { x: 50, angles: 181, us_per_eval: Number((ns / 1000).toFixed(2)) })
+}
+
+export function benchCoatedGrid(): void {
+  const xs = gridSizes()
+  const count = xs.length
+  const ws = new CoatedWorkspace()
+  let sink = 0
+  const ns = nsPerEvaluation(() => {
+    for (let i = 0; i < count; i++) sink += coatedSphereEfficiencies(0.4 * xs[i], 1.95, 0.79, xs[i], 1.53, 0.01, ws).qext
+  }, count, 5, 200)
+  report('coated-grid', { evaluations: count, core: '40 % of the diameter, 1.95+0.79i', shell: '1.53+0.01i', ns_per_eval: Math.round(ns) })
+  if (!Number.isFinite(sink)) throw new Error('coated-grid produced a non-finite sum')
 }

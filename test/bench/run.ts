@@ -1,10 +1,11 @@
 // `npm run bench`: one JSON line of figures per case. `npm run bench -- sphere-grid` runs one case.
-import { benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
+import { benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
   'sphere-large': benchSphereLarge,
-  'sphere-angles': benchSphereAngles
+  'sphere-angles': benchSphereAngles,
+  'coated-grid': benchCoatedGrid
 }
 
 const wanted = process.argv.slice(2)
