@@ -1,1 +1,54 @@
-export {}
+/**
+ * Climate module: direct radiative forcing of a uniform aerosol layer, from the thin-layer screening
+ * estimate (Chylek & Wong 1995) to a delta-Eddington two-stream layer over a Lambertian surface, plus
+ * solar geometry, a blackbody approximation of the solar spectrum, Rayleigh optical depth, a verdict and
+ * a forcing map. Inputs are plain numbers (τ, ω, g, β̄, R_s) supplied by the bulk-optics code.
+ */
+export {
+  SOLAR_CONSTANT_WM2,
+  STEFAN_BOLTZMANN_WM2K4,
+  SUN_EFFECTIVE_TEMPERATURE_K,
+  PLANCK_CONSTANT_JS,
+  SPEED_OF_LIGHT_MS,
+  BOLTZMANN_CONSTANT_JK,
+  STANDARD_PRESSURE_HPA,
+  DEFAULT_ATMOSPHERIC_TRANSMITTANCE,
+  DEFAULT_CLOUD_FRACTION
+} from './constants.ts'
+export type { ThinLayerInput, ThinLayerResult } from './thinLayer.ts'
+export { thinLayerForcing, criticalSingleScatteringAlbedo, signFlipSurfaceAlbedo } from './thinLayer.ts'
+export type { SurfaceType } from './surfaces.ts'
+export { SURFACE_TYPES, surfaceTypeById } from './surfaces.ts'
+export type { SolarBandWeights, RayleighFormula } from './spectrum.ts'
+export { solarSpectralIrradiance, solarFractionBelow, solarBandFractions, solarBandWeights, SOLAR_BAND_RANGE_UM, rayleighOpticalDepth } from './spectrum.ts'
+export type { SunlitDayQuadrature, SlantThinLayerInput, DailyMeanForcingResult } from './insolation.ts'
+export {
+  solarDeclinationRad,
+  earthSunDistanceFactor,
+  dailyMeanInsolation,
+  sunlitDayQuadrature,
+  thinLayerReflectanceChange,
+  dailyMeanThinLayerForcing
+} from './insolation.ts'
+export type {
+  TwoStreamLayerInput,
+  DeltaScaled,
+  DirectBeamResponse,
+  DiffuseResponse,
+  LayerOverSurface,
+  TwoStreamForcingInput,
+  TwoStreamForcingResult,
+  DailyTwoStreamInput,
+  DailyTwoStreamResult
+} from './twoStream.ts'
+export {
+  deltaEddingtonScaling,
+  deltaEddingtonDirectBeam,
+  deltaEddingtonDiffuse,
+  layerOverLambertianSurface,
+  twoStreamEquivalentUpscatter,
+  twoStreamForcing,
+  dailyMeanTwoStreamForcing
+} from './twoStream.ts'
+export type { ForcingVerdictWord, ForcingVerdictInput, ForcingVerdict, ForcingMapInput, ForcingMap } from './verdict.ts'
+export { FORCING_CAUTION, DEFAULT_VERDICT_MARGIN_WM2, forcingVerdict, forcingMap, effectiveEmissionTemperature } from './verdict.ts'

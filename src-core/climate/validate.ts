@@ -1,0 +1,40 @@
+/** Input checks private to the climate module. Each throws InputError with a plain-words fix. */
+import { InputError } from '../errors.ts'
+
+export function checkFinite(where: string, value: number): void {
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    throw new InputError(where, `${String(value)} is not a finite number`, 'Give a finite number.')
+  }
+}
+
+export function checkRange(where: string, value: number, lo: number, hi: number, unit = ''): void {
+  checkFinite(where, value)
+  if (value < lo || value > hi) {
+    const u = unit ? ` ${unit}` : ''
+    throw new InputError(where, `${value}${u} is outside the valid range ${lo}${u} to ${hi}${u}`, `Give a value from ${lo} to ${hi}${u}.`)
+  }
+}
+
+/** lo < value <= hi */
+export function checkRangeOpenLow(where: string, value: number, lo: number, hi: number, unit = ''): void {
+  checkFinite(where, value)
+  if (value <= lo || value > hi) {
+    const u = unit ? ` ${unit}` : ''
+    throw new InputError(where, `${value}${u} must be greater than ${lo}${u} and at most ${hi}${u}`, `Give a value above ${lo} and up to ${hi}${u}.`)
+  }
+}
+
+export function checkInteger(where: string, value: number, lo: number, hi: number): void {
+  if (!Number.isInteger(value) || value < lo || value > hi) {
+    throw new InputError(where, `${String(value)} is not a whole number from ${lo} to ${hi}`, `Give a whole number from ${lo} to ${hi}.`)
+  }
+}
+
+/** Evaluates a user-supplied function of μ₀ and checks that its value lies in [lo, hi]. */
+export function evalChecked(where: string, f: (mu0: number) => number, mu0: number, lo: number, hi: number): number {
+  const v = f(mu0)
+  if (typeof v !== 'number' || !Number.isFinite(v) || v < lo || v > hi) {
+    throw new InputError(where, `the function returned ${String(v)} at cos(solar zenith) = ${mu0}, outside ${lo} to ${hi}`, `Make the function return a number from ${lo} to ${hi} for every cos(solar zenith) in (0, 1].`)
+  }
+  return v
+}
