@@ -1,6 +1,8 @@
 // The motebench command line. Each command reads its arguments, calls src-core's public API and prints.
 import { runGuarded, UsageError } from './common.ts'
 import { runSphere, sphereHelp } from './sphere.ts'
+import { checkHelp, runCheck } from './check.ts'
+import { demoHelp, runDemo } from './demo.ts'
 
 interface Command {
   summary: string
@@ -9,7 +11,9 @@ interface Command {
 }
 
 const commands: Record<string, Command> = {
-  sphere: { summary: 'efficiencies and angular scattering of one sphere', help: sphereHelp, run: runSphere }
+  sphere: { summary: 'efficiencies and angular scattering of one sphere', help: sphereHelp, run: runSphere },
+  check: { summary: 'check a study (.mote) or a sizer file and list every problem', help: checkHelp, run: runCheck },
+  demo: { summary: 'write the demo study (invented data) to DIR/demo.mote', help: demoHelp, run: runDemo }
 }
 
 function overview(): string {
