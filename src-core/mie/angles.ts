@@ -89,3 +89,93 @@ export function angularFromCoefficients(x: number, ws: MieWorkspace, eff: Sphere
   }
   return out
 }
+
+/**
+ * Angular functions pi_n(μ_j), tau_n(μ_j) tabulated once for a fixed set of cosines and reused for every
+ * sphere: summing S1, S2 is then a pair of dot products per angle. For population phase functions, where
+ * the same angles serve thousands of sizes.
+ */
+export class AngularTable {
+  readonly mu: Float64Array
+  private pi: Float64Array = new Float64Array(0)
+  private tau: Float64Array = new Float64Array(0)
+  private nMax = 0
+  private s1r: Float64Array
+  private s1i: Float64Array
+  private s2r: Float64Array
+  private s2i: Float64Array
+
+  constructor(mu: ArrayLike<number>) {
+    this.mu = Float64Array.from(mu)
+    const m = this.mu.length
+    this.s1r = new Float64Array(m)
+    this.s1i = new Float64Array(m)
+    this.s2r = new Float64Array(m)
+    this.s2i = new Float64Array(m)
+  }
+
+  /** Makes sure pi_n, tau_n are tabulated up to n = nTerms. */
+  private grow(nTerms: number): void {
+    if (nTerms <= this.nMax) return
+    const nMax = Math.max(nTerms, Math.ceil(this.nMax * 1.5), 32)
+    const m = this.mu.length
+    const pi = new Float64Array((nMax + 1) * m)
+    const tau = new Float64Array((nMax + 1) * m)
+    for (let j = 0; j < m; j++) {
+      const mu = this.mu[j]
+      let piPrev = 0
+      let piN = 1
+      for (let n = 1; n <= nMax; n++) {
+        pi[n * m + j] = piN
+        tau[n * m + j] = n * mu * piN - (n + 1) * piPrev
+        const piNext = ((2 * n + 1) / n) * mu * piN - ((n + 1) / n) * piPrev
+        piPrev = piN
+        piN = piNext
+      }
+    }
+    this.pi = pi
+    this.tau = tau
+    this.nMax = nMax
+  }
+
+  /**
+   * Adds weight·S11(μ_j) into acc11 and, if given, weight·S12(μ_j) into acc12, for the sphere whose
+   * coefficients are in `ws`.
+   */
+  accumulate(ws: MieWorkspace, weight: number, acc11: Float64Array, acc12: Float64Array | null): void {
+    const nTerms = ws.terms
+    this.grow(nTerms)
+    const m = this.mu.length
+    const { s1r, s1i, s2r, s2i, pi, tau } = this
+    s1r.fill(0)
+    s1i.fill(0)
+    s2r.fill(0)
+    s2i.fill(0)
+    const aRe = ws.aRe
+    const aIm = ws.aIm
+    const bRe = ws.bRe
+    const bIm = ws.bIm
+    for (let n = 1; n <= nTerms; n++) {
+      const f = (2 * n + 1) / (n * (n + 1))
+      const ar = f * aRe[n]
+      const ai = f * aIm[n]
+      const br = f * bRe[n]
+      const bi = f * bIm[n]
+      const base = n * m
+      for (let j = 0; j < m; j++) {
+        const p = pi[base + j]
+        const t = tau[base + j]
+        s1r[j] += ar * p + br * t
+        s1i[j] += ai * p + bi * t
+        s2r[j] += ar * t + br * p
+        s2i[j] += ai * t + bi * p
+      }
+    }
+    for (let j = 0; j < m; j++) {
+      const i1 = s1r[j] * s1r[j] + s1i[j] * s1i[j]
+      const i2 = s2r[j] * s2r[j] + s2i[j] * s2i[j]
+      acc11[j] += weight * 0.5 * (i2 + i1)
+      if (acc12) acc12[j] += weight * 0.5 * (i2 - i1)
+    }
+  }
+}

@@ -8,7 +8,7 @@ export {
   efficienciesFromCoefficients
 } from './sphere.ts'
 export type { SphereEfficiencies } from './sphere.ts'
-export { angularFromCoefficients, newAngularScattering } from './angles.ts'
+export { AngularTable, angularFromCoefficients, newAngularScattering } from './angles.ts'
 export type { AngularScattering } from './angles.ts'
 export { fillLogDerivative, fillPsi, seriesFromLogDerivatives } from './sphere.ts'
 export { CoatedWorkspace, coatedSphereEfficiencies } from './coated.ts'

@@ -1,1 +1,11 @@
-export {}
+export type * from './types.ts'
+export { upwardFraction, bulkOpticsAt, OpticsWorkspace, UPSCATTER_COS_ZENITH, UPSCATTER_NODES } from './integrate.ts'
+export type { SizeSegment, Population, Conditions, IntegrationOptions, BulkOptics } from './integrate.ts'
+export { resolveComposition, resolveMaterial, dryIndicesAt, particleGrowth, wetParticle } from './particles.ts'
+export type { ParticleKind, DryIndices, WetParticle } from './particles.ts'
+export { computeSampleOptics, samplePopulations, studyMaterials, modeFromSpec, extinctionAt, valueAt, DEFAULT_ANGLES_DEG } from './sample.ts'
+export type { SampleOpticsOptions } from './sample.ts'
+export { angstromExponent, angstromFitOf, angstromFit, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M } from './metrics.ts'
+export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, LAYER_TOP_PRESSURE_HPA } from './forcing.ts'
+export { evaluateStudy, humidityGrowthCurve, HUMIDITY_CURVE_RH, MOTEBENCH_VERSION } from './evaluate.ts'
+export type { EvaluateOptions } from './evaluate.ts'

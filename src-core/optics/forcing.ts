@@ -1,0 +1,144 @@
+/**
+ * A sample's direct-forcing estimate at the study's site: the thin-layer form at 550 nm, weighted over
+ * the solar spectrum, through the site's day, and the two-stream layer; the verdict; and the map of
+ * forcing over surface albedo and ω. The formulas themselves live in src-core/climate.
+ */
+import {
+  dailyMeanThinLayerForcing,
+  DEFAULT_VERDICT_MARGIN_WM2,
+  forcingMap,
+  forcingVerdict,
+  rayleighOpticalDepth,
+  solarBandWeights,
+  SOLAR_CONSTANT_WM2,
+  surfaceTypeById,
+  thinLayerForcing,
+  twoStreamForcing
+} from '../climate/index.ts'
+import { InputError } from '../errors.ts'
+import type { Site } from '../study/model.ts'
+import { UPSCATTER_COS_ZENITH } from './integrate.ts'
+import { valueAt } from './sample.ts'
+import type { ForcingMapData, SampleForcing, SampleOptics, WavelengthOptics } from './types.ts'
+
+/** Pressure at the top of the aerosol layer, hPa, for the Rayleigh part of the spectral transmittance (common practice: a boundary layer up to ~1.5 km). */
+export const LAYER_TOP_PRESSURE_HPA = 850
+
+/** The site's surface albedo: from the surface list, or the custom value. */
+export function siteSurfaceAlbedo(site: Site): number {
+  if (site.surface === 'custom') {
+    if (site.surface_albedo === undefined) throw new InputError('site: surface_albedo', 'a custom surface needs an albedo', 'Give surface_albedo from 0 to 1, or choose a surface from the list.')
+    return site.surface_albedo
+  }
+  return site.surface_albedo ?? surfaceTypeById(site.surface).albedo
+}
+
+/** β(μ₀) of a row, linearly interpolated in μ₀ between the reported nodes (clamped at the ends). */
+export function upscatterFunction(row: WavelengthOptics): (mu0: number) => number {
+  const mu = UPSCATTER_COS_ZENITH
+  const b = row.upscatter_by_cos_zenith
+  return (m: number) => {
+    if (m <= mu[0]) return b[0]
+    if (m >= mu[mu.length - 1]) return b[b.length - 1]
+    let i = 0
+    while (mu[i + 1] < m) i++
+    const t = (m - mu[i]) / (mu[i + 1] - mu[i])
+    return b[i] + t * (b[i + 1] - b[i])
+  }
+}
+
+/** The forcing estimate of a sample's layer at a site, with its verdict. */
+export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFAULT_VERDICT_MARGIN_WM2): SampleForcing {
+  const rows = optics.wavelengths
+  const at550 = (pick: (r: WavelengthOptics) => number) => valueAt(rows, 550, pick)
+  const tau = at550((r) => r.optical_depth)
+  const omega = Math.min(1, Math.max(0, at550((r) => r.ssa)))
+  const g = at550((r) => r.g)
+  const upscatter = at550((r) => r.upscatter_fraction)
+  const surfaceAlbedo = siteSurfaceAlbedo(site)
+  const common = { transmittance: site.transmittance, cloudFraction: site.cloud_fraction }
+  const thin = thinLayerForcing({ tau, omega, upscatter, surfaceAlbedo, ...common })
+
+  // Spectral: each study wavelength stands for a band of the (Planck 5772 K) solar spectrum; the
+  // transmittance above the layer follows the Rayleigh optical depth of the air above it.
+  const sorted = [...rows].sort((a, b) => a.wavelength_nm - b.wavelength_nm)
+  const bands = solarBandWeights(sorted.map((r) => r.wavelength_nm / 1000))
+  const p = LAYER_TOP_PRESSURE_HPA
+  const tauR550 = rayleighOpticalDepth(0.55, p)
+  let spectral = 0
+  sorted.forEach((r, i) => {
+    const tr = site.transmittance * Math.exp(-(rayleighOpticalDepth(r.wavelength_nm / 1000, p) - tauR550))
+    spectral += thinLayerForcing({
+      tau: r.optical_depth,
+      omega: Math.min(1, Math.max(0, r.ssa)),
+      upscatter: r.upscatter_fraction,
+      surfaceAlbedo,
+      transmittance: Math.min(1, tr),
+      cloudFraction: site.cloud_fraction,
+      solarConstant: SOLAR_CONSTANT_WM2 * bands.fractions[i]
+    }).forcingWm2
+  })
+
+  const row550 = rows.find((r) => r.wavelength_nm === 550) ?? sorted.reduce((a, b) => (Math.abs(b.wavelength_nm - 550) < Math.abs(a.wavelength_nm - 550) ? b : a))
+  const daily = dailyMeanThinLayerForcing({
+    tau,
+    omega,
+    upscatter: upscatterFunction(row550),
+    surfaceAlbedo,
+    ...common,
+    latitudeDeg: site.latitude_deg,
+    dayOfYear: site.day_of_year
+  })
+  const two = twoStreamForcing({
+    tau,
+    omega,
+    asymmetry: Math.min(0.99, Math.max(0, g)),
+    cosZenith: 0.5,
+    surfaceAlbedo,
+    incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4,
+    ...common
+  })
+  const verdict = forcingVerdict({ tau, omega, surfaceAlbedo, upscatter, ...common, marginWm2 })
+  const flip = thin.flipSurfaceAlbedo
+  return {
+    tau_550: tau,
+    ssa_550: omega,
+    g_550: g,
+    upscatter_550: upscatter,
+    surface_albedo: surfaceAlbedo,
+    thin_layer_w_m2: thin.forcingWm2,
+    efficiency_w_m2_per_tau: thin.efficiencyWm2PerTau,
+    critical_ssa: thin.omegaCritical,
+    flip_surface_albedo: Number.isFinite(flip) && flip >= 0 && flip <= 1 ? flip : null,
+    spectral_w_m2: spectral,
+    daily_mean_w_m2: daily.forcingWm2,
+    insolation_w_m2: daily.insolationWm2,
+    two_stream: { toa_w_m2: two.toaWm2, surface_w_m2: two.surfaceWm2, atmosphere_w_m2: two.atmosphereWm2 },
+    verdict: verdict.verdict,
+    explanation: verdict.explanation,
+    margin_w_m2: verdict.marginWm2,
+    caution: verdict.caution
+  }
+}
+
+/** Forcing over surface albedo (0…1) and ω (0.5…1) for this sample's τ and β̄ at 550 nm, as plain arrays. */
+export function sampleForcingMap(forcing: SampleForcing, site: Site, nSurface = 41, nOmega = 26): ForcingMapData {
+  const map = forcingMap({
+    nSurfaceAlbedo: nSurface,
+    nOmega,
+    tau: forcing.tau_550,
+    upscatter: Math.max(forcing.upscatter_550, 1e-6),
+    transmittance: site.transmittance,
+    cloudFraction: site.cloud_fraction
+  })
+  const rows: number[][] = []
+  for (let j = 0; j < nOmega; j++) rows.push(Array.from(map.forcingWm2.subarray(j * nSurface, (j + 1) * nSurface)))
+  return {
+    surface_albedo: Array.from(map.surfaceAlbedo),
+    ssa: Array.from(map.omega),
+    forcing: rows,
+    zero_line: Array.from(map.zeroLine.surfaceAlbedo, (r, i) => [r, map.zeroLine.omegaCritical[i]] as [number, number]),
+    sample: [forcing.surface_albedo, forcing.ssa_550]
+  }
+}
+

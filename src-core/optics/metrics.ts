@@ -1,0 +1,87 @@
+/**
+ * Figures derived from bulk optics: Ångström exponents, visual range, haze index, the air's Rayleigh
+ * scattering, and the depth of a sample's layer.
+ */
+import { InputError } from '../errors.ts'
+import { rayleighOpticalDepth } from '../climate/index.ts'
+import type { LayerSpec } from '../study/model.ts'
+import type { AngstromExponents, WavelengthOptics } from './types.ts'
+
+/** Ångström exponent between two wavelengths: å = −ln(σ₁/σ₂)/ln(λ₁/λ₂). NaN when either σ is not positive. */
+export function angstromExponent(sigma1: number, lambda1: number, sigma2: number, lambda2: number): number {
+  if (!(sigma1 > 0 && sigma2 > 0) || lambda1 === lambda2) return NaN
+  return -Math.log(sigma1 / sigma2) / Math.log(lambda1 / lambda2)
+}
+
+/** Least-squares slope of ln σ against ln λ, negated: the Ångström exponent fitted over all wavelengths. */
+export function angstromFitOf(wavelengths: readonly number[], sigmas: readonly number[]): number {
+  let n = 0
+  let sx = 0
+  let sy = 0
+  let sxx = 0
+  let sxy = 0
+  for (let i = 0; i < wavelengths.length; i++) {
+    if (!(sigmas[i] > 0)) continue
+    const x = Math.log(wavelengths[i])
+    const y = Math.log(sigmas[i])
+    n++
+    sx += x
+    sy += y
+    sxx += x * x
+    sxy += x * y
+  }
+  if (n < 2) return NaN
+  const den = n * sxx - sx * sx
+  return den === 0 ? NaN : -(n * sxy - sx * sy) / den
+}
+
+/** Ångström exponents of extinction, scattering and absorption, fitted over all rows. */
+export function angstromFit(rows: readonly WavelengthOptics[]): AngstromExponents {
+  const wl = rows.map((r) => r.wavelength_nm)
+  return {
+    ext: angstromFitOf(wl, rows.map((r) => r.ext)),
+    sca: angstromFitOf(wl, rows.map((r) => r.sca)),
+    abs: angstromFitOf(wl, rows.map((r) => r.abs))
+  }
+}
+
+/** Koschmieder visual range, km, for a total extinction coefficient in Mm⁻¹: V = 3.912 / b_ext. */
+export function visualRangeKm(extinctionMm: number): number {
+  return extinctionMm > 0 ? 3912 / extinctionMm : Infinity
+}
+
+/** Haze index in deciviews: dv = 10 ln(b_ext / 10 Mm⁻¹) (Pitchford & Malm 1994, Atmos. Environ. 28:1049). */
+export function deciview(extinctionMm: number): number {
+  return extinctionMm > 0 ? 10 * Math.log(extinctionMm / 10) : -Infinity
+}
+
+/**
+ * Scale height of the air, m: H = R T/(M g) at 288.15 K (U.S. Standard Atmosphere 1976 sea-level
+ * temperature; M = 0.0289644 kg/mol, g = 9.80665 m s⁻²), about 8.4 km.
+ */
+export const AIR_SCALE_HEIGHT_M = (8.314462618 * 288.15) / (0.0289644 * 9.80665)
+
+/**
+ * Rayleigh scattering coefficient of sea-level air, Mm⁻¹: the column's Rayleigh optical depth at
+ * 1013.25 hPa divided by the scale height (an isothermal column holds H times the sea-level density).
+ */
+export function rayleighScatteringMm(wavelengthUm: number): number {
+  return (rayleighOpticalDepth(wavelengthUm) / AIR_SCALE_HEIGHT_M) * 1e6
+}
+
+/**
+ * Depth of the column the sample fills, m: a uniform layer's depth, or for a layer whose concentration
+ * falls off exponentially from the surface with scale height H, the equivalent uniform depth H.
+ * For a layer given by its optical depth, the caller derives the depth from σext(550 nm); this returns 0.
+ */
+export function layerDepthM(layer: LayerSpec): number {
+  if (layer.kind === 'depth') {
+    if (!(layer.depth_m >= 0)) throw new InputError('layer: depth_m', `${layer.depth_m} m is not a depth`, 'Give the layer depth in metres, 0 or more.')
+    return layer.depth_m
+  }
+  if (layer.kind === 'scale-height') {
+    if (!(layer.scale_height_m > 0)) throw new InputError('layer: scale_height_m', `${layer.scale_height_m} m is not a scale height`, 'Give the scale height in metres, greater than 0.')
+    return layer.scale_height_m
+  }
+  return 0
+}

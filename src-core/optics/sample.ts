@@ -1,0 +1,265 @@
+/**
+ * A sample's bulk optics at the study's wavelengths: its populations (one per lognormal mode, or the
+ * measured bins), integrated by `bulkOpticsAt`, and the figures derived from them.
+ */
+import { InputError } from '../errors.ts'
+import { defineUserMaterial, type Material } from '../materials/index.ts'
+import {
+  BIN_SHAPE,
+  binsFromMeasurement,
+  dNdlnD,
+  integrationRange,
+  modeFromMass,
+  modeFromNumber,
+  modeFromVolume,
+  particulateMatter,
+  particulateMatterBins,
+  type LognormalMode,
+  type SizeBins
+} from '../sizes/index.ts'
+import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
+import { bulkOpticsAt, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import { angstromFit, deciview, layerDepthM, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
+import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
+import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
+
+export interface SampleOpticsOptions {
+  /** Relative accuracy of the size integration (default 1e-4). */
+  tolerance?: number
+  /** Scattering angles (degrees) for the population phase function; default 0…180 by 2°. */
+  anglesDeg?: number[]
+  /** Wavelengths (nm) at which to report the phase function; default 550 nm if present, else the first. */
+  angularWavelengthsNm?: number[]
+  /** Override the sample's humidity (for f(RH) curves). */
+  rhPercent?: number
+  /** Workspace to reuse across calls (Mie buffers, angular tables). */
+  workspace?: OpticsWorkspace
+}
+
+export const DEFAULT_ANGLES_DEG: number[] = Array.from({ length: 91 }, (_, i) => 2 * i)
+
+/** The user materials of a study, built and checked at the study's wavelengths. */
+export function studyMaterials(study: Pick<Study, 'user_materials' | 'wavelengths_nm'>): Material[] {
+  const wl = study.wavelengths_nm.map((w) => w / 1000)
+  return (study.user_materials ?? []).map((u) =>
+    defineUserMaterial(
+      {
+        id: u.id,
+        name: u.name,
+        densityGcm3: u.density_g_cm3,
+        kappa: u.kappa,
+        source: u.source,
+        index: u.index.kind === 'table' ? { kind: 'table', rows: u.index.rows } : u.index
+      },
+      wl
+    )
+  )
+}
+
+/** A lognormal mode in number form from any of the document's three forms. */
+export function modeFromSpec(spec: ModeSpec, density: number): LognormalMode {
+  const name = spec.name
+  if (spec.by === 'number') return modeFromNumber({ number: spec.number_cm3, median: spec.median_um, gsd: spec.gsd, name })
+  if (spec.by === 'volume') return modeFromVolume({ volume: spec.volume_um3_cm3, volumeMedian: spec.median_um, gsd: spec.gsd, name })
+  return modeFromMass({ mass: spec.mass_ug_m3, massMedian: spec.median_um, gsd: spec.gsd, density, name })
+}
+
+/** One population of a sample, with what the moments need. */
+interface SamplePopulation extends Population {
+  mode?: LognormalMode
+  bins?: SizeBins
+}
+
+/** Resolves a sample into populations: one per mode (with its own composition if it has one), or the bins. */
+export function samplePopulations(sample: Sample, own: readonly Material[], longestWavelengthUm: number): SamplePopulation[] {
+  const where = `sample "${sample.name}"`
+  const kindCache = new Map<Composition, ParticleKind>()
+  const kindOf = (c: Composition, w: string) => {
+    let k = kindCache.get(c)
+    if (!k) {
+      k = resolveComposition(c, own, w)
+      kindCache.set(c, k)
+    }
+    return k
+  }
+  if (sample.size.kind === 'modes') {
+    if (!sample.size.modes.length) throw new InputError(`${where}: modes`, 'the sample has no modes', 'Add a lognormal mode or load measured bins.')
+    return sample.size.modes.map((spec, i) => {
+      const w = `${where}, mode ${i + 1}${spec.name ? ` (${spec.name})` : ''}`
+      const kind = kindOf(spec.composition ?? sample.composition, w)
+      const mode = modeFromSpec(spec, kind.densityGcm3)
+      return { label: spec.name ?? `mode ${i + 1}`, kind, mode, segments: [modeSegment(mode, longestWavelengthUm)] }
+    })
+  }
+  const b = sample.size.bins
+  const kind = kindOf(sample.composition, where)
+  const bins = binsFromMeasurement({
+    diameters: b.diameters,
+    diameterKind: b.edges ? 'edges' : 'midpoints',
+    diameterUnit: b.diameter_unit,
+    quantity: b.quantity,
+    values: b.values,
+    density: kind.densityGcm3
+  })
+  const segments: SizeSegment[] = []
+  for (let i = 0; i < bins.dNdlogD.length; i++) {
+    const dens = bins.dNdlogD[i] / Math.LN10
+    if (dens > 0) segments.push({ lo: Math.log(bins.edges[i]), hi: Math.log(bins.edges[i + 1]), flat: true, density: () => dens })
+  }
+  return [{ label: 'measured bins', kind, bins, segments }]
+}
+
+/**
+ * The diameter range of a mode for optics: all but 1e-7 of its volume (third moment), extended upward to
+ * hold the sixth moment (which carries Rayleigh scattering) as far as particles stay small next to the
+ * longest wavelength (x ≤ 2 there), beyond which cross-sections grow no faster than D².
+ */
+function modeSegment(mode: LognormalMode, longestWavelengthUm: number): SizeSegment {
+  const r3 = integrationRange([mode], { highestMoment: 3, tailFraction: 1e-7 })
+  const r6 = integrationRange([mode], { highestMoment: 6, tailFraction: 1e-7 })
+  const small = (2 * longestWavelengthUm) / Math.PI
+  const hi = Math.max(r3.max, Math.min(r6.max, small))
+  return { lo: Math.log(r3.min), hi: Math.log(hi), flat: false, density: (u) => dNdlnD(mode, Math.exp(u)) }
+}
+
+/** Dry and wet volume (µm³ cm⁻³) and dry mass (µg m⁻³) of the populations at a humidity. */
+function populationVolumes(pops: SamplePopulation[], cond: Conditions): { dryVolume: number; wetVolume: number; dryMass: number; wetMass: number; number: number; surface: number } {
+  let dryVolume = 0
+  let wetVolume = 0
+  let dryMass = 0
+  let number = 0
+  let surface = 0
+  for (const p of pops) {
+    // ∫ (π/6) D³ (gf³) dN over ln D by Gauss–Legendre on the population's segments (smooth integrand)
+    for (const seg of p.segments) {
+      const n = p.mode ? 96 : 8
+      const h = (seg.hi - seg.lo) / n
+      for (let i = 0; i < n; i++) {
+        // midpoint panels with 2-point Gauss each
+        for (const off of [0.5 - 0.5 / Math.sqrt(3), 0.5 + 0.5 / Math.sqrt(3)]) {
+          const u = seg.lo + (i + off) * h
+          const d = Math.exp(u)
+          const dn = seg.density(u) * h * 0.5
+          const v = (Math.PI / 6) * d * d * d
+          const gf = particleGrowth(p.kind, d, cond.rhPercent, cond.history, cond.temperatureK)
+          number += dn
+          surface += dn * Math.PI * d * d
+          dryVolume += dn * v
+          wetVolume += dn * v * gf * gf * gf
+          dryMass += dn * v * p.kind.densityGcm3
+        }
+      }
+    }
+  }
+  // water density 0.997 g cm⁻³ (Kell 1975, from memory)
+  return { dryVolume, wetVolume, dryMass, wetMass: dryMass + (wetVolume - dryVolume) * 0.997, number, surface }
+}
+
+/** Everything optical about one sample at the study's wavelengths. */
+export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): SampleOptics {
+  const wavelengths = study.wavelengths_nm
+  if (!wavelengths.length) throw new InputError('study: wavelengths', 'no wavelengths are given', 'Add at least one wavelength, such as 550 nm.')
+  const longest = Math.max(...wavelengths) / 1000
+  const pops = samplePopulations(sample, own, longest)
+  const rh = options.rhPercent ?? sample.rh_percent
+  const cond: Conditions = { rhPercent: rh, history: sample.rh_history, temperatureK: sample.temperature_k ?? 298.15 }
+  const ws = options.workspace ?? new OpticsWorkspace()
+  const angularAt = options.angularWavelengthsNm ?? [wavelengths.includes(550) ? 550 : wavelengths[0]]
+  const angles = options.anglesDeg ?? DEFAULT_ANGLES_DEG
+  const vol = populationVolumes(pops, cond)
+  const depth = layerDepthM(sample.layer)
+
+  const rows: WavelengthOptics[] = []
+  const angular: AngularOptics[] = []
+  for (const wl of wavelengths) {
+    const wantAngles = angularAt.includes(wl)
+    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined }, ws)
+    const rayleigh = rayleighScatteringMm(wl / 1000)
+    const total = r.ext + rayleigh
+    rows.push({
+      wavelength_nm: wl,
+      ext: r.ext,
+      sca: r.sca,
+      abs: r.abs,
+      ssa: r.ext > 0 ? r.sca / r.ext : 1,
+      g: r.g,
+      backscatter_fraction: r.backscatter,
+      upscatter_fraction: r.upscatterMean,
+      upscatter_by_cos_zenith: Array.from(r.upscatter),
+      mass_ext_dry: r.ext / vol.dryMass,
+      mass_sca_dry: r.sca / vol.dryMass,
+      mass_abs_dry: r.abs / vol.dryMass,
+      mass_ext_wet: r.ext / vol.wetMass,
+      mass_sca_wet: r.sca / vol.wetMass,
+      mass_abs_wet: r.abs / vol.wetMass,
+      optical_depth: 0,
+      rayleigh_sca: rayleigh,
+      visual_range_km: visualRangeKm(total),
+      deciview: deciview(total),
+      mie_evaluations: r.evaluations
+    })
+    if (wantAngles && r.phase && r.polarization) {
+      angular.push({ wavelength_nm: wl, angles_deg: angles.slice(), phase: Array.from(r.phase), polarization: Array.from(r.polarization) })
+    }
+  }
+  // Optical depth: a uniform layer of the sample (Mm⁻¹ × m × 1e-6), or scaled to a given AOD at 550 nm.
+  let layerDepth = depth
+  if (sample.layer.kind === 'optical-depth') {
+    const ext550 = extinctionAt(rows, 550)
+    layerDepth = ext550 > 0 ? sample.layer.aod_550 / (ext550 * 1e-6) : 0
+  }
+  for (const row of rows) row.optical_depth = row.ext * 1e-6 * layerDepth
+
+  const pm = pops.every((p) => p.mode)
+    ? particulateMatter(pops.map((p) => p.mode!), { diameter: 'geometric', density: pops.map((p) => p.kind.densityGcm3) })
+    : pops.length === 1 && pops[0].bins
+      ? particulateMatterBins(pops[0].bins, { diameter: 'geometric', density: pops[0].kind.densityGcm3 })
+      : null
+  const notes = [
+    'Mass efficiencies per gram of dry particle matter (dry) and per gram including particle water at the sample humidity (wet).',
+    `Visual range and haze index include the air's Rayleigh scattering at sea level (${rows.length ? rows[0].rayleigh_sca.toFixed(1) : '—'} Mm⁻¹ at ${rows[0]?.wavelength_nm} nm).`,
+    'PM fractions by geometric (volume-equivalent) dry diameter.',
+    `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀ over ${UPSCATTER_COS_ZENITH.length} sun angles.`
+  ]
+  if (pops.some((p) => p.bins)) notes.push(BIN_SHAPE)
+  return {
+    name: sample.name,
+    wavelengths: rows,
+    angular,
+    number_cm3: vol.number,
+    surface_um2_cm3: vol.surface,
+    volume_um3_cm3: vol.dryVolume,
+    mass_ug_m3: vol.dryMass,
+    wet_volume_um3_cm3: vol.wetVolume,
+    wet_mass_ug_m3: vol.wetMass,
+    pm1_ug_m3: pm ? pm.pm1 : NaN,
+    pm2_5_ug_m3: pm ? pm.pm2_5 : NaN,
+    pm10_ug_m3: pm ? pm.pm10 : NaN,
+    angstrom_fit: angstromFit(rows),
+    layer_depth_m: layerDepth,
+    notes
+  }
+}
+
+/** σext at a wavelength (nm), interpolated log–log between the nearest rows if it is not one of them. */
+export function extinctionAt(rows: readonly WavelengthOptics[], wavelengthNm: number): number {
+  return valueAt(rows, wavelengthNm, (r) => r.ext)
+}
+
+/** A row figure at a wavelength (nm): exact if tabulated, else log–log interpolation (or the nearest end). */
+export function valueAt(rows: readonly WavelengthOptics[], wavelengthNm: number, pick: (r: WavelengthOptics) => number): number {
+  const exact = rows.find((r) => r.wavelength_nm === wavelengthNm)
+  if (exact) return pick(exact)
+  const sorted = [...rows].sort((a, b) => a.wavelength_nm - b.wavelength_nm)
+  if (!sorted.length) return NaN
+  if (wavelengthNm <= sorted[0].wavelength_nm) return pick(sorted[0])
+  if (wavelengthNm >= sorted[sorted.length - 1].wavelength_nm) return pick(sorted[sorted.length - 1])
+  let i = 0
+  while (sorted[i + 1].wavelength_nm < wavelengthNm) i++
+  const a = sorted[i]
+  const b = sorted[i + 1]
+  const t = Math.log(wavelengthNm / a.wavelength_nm) / Math.log(b.wavelength_nm / a.wavelength_nm)
+  const va = pick(a)
+  const vb = pick(b)
+  return va > 0 && vb > 0 ? Math.exp(Math.log(va) + t * Math.log(vb / va)) : va + t * (vb - va)
+}
