@@ -1,6 +1,9 @@
 // Electron build: main process, preload and renderer bundles (`npm run build`).
 import { defineConfig } from 'electron-vite'
+import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
+
+const version = (JSON.parse(readFileSync(resolve(import.meta.dirname, 'package.json'), 'utf8')) as { version: string }).version
 
 export default defineConfig({
   main: {
@@ -21,10 +24,12 @@ export default defineConfig({
   },
   renderer: {
     root: resolve(import.meta.dirname, 'src-renderer'),
+    define: { __APP_VERSION__: JSON.stringify(version) },
     esbuild: { jsx: 'automatic', jsxImportSource: 'preact' },
     worker: { format: 'es' },
     build: {
       outDir: 'out/renderer',
+      chunkSizeWarningLimit: 2000,
       rollupOptions: { input: { index: resolve(import.meta.dirname, 'src-renderer/index.html') } }
     }
   }

@@ -24,7 +24,8 @@
  * The angular sums are refined over the first ANGULAR_LEVELS + 1 levels only; their ratios use σsca from the
  * same nodes, so the grid's sampling error largely cancels (the tests measure it against fine integrations).
  */
-import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
+import { InputError } from '../errors.ts'
+import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, SPHERE_DOMAIN, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
 import { gaussLegendreOn } from '../numeric/index.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
 
@@ -79,6 +80,9 @@ upMu.set(backwardRule.nodes, 0)
 upMu.set(forwardRule.nodes, HALF_GRID)
 upW.set(backwardRule.weights, 0)
 upW.set(forwardRule.weights, HALF_GRID)
+/** The scattering-angle cosines and weights of the upscatter integrals (read-only; for tests and tools). */
+export const UPSCATTER_SCATTERING_COSINES: { readonly nodes: Float64Array; readonly weights: Float64Array } = { nodes: upMu, weights: upW }
+
 /** F(μ_j, μ₀_i), row i. */
 const upKernel = (() => {
   const k = new Float64Array(UPSCATTER_COS_ZENITH.length * upMu.length)

@@ -1,0 +1,196 @@
+// A uPlot chart in a Preact component: sized to its box, redrawn when its data or theme changes,
+// with a button that saves it as PNG (title, legend and theme background included).
+import { useEffect, useRef } from 'preact/hooks'
+import uPlot from 'uplot'
+import 'uplot/dist/uPlot.min.css'
+import { host } from '../host/index.ts'
+import { fileStem } from '../format.ts'
+import type { Theme } from './palette.ts'
+
+export interface Line {
+  label: string
+  stroke: string
+  dash?: number[]
+  width?: number
+  /** Draw as points only. */
+  points?: boolean
+  /** Draw as steps (measured bins). */
+  steps?: boolean
+  /** Which y axis (0 left, 1 right). */
+  axis?: 0 | 1
+}
+
+export interface ChartProps {
+  title: string
+  /** x values, then one array per line (null = gap). */
+  data: (number | null)[][]
+  lines: Line[]
+  xLabel: string
+  yLabel: string
+  y2Label?: string
+  xLog?: boolean
+  yLog?: boolean
+  xRange?: [number, number]
+  /** Where the x axis has its tick labels (log wavelength axes). */
+  xTicks?: number[]
+  yRange?: [number, number]
+  height?: number
+  theme: Theme
+  /** Extra drawing under the lines (heat maps) or over them (markers). */
+  drawUnder?: (u: uPlot) => void
+  drawOver?: (u: uPlot) => void
+  stale?: boolean
+  /** Test hook and PNG file name. */
+  name: string
+}
+
+/** A theme colour as it applies where the chart sits (the report keeps the light theme). */
+function cssVar(name: string, el: Element = document.documentElement): string {
+  return getComputedStyle(el).getPropertyValue(name).trim() || '#000'
+}
+
+/** Short tick labels: 0.05, 550, 12k, 3e5. */
+function tick(v: number | null): string {
+  if (v === null || !Number.isFinite(v)) return ''
+  const a = Math.abs(v)
+  if (a === 0) return '0'
+  if (a >= 1e5 || a < 1e-3) return v.toExponential(0).replace('e+', 'e')
+  if (a >= 1e4) return `${Number((v / 1000).toPrecision(3))}k`
+  return String(Number(v.toPrecision(4)))
+}
+
+const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
+
+function options(p: ChartProps, width: number, el: Element): uPlot.Options {
+  const ink = cssVar('--ink', el)
+  const grid = cssVar('--grid', el)
+  const axis = (label: string, side?: number, ticks?: number[]): uPlot.Axis => ({
+    label,
+    stroke: ink,
+    font: FONT,
+    labelFont: FONT,
+    ...(side !== undefined ? { side } : {}),
+    grid: { stroke: grid, width: 1, show: side !== 1 },
+    ticks: { stroke: grid, width: 1 },
+    size: 50,
+    labelSize: 16,
+    gap: 3,
+    values: (_u: uPlot, splits: number[]) => splits.map(tick),
+    ...(ticks ? { splits: () => ticks, filter: (_u: uPlot, splits: number[]) => splits } : {})
+  })
+  const range = (r?: [number, number]) => (r ? { range: r } : {})
+  const scales: uPlot.Scales = {
+    x: { time: false, ...(p.xLog ? { distr: 3, log: 10 } : {}), ...range(p.xRange) },
+    y: { ...(p.yLog ? { distr: 3, log: 10 } : {}), ...range(p.yRange) }
+  }
+  if (p.y2Label) scales['y2'] = {}
+  return {
+    width,
+    height: p.height ?? 220,
+    pxAlign: 0,
+    scales,
+    legend: { show: true, live: false },
+    cursor: { drag: { x: false, y: false }, points: { show: false } },
+    axes: [axis(p.xLabel, undefined, p.xTicks), axis(p.yLabel), ...(p.y2Label ? [{ ...axis(p.y2Label, 1), scale: 'y2' }] : [])],
+    series: [
+      { label: p.xLabel },
+      ...p.lines.map(
+        (l): uPlot.Series => ({
+          label: l.label,
+          stroke: l.stroke,
+          width: l.width ?? 2,
+          dash: l.dash,
+          scale: l.axis === 1 ? 'y2' : 'y',
+          spanGaps: !!l.steps,
+          ...(l.points ? { paths: () => null, points: { show: true, size: 9, stroke: l.stroke, fill: l.stroke } } : { points: { show: false } }),
+          ...(l.steps ? { paths: uPlot.paths.stepped?.({ align: 1 }) } : {})
+        })
+      )
+    ],
+    hooks: {
+      drawClear: p.drawUnder ? [(u) => p.drawUnder?.(u)] : [],
+      draw: p.drawOver ? [(u) => p.drawOver?.(u)] : []
+    }
+  }
+}
+
+/** The chart's picture as PNG: theme background, title, plot and a legend written below. */
+export function chartPng(u: uPlot, title: string, lines: Line[]): string {
+  const src = u.ctx.canvas
+  const ratio = src.width / u.width
+  const legendRows = Math.ceil(lines.length / 3)
+  const out = document.createElement('canvas')
+  out.width = src.width
+  out.height = src.height + (34 + legendRows * 20) * ratio
+  const ctx = out.getContext('2d') as CanvasRenderingContext2D
+  const el = u.root
+  ctx.fillStyle = cssVar('--panel', el)
+  ctx.fillRect(0, 0, out.width, out.height)
+  ctx.scale(ratio, ratio)
+  ctx.fillStyle = cssVar('--ink', el)
+  ctx.font = `600 14px system-ui, "DejaVu Sans", sans-serif`
+  ctx.fillText(title, 8, 20)
+  ctx.setTransform(1, 0, 0, 1, 0, 0)
+  ctx.drawImage(src, 0, 30 * ratio)
+  ctx.scale(ratio, ratio)
+  ctx.font = FONT
+  lines.forEach((l, i) => {
+    const x = 8 + (i % 3) * (u.width / 3)
+    const y = src.height / ratio + 44 + Math.floor(i / 3) * 20
+    ctx.strokeStyle = l.stroke
+    ctx.lineWidth = 2
+    ctx.setLineDash(l.dash ?? [])
+    ctx.beginPath()
+    ctx.moveTo(x, y - 4)
+    ctx.lineTo(x + 26, y - 4)
+    ctx.stroke()
+    ctx.fillStyle = cssVar('--ink', el)
+    ctx.fillText(l.label, x + 32, y)
+  })
+  return out.toDataURL('image/png')
+}
+
+export function Chart(p: ChartProps) {
+  const box = useRef<HTMLDivElement>(null)
+  const plot = useRef<uPlot | null>(null)
+  const props = useRef(p)
+  props.current = p
+
+  useEffect(() => {
+    const el = box.current
+    if (!el) return
+    const width = Math.max(240, el.clientWidth)
+    const u = new uPlot(options(p, width, el), p.data as uPlot.AlignedData, el)
+    plot.current = u
+    const ro = new ResizeObserver(() => {
+      const w = Math.max(240, el.clientWidth)
+      if (Math.abs(w - u.width) > 2) u.setSize({ width: w, height: props.current.height ?? 220 })
+    })
+    ro.observe(el)
+    return () => {
+      ro.disconnect()
+      u.destroy()
+      plot.current = null
+    }
+  }, [p.data, p.lines, p.theme, p.height, p.xLabel, p.yLabel, p.xRange?.[0], p.xRange?.[1], p.yRange?.[0], p.yRange?.[1], p.xTicks?.join(), p.drawUnder, p.drawOver])
+
+  const savePng = () => {
+    const u = plot.current
+    if (!u) return
+    const url = chartPng(u, p.title, p.lines)
+    void host().exportFile({ suggestedName: `${fileStem(p.title)}.png`, kind: 'png', base64: url.slice(url.indexOf(',') + 1) })
+  }
+
+  return (
+    <figure class={`chart${p.stale ? ' is-stale' : ''}`} data-chart={p.name}>
+      <figcaption>
+        <span class="chart-title">{p.title}</span>
+        {p.stale && <span class="stale-tag">stale</span>}
+        <button type="button" class="small ghost no-print" onClick={savePng} title={`Save “${p.title}” as a PNG picture`}>
+          PNG
+        </button>
+      </figcaption>
+      <div class="chart-box" ref={box} />
+    </figure>
+  )
+}

@@ -1,0 +1,181 @@
+// What the menu, the buttons and the shortcuts do: files, exports, report, undo. The host does the platform part.
+import { demoStudy, InputError, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
+import type { MenuCommand, OpenedFile } from '../src-main/host-api.ts'
+import { cancel } from './compute/client.ts'
+import { resultsCsv, resultsJson } from './exports.ts'
+import { fileStem } from './format.ts'
+import { host } from './host/index.ts'
+import { blankStudy, load, redo, undo } from './state/actions.ts'
+import { store } from './state/store.ts'
+
+const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store().set({ notice: { kind, title, lines } })
+
+/** Loads study text; problems are listed and the current study stays. */
+export function openText(file: OpenedFile): boolean {
+  const r = parseStudy(file.text, file.name)
+  if (!r.ok) {
+    notice(
+      'error',
+      `“${file.name}” was not opened: it has ${r.problems.length} problem${r.problems.length === 1 ? '' : 's'}`,
+      r.problems.slice(0, 12).map((p) => `${p.path}: ${p.message}. ${p.fix}`)
+    )
+    return false
+  }
+  load(r.study, { name: file.name, path: file.path })
+  if (r.warnings.length) notice('info', `Opened “${file.name}”`, r.warnings)
+  return true
+}
+
+function confirmDiscard(): boolean {
+  return !store().get().dirty || window.confirm('The study has unsaved changes. Discard them?')
+}
+
+export async function openStudy(): Promise<void> {
+  if (host().kind === 'browser' && !confirmDiscard()) return
+  const f = await host().openStudy()
+  if (f) openText(f)
+}
+
+export function newStudy(): void {
+  if (host().kind === 'desktop') return // the desktop menu opens a new window
+  if (!confirmDiscard()) return
+  load(blankStudy(), null)
+}
+
+export function openDemo(): void {
+  if (!confirmDiscard()) return
+  load(demoStudy(), null)
+}
+
+export async function save(saveAs = false): Promise<boolean> {
+  const s = store().get()
+  if (s.problems.length && !window.confirm(`The study has ${s.problems.length} input problem(s). Save it anyway? (It will not open again until they are fixed.)`)) return false
+  const suggestedName = s.file?.name ?? `${fileStem(s.study.name)}.mote`
+  const r = await host().saveStudy({ text: serializeStudy(s.study), path: s.file?.path, suggestedName, saveAs })
+  if (!r) return false
+  store().set({ file: r, dirty: false })
+  void host().keepRecovery(null)
+  return true
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Sizer files.
+
+/** A sizer file read and waiting for the user to choose a record and where it goes. */
+export interface PendingSizer {
+  name: string
+  table: SizerTable
+}
+
+let pendingListener: ((p: PendingSizer | null) => void) | null = null
+export const onPendingSizer = (l: (p: PendingSizer | null) => void): void => {
+  pendingListener = l
+}
+
+/** Reads a sizer export; a file with bad rows or no readable table is refused with the line numbers. */
+export function readSizer(file: OpenedFile): void {
+  let table: SizerTable
+  try {
+    table = parseSizerText(file.text, { fileName: file.name })
+  } catch (e) {
+    notice('error', `“${file.name}” was not imported`, [e instanceof InputError || e instanceof Error ? e.message : String(e)])
+    return
+  }
+  if (table.rejected.length) {
+    notice(
+      'error',
+      `“${file.name}” was not imported: ${table.rejected.length} line${table.rejected.length === 1 ? '' : 's'} could not be read`,
+      table.rejected.slice(0, 10).map((r) => `line ${r.line}${r.column ? ` column ${r.column}` : ''}: ${r.reason}. ${r.fix}`)
+    )
+    return
+  }
+  if (!table.records.length) {
+    notice('error', `“${file.name}” was not imported`, ['The file has a table but no distribution in it.'])
+    return
+  }
+  pendingListener?.({ name: file.name, table })
+}
+
+export async function importSizer(): Promise<void> {
+  const f = await host().openSizerFile()
+  if (f) readSizer(f)
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Exports and report.
+
+function currentResults() {
+  const s = store().get()
+  return s.ids.map((id) => s.results[id]?.result)
+}
+
+export async function exportCsv(): Promise<void> {
+  const s = store().get()
+  await host().exportFile({ suggestedName: `${fileStem(s.study.name)}-results.csv`, kind: 'csv', text: resultsCsv(s.study, currentResults()) })
+}
+
+export async function exportJson(): Promise<void> {
+  const s = store().get()
+  await host().exportFile({ suggestedName: `${fileStem(s.study.name)}-results.json`, kind: 'json', text: resultsJson(s.study, currentResults()) })
+}
+
+export const openReport = (): void => store().set({ reportOpen: true })
+
+export async function printReport(): Promise<void> {
+  await host().printReport({ suggestedName: `${fileStem(store().get().study.name)}-report.pdf` })
+}
+
+export function run(command: MenuCommand): void {
+  switch (command) {
+    case 'new':
+      return newStudy()
+    case 'open':
+      return void openStudy()
+    case 'save':
+      return void save(false)
+    case 'save-as':
+      return void save(true)
+    case 'import-sizer':
+      return void importSizer()
+    case 'export-csv':
+      return void exportCsv()
+    case 'export-json':
+      return void exportJson()
+    case 'export-report':
+      return openReport()
+    case 'undo':
+      return undo()
+    case 'redo':
+      return redo()
+    case 'cautions':
+      return store().set({ cautionsOpen: true })
+    case 'save-and-close':
+      void save(false).then((ok) => ok && host().closeWindow())
+      return
+  }
+}
+
+export { cancel }
+
+// ---------------------------------------------------------------------------------------------------------------
+// Recovery copy and the host's view of the window.
+
+const RECOVERY_EVERY_MS = 20_000
+
+export function keepHostInformed(): void {
+  let last = ''
+  store().subscribe(() => {
+    const s = store().get()
+    const key = `${s.study.name}|${s.dirty}|${s.pristine}`
+    if (key === last) return
+    last = key
+    host().setState({ title: s.file?.name ?? s.study.name, dirty: s.dirty, pristine: s.pristine })
+  })
+  let copied: unknown = null
+  setInterval(() => {
+    const s = store().get()
+    if (!s.dirty || copied === s.study) return
+    copied = s.study
+    void host().keepRecovery({ text: serializeStudy(s.study), savedAt: new Date().toISOString(), name: s.study.name, path: s.file?.path })
+  }, RECOVERY_EVERY_MS)
+}

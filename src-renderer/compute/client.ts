@@ -1,0 +1,133 @@
+// Runs the computations in workers as the document changes: debounced, one job at a time, a newer edit
+// supersedes (and stops) the running job, unchanged samples are not computed again.
+import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
+import { store, type AppState, type ShownResult } from '../state/store.ts'
+import type { FromWorker, ToWorker } from './messages.ts'
+
+const DEBOUNCE_MS = 250
+
+let optics: Worker | null = null
+let sizes: Worker | null = null
+let job = 0
+let timer: ReturnType<typeof setTimeout> | undefined
+let lastStudy: Study | null = null
+let lastDrafts: AppState['drafts'] | null = null
+/** Results by input key (a few per sample), so undo and toggling back are instant. */
+const cache = new Map<string, ShownResult>()
+
+function startWorker(): Worker {
+  return new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-compute' })
+}
+
+/** The inputs that decide one sample's results. */
+export function sampleKey(study: Study, index: number): string {
+  return JSON.stringify([study.samples[index], study.site, study.wavelengths_nm, study.user_materials ?? [], study.verdict_margin_w_m2 ?? null])
+}
+
+/** Problems that block sample `i` (its own, and those of the study as a whole). */
+export function problemsOf(problems: StudyProblem[], i: number): StudyProblem[] {
+  return problems.filter((p) => !p.path.startsWith('samples[') || p.path.startsWith(`samples[${i}]`))
+}
+
+function onOptics(m: FromWorker): void {
+  if (m.job !== job) return
+  const s = store().get()
+  if (m.type === 'progress') store().set({ job: { running: m.done < m.total, done: m.done, total: m.total } })
+  else if (m.type === 'finished') store().set({ job: { ...s.job, running: false } })
+  else if (m.type === 'result') {
+    const shown: ShownResult = { key: m.key, result: m.result }
+    cache.set(m.key, shown)
+    store().set({ results: { ...s.results, [m.id]: shown } })
+  } else if (m.type === 'failed') {
+    const old = s.results[m.id]
+    cache.set(m.key, { key: m.key, error: m.message })
+    store().set({ results: { ...s.results, [m.id]: { key: old?.key ?? '', result: old?.result, error: m.message } } })
+  }
+}
+
+function onSizes(m: FromWorker): void {
+  if (m.type !== 'sizes') return
+  const s = store().get()
+  store().set({ sizes: { ...s.sizes, [m.id]: m.curves ?? { error: m.error ?? 'no curve' } } })
+}
+
+/** Stops the running job (the next edit starts a new one). */
+export function cancel(): void {
+  if (optics) optics.terminate()
+  optics = null
+  job++
+  store().set({ job: { running: false, done: 0, total: 0 } })
+}
+
+function run(): void {
+  const s = store().get()
+  const study = s.study
+  const checked = validateStudy(study)
+  const problems = checked.ok ? [] : checked.problems
+  store().set({ problems })
+
+  if (!sizes) {
+    sizes = startWorker()
+    sizes.onmessage = (e: MessageEvent<FromWorker>) => onSizes(e.data)
+  }
+  const sizeItems = study.samples
+    .map((sample, i) => ({ id: s.ids[i], sample, userMaterials: study.user_materials ?? [], ok: !problemsOf(problems, i).some((p) => p.path.startsWith(`samples[${i}]`)) }))
+    .filter((x) => x.ok)
+    .map(({ ok: _ok, ...item }) => item)
+  sizes.postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
+
+  const items: { id: string; key: string; study: Study }[] = []
+  const results = { ...s.results }
+  const draftPaths = Object.keys(s.drafts)
+  study.samples.forEach((sample, i) => {
+    const id = s.ids[i]
+    const key = sampleKey(study, i)
+    if (problemsOf(problems, i).length || draftPaths.some((p) => !p.startsWith('samples[') || p.startsWith(`samples[${i}]`))) return
+    const hit = cache.get(key)
+    if (hit) {
+      results[id] = hit.result ? hit : { key: results[id]?.key ?? '', result: results[id]?.result, error: hit.error }
+      return
+    }
+    if (results[id]?.key === key) return
+    items.push({ id, key, study: { ...study, samples: [sample] } })
+  })
+  store().set({ results })
+  // What the user is looking at first: the selected sample, then the compared ones, then the rest.
+  const rank = (id: string) => (id === s.selected ? 0 : s.compare.includes(id) ? 1 : 2)
+  items.sort((a, b) => rank(a.id) - rank(b.id))
+
+  // A newer edit supersedes the running job: stop it and start afresh.
+  if (optics && s.job.running) {
+    optics.terminate()
+    optics = null
+  }
+  job++
+  if (!items.length) {
+    store().set({ job: { running: false, done: 0, total: 0 } })
+    return
+  }
+  if (!optics) {
+    optics = startWorker()
+    optics.onmessage = (e: MessageEvent<FromWorker>) => onOptics(e.data)
+    optics.onerror = (e) => {
+      store().set({ job: { running: false, done: 0, total: 0 }, notice: { kind: 'error', title: 'The computation stopped', lines: [e.message] } })
+      optics = null
+    }
+  }
+  store().set({ job: { running: true, done: 0, total: items.length } })
+  optics.postMessage({ type: 'evaluate', job, items } satisfies ToWorker)
+}
+
+/** Watches the document: every change of the study or of unreadable fields schedules a run. */
+export function startComputing(): void {
+  const check = (immediate: boolean) => {
+    const s = store().get()
+    if (s.study === lastStudy && s.drafts === lastDrafts) return
+    lastStudy = s.study
+    lastDrafts = s.drafts
+    clearTimeout(timer)
+    timer = setTimeout(run, immediate ? 0 : DEBOUNCE_MS)
+  }
+  store().subscribe(() => check(false))
+  check(true)
+}

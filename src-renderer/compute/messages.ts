@@ -1,0 +1,16 @@
+// Messages between the UI and the computing worker.
+import type { Sample, SampleResult, Study, UserMaterialSpec } from '../../src-core/index.ts'
+import type { SizeCurves } from '../state/store.ts'
+
+export type ToWorker =
+  /** Evaluate each item's one-sample study in turn, reporting each result as it is done. */
+  | { type: 'evaluate'; job: number; items: { id: string; key: string; study: Study }[] }
+  /** Size-distribution curves of samples (fast). */
+  | { type: 'sizes'; job: number; items: { id: string; sample: Sample; userMaterials: UserMaterialSpec[] }[] }
+
+export type FromWorker =
+  | { type: 'result'; job: number; id: string; key: string; result: SampleResult }
+  | { type: 'failed'; job: number; id: string; key: string; message: string }
+  | { type: 'progress'; job: number; done: number; total: number }
+  | { type: 'finished'; job: number }
+  | { type: 'sizes'; job: number; id: string; curves?: SizeCurves; error?: string }

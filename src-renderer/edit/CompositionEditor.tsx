@@ -1,0 +1,148 @@
+// What the particles are made of: components from the catalogue (or the study's own), their volume fractions,
+// how they mix, and optional density and κ.
+import { listMaterials, type Composition, type MixingName, type UserMaterialSpec } from '../../src-core/index.ts'
+import { num } from '../format.ts'
+import { editSample } from '../state/actions.ts'
+import { ErrorRow, Field, problemAt, readNumber, readOptional } from './Field.tsx'
+import { Fragment } from 'preact'
+
+const MIXING: { id: MixingName; label: string; help: string }[] = [
+  { id: 'volume-average', label: 'Internal: volume-average index', help: 'Refractive indices averaged by volume.' },
+  { id: 'maxwell-garnett', label: 'Internal: Maxwell Garnett', help: 'Inclusions in a host; the first component is the host.' },
+  { id: 'bruggeman', label: 'Internal: Bruggeman', help: 'Symmetric effective medium.' },
+  { id: 'core-shell', label: 'Core–shell', help: 'The first component is the core, the others form the shell.' }
+]
+
+export function CompositionEditor(p: { id: string; index: number; composition: Composition; userMaterials: UserMaterialSpec[] }) {
+  const base = `samples[${p.index}].composition`
+  const c = p.composition
+  const materials = [...listMaterials().filter((m) => m.id !== 'water').map((m) => ({ id: m.id, name: m.name })), ...p.userMaterials.map((u) => ({ id: u.id, name: `${u.name} (own)` }))]
+  const sumProblem = problemAt(`${base}.components`) ?? problemAt(base)
+  const change = (f: (c: Composition) => void, key?: string) => editSample(p.id, (s) => f(s.composition), key)
+  const mixing = MIXING.find((m) => m.id === c.mixing)
+  return (
+    <div class="composition">
+      <table class="grid-table comp-table">
+        <caption class="sr-only">Components by volume fraction of the dry particle</caption>
+        <thead>
+          <tr>
+            <th scope="col">Component{c.mixing === 'core-shell' ? ' (first = core)' : c.mixing === 'maxwell-garnett' ? ' (first = host)' : ''}</th>
+            <th scope="col" title="Volume fraction of the dry particle (0–1); the fractions add up to 1">Volume fraction</th>
+            <th scope="col">
+              <span class="sr-only">Remove</span>
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {c.components.map((k, j) => (
+            <Fragment key={j}>
+            <tr data-component={k.material}>
+              <td>
+                <select
+                  aria-label={`Component ${j + 1}`}
+                  value={k.material}
+                  data-path={`${base}.components[${j}].material`}
+                  onChange={(e) => {
+                    const v = (e.target as HTMLSelectElement).value
+                    change((cc) => (cc.components[j].material = v))
+                  }}
+                >
+                  {materials.map((m) => (
+                    <option value={m.id} key={m.id}>
+                      {m.name}
+                    </option>
+                  ))}
+                </select>
+              </td>
+              <td>
+                <Field
+                  bare
+                  path={`${base}.components[${j}].volume_fraction`}
+                  label={`Volume fraction of component ${j + 1}`}
+                  value={k.volume_fraction}
+                  read={readNumber('volume fraction')}
+                  write={(v) => num(v, 4)}
+                  width="5em"
+                  commit={(v) => change((cc) => (cc.components[j].volume_fraction = v), `${base}.f${j}`)}
+                />
+              </td>
+              <td>
+                <button
+                  type="button"
+                  class="small ghost"
+                  aria-label={`Remove component ${j + 1}`}
+                  disabled={c.components.length <= 1}
+                  onClick={() => change((cc) => void cc.components.splice(j, 1))}
+                >
+                  ✕
+                </button>
+              </td>
+            </tr>
+            <ErrorRow span={3} paths={[`${base}.components[${j}].volume_fraction`, `${base}.components[${j}].material`, `${base}.components[${j}]`]} />
+            </Fragment>
+          ))}
+        </tbody>
+      </table>
+      {sumProblem && (
+        <p class="field-error" role="alert" data-error-for={`${base}.components`}>
+          {sumProblem}
+        </p>
+      )}
+      <div class="row">
+        <button
+          type="button"
+          class="small"
+          onClick={() => change((cc) => void cc.components.push({ material: materials.find((m) => !cc.components.some((x) => x.material === m.id))?.id ?? 'organic-matter', volume_fraction: 0 }))}
+        >
+          Add component
+        </button>
+        <button
+          type="button"
+          class="small ghost"
+          title="Scale the fractions so that they add up to 1"
+          onClick={() =>
+            change((cc) => {
+              const sum = cc.components.reduce((a, b) => a + b.volume_fraction, 0)
+              if (sum > 0) for (const x of cc.components) x.volume_fraction = Number((x.volume_fraction / sum).toPrecision(6))
+            })
+          }
+        >
+          Make fractions add to 1
+        </button>
+      </div>
+      <div class="row wrap">
+        <label class="field">
+          <span>Mixing</span>
+          <select value={c.mixing} onChange={(e) => change((cc) => (cc.mixing = (e.target as HTMLSelectElement).value as MixingName))} data-path={`${base}.mixing`}>
+            {MIXING.map((m) => (
+              <option value={m.id} key={m.id}>
+                {m.label}
+              </option>
+            ))}
+          </select>
+          {mixing && <span class="hint block">{mixing.help}</span>}
+        </label>
+        <Field
+          path={`${base}.density_g_cm3`}
+          label="Dry density"
+          value={c.density_g_cm3}
+          read={readOptional('density')}
+          write={(v) => (v === undefined ? '' : num(v, 4))}
+          hint="g cm⁻³ (blank: from components)"
+          width="4.5em"
+          commit={(v) => change((cc) => (v === undefined ? delete cc.density_g_cm3 : (cc.density_g_cm3 = v)), `${base}.density`)}
+        />
+        <Field
+          path={`${base}.kappa`}
+          label="Hygroscopicity κ"
+          value={c.kappa}
+          read={readOptional('κ')}
+          write={(v) => (v === undefined ? '' : num(v, 4))}
+          hint="(blank: from components)"
+          width="4.5em"
+          commit={(v) => change((cc) => (v === undefined ? delete cc.kappa : (cc.kappa = v)), `${base}.kappa`)}
+        />
+      </div>
+    </div>
+  )
+}

@@ -1,0 +1,155 @@
+// An input for one value of the document. The text is read as it is typed; a value that cannot be read, or that
+// the study's schema rejects, is marked at the field with the reason (and the results are marked stale).
+import { useEffect, useRef, useState } from 'preact/hooks'
+import { InputError } from '../../src-core/index.ts'
+import { setDraft } from '../state/actions.ts'
+import { store, useApp } from '../state/store.ts'
+
+export interface FieldProps<T> {
+  /** The value's JSON path in the study, e.g. samples[0].size.modes[1].gsd (matches the schema's problem paths). */
+  path: string
+  label: string
+  value: T
+  /** Reads the text; throws InputError (or Error) with the reason. */
+  read: (text: string) => T
+  write: (value: T) => string
+  commit: (value: T) => void
+  /** Short unit or hint after the field. */
+  hint?: string
+  /** Hide the label visually and show the reason in the table's error row instead (see ErrorRow). */
+  bare?: boolean
+  width?: string
+  title?: string
+}
+
+function reason(e: unknown): string {
+  if (e instanceof InputError) return e.message.slice(e.where.length + 2)
+  return e instanceof Error ? e.message : String(e)
+}
+
+/** The schema's complaint about this path, if any. */
+export function problemAt(path: string): string | null {
+  const p = store()
+    .get()
+    .problems.find((q) => q.path === path)
+  return p ? `${p.message}. ${p.fix}` : null
+}
+
+let idCounter = 0
+
+export function Field<T>(p: FieldProps<T>) {
+  useApp()
+  const [text, setText] = useState(() => p.write(p.value))
+  const [bad, setBad] = useState<string | null>(null)
+  const id = useRef(`f${++idCounter}`).current
+  const focused = useRef(false)
+
+  // Follow the document when it changes from elsewhere (undo, another sample), unless the text says the same.
+  useEffect(() => {
+    try {
+      if (JSON.stringify(p.read(text)) === JSON.stringify(p.value)) return
+    } catch {
+      /* the text is unreadable: show the document's value */
+    }
+    setText(p.write(p.value))
+    setBad(null)
+    setDraft(p.path, null)
+  }, [JSON.stringify(p.value), p.path])
+
+  useEffect(() => () => setDraft(p.path, null), [p.path])
+
+  const onInput = (t: string) => {
+    setText(t)
+    try {
+      const v = p.read(t)
+      setBad(null)
+      setDraft(p.path, null)
+      if (JSON.stringify(v) !== JSON.stringify(p.value)) p.commit(v)
+    } catch (e) {
+      const r = reason(e)
+      setBad(r)
+      setDraft(p.path, r)
+    }
+  }
+
+  const message = bad ?? problemAt(p.path)
+  return (
+    <div class={`field${message ? ' is-bad' : ''}${p.bare ? ' bare' : ''}`}>
+      <label for={id} class={p.bare ? 'sr-only' : ''}>
+        {p.label}
+      </label>
+      <span class="field-row">
+        <input
+          id={id}
+          type="text"
+          inputMode="decimal"
+          spellcheck={false}
+          autocomplete="off"
+          value={text}
+          style={p.width ? { width: p.width } : undefined}
+          title={p.title}
+          data-path={p.path}
+          aria-invalid={message ? 'true' : 'false'}
+          aria-describedby={message && !p.bare ? `${id}-err` : undefined}
+          aria-errormessage={message && p.bare ? `err-${p.path}` : undefined}
+          onInput={(e) => onInput((e.target as HTMLInputElement).value)}
+          onFocus={() => (focused.current = true)}
+          onBlur={() => {
+            focused.current = false
+            if (!bad) setText(p.write(p.value))
+          }}
+        />
+        {p.hint && <span class="hint">{p.hint}</span>}
+      </span>
+      {message && !p.bare && (
+        <span class="field-error" id={`${id}-err`} role="alert" data-error-for={p.path}>
+          {message}
+        </span>
+      )}
+    </div>
+  )
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Readers for typed numbers.
+
+/** A plain number (decimal comma accepted); `what` names it in the message. */
+export function readNumber(what: string): (t: string) => number {
+  return (t) => {
+    const s = t.trim().replace(',', '.').replace(/\s+/g, '').replace(/−/g, '-')
+    if (s === '') throw new InputError(what, 'no value was given', 'Type a number.')
+    const v = Number(s)
+    if (!Number.isFinite(v)) throw new InputError(what, `"${t}" is not a number`, 'Type a number such as 1.6 or 2.5e3.')
+    return v
+  }
+}
+
+/** A percentage: "85", "85 %" or "0.85" written as a fraction is not guessed. */
+export function readPercent(what: string): (t: string) => number {
+  const n = readNumber(what)
+  return (t) => n(t.replace('%', ''))
+}
+
+/** A number or nothing (optional fields). */
+export function readOptional(what: string): (t: string) => number | undefined {
+  const n = readNumber(what)
+  return (t) => (t.trim() === '' ? undefined : n(t))
+}
+
+/** A table row under a row of bare fields, with the reasons for those that are bad. */
+export function ErrorRow(p: { paths: string[]; span: number }) {
+  const s = useApp()
+  const messages = p.paths.map((path) => ({ path, text: s.drafts[path] ?? problemAt(path) })).filter((m) => m.text)
+  if (!messages.length) return null
+  return (
+    <tr class="error-row">
+      <td colSpan={p.span}>
+        {messages.map((m) => (
+          <span class="field-error block" role="alert" id={`err-${m.path}`} data-error-for={m.path} key={m.path}>
+            {m.text}
+          </span>
+        ))}
+      </td>
+    </tr>
+  )
+}

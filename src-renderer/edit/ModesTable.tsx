@@ -1,0 +1,168 @@
+// The lognormal modes of a sample: amount (by number, volume or mass), median diameter and GSD.
+import { parseLength, type ModeSpec } from '../../src-core/index.ts'
+import { diameter, num } from '../format.ts'
+import { editSample } from '../state/actions.ts'
+import { ErrorRow, Field, readNumber } from './Field.tsx'
+import { Fragment } from 'preact'
+
+const BY = {
+  number: { label: 'number', amount: 'N', unit: 'cm⁻³', median: 'CMD', key: 'number_cm3', fresh: 1000 },
+  volume: { label: 'volume', amount: 'V', unit: 'µm³ cm⁻³', median: 'VMD', key: 'volume_um3_cm3', fresh: 10 },
+  mass: { label: 'mass', amount: 'M', unit: 'µg m⁻³', median: 'MMD', key: 'mass_ug_m3', fresh: 10 }
+} as const
+
+const amountOf = (m: ModeSpec): number => (m.by === 'number' ? m.number_cm3 : m.by === 'volume' ? m.volume_um3_cm3 : m.mass_ug_m3)
+
+export function ModesTable(p: { id: string; index: number; modes: ModeSpec[] }) {
+  const base = `samples[${p.index}].size.modes`
+  return (
+    <div class="modes">
+      <table class="grid-table modes-table">
+        <caption class="sr-only">Lognormal modes</caption>
+        <thead>
+          <tr>
+            <th scope="col">Mode</th>
+            <th scope="col" title="How the mode's amount is given">Given by</th>
+            <th scope="col" title="Number (cm⁻³), volume (µm³ cm⁻³) or mass (µg m⁻³) concentration">Amount</th>
+            <th scope="col" title="Median diameter: count (CMD), volume (VMD) or mass (MMD) median; type a unit (nm, µm), a bare number is µm">
+              Median D
+            </th>
+            <th scope="col" title="Geometric standard deviation σg (> 1)">σg</th>
+            <th scope="col">
+              <span class="sr-only">Remove</span>
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {p.modes.map((m, j) => {
+            const by = BY[m.by]
+            const path = `${base}[${j}]`
+            return (
+              <Fragment key={j}>
+              <tr data-mode={j}>
+                <td>
+                  <input
+                    type="text"
+                    class="mode-name"
+                    aria-label={`Name of mode ${j + 1}`}
+                    value={m.name ?? ''}
+                    placeholder={`mode ${j + 1}`}
+                    onInput={(e) => {
+                      const v = (e.target as HTMLInputElement).value
+                      editSample(p.id, (s) => {
+                        if (s.size.kind === 'modes') s.size.modes[j].name = v || undefined
+                      }, `${path}.name`)
+                    }}
+                  />
+                  {m.composition && <span class="own-comp" title="This mode has a composition of its own">own composition</span>}
+                </td>
+                <td>
+                  <select
+                    aria-label={`Mode ${j + 1} given by`}
+                    value={m.by}
+                    onChange={(e) => {
+                      const v = (e.target as HTMLSelectElement).value as ModeSpec['by']
+                      editSample(p.id, (s) => {
+                        if (s.size.kind !== 'modes') return
+                        const old = s.size.modes[j]
+                        const common = { median_um: old.median_um, gsd: old.gsd, name: old.name, composition: old.composition }
+                        s.size.modes[j] =
+                          v === 'number'
+                            ? { by: 'number', number_cm3: BY.number.fresh, ...common }
+                            : v === 'volume'
+                              ? { by: 'volume', volume_um3_cm3: BY.volume.fresh, ...common }
+                              : { by: 'mass', mass_ug_m3: BY.mass.fresh, ...common }
+                      })
+                    }}
+                  >
+                    <option value="number">number</option>
+                    <option value="volume">volume</option>
+                    <option value="mass">mass</option>
+                  </select>
+                </td>
+                <td>
+                  <Field
+                    bare
+                    path={`${path}.${by.key}`}
+                    label={`Mode ${j + 1} ${by.amount} in ${by.unit}`}
+                    value={amountOf(m)}
+                    read={readNumber(`${by.amount}`)}
+                    write={(v) => num(v, 6)}
+                    hint={by.unit}
+                    commit={(v) =>
+                      editSample(p.id, (s) => {
+                        if (s.size.kind !== 'modes') return
+                        const mm = s.size.modes[j] as Record<string, unknown>
+                        mm[by.key] = v
+                      }, `${path}.amount`)
+                    }
+                  />
+                </td>
+                <td>
+                  <Field
+                    bare
+                    path={`${path}.median_um`}
+                    label={`Mode ${j + 1} ${by.median}`}
+                    value={m.median_um}
+                    read={(t) => parseLength(t, `${by.median}`, 'um')}
+                    write={diameter}
+                    hint={by.median}
+                    commit={(v) =>
+                      editSample(p.id, (s) => {
+                        if (s.size.kind === 'modes') s.size.modes[j].median_um = v
+                      }, `${path}.median`)
+                    }
+                  />
+                </td>
+                <td>
+                  <Field
+                    bare
+                    path={`${path}.gsd`}
+                    label={`Mode ${j + 1} geometric standard deviation`}
+                    value={m.gsd}
+                    read={readNumber('σg')}
+                    write={(v) => num(v, 4)}
+                    commit={(v) =>
+                      editSample(p.id, (s) => {
+                        if (s.size.kind === 'modes') s.size.modes[j].gsd = v
+                      }, `${path}.gsd`)
+                    }
+                  />
+                </td>
+                <td>
+                  <button
+                    type="button"
+                    class="small ghost"
+                    aria-label={`Remove mode ${j + 1}`}
+                    title="Remove this mode"
+                    disabled={p.modes.length <= 1}
+                    onClick={() =>
+                      editSample(p.id, (s) => {
+                        if (s.size.kind === 'modes') s.size.modes.splice(j, 1)
+                      })
+                    }
+                  >
+                    ✕
+                  </button>
+                </td>
+              </tr>
+              <ErrorRow span={6} paths={[`${path}.${by.key}`, `${path}.median_um`, `${path}.gsd`, path]} />
+              </Fragment>
+            )
+          })}
+        </tbody>
+      </table>
+      <button
+        type="button"
+        class="small"
+        onClick={() =>
+          editSample(p.id, (s) => {
+            if (s.size.kind === 'modes') s.size.modes.push({ by: 'number', name: `mode ${s.size.modes.length + 1}`, number_cm3: 1000, median_um: 0.1, gsd: 1.6 })
+          })
+        }
+      >
+        Add mode
+      </button>
+    </div>
+  )
+}

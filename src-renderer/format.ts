@@ -1,0 +1,38 @@
+// Number formatting for tables, fields and exports (display only).
+
+/** A number with `digits` significant digits, plain notation where sensible, no trailing zeros. */
+export function num(x: number | null | undefined, digits = 4): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—'
+  if (x === 0) return '0'
+  const a = Math.abs(x)
+  if (a >= 1e-3 && a < 1e6) return String(Number(x.toPrecision(digits)))
+  return x.toExponential(digits - 1).replace(/\.?0+e/, 'e').replace('e+', 'e')
+}
+
+/** A fixed number of decimals (ω, g and the like). */
+export const fixed = (x: number | null | undefined, decimals = 3): string =>
+  x === null || x === undefined || !Number.isFinite(x) ? '—' : x.toFixed(decimals)
+
+/** A diameter in µm, written in nm below 1 µm. */
+export function diameter(um: number): string {
+  return um < 1 ? `${num(um * 1000, 4)} nm` : `${num(um, 4)} µm`
+}
+
+/** A signed number with its sign always shown (forcing, differences). */
+export function signed(x: number | null | undefined, digits = 3): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—'
+  const s = num(x, digits)
+  return x > 0 ? `+${s}` : s.replace('-', '−')
+}
+
+/** A file-name-safe version of a title. */
+export function fileStem(title: string): string {
+  return (
+    title
+      .normalize('NFKD')
+      .replace(/[^\w\s.-]/g, '')
+      .trim()
+      .replace(/\s+/g, '-')
+      .slice(0, 60) || 'motebench'
+  )
+}

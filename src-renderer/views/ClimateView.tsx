@@ -1,0 +1,218 @@
+// Warming or cooling: the site, the verdict in plain words with its numbers, the forcing map over surface
+// albedo and ω, and the thin-layer and two-stream estimates side by side.
+import { useMemo } from 'preact/hooks'
+import { SURFACE_TYPES, type SampleForcing, type Site } from '../../src-core/index.ts'
+import { ESTIMATE_CAUTION } from '../cautions.ts'
+import { Chart, type Line } from '../charts/Chart.tsx'
+import { drawHeat, drawOverlays } from '../charts/forcingMap.ts'
+import { forcingColour } from '../charts/palette.ts'
+import { Field, readNumber } from '../edit/Field.tsx'
+import { fixed, num, signed } from '../format.ts'
+import { edit } from '../state/actions.ts'
+import { useApp } from '../state/store.ts'
+import { sampleState, shownSamples, type ShownSample } from '../shown.ts'
+import { StaleNote, Swatch, withResults } from './common.tsx'
+
+const siteEdit = (f: (s: Site) => void, key?: string) => edit((st) => f(st.site), key && `site.${key}`)
+
+function SiteForm() {
+  const s = useApp()
+  const site = s.study.site
+  const surface = SURFACE_TYPES.find((t) => t.id === site.surface)
+  return (
+    <fieldset class="site">
+      <legend>Site</legend>
+      <label class="field">
+        <span>Surface</span>
+        <select
+          value={site.surface}
+          data-testid="surface"
+          data-path="site.surface"
+          onChange={(e) => {
+            const v = (e.target as HTMLSelectElement).value
+            siteEdit((x) => {
+              x.surface = v
+              if (v === 'custom') x.surface_albedo = x.surface_albedo ?? surface?.albedo ?? 0.2
+              else delete x.surface_albedo
+            })
+          }}
+        >
+          {SURFACE_TYPES.map((t) => (
+            <option key={t.id} value={t.id}>
+              {t.name} ({t.albedo})
+            </option>
+          ))}
+          <option value="custom">Custom albedo…</option>
+        </select>
+      </label>
+      {site.surface === 'custom' && (
+        <Field path="site.surface_albedo" label="Surface albedo" value={site.surface_albedo ?? 0.2} read={readNumber('surface albedo')} write={(v) => num(v, 3)} hint="0–1" width="4em" commit={(v) => siteEdit((x) => (x.surface_albedo = v), 'albedo')} />
+      )}
+      <div class="row wrap">
+        <Field path="site.latitude_deg" label="Latitude" value={site.latitude_deg} read={readNumber('latitude')} write={(v) => num(v, 5)} hint="° N (south < 0)" width="4em" commit={(v) => siteEdit((x) => (x.latitude_deg = v), 'lat')} />
+        <Field path="site.day_of_year" label="Day of year" value={site.day_of_year} read={readNumber('day of year')} write={(v) => String(v)} hint="1–366" width="3.5em" commit={(v) => siteEdit((x) => (x.day_of_year = v), 'day')} />
+        <Field path="site.cloud_fraction" label="Cloud fraction" value={site.cloud_fraction} read={readNumber('cloud fraction')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.cloud_fraction = v), 'cloud')} />
+        <Field path="site.transmittance" label="Transmittance above" value={site.transmittance} read={readNumber('transmittance')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.transmittance = v), 'trans')} />
+      </div>
+    </fieldset>
+  )
+}
+
+const VERDICT_HEAD: Record<SampleForcing['verdict'], string> = {
+  cools: 'This layer cools',
+  warms: 'This layer warms',
+  'too close to call': 'Too close to call'
+}
+
+export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample['result']> }; compact?: boolean }) {
+  const f = p.x.result.forcing
+  return (
+    <section class={`verdict v-${f.verdict.replace(/ /g, '-')}${p.x.stale ? ' is-stale' : ''}${p.compact ? ' compact' : ''}`} data-testid="verdict" data-verdict={f.verdict} aria-live="polite">
+      <h3>
+        {p.compact && <Swatch shown={p.x} />} {p.compact ? `${p.x.sample.name}: ` : ''}
+        <span class="verdict-word">{VERDICT_HEAD[f.verdict]}</span>
+        {p.x.stale && <span class="stale-tag">stale</span>}
+      </h3>
+      <p class="explanation">{f.explanation}</p>
+      <dl class="facts">
+        <div>
+          <dt>Forcing, thin layer (S₀/4)</dt>
+          <dd data-testid="forcing">{signed(f.thin_layer_w_m2)} W m⁻²</dd>
+        </div>
+        <div>
+          <dt>Efficiency</dt>
+          <dd>{signed(f.efficiency_w_m2_per_tau)} W m⁻² per unit τ</dd>
+        </div>
+        <div>
+          <dt>ω at 550 nm vs ω_crit</dt>
+          <dd data-testid="ssa-vs-crit">
+            {fixed(f.ssa_550, 3)} {f.ssa_550 > f.critical_ssa ? '>' : f.ssa_550 < f.critical_ssa ? '<' : '='} {fixed(f.critical_ssa, 3)}
+          </dd>
+        </div>
+        <div>
+          <dt>Sign flips at surface albedo</dt>
+          <dd>{f.flip_surface_albedo === null ? 'never (0–1)' : fixed(f.flip_surface_albedo, 3)}</dd>
+        </div>
+        <div>
+          <dt>τ₅₅₀, surface albedo</dt>
+          <dd>
+            {num(f.tau_550, 3)}, {fixed(f.surface_albedo, 2)}
+          </dd>
+        </div>
+      </dl>
+    </section>
+  )
+}
+
+export function MethodsTable(p: { ok: (ShownSample & { result: NonNullable<ShownSample['result']> })[] }) {
+  const rows: [string, string, (f: SampleForcing) => number][] = [
+    ['Thin layer, global mean (Chylek & Wong)', 'S₀/4, top of atmosphere', (f) => f.thin_layer_w_m2],
+    ['Thin layer, solar-spectrum weighted', 'S₀/4, top of atmosphere', (f) => f.spectral_w_m2],
+    ['Thin layer, daily mean at the site', 'site latitude and day', (f) => f.daily_mean_w_m2],
+    ['Two-stream (δ-Eddington), top of atmosphere', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.toa_w_m2],
+    ['Two-stream, at the surface', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.surface_w_m2],
+    ['Two-stream, absorbed in the atmosphere', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.atmosphere_w_m2]
+  ]
+  return (
+    <table class="grid-table numbers methods" data-testid="methods-table">
+      <caption>Thin-layer and two-stream estimates (W m⁻²; negative = cooling at the top of the atmosphere)</caption>
+      <thead>
+        <tr>
+          <th scope="col">Method</th>
+          <th scope="col">Basis</th>
+          {p.ok.map((x) => (
+            <th scope="col" key={x.id}>
+              {p.ok.length > 1 && <Swatch shown={x} />} {x.sample.name}
+            </th>
+          ))}
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map(([name, basis, f]) => (
+          <tr key={name}>
+            <th scope="row">{name}</th>
+            <td class="text">{basis}</td>
+            {p.ok.map((x) => (
+              <td key={x.id}>{signed(f(x.result.forcing))}</td>
+            ))}
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  )
+}
+
+export function ForcingMapChart(p: { ok: (ShownSample & { result: NonNullable<ShownSample['result']> })[]; theme: 'light' | 'dark'; stale: boolean; height?: number }) {
+  const main = p.ok[0]
+  const chart = useMemo(() => {
+    if (!main) return null
+    const map = main.result.map
+    const ink = p.theme === 'light' ? '#14171a' : '#eef1f4'
+    const overlays = p.ok.map((x) => ({ zero: x.result.map.zero_line, sample: x.result.map.sample, stroke: p.ok.length > 1 ? x.style.stroke : ink, dash: x.style.dash }))
+    const lines: Line[] = [
+      ...p.ok.map((x): Line => ({ label: p.ok.length > 1 ? `${x.sample.name}: zero line and position` : 'zero line (ω = ω_crit) and this sample ●', stroke: p.ok.length > 1 ? x.style.stroke : ink, dash: x.style.dash }))
+    ]
+    const lo = Math.min(...map.ssa)
+    return {
+      data: [map.surface_albedo, ...lines.map(() => map.surface_albedo.map(() => null))],
+      lines,
+      under: drawHeat(map, p.theme),
+      over: drawOverlays(overlays, ink),
+      yRange: [lo, Math.max(...map.ssa)] as [number, number]
+    }
+  }, [...p.ok.map((x) => x.result), p.theme])
+  if (!chart || !main) return null
+  return (
+    <div class="map-wrap">
+      <Chart
+        name="forcing-map"
+        title={`Forcing over surface albedo and ω${p.ok.length > 1 ? ` (colours: ${main.sample.name})` : ''}`}
+        data={chart.data}
+        lines={chart.lines}
+        xLabel="Surface albedo Rs"
+        yLabel="Single-scattering albedo ω"
+        xRange={[0, 1]}
+        yRange={chart.yRange}
+        theme={p.theme}
+        stale={p.stale}
+        height={p.height ?? 250}
+        drawUnder={chart.under}
+        drawOver={chart.over}
+      />
+      <div class="map-key" aria-label="Colour key">
+        <span class="key-swatch" style={{ background: forcingColour(-1, p.theme) }} /> cooling
+        <span class="key-swatch" style={{ background: forcingColour(0, p.theme) }} /> ≈ 0
+        <span class="key-swatch" style={{ background: forcingColour(1, p.theme) }} /> warming (thin-layer forcing of this layer)
+      </div>
+    </div>
+  )
+}
+
+export function ClimateView() {
+  const s = useApp()
+  const shown = shownSamples(s)
+  const ok = withResults(shown)
+  const sel = sampleState(s, s.selected)
+  const stale = shown.some((x) => x.stale)
+  const verdicts = ok.length > 1 ? ok : ok.filter((x) => x.id === sel?.id)
+  return (
+    <div class="view climate-view" data-view="climate">
+      <StaleNote shown={shown} />
+      <div class="climate-grid">
+        <div class="climate-left">
+          <SiteForm />
+          {verdicts.map((x) => (
+            <Verdict key={x.id} x={x} compact={ok.length > 1} />
+          ))}
+        </div>
+        <div class="climate-right">
+          <ForcingMapChart ok={ok} theme={s.theme} stale={stale} />
+        </div>
+      </div>
+      {ok.length > 0 && <MethodsTable ok={ok} />}
+      <p class="caution-line" role="note">
+        ⚠ {ESTIMATE_CAUTION}
+      </p>
+    </div>
+  )
+}

@@ -1,0 +1,152 @@
+// Optics by wavelength: spectra of extinction, single-scattering albedo and asymmetry parameter, the
+// concentrations and Ångström exponents, and the full table per wavelength.
+import { useMemo } from 'preact/hooks'
+import { Chart, type Line } from '../charts/Chart.tsx'
+import { lineStyle } from '../charts/palette.ts'
+import { fixed, num } from '../format.ts'
+import { useApp } from '../state/store.ts'
+import { sampleState, shownSamples } from '../shown.ts'
+import { StaleNote, withResults } from './common.tsx'
+import type { WavelengthOptics } from '../../src-core/index.ts'
+
+export const TABLE_COLUMNS: { head: string; title: string; get: (w: WavelengthOptics) => string }[] = [
+  { head: 'λ (nm)', title: 'Wavelength', get: (w) => num(w.wavelength_nm, 5) },
+  { head: 'σext', title: 'Extinction coefficient, Mm⁻¹', get: (w) => num(w.ext) },
+  { head: 'σsca', title: 'Scattering coefficient, Mm⁻¹', get: (w) => num(w.sca) },
+  { head: 'σabs', title: 'Absorption coefficient, Mm⁻¹', get: (w) => num(w.abs) },
+  { head: 'ω', title: 'Single-scattering albedo', get: (w) => fixed(w.ssa, 4) },
+  { head: 'g', title: 'Asymmetry parameter', get: (w) => fixed(w.g, 3) },
+  { head: 'b', title: 'Hemispheric backscatter fraction', get: (w) => fixed(w.backscatter_fraction, 3) },
+  { head: 'β̄', title: 'Sun-averaged upscatter fraction', get: (w) => fixed(w.upscatter_fraction, 3) },
+  { head: 'MEE', title: 'Mass extinction efficiency per dry mass, m² g⁻¹', get: (w) => num(w.mass_ext_dry, 3) },
+  { head: 'MSE', title: 'Mass scattering efficiency per dry mass, m² g⁻¹', get: (w) => num(w.mass_sca_dry, 3) },
+  { head: 'MAE', title: 'Mass absorption efficiency per dry mass, m² g⁻¹', get: (w) => num(w.mass_abs_dry, 3) },
+  { head: 'MEE wet', title: 'Mass extinction efficiency per wet mass, m² g⁻¹', get: (w) => num(w.mass_ext_wet, 3) },
+  { head: 'τ', title: 'Optical depth of the layer', get: (w) => num(w.optical_depth, 3) },
+  { head: 'VR (km)', title: 'Koschmieder visual range including air, km', get: (w) => num(w.visual_range_km, 3) },
+  { head: 'dv', title: 'Haze index, deciviews', get: (w) => num(w.deciview, 3) }
+]
+
+const NICE_NM = [300, 500, 1000, 2000, 5000, 10000]
+
+/** Range and tick labels of a log wavelength axis. */
+export function wavelengthAxis(nm: number[]): { xRange: [number, number]; xTicks: number[] } {
+  const lo = Math.min(...nm)
+  const hi = Math.max(...nm)
+  return { xRange: [lo / 1.08, hi * 1.08], xTicks: NICE_NM.filter((t) => t >= lo / 1.08 && t <= hi * 1.08) }
+}
+
+export function WavelengthTable(p: { rows: WavelengthOptics[]; caption: string }) {
+  return (
+    <div class="table-wrap">
+      <table class="grid-table numbers optics-table" data-testid="optics-table">
+        <caption>{p.caption}</caption>
+        <thead>
+          <tr>
+            {TABLE_COLUMNS.map((c) => (
+              <th scope="col" title={c.title} key={c.head}>
+                {c.head}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {p.rows.map((w) => (
+            <tr key={w.wavelength_nm} data-wavelength={w.wavelength_nm}>
+              {TABLE_COLUMNS.map((c, k) => (k === 0 ? <th scope="row" key={c.head}>{c.get(w)}</th> : <td key={c.head} data-col={c.head}>{c.get(w)}</td>))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p class="table-note">Coefficients in Mm⁻¹; mass efficiencies in m² g⁻¹ (MEE/MSE/MAE per dry mass); visual range and deciviews include clean air's Rayleigh scattering.</p>
+    </div>
+  )
+}
+
+export function OpticsView() {
+  const s = useApp()
+  const shown = shownSamples(s)
+  const ok = withResults(shown)
+  const comparing = ok.length >= 2
+  const sel = sampleState(s, s.selected)
+  const key = ok.map((x) => x.result).concat() as unknown[]
+
+  const ext = useMemo(() => {
+    if (!ok.length) return null
+    const wl = ok[0].result.optics.wavelengths.map((w) => w.wavelength_nm)
+    if (comparing) {
+      return {
+        data: [wl, ...ok.map((x) => x.result.optics.wavelengths.map((w) => w.ext))],
+        lines: ok.map((x): Line => ({ label: `${x.sample.name} σext`, stroke: x.style.stroke, dash: x.style.dash }))
+      }
+    }
+    const r = ok[0].result.optics.wavelengths
+    return {
+      data: [wl, r.map((w) => w.ext), r.map((w) => w.sca), r.map((w) => w.abs)],
+      lines: ['σext', 'σsca', 'σabs'].map((label, k): Line => ({ label, stroke: lineStyle(k, s.theme).stroke, dash: lineStyle(k, s.theme).dash }))
+    }
+  }, [...key, s.theme, comparing])
+
+  const per = (f: (w: WavelengthOptics) => number, what: string) => {
+    if (!ok.length) return null
+    const wl = ok[0].result.optics.wavelengths.map((w) => w.wavelength_nm)
+    return {
+      data: [wl, ...ok.map((x) => x.result.optics.wavelengths.map(f))],
+      lines: ok.map((x): Line => ({ label: comparing ? x.sample.name : what, stroke: x.style.stroke, dash: x.style.dash }))
+    }
+  }
+  const ssa = useMemo(() => per((w) => w.ssa, 'ω'), [...key, s.theme])
+  const g = useMemo(() => per((w) => w.g, 'g'), [...key, s.theme])
+  const stale = shown.some((x) => x.stale)
+  const o = sel?.result?.optics
+  const axis = wavelengthAxis(ok[0]?.result.optics.wavelengths.map((w) => w.wavelength_nm) ?? [550])
+
+  return (
+    <div class="view optics-view" data-view="optics">
+      <StaleNote shown={shown} />
+      {o && sel && (
+        <dl class="facts" data-testid="optics-facts">
+          <div>
+            <dt>N</dt>
+            <dd>{num(o.number_cm3)} cm⁻³</dd>
+          </div>
+          <div>
+            <dt>Dry mass</dt>
+            <dd>{num(o.mass_ug_m3)} µg m⁻³</dd>
+          </div>
+          <div>
+            <dt>PM2.5 / PM10</dt>
+            <dd>
+              {num(o.pm2_5_ug_m3, 3)} / {num(o.pm10_ug_m3, 3)} µg m⁻³
+            </dd>
+          </div>
+          <div>
+            <dt>Wet / dry volume</dt>
+            <dd>{num(o.wet_volume_um3_cm3 / o.volume_um3_cm3, 3)}</dd>
+          </div>
+          <div>
+            <dt title="Ångström exponents fitted over all wavelengths">Ångström å ext / sca / abs</dt>
+            <dd>
+              {fixed(o.angstrom_fit.ext, 2)} / {fixed(o.angstrom_fit.sca, 2)} / {fixed(o.angstrom_fit.abs, 2)}
+            </dd>
+          </div>
+        </dl>
+      )}
+      {ext && ssa && g && (
+        <div class="chart-grid three">
+          <Chart name="extinction-spectrum" title={comparing ? 'Extinction spectra' : 'Extinction, scattering, absorption'} data={ext.data} lines={ext.lines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...axis} theme={s.theme} stale={stale} height={200} />
+          <Chart name="ssa-spectrum" title="Single-scattering albedo ω" data={ssa.data} lines={ssa.lines} xLabel="Wavelength (nm)" yLabel="ω" xLog {...axis} theme={s.theme} stale={stale} height={200} />
+          <Chart name="g-spectrum" title="Asymmetry parameter g" data={g.data} lines={g.lines} xLabel="Wavelength (nm)" yLabel="g" xLog {...axis} theme={s.theme} stale={stale} height={200} />
+        </div>
+      )}
+      {o && sel && <WavelengthTable rows={o.wavelengths} caption={`${sel.sample.name}: optics at each wavelength${sel.stale ? ' (stale)' : ''}`} />}
+      {o && o.notes.length > 0 && (
+        <ul class="notes">
+          {o.notes.map((n, k) => (
+            <li key={k}>{n}</li>
+          ))}
+        </ul>
+      )}
+    </div>
+  )
+}

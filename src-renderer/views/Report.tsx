@@ -1,0 +1,160 @@
+// The report: the study, each sample's inputs and results, charts, verdict, cautions, method references and the
+// software version, laid out for print (browser: print dialog; desktop: PDF).
+import { useEffect } from 'preact/hooks'
+import { SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
+import { Chart, type Line } from '../charts/Chart.tsx'
+import { lineStyle } from '../charts/palette.ts'
+import { printReport } from '../commands.ts'
+import { APP_VERSION } from '../exports.ts'
+import { diameter, num } from '../format.ts'
+import { host } from '../host/index.ts'
+import { store, useApp } from '../state/store.ts'
+import { sampleState } from '../shown.ts'
+import { CautionText } from './Cautions.tsx'
+import { ForcingMapChart, MethodsTable, Verdict } from './ClimateView.tsx'
+import { wavelengthAxis, WavelengthTable } from './OpticsView.tsx'
+
+export const REFERENCES = [
+  'Bohren, C. F. and Huffman, D. R. (1983): Absorption and Scattering of Light by Small Particles. Wiley. (Mie theory, coated spheres.)',
+  'Wiscombe, W. J. (1980): Improved Mie scattering algorithms. Applied Optics 19, 1505–1509.',
+  'Hatch, T. and Choate, S. P. (1929): Statistical description of the size properties of non-uniform particulate substances. J. Franklin Inst. 207, 369–387.',
+  'Petters, M. D. and Kreidenweis, S. M. (2007): A single parameter representation of hygroscopic growth and CCN activity. Atmos. Chem. Phys. 7, 1961–1971.',
+  'Chylek, P. and Wong, J. (1995): Effect of absorbing aerosols on global radiation budget. Geophys. Res. Lett. 22, 929–931.',
+  'Wiscombe, W. J. and Grams, G. W. (1976): The backscattered fraction in two-stream approximations. J. Atmos. Sci. 33, 2440–2451.',
+  'Joseph, J. H., Wiscombe, W. J. and Weinman, J. A. (1976): The delta-Eddington approximation for radiative flux transfer. J. Atmos. Sci. 33, 2452–2459.',
+  'Seinfeld, J. H. and Pandis, S. N. (2016): Atmospheric Chemistry and Physics, 3rd ed. Wiley. (Size distributions, visibility.)'
+]
+
+function describeSize(s: Sample): string {
+  if (s.size.kind === 'bins') {
+    const b = s.size.bins
+    return `${b.values.length} measured bins (${b.quantity}${b.source ? `, ${b.source}` : ''})`
+  }
+  return s.size.modes
+    .map((m) => {
+      const amount = m.by === 'number' ? `N = ${num(m.number_cm3)} cm⁻³, CMD` : m.by === 'volume' ? `V = ${num(m.volume_um3_cm3)} µm³ cm⁻³, VMD` : `M = ${num(m.mass_ug_m3)} µg m⁻³, MMD`
+      return `${m.name ?? 'mode'}: ${amount} ${diameter(m.median_um)}, σg ${num(m.gsd)}`
+    })
+    .join('; ')
+}
+
+function describeLayer(s: Sample): string {
+  const l = s.layer
+  return l.kind === 'depth' ? `uniform, ${num(l.depth_m)} m deep` : l.kind === 'scale-height' ? `exponential, scale height ${num(l.scale_height_m)} m` : `AOD at 550 nm ${num(l.aod_550)}`
+}
+
+function SampleSection(p: { id: string }) {
+  const s = { ...useApp(), theme: 'light' as const } // the report is always in the light (print) theme
+  const x = sampleState(s, p.id)
+  if (!x) return null
+  const smp = x.sample
+  const r = x.result
+  const ok = r ? [{ ...x, result: r }] : []
+  const wl = r?.optics.wavelengths.map((w) => w.wavelength_nm) ?? []
+  const specLines: Line[] = ['σext', 'σsca', 'σabs'].map((label, k) => ({ label, stroke: lineStyle(k, s.theme).stroke, dash: lineStyle(k, s.theme).dash }))
+  return (
+    <section class="report-sample">
+      <h2>
+        {x.index + 1}. {smp.name}
+      </h2>
+      {smp.notes && <p class="notes-text">{smp.notes}</p>}
+      <table class="grid-table report-inputs">
+        <tbody>
+          <tr>
+            <th scope="row">Size distribution</th>
+            <td>{describeSize(smp)}</td>
+          </tr>
+          <tr>
+            <th scope="row">Composition</th>
+            <td>
+              {smp.composition.components.map((c) => `${c.material} ${num(c.volume_fraction * 100, 3)} %`).join(', ')}; mixing: {smp.composition.mixing}
+              {smp.composition.density_g_cm3 ? `; density ${smp.composition.density_g_cm3} g cm⁻³` : ''}
+              {smp.composition.kappa !== undefined ? `; κ ${smp.composition.kappa}` : ''}
+            </td>
+          </tr>
+          <tr>
+            <th scope="row">Humidity</th>
+            <td>
+              {num(smp.rh_percent)} % ({smp.rh_history}){smp.temperature_k ? `, ${num(smp.temperature_k)} K` : ''}
+            </td>
+          </tr>
+          <tr>
+            <th scope="row">Layer</th>
+            <td>{describeLayer(smp)}</td>
+          </tr>
+        </tbody>
+      </table>
+      {!r ? (
+        <p class="stale-note">No results: the inputs of this sample have problems.</p>
+      ) : (
+        <>
+          {x.stale && <p class="stale-note">These results are stale (from earlier inputs).</p>}
+          <Verdict x={{ ...x, result: r }} />
+          <div class="report-charts">
+            <Chart name={`report-ext-${x.index}`} title="Extinction, scattering, absorption" data={[wl, r.optics.wavelengths.map((w) => w.ext), r.optics.wavelengths.map((w) => w.sca), r.optics.wavelengths.map((w) => w.abs)]} lines={specLines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
+            <Chart name={`report-ssa-${x.index}`} title="ω and g" data={[wl, r.optics.wavelengths.map((w) => w.ssa), r.optics.wavelengths.map((w) => w.g)]} lines={[{ label: 'ω', ...lineStyle(0, s.theme) }, { label: 'g', ...lineStyle(1, s.theme) }]} xLabel="Wavelength (nm)" yLabel="" xLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
+            <ForcingMapChart ok={ok} theme={s.theme} stale={x.stale} height={190} />
+          </div>
+          <WavelengthTable rows={r.optics.wavelengths} caption="Optics at each wavelength" />
+          <MethodsTable ok={ok} />
+        </>
+      )}
+    </section>
+  )
+}
+
+export function Report() {
+  const s = useApp()
+  const st = s.study
+  const surface = SURFACE_TYPES.find((t) => t.id === st.site.surface)
+  useEffect(() => {
+    document.documentElement.classList.add('printing-report')
+    return () => document.documentElement.classList.remove('printing-report')
+  }, [])
+  return (
+    <div class="report-page" data-theme="light" data-testid="report">
+      <div class="report-toolbar no-print">
+        <button type="button" class="primary" onClick={() => void printReport()} data-testid="print-report">
+          {host().kind === 'desktop' ? 'Save as PDF…' : 'Print…'}
+        </button>
+        <button type="button" onClick={() => store().set({ reportOpen: false })} data-testid="close-report">
+          Back to the study
+        </button>
+      </div>
+      <article class="report">
+        <header>
+          <h1>{st.name}</h1>
+          <p class="meta">
+            Motebench {APP_VERSION} · report made {new Date().toLocaleString()} · {st.samples.length} sample{st.samples.length === 1 ? '' : 's'}
+            {s.file ? ` · file ${s.file.name}` : ''}
+          </p>
+          {st.notes && <p class="notes-text">{st.notes}</p>}
+          <p>
+            Site: {st.site.name ?? 'unnamed'}; latitude {num(st.site.latitude_deg)}°, day {st.site.day_of_year}, cloud fraction {num(st.site.cloud_fraction)}, transmittance {num(st.site.transmittance)}, surface{' '}
+            {st.site.surface === 'custom' ? `custom albedo ${num(st.site.surface_albedo ?? NaN)}` : `${surface?.name ?? st.site.surface} (albedo ${surface?.albedo})`}. Wavelengths: {st.wavelengths_nm.join(', ')} nm.
+          </p>
+        </header>
+        <section class="report-cautions">
+          <h2>Cautions</h2>
+          <CautionText />
+        </section>
+        {s.ids.map((id) => (
+          <SampleSection id={id} key={id} />
+        ))}
+        <section class="report-references">
+          <h2>Methods and references</h2>
+          <p>
+            Particle optics by Mie theory for homogeneous and coated spheres over the size distribution; water uptake by κ-Köhler theory; refractive indices of mixtures by the
+            rule named for each sample; forcing of a uniform layer by the thin-layer estimate and a δ-Eddington two-stream layer over a Lambertian surface.
+          </p>
+          <ol>
+            {REFERENCES.map((r, k) => (
+              <li key={k}>{r}</li>
+            ))}
+          </ol>
+          <p class="meta">Produced with Motebench {APP_VERSION}.</p>
+        </section>
+      </article>
+    </div>
+  )
+}

@@ -1,0 +1,116 @@
+// The sample editor: name and notes, the size distribution (modes or measured bins) with its plot, the
+// composition, humidity and the layer. Problems of this sample not shown at a field are listed at the top.
+import { problemsOf } from '../compute/client.ts'
+import { CompositionEditor } from '../edit/CompositionEditor.tsx'
+import { Conditions } from '../edit/Conditions.tsx'
+import { ModesTable } from '../edit/ModesTable.tsx'
+import { diameter, num } from '../format.ts'
+import { editSample, renameSample } from '../state/actions.ts'
+import { useApp } from '../state/store.ts'
+import { SizePlot } from './SizePlot.tsx'
+import type { BinsSpec } from '../../src-core/index.ts'
+
+function BinsPanel(p: { id: string; bins: BinsSpec }) {
+  const b = p.bins
+  const scale = b.diameter_unit === 'nm' ? 1e-3 : 1
+  const lo = b.diameters[0] * scale
+  const hi = b.diameters[b.diameters.length - 1] * scale
+  return (
+    <div class="bins" data-testid="bins-panel">
+      <p>
+        <strong>{b.values.length} measured bins</strong> ({b.edges ? 'edges' : 'midpoints'} {diameter(lo)} – {diameter(hi)}), values as {b.quantity}
+        {b.source ? `, from ${b.source}` : ''}.
+      </p>
+      <details>
+        <summary>Bin values</summary>
+        <div class="bin-table-wrap">
+          <table class="grid-table compact">
+            <thead>
+              <tr>
+                <th scope="col">D ({b.diameter_unit === 'um' ? 'µm' : 'nm'})</th>
+                <th scope="col">{b.quantity}</th>
+              </tr>
+            </thead>
+            <tbody>
+              {b.values.map((v, i) => (
+                <tr key={i}>
+                  <td>{num(b.diameters[i], 5)}</td>
+                  <td>{num(v, 5)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </details>
+      <button
+        type="button"
+        class="small"
+        onClick={() =>
+          editSample(p.id, (s) => {
+            s.size = { kind: 'modes', modes: [{ by: 'number', name: 'accumulation', number_cm3: 1000, median_um: 0.15, gsd: 1.6 }] }
+          })
+        }
+      >
+        Replace the bins by lognormal modes
+      </button>
+    </div>
+  )
+}
+
+export function SampleEditor() {
+  const s = useApp()
+  const i = s.ids.indexOf(s.selected)
+  if (i < 0) return <section class="editor" />
+  const sample = s.study.samples[i]
+  const id = s.selected
+  const own = problemsOf(s.problems, i)
+  return (
+    <section class="editor" aria-label={`Inputs of ${sample.name}`}>
+      <div class="editor-head">
+        <label class="field name-field">
+          <span class="sr-only">Sample name</span>
+          <input type="text" value={sample.name} data-testid="sample-name" aria-label="Sample name" onInput={(e) => renameSample(id, (e.target as HTMLInputElement).value)} />
+        </label>
+      </div>
+      {own.length > 0 && (
+        <div class="problems" role="alert" data-testid="problems">
+          <strong>
+            {own.length} input problem{own.length === 1 ? '' : 's'}; the results shown are from the last good inputs.
+          </strong>
+          <ul>
+            {own.slice(0, 5).map((p, k) => (
+              <li key={k}>
+                <code>{p.path}</code>: {p.message}.
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+      <fieldset>
+        <legend>Size distribution</legend>
+        {sample.size.kind === 'modes' ? <ModesTable id={id} index={i} modes={sample.size.modes} /> : <BinsPanel id={id} bins={sample.size.bins} />}
+        <SizePlot />
+      </fieldset>
+      <fieldset>
+        <legend>Composition</legend>
+        <CompositionEditor id={id} index={i} composition={sample.composition} userMaterials={s.study.user_materials ?? []} />
+      </fieldset>
+      <fieldset>
+        <legend>Humidity and layer</legend>
+        <Conditions id={id} index={i} sample={sample} />
+      </fieldset>
+      <fieldset>
+        <legend>Notes</legend>
+        <textarea
+          aria-label="Notes on this sample"
+          rows={3}
+          value={sample.notes ?? ''}
+          onInput={(e) => {
+            const v = (e.target as HTMLTextAreaElement).value
+            editSample(id, (x) => (v ? (x.notes = v) : delete x.notes), 'notes')
+          }}
+        />
+      </fieldset>
+    </section>
+  )
+}

@@ -1,0 +1,36 @@
+// Pieces the result views share.
+import type { ShownSample } from '../shown.ts'
+
+/** Says when results on screen are not from the current inputs, and why. */
+export function StaleNote(p: { shown: ShownSample[] }) {
+  const stale = p.shown.filter((x) => x.stale && x.result)
+  const missing = p.shown.filter((x) => !x.result)
+  if (!stale.length && !missing.length) return null
+  return (
+    <div class="stale-note" role="status" data-testid="stale-note">
+      {stale.length > 0 && (
+        <p>
+          <strong>Stale:</strong> the results of {stale.map((x) => `“${x.sample.name}”`).join(', ')} are from earlier inputs
+          {stale.some((x) => x.error) ? ` (${stale.find((x) => x.error)?.error})` : ''}; they update when the inputs are complete and valid.
+        </p>
+      )}
+      {missing.map((x) => (
+        <p key={x.id}>
+          <strong>No results yet for “{x.sample.name}”</strong>
+          {x.error ? `: ${x.error}` : ' (computing or waiting for valid inputs).'}
+        </p>
+      ))}
+    </div>
+  )
+}
+
+/** A line sample in a legend or table header: the line's colour and dash, drawn. */
+export function Swatch(p: { shown: ShownSample }) {
+  return (
+    <svg class="swatch" width="22" height="8" aria-hidden="true">
+      <line x1="0" y1="4" x2="22" y2="4" stroke={p.shown.style.stroke} stroke-width="2.5" stroke-dasharray={p.shown.style.dash.join(' ')} />
+    </svg>
+  )
+}
+
+export const withResults = (shown: ShownSample[]) => shown.filter((x): x is ShownSample & { result: NonNullable<ShownSample['result']> } => !!x.result)

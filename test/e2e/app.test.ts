@@ -1,0 +1,201 @@
+// End-to-end: the web build of the app in headless Chromium, served from 127.0.0.1 by the test itself.
+// Run by `npm test` (vitest). Fails with a clear message where Chromium is missing.
+import { readdirSync } from 'node:fs'
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { afterAll, afterEach, beforeAll, describe, expect, test } from 'vitest'
+import { buildAndServe, isLocal, launchChromium, ROOT, type Served } from './harness.ts'
+
+let served: Served
+let browser: Browser
+let scratch: string
+const requests: string[] = []
+const contexts: BrowserContext[] = []
+
+beforeAll(async () => {
+  scratch = await mkdtemp(join(tmpdir(), 'motebench-e2e-files-'))
+  browser = await launchChromium()
+  served = await buildAndServe()
+}, 180_000)
+
+// Close each test's pages, so that their workers stop computing and leave the CPU to the next test.
+afterEach(async () => {
+  for (const c of contexts.splice(0)) await c.close().catch(() => {})
+})
+
+afterAll(async () => {
+  await browser?.close()
+  await served?.close()
+  if (scratch) await rm(scratch, { recursive: true, force: true })
+})
+
+/** A fresh browser profile with the app open on the demo study (results of the selected sample computed unless `wait` is false). */
+async function openApp(opts: { keepCautions?: boolean; wait?: boolean } = {}): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1366, height: 768 }, acceptDownloads: true })
+  contexts.push(context)
+  context.on('request', (r) => requests.push(r.url()))
+  const page = await context.newPage()
+  const errors: string[] = []
+  page.on('pageerror', (e) => errors.push(e.message))
+  await page.goto(served.url)
+  if (!opts.keepCautions) {
+    await page.getByTestId('cautions-ok').click()
+  }
+  if (opts.wait !== false && !opts.keepCautions) await waitForResults(page)
+  expect(errors).toEqual([])
+  return page
+}
+
+/** The samples on screen (the selected one, or the compared ones) have results from their current inputs. */
+async function waitForResults(page: Page): Promise<void> {
+  await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 60_000 })
+}
+
+async function sigmaExt550(page: Page): Promise<number> {
+  const cell = page.locator('[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]')
+  return Number(await cell.textContent())
+}
+
+async function chooseFile(page: Page, click: () => Promise<void>, path: string): Promise<void> {
+  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), click()])
+  await chooser.setFiles(path)
+}
+
+describe('Motebench in the browser', { timeout: 90_000 }, () => {
+  test('first start shows the cautions; the demo study opens with results', async () => {
+    const page = await openApp({ keepCautions: true })
+    const dialog = page.locator('[data-dialog="cautions"]')
+    await expect.poll(() => dialog.isVisible()).toBe(true)
+    const text = await dialog.textContent()
+    expect(text).toMatch(/crystalline silica/i)
+    expect(text).toMatch(/respirat/i)
+    expect(text).toMatch(/not a climate projection/i)
+    await page.getByTestId('cautions-ok').click()
+    await page.locator('[data-status="ok"]').waitFor({ timeout: 80_000 }) // every sample computed
+    expect(await page.locator('.sample-item').count()).toBe(5)
+    expect(await page.locator('.verdict-mini').count()).toBe(5)
+    expect(await page.locator('[data-testid="optics-table"] tbody tr').count()).toBe(13)
+    expect(await sigmaExt550(page)).toBeGreaterThan(0)
+    await page.locator('[data-tab="climate"]').click()
+    expect(await page.getByTestId('verdict').getAttribute('data-verdict')).toMatch(/cools|warms|too close to call/)
+  })
+
+  test('a larger accumulation-mode diameter at fixed number raises σext at 550 nm', async () => {
+    const page = await openApp()
+    const before = await sigmaExt550(page)
+    await page.locator('[data-path="samples[0].size.modes[1].median_um"]').fill('200 nm')
+    await expect.poll(() => sigmaExt550(page), { timeout: 60_000 }).not.toBe(before)
+    await waitForResults(page)
+    expect(await sigmaExt550(page)).toBeGreaterThan(before)
+  })
+
+  test('a bad value is marked at its field and the last result stays, marked stale', async () => {
+    const page = await openApp()
+    const before = await sigmaExt550(page)
+    const gsd = page.locator('[data-path="samples[0].size.modes[1].gsd"]')
+    await gsd.fill('0.9')
+    const err = page.locator('[data-error-for="samples[0].size.modes[1].gsd"]').first()
+    await err.waitFor()
+    expect(await err.textContent()).toMatch(/greater than 1/)
+    await page.getByTestId('stale-note').waitFor()
+    await page.locator('[data-status="stale"]').waitFor()
+    expect(await sigmaExt550(page)).toBe(before)
+
+    const median = page.locator('[data-path="samples[0].size.modes[1].median_um"]')
+    await median.fill('twelve')
+    await page.locator('[data-error-for="samples[0].size.modes[1].median_um"]').waitFor()
+    expect(await sigmaExt550(page)).toBe(before)
+
+    await median.fill('130 nm')
+    await gsd.fill('1.7')
+    await waitForResults(page)
+    expect(await page.getByTestId('stale-note').count()).toBe(0)
+    expect(await sigmaExt550(page)).toBe(before)
+  })
+
+  const sizerFiles = readdirSync(join(ROOT, 'resources')).filter((f) => /^sizer-.*\.(csv|tsv|txt)$/.test(f))
+
+  test.each(sizerFiles)('importing %s gives a sample with measured bins and results', async (name) => {
+    const page = await openApp({ wait: false })
+    await chooseFile(page, () => page.getByTestId('import-sizer').click(), join(ROOT, 'resources', name))
+    await page.getByTestId('sizer-apply').click()
+    await page.getByTestId('bins-panel').waitFor()
+    expect(await page.locator('.sample-item').count()).toBe(6)
+    await waitForResults(page)
+    expect(await sigmaExt550(page)).toBeGreaterThan(0)
+  })
+
+  test('a broken sizer file is refused with its line number', async () => {
+    const page = await openApp({ wait: false })
+    const good = await readFile(join(ROOT, 'resources', 'sizer-single-comma.csv'), 'utf8')
+    const lines = good.split('\n')
+    const k = lines.findIndex((l) => l.startsWith('0.1105'))
+    lines[k] = '0.1105,lots'
+    const path = join(scratch, 'sizer-broken.csv')
+    await writeFile(path, lines.join('\n'))
+    await chooseFile(page, () => page.getByTestId('import-sizer').click(), path)
+    const notice = page.getByTestId('notice')
+    await notice.waitFor()
+    expect(await notice.textContent()).toContain(`line ${k + 1}`)
+    expect(await notice.textContent()).toMatch(/not imported/)
+    expect(await page.locator('.sample-item').count()).toBe(5)
+  })
+
+  test('saving and reopening gives the same study', async () => {
+    const page = await openApp({ wait: false })
+    await page.getByTestId('sample-name').fill('Renamed wood smoke')
+    const [first] = await Promise.all([page.waitForEvent('download'), page.getByTestId('save').click()])
+    const saved = join(scratch, 'saved.mote')
+    await first.saveAs(saved)
+    const text = await readFile(saved, 'utf8')
+    expect(text).toContain('Renamed wood smoke')
+
+    const again = await openApp({ wait: false })
+    await chooseFile(again, () => again.getByTestId('open').click(), saved)
+    await again.locator('.sample-item[data-sample="Renamed wood smoke"]').waitFor()
+    const [second] = await Promise.all([again.waitForEvent('download'), again.getByTestId('save').click()])
+    const resaved = join(scratch, 'resaved.mote')
+    await second.saveAs(resaved)
+    expect(await readFile(resaved, 'utf8')).toBe(text)
+  })
+
+  test('compare: two marked samples overlay in the charts and sit side by side in one table', async () => {
+    const page = await openApp({ wait: false })
+    const toggles = page.getByTestId('compare-toggle')
+    await toggles.nth(0).check()
+    await toggles.nth(2).check()
+    await waitForResults(page)
+    const legend = page.locator('[data-chart="extinction-spectrum"] .u-legend')
+    expect(await legend.locator('.u-series').count()).toBe(2)
+    expect(await legend.textContent()).toContain('Winter wood smoke')
+    expect(await legend.textContent()).toContain('Coastal haze day')
+    expect(await page.locator('[data-chart="ssa-spectrum"] .u-legend .u-series').count()).toBe(2)
+    await page.locator('[data-tab="compare"]').click()
+    const heads = page.locator('[data-testid="compare-table"] thead th[data-sample]')
+    expect(await heads.count()).toBe(2)
+    expect(await heads.nth(1).textContent()).toContain('Coastal haze day')
+    expect(await page.locator('[data-testid="compare-table"] .diff').count()).toBeGreaterThan(5)
+  })
+
+  test('the verdict flips when ω is pushed below ω_crit (more black carbon)', async () => {
+    const page = await openApp()
+    await page.locator('[data-tab="climate"]').click()
+    const verdict = page.getByTestId('verdict')
+    const before = await verdict.getAttribute('data-verdict')
+    expect(before).toBe('cools')
+    // Winter wood smoke: organic matter / brown carbon / black carbon → mostly black carbon.
+    await page.locator('[data-path="samples[0].composition.components[0].volume_fraction"]').fill('0.2')
+    await page.locator('[data-path="samples[0].composition.components[2].volume_fraction"]').fill('0.66')
+    await waitForResults(page)
+    await expect.poll(() => verdict.getAttribute('data-verdict'), { timeout: 60_000 }).toBe('warms')
+    const [ssa, crit] = ((await page.getByTestId('ssa-vs-crit').textContent()) ?? '').split(/[<>=]/).map((t) => Number(t.trim()))
+    expect(ssa).toBeLessThan(crit)
+  })
+
+  test('no request leaves the machine', () => {
+    expect(requests.length).toBeGreaterThan(0)
+    expect(requests.filter((u) => !isLocal(u))).toEqual([])
+  })
+})
