@@ -3,7 +3,7 @@
  * and the day-averaged thin-layer forcing with the slant-path (sun-angle dependent) form.
  */
 import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2 } from './constants.ts'
-import { legendreOnInterval } from './quadrature.ts'
+import { gaussLegendreOn } from '../numeric/index.ts'
 import { checkInteger, checkRange, checkRangeOpenLow, evalChecked } from './validate.ts'
 
 const DEG = Math.PI / 180
@@ -117,7 +117,7 @@ export function sunlitDayQuadrature(
   if (h0 === 0) {
     return { cosZenith: empty, hourAngleRad: empty, timeWeights: empty, fluxWeightsWm2: empty, sunsetHourAngleRad: 0, dayLengthHours: 0, insolationWm2: 0 }
   }
-  const { x, w } = legendreOnInterval(nodes, 0, h0)
+  const { nodes: x, weights: w } = gaussLegendreOn(nodes, 0, h0)
   const a = Math.sin(phi) * Math.sin(delta)
   const b = Math.cos(phi) * Math.cos(delta)
   const mu = new Float64Array(nodes)
@@ -164,7 +164,7 @@ function diffuseUpscatterOf(input: SlantThinLayerInput): number {
   }
   const u = input.upscatter
   if (typeof u === 'number') return u
-  const { x, w } = legendreOnInterval(16, 0, 1)
+  const { nodes: x, weights: w } = gaussLegendreOn(16, 0, 1)
   let s = 0
   for (let i = 0; i < x.length; i++) s += w[i] * evalChecked('upscatter', u, x[i], 0, 1)
   return s

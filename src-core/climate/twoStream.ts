@@ -24,7 +24,7 @@
  */
 import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2 } from './constants.ts'
 import { sunlitDayQuadrature } from './insolation.ts'
-import { legendreOnInterval } from './quadrature.ts'
+import { gaussLegendreOn } from '../numeric/index.ts'
 import { checkRange, checkRangeOpenLow } from './validate.ts'
 
 /** Largest asymmetry parameter accepted (the delta scaling degenerates as g → 1). */
@@ -173,7 +173,7 @@ export function deltaEddingtonDiffuse(layer: TwoStreamLayerInput, nodes = 16): D
 }
 
 function diffuseUnchecked(s: DeltaScaled, nodes: number): DiffuseResponse {
-  const { x, w } = legendreOnInterval(nodes, 0, 1)
+  const { nodes: x, weights: w } = gaussLegendreOn(nodes, 0, 1)
   let R = 0
   let T = 0
   let A = 0

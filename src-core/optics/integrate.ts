@@ -9,7 +9,7 @@
  * the interference and ripple structure of the efficiencies sits; beyond X the step grows in proportion to
  * x, since the ripple of such large spheres is weak and their weight in any distribution's tail small. On this grid the trapezoid rule is used, halving the step level by level and reusing
  * every node; a level is accepted when every figure (σext, σsca, σabs relative to σext, g, b, β̄) changed
- * by less than the tolerance from the level before (the trapezoid error at the finer level is far smaller
+ * by less than the tolerance at this level and at the one before (the trapezoid error at the finer level is far smaller
  * than that change once the grid resolves the integrand; the tests compare with much finer integrations). For lognormal modes the integrand falls to
  * ~1e-9 of its peak at the ends of the range, where the trapezoid rule converges faster than any power of
  * the step; for a measured bin (flat in log D, with a jump at its edges) the levels are combined by
@@ -119,6 +119,8 @@ export interface BulkOptics {
   evaluations: number
   /** Largest refinement level any population needed. */
   level: number
+  /** False when a population reached the deepest level without two settled levels in a row. */
+  converged: boolean
 }
 
 /** Running sums of one population at one wavelength. */
@@ -228,7 +230,7 @@ export class OpticsWorkspace {
 function integratePopulation(
   pop: Population, wavelengthUm: number, cond: Conditions, opts: Required<Omit<IntegrationOptions, 'anglesDeg'>> & { anglesDeg?: ArrayLike<number> },
   ws: OpticsWorkspace, into: Sums
-): number {
+): { level: number; converged: boolean } {
   const kind = pop.kind
   const dry = dryIndicesAt(kind, wavelengthUm)
   const userTable = opts.anglesDeg && opts.anglesDeg.length ? ws.userTable(opts.anglesDeg) : null
@@ -251,6 +253,15 @@ function integratePopulation(
   // Per segment: trapezoid sums at the current level (scalar and angular), kept separately so that
   // flat segments can be Richardson-extrapolated.
   const segs = pop.segments.map((s) => ({ s, t0: tOf(s.lo), t1: tOf(s.hi), u: s.lo }))
+  const uTop = Math.max(...pop.segments.map((sg) => sg.hi))
+  const xTop = ax * Math.exp(uTop)
+  if (xTop > SPHERE_DOMAIN.sizeParameter.max) {
+    throw new InputError(
+      pop.label,
+      `its size distribution reaches diameters of ${Math.exp(uTop).toPrecision(3)} µm, where the size parameter at ${Number((wavelengthUm * 1000).toPrecision(6))} nm (${xTop.toPrecision(3)}) is beyond the ${SPHERE_DOMAIN.sizeParameter.max} this engine covers`,
+      'Narrow the mode (a smaller median or geometric standard deviation), or leave out the shortest wavelengths.'
+    )
+  }
   const result = new Sums(nUser)
   const prevResult = new Sums(nUser)
   const flatPrev = new Sums(nUser)
@@ -318,6 +329,7 @@ function integratePopulation(
   // Level sums are "sum of f at nodes" per segment class; trapezoid value = h·(sum) with ends halved.
   let lv = 0
   let lastFigures: Figures | null = null
+  let settledBefore = false
   let negligibleExt = 0
   let negligibleSca = 0
   const hasFlat = segs.some((sg) => sg.s.flat)
@@ -347,9 +359,12 @@ function integratePopulation(
     prevResult.copyFrom(result)
     combine(result, smoothSums, flatSums, hasFlat && lv > 0 ? flatPrev : null, anglesFrozen ? frozenAngles : null)
     const figures = figuresOf(result, lambda2)
+    // Stop when two successive levels both changed less than the tolerance: one small change can be luck
+    // where a grid straddles narrow resonances of non-absorbing spheres.
     if (lastFigures) {
-      if (!anglesFrozen && converged(lastFigures, figures, opts.tolerance, true)) break
-      if (anglesFrozen && converged(lastFigures, figures, opts.tolerance, false)) break
+      const settled = converged(lastFigures, figures, opts.tolerance, !anglesFrozen)
+      if (settled && settledBefore) break
+      settledBefore = settled
     }
     // The angular sums (b, β̄) are ratios over the same nodes, far less sensitive to the grid than the
     // cross-sections: they stop at level ANGULAR_LEVELS (or earlier, with everything else).
@@ -362,7 +377,7 @@ function integratePopulation(
     negligibleSca = 1e-8 * figures.sca
   }
   addInto(into, result)
-  return Math.min(lv, opts.maxLevel)
+  return { level: Math.min(lv, opts.maxLevel), converged: lv <= opts.maxLevel }
 }
 
 /** target = (keep ? target·factor : 0) + fresh, over scalar and (if withAngles) angular sums. */
@@ -437,7 +452,12 @@ export function bulkOpticsAt(populations: readonly Population[], wavelengthUm: n
   const total = new Sums(nUser)
   const before = ws.evaluations
   let level = 0
-  for (const pop of populations) level = Math.max(level, integratePopulation(pop, wavelengthUm, cond, opts, ws, total))
+  let converged = true
+  for (const pop of populations) {
+    const r = integratePopulation(pop, wavelengthUm, cond, opts, ws, total)
+    level = Math.max(level, r.level)
+    converged &&= r.converged
+  }
   const lambda2 = wavelengthUm * wavelengthUm
   // Each population's angular sums come with its own σsca from the same nodes; the total's ratio
   // uses their sum.
@@ -467,7 +487,8 @@ export function bulkOpticsAt(populations: readonly Population[], wavelengthUm: n
     phase,
     polarization,
     evaluations: ws.evaluations - before,
-    level
+    level,
+    converged
   }
 }
 

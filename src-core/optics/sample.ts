@@ -171,9 +171,11 @@ export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_mat
 
   const rows: WavelengthOptics[] = []
   const angular: AngularOptics[] = []
+  const unsettled: number[] = []
   for (const wl of wavelengths) {
     const wantAngles = angularAt.includes(wl)
     const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined }, ws)
+    if (!r.converged) unsettled.push(wl)
     const rayleigh = rayleighScatteringMm(wl / 1000)
     const total = r.ext + rayleigh
     rows.push({
@@ -222,6 +224,9 @@ export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_mat
     `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀ over ${UPSCATTER_COS_ZENITH.length} sun angles.`
   ]
   if (pops.some((p) => p.bins)) notes.push(BIN_SHAPE)
+  if (unsettled.length) {
+    notes.push(`At ${unsettled.join(', ')} nm the size integration reached its finest grid before two successive refinements agreed to the tolerance (narrow resonances of weakly absorbing particles); those figures may be less accurate than the tolerance.`)
+  }
   return {
     name: sample.name,
     wavelengths: rows,
