@@ -9,7 +9,8 @@
  * the interference and ripple structure of the efficiencies sits; beyond X the step grows in proportion to
  * x, since the ripple of such large spheres is weak and their weight in any distribution's tail small. On this grid the trapezoid rule is used, halving the step level by level and reusing
  * every node; a level is accepted when every figure (σext, σsca, σabs relative to σext, g, b, β̄) changed
- * by less than the tolerance at this level and at the one before (the trapezoid error at the finer level is far smaller
+ * by less than the tolerance at this level and either at the one before, or by under a quarter of a change
+ * before that was itself below ten times the tolerance (the trapezoid error at the finer level is far smaller
  * than that change once the grid resolves the integrand; the tests compare with much finer integrations). For lognormal modes the integrand falls to
  * ~1e-9 of its peak at the ends of the range, where the trapezoid rule converges faster than any power of
  * the step; for a measured bin (flat in log D, with a jump at its edges) the levels are combined by
@@ -206,6 +207,12 @@ function converged(a: Figures, b: Figures, tol: number, withAngles: boolean): bo
   )
 }
 
+/** The largest relative change of σext, σsca, σabs (relative to σext) and g between two levels. */
+function largestChange(a: Figures, b: Figures): number {
+  const r = (p: number, q: number, scale: number) => (scale > 0 ? Math.abs(p - q) / scale : 0)
+  return Math.max(r(a.ext, b.ext, b.ext), r(a.sca, b.sca, b.sca), r(a.abs, b.abs, b.ext), Math.abs(a.g - b.g))
+}
+
 /** Workspace shared by all integrations of a computation: Mie buffers and angular tables. */
 export class OpticsWorkspace {
   mie = new CoatedWorkspace()
@@ -330,6 +337,7 @@ function integratePopulation(
   let lv = 0
   let lastFigures: Figures | null = null
   let settledBefore = false
+  let lastChange = Infinity
   let negligibleExt = 0
   let negligibleSca = 0
   const hasFlat = segs.some((sg) => sg.s.flat)
@@ -359,12 +367,16 @@ function integratePopulation(
     prevResult.copyFrom(result)
     combine(result, smoothSums, flatSums, hasFlat && lv > 0 ? flatPrev : null, anglesFrozen ? frozenAngles : null)
     const figures = figuresOf(result, lambda2)
-    // Stop when two successive levels both changed less than the tolerance: one small change can be luck
-    // where a grid straddles narrow resonances of non-absorbing spheres.
+    // Stop when this level changed every figure by less than the tolerance and either the level before did
+    // too, or the one before changed them by less than ten times the tolerance and this change is under a
+    // quarter of it (the convergence is visibly setting in).
+    // One small change alone can be luck where a grid straddles narrow resonances of weakly absorbing spheres.
     if (lastFigures) {
       const settled = converged(lastFigures, figures, opts.tolerance, !anglesFrozen)
-      if (settled && settledBefore) break
+      const change = largestChange(lastFigures, figures)
+      if (settled && (settledBefore || (change < 0.25 * lastChange && lastChange < 10 * opts.tolerance))) break
       settledBefore = settled
+      lastChange = change
     }
     // The angular sums (b, β̄) are ratios over the same nodes, far less sensitive to the grid than the
     // cross-sections: they stop at level ANGULAR_LEVELS (or earlier, with everything else).
