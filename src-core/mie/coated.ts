@@ -58,6 +58,9 @@ export class CoatedWorkspace extends MieWorkspace {
 
 const sharedCoated = new CoatedWorkspace()
 
+/** Im(m_shell)·x beyond which the shell's Riccati–Bessel functions outgrow double precision (e^18 ≈ 1/ε). */
+const UNSTABLE_SHELL_GROWTH = 18
+
 /** tan(a + ib) without overflow, into out[0], out[1]. */
 function complexTan(a: number, b: number, out: Float64Array): void {
   // tan(a+ib) = (sin 2a + i sinh 2b) / (cos 2a + cosh 2b); divide through by cosh 2|b| via t = e^{−2|b|}
@@ -89,6 +92,16 @@ export function coatedSphereEfficiencies(
   // Equal indices: a homogeneous sphere, exactly (and the ratio R_n would be 0/0 where both
   // logarithmic derivatives of a strongly absorbing shell round to −i).
   if (nCore === nShell && kCore === kShell) return sphereEfficiencies(xShell, nShell, kShell, ws)
+  // Where the shell absorbs so strongly that its functions at the core's surface grow beyond ~e^18 while
+  // the shell itself stays optically thin, the ratio form loses the small differences that carry the core's
+  // effect (1 − R_n and D − G cancel to below double precision): refuse rather than answer wrongly.
+  if (kShell * xCore > UNSTABLE_SHELL_GROWTH && kShell * (xShell - xCore) < UNSTABLE_SHELL_GROWTH) {
+    throw new InputError(
+      'coated sphere: shell',
+      `an absorbing shell (k = ${kShell}) around a large core (x = ${xCore}) with a thin shell (${(xShell - xCore).toPrecision(3)} in size parameter) is outside the range this engine computes stably (k·x_core must stay below ${UNSTABLE_SHELL_GROWTH} unless k·(x_shell − x_core) exceeds it)`,
+      'Treat the particle as homogeneous with a mixed index, or use a longer wavelength.'
+    )
+  }
   const nTerms = seriesLength(xShell)
   ws.ensure(nTerms + 2)
   const m1r = nCore
