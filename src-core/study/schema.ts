@@ -14,6 +14,7 @@ import { BIN_QUANTITIES, MAX_GSD } from '../sizes/index.ts'
 import { SURFACE_TYPES } from '../climate/index.ts'
 import { findJsonSyntaxError } from './jsonSyntax.ts'
 import { migrateStudy } from './migrate.ts'
+import { uncertaintySettingsSchema } from '../uncertainty/settings.ts'
 import { STUDY_FORMAT, STUDY_VERSION, type Study } from './model.ts'
 
 /** One thing wrong with a study document. */
@@ -166,7 +167,7 @@ export const studySchema: z.ZodType<Study> = z.strictObject({
   user_materials: z.array(userMaterial).optional(),
   site,
   verdict_margin_w_m2: num((v) => v >= 0 && v <= 100, (v) => `the verdict margin must be from 0 to 100 W m⁻² (it is ${fmt(v)})`, 'Give the margin in W m⁻², e.g. 0.5.').optional(),
-  uncertainty: z.record(z.string(), z.unknown()).optional()
+  uncertainty: uncertaintySettingsSchema.optional()
 })
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -1,0 +1,51 @@
+/**
+ * Uncertainty propagation: seeded draws of uncertain inputs through a sample's optics at 550 nm and its
+ * forcing, their statistics, P(warm) and a Spearman sensitivity ranking. Designed to split over workers.
+ */
+export { Xoshiro128, mix32, normalCdf, normalQuantile, randomPermutation } from './random.ts'
+export {
+  quantileSorted,
+  histogramBinCount,
+  histogramOf,
+  summarizeValues,
+  probabilityPositive,
+  stoppingStandardError,
+  ranksOf,
+  pearsonCorrelation,
+  spearmanRankCorrelation
+} from './stats.ts'
+export type { Histogram, FigureSummary, ProbabilityEstimate } from './stats.ts'
+export { UNCERTAIN_QUANTITIES, SITE_QUANTITIES, uncertaintySettingsSchema } from './settings.ts'
+export type { UncertainDistribution, UncertainBounds, UncertainQuantity, UncertainInput, UncertaintySampleSettings, UncertaintySettings } from './settings.ts'
+export {
+  UNCERTAINTY_WAVELENGTH_NM,
+  UNCERTAINTY_TOLERANCE,
+  UNCERTAINTY_CHECK_EVERY,
+  UNCERTAINTY_FIGURES,
+  readUncertaintySettings,
+  variateQuantile,
+  planUncertainty,
+  drawUniforms,
+  computeDraws,
+  mergeDrawBlocks,
+  drawColumn,
+  earlyStopPoint,
+  truncateBlock,
+  centralFigures,
+  summarizeDraws,
+  runUncertainty
+} from './propagate.ts'
+export type {
+  UncertaintyFigureKey,
+  UncertaintyRunOptions,
+  ResolvedInput,
+  DrawState,
+  UncertaintyPlan,
+  DrawBlock,
+  UncertaintyStatus,
+  UncertaintyFigureResult,
+  UncertaintyInputResult,
+  SensitivityEntry,
+  UncertaintyResult,
+  UncertaintyProgress
+} from './propagate.ts'
