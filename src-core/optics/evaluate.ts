@@ -22,12 +22,16 @@ export interface EvaluateOptions extends Pick<SampleOpticsOptions, 'tolerance' |
   progress?: (done: number, total: number) => boolean | void
 }
 
+/** The f(RH) curve is drawn, not tabulated: its points are integrated to 1e-3 unless a tighter tolerance is asked for. */
+export const HUMIDITY_CURVE_TOLERANCE = 1e-3
+
 /** f(RH) at 550 nm: σsca at each humidity over σsca dry, on the sample's humidity branch. */
-export function humidityGrowthCurve(study: Study, index: number, ws = new OpticsWorkspace(), tolerance?: number): HumidityGrowthCurve {
+export function humidityGrowthCurve(study: Study, index: number, ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): HumidityGrowthCurve {
   const sample = study.samples[index]
   const own = studyMaterials(study)
+  const tol = Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE)
   const at = (rh: number) =>
-    computeSampleOptics(sample, { ...study, wavelengths_nm: [550] }, { rhPercent: rh, angularWavelengthsNm: [], workspace: ws, tolerance }, own).wavelengths[0].sca
+    computeSampleOptics(sample, { ...study, wavelengths_nm: [550] }, { rhPercent: rh, angularWavelengthsNm: [], workspace: ws, tolerance: tol }, own).wavelengths[0].sca
   const dry = at(0)
   return { wavelength_nm: 550, rh_percent: [...HUMIDITY_CURVE_RH], f: HUMIDITY_CURVE_RH.map((rh) => (rh === 0 ? 1 : at(rh) / dry)) }
 }
@@ -42,7 +46,7 @@ export function evaluateStudy(study: Study, options: EvaluateOptions = {}): Stud
     const optics = computeSampleOptics(study.samples[i], study, { tolerance: options.tolerance, anglesDeg: options.anglesDeg, workspace: ws }, own)
     const forcing = sampleForcing(optics, study.site, study.verdict_margin_w_m2)
     const map = sampleForcingMap(forcing, study.site)
-    const humidity = options.skipHumidityCurve ? { wavelength_nm: 550, rh_percent: [], f: [] } : humidityGrowthCurve(study, i, ws, options.tolerance)
+    const humidity = options.skipHumidityCurve ? { wavelength_nm: 550, rh_percent: [], f: [] } : humidityGrowthCurve(study, i, ws, options.tolerance ?? HUMIDITY_CURVE_TOLERANCE)
     samples.push({ optics, forcing, map, humidity })
     if (options.progress && options.progress(samples.length, indices.length) === false) break
   }

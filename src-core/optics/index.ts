@@ -7,5 +7,5 @@ export { computeSampleOptics, samplePopulations, studyMaterials, modeFromSpec, e
 export type { SampleOpticsOptions } from './sample.ts'
 export { angstromExponent, angstromFitOf, angstromFit, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M } from './metrics.ts'
 export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, LAYER_TOP_PRESSURE_HPA } from './forcing.ts'
-export { evaluateStudy, humidityGrowthCurve, HUMIDITY_CURVE_RH, MOTEBENCH_VERSION } from './evaluate.ts'
+export { evaluateStudy, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'
