@@ -7,6 +7,7 @@ import {
   modeFromMass,
   moment,
   rayleighScatteringMm,
+  sizeDistributionCurves,
   visualRangeKm,
   type Sample,
   type Study
@@ -146,5 +147,23 @@ describe('water uptake and derived figures', () => {
       integral += 0.5 * (p[i - 1] * Math.sin(t0) + p[i] * Math.sin(t1)) * (t1 - t0)
     }
     expect(rel(2 * Math.PI * integral, 4 * Math.PI)).toBeLessThan(1e-3)
+  })
+})
+
+describe('size distribution curves for plotting', () => {
+  it('integrate over log D to the number and volume concentrations (Hatch–Choate, Seinfeld & Pandis ch. 8)', () => {
+    const s = oneModeStudy({ kind: 'modes', modes: [{ by: 'number', number_cm3: 2000, median_um: 0.1, gsd: 1.8 }] }, { components: [{ material: 'ammonium-sulfate', volume_fraction: 1 }], mixing: 'volume-average' }, [550])
+    const c = sizeDistributionCurves(s.sample, s.study)
+    let n = 0
+    let v = 0
+    for (let i = 1; i < c.diameter_um.length; i++) {
+      const h = Math.log10(c.diameter_um[i] / c.diameter_um[i - 1])
+      n += 0.5 * h * (c.number[i] + c.number[i - 1])
+      v += 0.5 * h * (c.volume[i] + c.volume[i - 1])
+    }
+    expect(rel(n, 2000)).toBeLessThan(1e-6)
+    // V = (π/6) N D_g³ exp(4.5 ln²σ_g)
+    expect(rel(v, (Math.PI / 6) * 2000 * 0.1 ** 3 * Math.exp(4.5 * Math.log(1.8) ** 2))).toBeLessThan(1e-6)
+    expect(c.measured).toBe(false)
   })
 })
