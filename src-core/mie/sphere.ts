@@ -225,14 +225,15 @@ export function seriesFromLogDerivatives(
   const aIm = ws.aIm
   const bRe = ws.bRe
   const bIm = ws.bIm
+  const ix = 1 / x
   let absSum = 0
   for (let n = 1; n <= nTerms; n++) {
-    const chiNext = ((2 * n - 1) / x) * chi - chiPrev
+    const chiNext = (2 * n - 1) * ix * chi - chiPrev
     chiPrev = chi
     chi = chiNext
     const psiN = psi[n]
     const psiM = psi[n - 1]
-    const nx = n / x
+    const nx = n * ix
     // A = D_a/m + n/x
     const dar = aDRe[n]
     const dai = aDIm[n]
@@ -251,22 +252,21 @@ export function seriesFromLogDerivatives(
     // P − iQ = (pr + qi) + i (pi − qr)
     let er = pr + qi
     let ei = pi - qr
-    let den = er * er + ei * ei
-    // a = P · conj(P − iQ) / den
-    aRe[n] = (pr * er + pi * ei) / den
-    aIm[n] = (pi * er - pr * ei) / den
-    // absorption part: −Im(P Q̄)/den
-    let absA = -(pi * qr - pr * qi) / den
+    let inv = 1 / (er * er + ei * ei)
+    // a = P · conj(P − iQ) / |P − iQ|²; absorption part −Im(P Q̄)/|P − iQ|²
+    aRe[n] = (pr * er + pi * ei) * inv
+    aIm[n] = (pi * er - pr * ei) * inv
+    let absA = (pr * qi - pi * qr) * inv
     pr = br * psiN - psiM
     pi = bi * psiN
     qr = br * chi - chiPrev
     qi = bi * chi
     er = pr + qi
     ei = pi - qr
-    den = er * er + ei * ei
-    bRe[n] = (pr * er + pi * ei) / den
-    bIm[n] = (pi * er - pr * ei) / den
-    absA += -(pi * qr - pr * qi) / den
+    inv = 1 / (er * er + ei * ei)
+    bRe[n] = (pr * er + pi * ei) * inv
+    bIm[n] = (pi * er - pr * ei) * inv
+    absA += (pr * qi - pi * qr) * inv
     absSum += (2 * n + 1) * absA
   }
   ws.terms = nTerms
