@@ -4,7 +4,7 @@
  * (σ_i = ∫_bin C(D) dlog₁₀D) and every distribution is then a dot product. Exact for bins that are flat in
  * log D, the reading `binsFromMeasurement` gives them.
  */
-import { binMassConcentration, binNumberConcentration, binsFromMeasurement, binVolumeConcentration, type SizeBins } from '../sizes/index.ts'
+import { binPowerIntegral, binsFromMeasurement, type SizeBins } from '../sizes/index.ts'
 import type { BinsSpec, Sample, Study } from '../study/model.ts'
 import { bulkOpticsAt, OpticsWorkspace, type Conditions } from './integrate.ts'
 import { resolveComposition, type ParticleKind } from './particles.ts'
@@ -19,6 +19,9 @@ export interface BinKernels {
   sca: Float64Array[]
   abs: Float64Array[]
   gsca: Float64Array[]
+  /** Per bin, for dN/dlogD = 1: the number (∫ dlog₁₀D) and dry volume ((π/6) ∫ D³ dlog₁₀D) it holds. */
+  numberWeights: Float64Array
+  volumeWeights: Float64Array
   kind: ParticleKind
 }
 
@@ -45,7 +48,13 @@ export function binOpticsKernels(
   const ws = options.workspace ?? new OpticsWorkspace()
   const edges = Float64Array.from(edgesUm)
   const n = edges.length - 1
-  const out: BinKernels = { edgesUm: edges, wavelengthsNm: [...study.wavelengths_nm], ext: [], sca: [], abs: [], gsca: [], kind }
+  const numberWeights = new Float64Array(n)
+  const volumeWeights = new Float64Array(n)
+  for (let i = 0; i < n; i++) {
+    numberWeights[i] = binPowerIntegral(edges[i], edges[i + 1], 0)
+    volumeWeights[i] = (Math.PI / 6) * binPowerIntegral(edges[i], edges[i + 1], 3)
+  }
+  const out: BinKernels = { edgesUm: edges, wavelengthsNm: [...study.wavelengths_nm], ext: [], sca: [], abs: [], gsca: [], numberWeights, volumeWeights, kind }
   const unit = () => 1 / Math.LN10 // dN/dlnD for dN/dlogD = 1
   for (const wl of study.wavelengths_nm) {
     const ext = new Float64Array(n)
@@ -108,10 +117,11 @@ export function opticsFromBinKernels(k: BinKernels, layout: BinLayout, values: A
     }
     return { wavelength_nm: wl, ext, sca, abs, ssa: ext > 0 ? sca / ext : NaN, g: sca > 0 ? gsca / sca : NaN }
   })
-  return {
-    wavelengths,
-    number_cm3: binNumberConcentration(bins),
-    volume_um3_cm3: binVolumeConcentration(bins),
-    mass_ug_m3: binMassConcentration(bins, k.kind.densityGcm3)
+  let number = 0
+  let volume = 0
+  for (let i = 0; i < v.length; i++) {
+    number += v[i] * k.numberWeights[i]
+    volume += v[i] * k.volumeWeights[i]
   }
+  return { wavelengths, number_cm3: number, volume_um3_cm3: volume, mass_ug_m3: volume * k.kind.densityGcm3 }
 }

@@ -113,6 +113,7 @@ export function edgesFromMidpoints(midpoints: ArrayLike<number>, unit: string = 
 function checkEdges(edges: ArrayLike<number>, unit: string): void {
   for (let i = 0; i < edges.length; i++) {
     const e = edges[i]
+    if (typeof e === 'number' && Number.isFinite(e) && e > 0) continue
     const lo = i > 0 ? edges[i - 1] : e
     const hi = i < edges.length - 1 ? edges[i + 1] : e
     const where = i < edges.length - 1 ? binWhere(i, e, hi, unit) : binWhere(i - 1, lo, e, unit)
@@ -228,9 +229,11 @@ export function checkSizeBins(bins: SizeBins): void {
   checkEdges(bins.edges, 'µm')
   for (let i = 0; i < n; i++) {
     const v = bins.dNdlogD[i]
+    if (Number.isFinite(v) && v >= 0) continue
+    // the message is built only for a bad bin: this check runs on every row of a long record
     const w = binWhere(i, bins.edges[i], bins.edges[i + 1], 'µm')
     if (!Number.isFinite(v)) throw new InputError(w, `dN/dlogD is ${String(v)}, not a finite number`, 'Fix the value, or give 0 for an empty bin.')
-    if (v < 0) throw new InputError(w, `dN/dlogD ${fmt(v)} cm⁻³ is negative`, 'Set it to 0.')
+    throw new InputError(w, `dN/dlogD ${fmt(v)} cm⁻³ is negative`, 'Set it to 0.')
   }
 }
 

@@ -1,6 +1,7 @@
 // Shared pieces of the command line: argument errors, output, exit codes.
 import { parseArgs, type ParseArgsConfig } from 'node:util'
-import { InputError } from '../../src-core/index.ts'
+import { InputError, parseLength, type Sample, type Study } from '../../src-core/index.ts'
+import { StudyFileError } from '../files.ts'
 
 /** A bad command-line argument: printed as one line, exit status 2. */
 export class UsageError extends Error {}
@@ -80,6 +81,13 @@ export async function runGuarded(body: () => Promise<number> | number): Promise<
       process.stderr.write(`motebench: ${e.message}\n`)
       return EXIT_BAD_INPUT
     }
+    if (e instanceof StudyFileError) {
+      // every problem of the study, each with its place and fix
+      const n = e.problems.length
+      process.stderr.write(`motebench: ${e.path} is not a valid study: ${n} problem${n === 1 ? '' : 's'}\n`)
+      for (const p of e.problems) process.stderr.write(`  ${p.path}: ${p.message}\n    fix: ${p.fix}\n`)
+      return EXIT_BAD_INPUT
+    }
     const err = e as NodeJS.ErrnoException
     if (err && typeof err.code === 'string' && err.path) {
       process.stderr.write(`motebench: cannot use ${err.path}: ${err.code === 'ENOENT' ? 'no such file' : err.message}\n`)
@@ -89,3 +97,68 @@ export async function runGuarded(body: () => Promise<number> | number): Promise<
     return 3
   }
 }
+
+/**
+ * A list of wavelengths typed on the command line, in nm: "450,550,700nm" (the last unit applies to the
+ * numbers without one), "0.45um,0.55um" or "450nm,0.7um".
+ */
+export function readWavelengthsNm(text: string, flag = '--wavelengths'): number[] {
+  const parts = text.split(',').map((p) => p.trim())
+  if (parts.some((p) => p === '')) throw new UsageError(`${flag}: "${text}" has an empty item; write a comma-separated list such as 450,550,700nm`)
+  const unitOf = (p: string) => /[a-zµμ]+$/i.exec(p)?.[0].toLowerCase().replace(/[µμ]/, 'u')
+  const lastUnit = unitOf(parts[parts.length - 1])
+  const fallback = lastUnit === 'nm' || lastUnit === 'um' ? lastUnit : undefined
+  const out: number[] = []
+  for (const p of parts) {
+    if (unitOf(p) === undefined && fallback === undefined) throw new UsageError(`${flag}: "${text}" has no unit; add one, for example 450,550,700nm`)
+    const nm = Number((parseLength(p, flag, fallback) * 1000).toPrecision(12))
+    if (out.includes(nm)) throw new UsageError(`${flag}: ${nm} nm is given twice; list each wavelength once`)
+    out.push(nm)
+  }
+  return out
+}
+
+/** A whole number typed on the command line, from lo to hi. */
+export function readInteger(text: string | undefined, flag: string, lo: number, hi: number, fallback: number): number {
+  if (text === undefined) return fallback
+  const v = Number(text)
+  if (text.trim() === '' || !Number.isInteger(v) || v < lo || v > hi) throw new UsageError(`${flag}: "${text}" is not a whole number from ${lo} to ${hi}`)
+  return v
+}
+
+/** A relative tolerance of the size integration: a number from 1e-8 to 0.1. */
+export function readTolerance(text: string | undefined, fallback: number): number {
+  const v = readNumber(text, '--tolerance', fallback)
+  if (!(v >= 1e-8 && v <= 0.1)) throw new UsageError(`--tolerance: ${text} is outside 1e-8 to 0.1; give a relative accuracy such as 1e-3`)
+  return v
+}
+
+/** One CSV cell: numbers as they are (7 significant digits), text quoted when it must be. */
+export function csvCell(v: string | number | boolean | null | undefined): string {
+  if (v === null || v === undefined) return ''
+  if (typeof v === 'number') return Number.isFinite(v) ? String(Number(v.toPrecision(7))) : ''
+  const s = String(v)
+  return /[",\r\n]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s
+}
+
+export function csvLine(cells: (string | number | boolean | null | undefined)[]): string {
+  return cells.map(csvCell).join(',') + '\n'
+}
+
+/** The study's sample with this name (exact, else ignoring case), or a UsageError listing the names. */
+export function findSample(study: Study, name: string, command: string): { sample: Sample; index: number } {
+  let index = study.samples.findIndex((s) => s.name === name)
+  if (index < 0) {
+    const lower = name.toLowerCase()
+    const matches = study.samples.map((s, i) => (s.name.toLowerCase() === lower ? i : -1)).filter((i) => i >= 0)
+    if (matches.length === 1) index = matches[0]
+  }
+  if (index < 0) throw new UsageError(`${command}: the study has no sample "${name}"; its samples are: ${study.samples.map((s) => `"${s.name}"`).join(', ')}`)
+  return { sample: study.samples[index], index }
+}
+
+// A reader that stops early (e.g. `motebench materials | head`) closes the pipe: end quietly, not with a stack trace.
+process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+  if (e.code === 'EPIPE') process.exit(0)
+  throw e
+})

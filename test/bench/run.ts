@@ -1,11 +1,17 @@
 // `npm run bench`: one JSON line of figures per case. `npm run bench -- sphere-grid` runs one case.
+import { benchSampleDemo } from './optics.bench.ts'
 import { benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
+import { benchUncertaintyDemo } from './uncertainty.bench.ts'
+import { benchSeries } from './series.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
   'sphere-large': benchSphereLarge,
   'sphere-angles': benchSphereAngles,
-  'coated-grid': benchCoatedGrid
+  'coated-grid': benchCoatedGrid,
+  'sample-demo': benchSampleDemo,
+  series: benchSeries,
+  'uncertainty-demo': benchUncertaintyDemo
 }
 
 const wanted = process.argv.slice(2)

@@ -1,0 +1,117 @@
+// motebench forcing: direct-forcing estimate of a uniform aerosol layer from its optical figures.
+import { forcingVerdict, InputError, SOLAR_CONSTANT_WM2, thinLayerForcing, twoStreamForcing } from '../../src-core/index.ts'
+import { need, printJson, readArgs, readNumber, UsageError } from './common.ts'
+
+export const forcingHelp = `motebench forcing: global-mean direct forcing of a uniform aerosol layer, and whether it cools or warms
+  --tau T               optical depth of the layer (at 550 nm), 0 to 10
+  --ssa W               single-scattering albedo ω, 0 to 1
+  --upscatter B         mean upscatter fraction β̄, 0 to 1 (thin-layer estimate, Chylek & Wong 1995)
+  --surface-albedo R    surface albedo, 0 to 1
+  --cloud C             cloud fraction (the cloudy part is taken as unforced), default 0.6
+  --transmittance T     one-way transmittance of the air above the layer, default 0.76
+  --two-stream          use the delta-Eddington two-stream layer instead (needs --g; incident flux S₀/4)
+  --g G                 asymmetry parameter, 0 to 0.99 (with --two-stream)
+  --cos-zenith M        cosine of the sun's zenith angle for --two-stream, default 0.5
+  --margin M            |forcing| below M W m⁻² is "too close to call", default 0.5
+  --json                JSON output: forcing_w_m2, efficiency_w_m2_per_tau, critical_ssa, verdict, caution
+                        (and toa_w_m2, surface_w_m2, atmosphere_w_m2 with --two-stream)
+A negative forcing cools. This is a first-order screening estimate, not a climate projection.`
+
+/** The core's parameter names as the options a person typed. */
+const FLAG_OF: Record<string, string> = {
+  tau: '--tau',
+  omega: '--ssa',
+  upscatter: '--upscatter',
+  surfaceAlbedo: '--surface-albedo',
+  cloudFraction: '--cloud',
+  transmittance: '--transmittance',
+  asymmetry: '--g',
+  cosZenith: '--cos-zenith',
+  marginWm2: '--margin'
+}
+
+export function runForcing(argv: string[]): number {
+  try {
+    return forcing(argv)
+  } catch (e) {
+    if (e instanceof InputError && FLAG_OF[e.where]) {
+      let problem = e.message.slice(e.where.length + 2)
+      if (problem.endsWith(`. ${e.fix}`)) problem = problem.slice(0, -(e.fix.length + 2))
+      throw new InputError(FLAG_OF[e.where], problem, e.fix)
+    }
+    throw e
+  }
+}
+
+function forcing(argv: string[]): number {
+  const { values } = readArgs('forcing', argv, {
+    tau: { type: 'string' },
+    ssa: { type: 'string' },
+    upscatter: { type: 'string' },
+    'surface-albedo': { type: 'string' },
+    cloud: { type: 'string' },
+    transmittance: { type: 'string' },
+    g: { type: 'string' },
+    'two-stream': { type: 'boolean', default: false },
+    'cos-zenith': { type: 'string' },
+    margin: { type: 'string' },
+    json: { type: 'boolean', default: false }
+  })
+  const tau = readNumber(need(values.tau, 'forcing', '--tau', '--tau 0.2'), '--tau')
+  const omega = readNumber(need(values.ssa, 'forcing', '--ssa', '--ssa 0.92'), '--ssa')
+  const surfaceAlbedo = readNumber(need(values['surface-albedo'], 'forcing', '--surface-albedo', '--surface-albedo 0.15'), '--surface-albedo')
+  const cloudFraction = readNumber(values.cloud, '--cloud', 0.6)
+  const transmittance = readNumber(values.transmittance, '--transmittance', 0.76)
+  const marginWm2 = readNumber(values.margin, '--margin', 0.5)
+  const twoStream = values['two-stream']
+  const common = { cloudFraction, transmittance }
+  if (!twoStream && values['cos-zenith'] !== undefined) throw new UsageError('forcing: --cos-zenith applies to --two-stream only')
+  let result: Record<string, unknown>
+  if (!twoStream) {
+    const upscatter = readNumber(need(values.upscatter, 'forcing', '--upscatter', '--upscatter 0.24 (or --two-stream with --g)'), '--upscatter')
+    const thin = thinLayerForcing({ tau, omega, upscatter, surfaceAlbedo, ...common })
+    const v = forcingVerdict({ tau, omega, upscatter, surfaceAlbedo, ...common, marginWm2, method: 'thin-layer' })
+    result = {
+      method: 'thin-layer',
+      forcing_w_m2: thin.forcingWm2,
+      efficiency_w_m2_per_tau: thin.efficiencyWm2PerTau,
+      critical_ssa: thin.omegaCritical,
+      flip_surface_albedo: thin.flipSurfaceAlbedo,
+      verdict: v.verdict,
+      margin_w_m2: v.marginWm2,
+      explanation: v.explanation,
+      caution: v.caution
+    }
+  } else {
+    const asymmetry = readNumber(need(values.g, 'forcing', '--g', '--g 0.65 (the asymmetry parameter, with --two-stream)'), '--g')
+    const cosZenith = readNumber(values['cos-zenith'], '--cos-zenith', 0.5)
+    const two = twoStreamForcing({ tau, omega, asymmetry, cosZenith, surfaceAlbedo, incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4, ...common })
+    const v = forcingVerdict({ tau, omega, asymmetry, cosZenith, surfaceAlbedo, ...common, marginWm2, method: 'two-stream' })
+    result = {
+      method: 'two-stream',
+      forcing_w_m2: two.toaWm2,
+      efficiency_w_m2_per_tau: tau > 0 ? two.toaWm2 / tau : null,
+      critical_ssa: v.omegaCritical,
+      flip_surface_albedo: v.flipSurfaceAlbedo,
+      toa_w_m2: two.toaWm2,
+      surface_w_m2: two.surfaceWm2,
+      atmosphere_w_m2: two.atmosphereWm2,
+      verdict: v.verdict,
+      margin_w_m2: v.marginWm2,
+      explanation: v.explanation,
+      caution: v.caution
+    }
+  }
+  if (values.json) {
+    printJson(result)
+    return 0
+  }
+  const f = (x: unknown) => (typeof x === 'number' ? Number(x.toPrecision(4)).toString() : String(x))
+  const out = process.stdout
+  out.write(`verdict: ${result.verdict}\n`)
+  out.write(`forcing ${f(result.forcing_w_m2)} W/m² (${result.method === 'two-stream' ? 'delta-Eddington two-stream, top of atmosphere' : 'thin-layer estimate, Chylek & Wong 1995'}), efficiency ${f(result.efficiency_w_m2_per_tau)} W/m² per unit τ\n`)
+  if (twoStream) out.write(`surface ${f(result.surface_w_m2)} W/m², absorbed in the layer ${f(result.atmosphere_w_m2)} W/m²\n`)
+  out.write(`critical single-scattering albedo ${f(result.critical_ssa)} (the layer cools above it)\n`)
+  out.write(`${result.explanation}\n${result.caution}\n`)
+  return 0
+}
