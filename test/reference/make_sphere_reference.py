@@ -845,6 +845,25 @@ def run_cases(cases, angles_flag, do_res, label):
     return out
 
 
+def large_cases():
+    """Spheres beyond x = 1000, kept apart because each takes minutes at 40 digits."""
+    return [
+        {'id': 'm=1.5+0i,x=1500.0', 'x': 1500.0, 'm': [1.5, 0.0], 'tags': ['large_x', 'nonabsorbing']},
+        {'id': 'm=1.33+0.001i,x=1200.0', 'x': 1200.0, 'm': [1.33, 0.001], 'tags': ['large_x', 'weakly_absorbing']},
+    ]
+
+
+def run_large_cases():
+    t_all = time.time()
+    res = run_cases(large_cases(), False, False, 'large')
+    recs = [case_record(c, r, s) for c, r, s in res]
+    obj = file_object(recs, CONVENTIONS, {'validation': {'run_time_seconds': round(time.time() - t_all)}})
+    path = os.path.join(HERE, 'sphere-reference-large.json')
+    with open(path, 'w') as f:
+        f.write(jdump(obj) + '\n')
+    log('wrote', path)
+
+
 def crosschecks(hres, cres):
     """Coated cases that must reduce to homogeneous ones."""
     lines = []
@@ -879,6 +898,8 @@ def main():
     ap.add_argument('--no-write', action='store_true')
     ap.add_argument('--no-resonance', action='store_true')
     ap.add_argument('--skip-coated', action='store_true')
+    ap.add_argument('--large', action='store_true',
+                    help='only the cases beyond x = 1000 (slow: minutes each), written to sphere-reference-large.json')
     args = ap.parse_args()
     t_all = time.time()
     # default precision for everything done outside evaluate() (checks, comparisons)
@@ -890,6 +911,9 @@ def main():
         raise SystemExit('Bessel self-test failed')
     _rb_cache.clear()
 
+    if args.large:
+        run_large_cases()
+        return
     H = homog_cases()
     Wt = water_cases()
     Ct = [] if args.skip_coated else coated_cases()
