@@ -22,7 +22,7 @@ import {
   checkSphereDomain,
   efficienciesFromCoefficients,
   fillLogDerivative,
-  fillPsi,
+  fillLogDerivativeAndPsi,
   MieWorkspace,
   seriesFromLogDerivatives,
   seriesLength,
@@ -115,8 +115,7 @@ export function coatedSphereEfficiencies(
   const ayi = m2i * xShell
   fillLogDerivative(nTerms, m1r * xCore, m1i * xCore, ws.d1Re, ws.d1Im)
   fillLogDerivative(nTerms, axr, axi, ws.d2xRe, ws.d2xIm)
-  fillLogDerivative(nTerms, ayr, ayi, ws.d2yRe, ws.d2yIm)
-  fillPsi(nTerms, xShell, ws.psi)
+  fillLogDerivativeAndPsi(nTerms, xShell, ayr, ayi, ws.d2yRe, ws.d2yIm, ws.psi)
 
   // 1/z for z = m2 x and m2 y
   const ax2 = axr * axr + axi * axi

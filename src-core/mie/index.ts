@@ -10,5 +10,5 @@ export {
 export type { SphereEfficiencies } from './sphere.ts'
 export { AngularTable, angularFromCoefficients, newAngularScattering } from './angles.ts'
 export type { AngularScattering } from './angles.ts'
-export { fillLogDerivative, fillPsi, seriesFromLogDerivatives } from './sphere.ts'
+export { fillLogDerivative, fillLogDerivativeAndPsi, seriesFromLogDerivatives } from './sphere.ts'
 export { CoatedWorkspace, coatedSphereEfficiencies } from './coated.ts'

@@ -186,15 +186,30 @@ export function fillLogDerivative(nTerms: number, zr: number, zi: number, re: Fl
 }
 
 /**
- * psi_n(x) = x j_n(x) for n = 0..nTerms into `psi`: the ratios psi_n/psi_{n−1} = 1/(D_n(x) + n/x) come
- * from the real D_n(x) by downward recurrence (exact start), then psi_n = psi_0 · Π ratios with
- * psi_0 = sin x. No cancellation, so tiny x keeps full relative accuracy.
+ * D_n(mx) for n = 1..nTerms into (re, im), as fillLogDerivative, and with it psi_n(x) = x j_n(x) for
+ * n = 0..nTerms into `psi`: the ratios psi_n/psi_{n−1} = 1/(D_n(x) + n/x) come from the real D_n(x) by the
+ * same downward recurrence (exact start), then psi_n = psi_0 · Π ratios with psi_0 = sin x. No
+ * cancellation, so tiny x keeps full relative accuracy. The two recurrences are independent chains of
+ * divisions, run in one loop so that they overlap.
  */
-export function fillPsi(nTerms: number, x: number, psi: Float64Array): void {
+export function fillLogDerivativeAndPsi(nTerms: number, x: number, zr: number, zi: number, re: Float64Array, im: Float64Array, psi: Float64Array): void {
+  logDerivativeByContinuedFraction(nTerms, zr, zi, cfOut)
+  let dr = cfOut[0]
+  let di = cfOut[1]
   logDerivativeByContinuedFraction(nTerms, x, 0, cfOut)
   let dx = cfOut[0]
+  const zz = zr * zr + zi * zi
+  const izr = zr / zz
+  const izi = -zi / zz
   const ix = 1 / x
   for (let n = nTerms; n >= 1; n--) {
+    re[n] = dr
+    im[n] = di
+    const tr = dr + n * izr
+    const ti = di + n * izi
+    const inv = 1 / (tr * tr + ti * ti)
+    dr = n * izr - tr * inv
+    di = n * izi + ti * inv
     const shrink = 1 / (dx + n * ix)
     psi[n] = shrink
     dx = n * ix - shrink
@@ -277,8 +292,7 @@ export function seriesFromLogDerivatives(
 function computeCoefficients(x: number, mr: number, mi: number, ws: MieWorkspace): number {
   const nTerms = seriesLength(x)
   ws.ensure(nTerms + 2)
-  fillLogDerivative(nTerms, mr * x, mi * x, ws.dRe, ws.dIm)
-  fillPsi(nTerms, x, ws.psi)
+  fillLogDerivativeAndPsi(nTerms, x, mr * x, mi * x, ws.dRe, ws.dIm, ws.psi)
   seriesFromLogDerivatives(x, mr, mi, nTerms, ws, ws.dRe, ws.dIm, ws.dRe, ws.dIm)
   return nTerms
 }
