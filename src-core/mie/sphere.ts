@@ -168,36 +168,25 @@ const cfOut = new Float64Array(2)
  * the fraction's cost grows only as (|z| − N)/2.
  */
 export function fillLogDerivative(nTerms: number, zr: number, zi: number, re: Float64Array, im: Float64Array): void {
-  logDerivativeByContinuedFraction(nTerms, zr, zi, cfOut)
-  let dr = cfOut[0]
-  let di = cfOut[1]
-  const zz = zr * zr + zi * zi
-  const izr = zr / zz
-  const izi = -zi / zz
-  for (let n = nTerms; n >= 1; n--) {
-    re[n] = dr
-    im[n] = di
-    const tr = dr + n * izr
-    const ti = di + n * izi
-    const inv = 1 / (tr * tr + ti * ti)
-    dr = n * izr - tr * inv
-    di = n * izi + ti * inv
-  }
+  fillLogDerivativeAndPsi(nTerms, 1, zr, zi, re, im, null)
 }
 
 /**
- * D_n(mx) for n = 1..nTerms into (re, im), as fillLogDerivative, and with it psi_n(x) = x j_n(x) for
- * n = 0..nTerms into `psi`: the ratios psi_n/psi_{n−1} = 1/(D_n(x) + n/x) come from the real D_n(x) by the
- * same downward recurrence (exact start), then psi_n = psi_0 · Π ratios with psi_0 = sin x. No
- * cancellation, so tiny x keeps full relative accuracy. The two recurrences are independent chains of
- * divisions, run in one loop so that they overlap.
+ * D_n(z) as fillLogDerivative and, when `psi` is given, psi_n(x) = x j_n(x) for n = 0..nTerms into it: the
+ * ratios psi_n/psi_{n−1} = 1/(D_n(x) + n/x) come from the real D_n(x) by the same downward recurrence
+ * (exact start), then psi_n = psi_0 · Π ratios with psi_0 = sin x. No cancellation, so tiny x keeps full
+ * relative accuracy. The two recurrences are independent chains of divisions, run in one loop so that
+ * they overlap.
  */
-export function fillLogDerivativeAndPsi(nTerms: number, x: number, zr: number, zi: number, re: Float64Array, im: Float64Array, psi: Float64Array): void {
+export function fillLogDerivativeAndPsi(nTerms: number, x: number, zr: number, zi: number, re: Float64Array, im: Float64Array, psi: Float64Array | null): void {
   logDerivativeByContinuedFraction(nTerms, zr, zi, cfOut)
   let dr = cfOut[0]
   let di = cfOut[1]
-  logDerivativeByContinuedFraction(nTerms, x, 0, cfOut)
-  let dx = cfOut[0]
+  let dx = 0
+  if (psi) {
+    logDerivativeByContinuedFraction(nTerms, x, 0, cfOut)
+    dx = cfOut[0]
+  }
   const zz = zr * zr + zi * zi
   const izr = zr / zz
   const izi = -zi / zz
@@ -210,10 +199,13 @@ export function fillLogDerivativeAndPsi(nTerms: number, x: number, zr: number, z
     const inv = 1 / (tr * tr + ti * ti)
     dr = n * izr - tr * inv
     di = n * izi + ti * inv
-    const shrink = 1 / (dx + n * ix)
-    psi[n] = shrink
-    dx = n * ix - shrink
+    if (psi) {
+      const shrink = 1 / (dx + n * ix)
+      psi[n] = shrink
+      dx = n * ix - shrink
+    }
   }
+  if (!psi) return
   psi[0] = Math.sin(x)
   for (let n = 1; n <= nTerms; n++) psi[n] *= psi[n - 1]
 }
