@@ -18,7 +18,7 @@ const inTextField = (t: EventTarget | null) => t instanceof HTMLElement && (t.ta
 /** Keyboard shortcuts. On the desktop the menu's accelerators send the file commands instead. */
 function onKey(e: KeyboardEvent): void {
   const mod = e.ctrlKey || e.metaKey
-  if (e.altKey && !mod && /^[1-5]$/.test(e.key)) {
+  if (e.altKey && !mod && /^[1-8]$/.test(e.key)) {
     e.preventDefault()
     showView(VIEWS[Number(e.key) - 1].id)
     return

@@ -1,6 +1,6 @@
 // What the views show for each sample: its last good result, whether it is stale, and its line style.
 import type { Sample, SampleResult } from '../src-core/index.ts'
-import { problemsOf, sampleKey } from './compute/client.ts'
+import { affectsOptics, problemsOf, sampleKey } from './compute/client.ts'
 import { lineStyle, type LineStyle } from './charts/palette.ts'
 import type { AppState } from './state/store.ts'
 
@@ -21,7 +21,7 @@ export function sampleState(s: AppState, id: string, position = 0): ShownSample 
   if (i < 0) return null
   const r = s.results[id]
   const blocked =
-    problemsOf(s.problems, i).length > 0 || Object.keys(s.drafts).some((p) => !p.startsWith('samples[') || p.startsWith(`samples[${i}]`))
+    problemsOf(s.problems, i).length > 0 || Object.keys(s.drafts).some((p) => affectsOptics(p) && !p.startsWith('samples[') || p.startsWith(`samples[${i}]`))
   const stale = !r?.result || blocked || r.key !== sampleKey(s.study, i) || !!r.error
   return { id, index: i, sample: s.study.samples[i], result: r?.result, stale, error: r?.error, style: lineStyle(position, s.theme) }
 }

@@ -18,6 +18,9 @@ export interface Line {
   steps?: boolean
   /** Which y axis (0 left, 1 right). */
   axis?: 0 | 1
+  /** Draw as bars centred on the x values (histograms), filled with `fill`. */
+  bars?: boolean
+  fill?: string
 }
 
 export interface ChartProps {
@@ -34,6 +37,8 @@ export interface ChartProps {
   /** Where the x axis has its tick labels (log wavelength axes). */
   xTicks?: number[]
   yRange?: [number, number]
+  /** Where the y axis has its tick labels and grid lines (log axes). */
+  yTicks?: number[]
   height?: number
   theme: Theme
   /** Extra drawing under the lines (heat maps) or over them (markers). */
@@ -91,7 +96,7 @@ function options(p: ChartProps, width: number, el: Element): uPlot.Options {
     scales,
     legend: { show: true, live: false },
     cursor: { drag: { x: false, y: false }, points: { show: false } },
-    axes: [axis(p.xLabel, undefined, p.xTicks), axis(p.yLabel), ...(p.y2Label ? [{ ...axis(p.y2Label, 1), scale: 'y2' }] : [])],
+    axes: [axis(p.xLabel, undefined, p.xTicks), axis(p.yLabel, undefined, p.yTicks), ...(p.y2Label ? [{ ...axis(p.y2Label, 1), scale: 'y2' }] : [])],
     series: [
       { label: p.xLabel },
       ...p.lines.map(
@@ -103,7 +108,8 @@ function options(p: ChartProps, width: number, el: Element): uPlot.Options {
           scale: l.axis === 1 ? 'y2' : 'y',
           spanGaps: !!l.steps,
           ...(l.points ? { paths: () => null, points: { show: true, size: 9, stroke: l.stroke, fill: l.stroke } } : { points: { show: false } }),
-          ...(l.steps ? { paths: uPlot.paths.stepped?.({ align: 1 }) } : {})
+          ...(l.steps ? { paths: uPlot.paths.stepped?.({ align: 1 }) } : {}),
+          ...(l.bars ? { paths: uPlot.paths.bars?.({ size: [0.96, Infinity], align: 0 }), fill: l.fill ?? l.stroke, width: l.width ?? 1 } : {})
         })
       )
     ],
@@ -172,7 +178,7 @@ export function Chart(p: ChartProps) {
       u.destroy()
       plot.current = null
     }
-  }, [p.data, p.lines, p.theme, p.height, p.xLabel, p.yLabel, p.xRange?.[0], p.xRange?.[1], p.yRange?.[0], p.yRange?.[1], p.xTicks?.join(), p.drawUnder, p.drawOver])
+  }, [p.data, p.lines, p.theme, p.height, p.xLabel, p.yLabel, p.xRange?.[0], p.xRange?.[1], p.yRange?.[0], p.yRange?.[1], p.xTicks?.join(), p.yTicks?.join(), p.drawUnder, p.drawOver])
 
   const savePng = () => {
     const u = plot.current

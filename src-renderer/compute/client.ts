@@ -24,9 +24,12 @@ export function sampleKey(study: Study, index: number): string {
   return JSON.stringify([study.samples[index], study.site, study.wavelengths_nm, study.user_materials ?? [], study.verdict_margin_w_m2 ?? null])
 }
 
+/** False for the uncertainty settings: they change no sample's optics (the uncertainty view shows their problems). */
+export const affectsOptics = (path: string): boolean => !/^uncertainty(\.|\[|$)/.test(path)
+
 /** Problems that block sample `i` (its own, and those of the study as a whole). */
 export function problemsOf(problems: StudyProblem[], i: number): StudyProblem[] {
-  return problems.filter((p) => !p.path.startsWith('samples[') || p.path.startsWith(`samples[${i}]`))
+  return problems.filter((p) => affectsOptics(p.path) && (!p.path.startsWith('samples[') || p.path.startsWith(`samples[${i}]`)))
 }
 
 function onOptics(m: FromWorker): void {
@@ -78,7 +81,7 @@ function run(): void {
 
   const items: { id: string; key: string; study: Study }[] = []
   const results = { ...s.results }
-  const draftPaths = Object.keys(s.drafts)
+  const draftPaths = Object.keys(s.drafts).filter(affectsOptics)
   study.samples.forEach((sample, i) => {
     const id = s.ids[i]
     const key = sampleKey(study, i)

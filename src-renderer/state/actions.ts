@@ -129,7 +129,20 @@ export function duplicateSample(id: string): void {
 }
 
 export function renameSample(id: string, name: string): void {
-  editSample(id, (s) => (s.name = name), 'name')
+  editSample(
+    id,
+    (s, study) => {
+      // The sample's uncertain inputs are kept by its name: they follow it.
+      const u = study.uncertainty as { samples?: Record<string, unknown> } | undefined
+      const mine = u?.samples?.[s.name]
+      if (u?.samples && mine !== undefined && !study.samples.some((x) => x !== s && x.name === s.name) && !(name in u.samples)) {
+        delete u.samples[s.name]
+        u.samples[name] = mine
+      }
+      s.name = name
+    },
+    'name'
+  )
 }
 
 export function deleteSample(id: string): void {

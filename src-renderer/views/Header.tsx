@@ -1,4 +1,5 @@
 // The top bar: the study's name, file actions, exports, the computing status and the cautions.
+import { affectsOptics } from '../compute/client.ts'
 import { cancel, exportCsv, exportJson, importSizer, newStudy, openDemo, openReport, openStudy, save } from '../commands.ts'
 import { host } from '../host/index.ts'
 import { edit } from '../state/actions.ts'
@@ -6,7 +7,7 @@ import { store, useApp } from '../state/store.ts'
 
 function Status() {
   const s = useApp()
-  const stale = Object.keys(s.drafts).length > 0 || s.problems.length > 0
+  const stale = Object.keys(s.drafts).some(affectsOptics) || s.problems.some((p) => affectsOptics(p.path))
   return (
     <span class="status-group" role="status">
       {s.job.running && (

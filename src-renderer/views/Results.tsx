@@ -1,4 +1,4 @@
-// The results area: one view at a time, chosen by tabs (Alt+1…5).
+// The results area: one view at a time, chosen by tabs (Alt+1…8); the last three are tools run on request.
 import type { JSX } from 'preact'
 import { showView } from '../state/actions.ts'
 import { useApp, type ViewName } from '../state/store.ts'
@@ -7,14 +7,20 @@ import { AnglesView } from './AnglesView.tsx'
 import { ClimateView } from './ClimateView.tsx'
 import { CompareView } from './CompareView.tsx'
 import { HumidityView } from './HumidityView.tsx'
+import { ClosureView } from './ClosureView.tsx'
+import { InstrumentView } from './InstrumentView.tsx'
+import { UncertaintyView } from './UncertaintyView.tsx'
 import { OpticsView } from './OpticsView.tsx'
 
-export const VIEWS: { id: ViewName; label: string; render: () => JSX.Element }[] = [
+export const VIEWS: { id: ViewName; label: string; render: () => JSX.Element; tool?: boolean }[] = [
   { id: 'optics', label: 'Optics by wavelength', render: () => <OpticsView /> },
   { id: 'angles', label: 'Scattering angles', render: () => <AnglesView /> },
   { id: 'humidity', label: 'Humidity f(RH)', render: () => <HumidityView /> },
   { id: 'climate', label: 'Warming or cooling', render: () => <ClimateView /> },
-  { id: 'compare', label: 'Side by side', render: () => <CompareView /> }
+  { id: 'compare', label: 'Side by side', render: () => <CompareView /> },
+  { id: 'uncertainty', label: 'How sure is the verdict', render: () => <UncertaintyView />, tool: true },
+  { id: 'closure', label: 'Index from measurements', render: () => <ClosureView />, tool: true },
+  { id: 'instruments', label: 'Instrument corrections', render: () => <InstrumentView />, tool: true }
 ]
 
 export function Results() {
@@ -43,6 +49,7 @@ export function Results() {
             onClick={() => showView(v.id)}
             onKeyDown={(e) => onKey(e, i)}
             data-tab={v.id}
+            class={v.tool ? `tool-tab${VIEWS[i - 1]?.tool ? '' : ' first-tool'}` : undefined}
           >
             {v.label}
             {v.id === 'compare' && isComparing(s) ? ` (${s.compare.length})` : ''}
@@ -56,6 +63,7 @@ export function Results() {
         class="result-panel"
         tabIndex={0}
         data-fresh={shownSamples(s).every((x) => x.result && !x.stale) ? 'true' : 'false'}
+        data-current={current.id}
       >
         {current.render()}
       </div>
