@@ -1,5 +1,5 @@
 // One output row of `motebench series`: the figures of one distribution, shared by the command, its workers and the bench.
-import { binOpticsKernels, opticsFromBinKernels, OpticsWorkspace, type BinKernels, type BinLayout, type Sample, type UserMaterialSpec } from '../../src-core/index.ts'
+import { binOpticsKernels, InputError, opticsFromBinKernels, OpticsWorkspace, type BinKernels, type BinLayout, type Sample, type UserMaterialSpec } from '../../src-core/index.ts'
 
 /** What every row of a series shares: the sample (composition, humidity, layer), wavelengths and accuracy. */
 export interface SeriesSetup {
@@ -45,5 +45,19 @@ export class SeriesRowComputer {
     for (const w of o.wavelengths) out.push(w.ext, w.sca, w.abs, w.ssa, w.g)
     out.push(o.number_cm3, o.volume_um3_cm3, o.mass_ug_m3)
     return out
+  }
+}
+
+/** One row's outcome, as a worker posts it back (or the main thread records it). */
+export type RowResult = { seq: number; ok: true; cells: number[] } | { seq: number; ok: false; where: string; message: string; fix: string; internal: boolean }
+
+/** Computes one row, turning a refusal into a result that says why (internal: not the input's fault). */
+export function computeRow(computer: SeriesRowComputer, bins: BinLayout | undefined, seq: number, values: number[]): RowResult {
+  try {
+    if (!bins) throw new Error('rows arrived before the bin layout')
+    return { seq, ok: true, cells: computer.cells(bins, values) }
+  } catch (e) {
+    if (e instanceof InputError) return { seq, ok: false, where: e.where, message: e.message, fix: e.fix, internal: false }
+    return { seq, ok: false, where: '', message: (e as Error)?.stack ?? String(e), fix: '', internal: true }
   }
 }

@@ -24,7 +24,7 @@ import {
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
-import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
+import { computeRow, SeriesRowComputer, seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, RowResult, ToWorker } from './workers/series-worker.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
@@ -34,7 +34,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   --wavelengths LIST    e.g. 450,550,700nm (default: the study's wavelengths)
   --out FILE            write the CSV to FILE (it appears only when complete) instead of standard output
   --on-bad-row P        skip (default: leave bad rows out, list them, exit status 1) or stop (at the first, exit 2)
-  --workers N           worker threads (default: the number of processors, ${availableParallelism()} here)
+  --workers N           worker threads beside the main thread, which computes rows too (default: one fewer
+                        than the processors, at least 1: ${Math.max(1, availableParallelism() - 1)} here)
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are
                         integrated once and every row is a weighted sum of them
   --diameter-unit U     nm or um, when the file does not say
@@ -44,8 +45,10 @@ Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
 /** Rows sent to one worker at a time, and rows read ahead of the last written per worker. */
-const IN_FLIGHT_PER_WORKER = 3
-const WINDOW_PER_WORKER = 8
+/** Rows per message to a worker, rows a worker may hold, and rows read ahead of the writer per worker. */
+const BATCH = 16
+const IN_FLIGHT_PER_WORKER = 2 * BATCH
+const WINDOW_PER_WORKER = 8 * BATCH
 /** Reasons kept for the summary (the counts go on). */
 const KEPT_REASONS = 1000
 
@@ -109,8 +112,12 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const source: AsyncIterable<string> = { [Symbol.asyncIterator]: () => lineIterator }
   const started = performance.now()
   const setup: SeriesSetup = { sample: o.sample, userMaterials: o.userMaterials, wavelengthsNm: o.wavelengthsNm, tolerance: o.tolerance }
-  const workers: { worker: Worker; inFlight: number }[] = []
+  const workers: { worker: Worker; inFlight: number; ready: boolean }[] = []
   const window = WINDOW_PER_WORKER * o.workers
+  // The main thread computes a row itself whenever every worker is full; worker threads take a few seconds to
+  // load, and until then it does all the work.
+  const local = new SeriesRowComputer(setup)
+  let localBins: BinLayout | undefined
   const queue: { seq: number; values: number[] }[] = []
   const meta = new Map<number, RowMeta>()
   const done = new Map<number, RowResult>()
@@ -139,11 +146,20 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const pump = (): void => {
     while (queue.length > 0 && !failure) {
       let best: (typeof workers)[number] | undefined
-      for (const w of workers) if (w.inFlight < IN_FLIGHT_PER_WORKER && (!best || w.inFlight < best.inFlight)) best = w
-      if (!best) return
-      const row = queue.shift()!
-      best.inFlight++
-      best.worker.postMessage({ type: 'rows', rows: [row] } satisfies ToWorker)
+      for (const w of workers) {
+        const room = (w.ready ? IN_FLIGHT_PER_WORKER : BATCH) - w.inFlight
+        if (room >= Math.min(BATCH, queue.length) && (!best || w.inFlight < best.inFlight)) best = w
+      }
+      if (best) {
+        const rows = queue.splice(0, BATCH)
+        best.inFlight += rows.length
+        best.worker.postMessage({ type: 'rows', rows } satisfies ToWorker)
+      } else {
+        // every worker is full (or still loading): the main thread takes the row
+        const row = queue.shift()!
+        done.set(row.seq, computeRow(local, localBins, row.seq, row.values))
+        flush()
+      }
     }
   }
 
@@ -183,6 +199,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   }
 
   const onMessage = (w: (typeof workers)[number], m: FromWorker): void => {
+    w.ready = true
     w.inFlight -= m.results.length
     for (const r of m.results) done.set(r.seq, r)
     flush()
@@ -192,7 +209,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
 
   for (let i = 0; i < o.workers; i++) {
     const worker = new Worker(new URL('./workers/series-bootstrap.mjs', import.meta.url), { workerData: setup })
-    const entry = { worker, inFlight: 0 }
+    const entry = { worker, inFlight: 0, ready: false }
     worker.on('message', (m: FromWorker) => onMessage(entry, m))
     worker.on('error', (e) => fail(new Error(`a worker thread failed: ${e.message}`)))
     worker.on('exit', (code) => {
@@ -211,6 +228,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         const h = reader.header!
         const bins: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
         for (const w of workers) w.worker.postMessage({ type: 'bins', bins } satisfies ToWorker)
+        localBins = bins
         binsSent = true
       }
       const seq = nextSeq++
@@ -382,7 +400,7 @@ export async function runSeries(argv: string[]): Promise<number> {
   if (values.sample === undefined) throw new UsageError('series: --sample is required: the name of a sample of the study')
   const policy = values['on-bad-row'] ?? 'skip'
   if (policy !== 'skip' && policy !== 'stop') throw new UsageError(`series: --on-bad-row "${policy}" is not skip or stop`)
-  const workers = readInteger(values.workers, '--workers', 1, 64, availableParallelism())
+  const workers = readInteger(values.workers, '--workers', 1, 64, Math.max(1, availableParallelism() - 1))
   const tolerance = readTolerance(values.tolerance, 1e-4)
   const sizer: SeriesRunOptions['sizer'] = {}
   if (values['diameter-unit'] !== undefined) {
