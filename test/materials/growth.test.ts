@@ -10,16 +10,7 @@ import {
   waterVolumeFraction,
   wetRefractiveIndex
 } from '../../src-core/index.ts'
-
-function thrownMessage(fn: () => unknown): string {
-  try {
-    fn()
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError)
-    return (e as Error).message
-  }
-  throw new Error('expected an InputError')
-}
+import { thrownMessage } from './helpers.ts'
 
 const NO_KELVIN = { kelvin: false } as const
 

@@ -1,3 +1,5 @@
+import { expect } from 'vitest'
+import { InputError } from '../../src-core/index.ts'
 // Test-side complex arithmetic, written independently of src-core so the checks do not mirror the code.
 export interface C {
   re: number
@@ -15,3 +17,14 @@ export const div = (a: C, b: C): C => {
 export const abs = (a: C): number => Math.hypot(a.re, a.im)
 /** ε = m² from m = n + ik. */
 export const eps = (m: { n: number; k: number }): C => mul(c(m.n, m.k), c(m.n, m.k))
+
+/** The message of the InputError that `fn` throws (fails the test if it throws anything else, or nothing). */
+export function thrownMessage(fn: () => unknown): string {
+  try {
+    fn()
+  } catch (e) {
+    expect(e).toBeInstanceOf(InputError)
+    return (e as Error).message
+  }
+  throw new Error('expected an InputError')
+}

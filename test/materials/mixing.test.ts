@@ -1,21 +1,11 @@
 import { describe, expect, it } from 'vitest'
 import { InputError, MIXING_RULES, mixRefractiveIndices, type ComplexRefractiveIndex, type MixingRule } from '../../src-core/index.ts'
-import { abs, add, c, div, eps, mul, scale, sub, type C } from './helpers.ts'
+import { abs, add, c, div, eps, mul, scale, sub, thrownMessage, type C } from './helpers.ts'
 
 // Test indices: water and black carbon at 550 nm (Hale & Querry 1973; Bond & Bergstrom 2006, from memory), dust-like.
 const WATER = { n: 1.333, k: 2e-9 }
 const BC = { n: 1.95, k: 0.79 }
 const DUST = { n: 1.53, k: 0.008 }
-
-function thrownMessage(fn: () => unknown): string {
-  try {
-    fn()
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError)
-    return (e as Error).message
-  }
-  throw new Error('expected an InputError')
-}
 
 function expectIndexClose(a: ComplexRefractiveIndex, b: ComplexRefractiveIndex, tol: number): void {
   expect(Math.abs(a.n - b.n)).toBeLessThanOrEqual(tol)

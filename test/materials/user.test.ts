@@ -1,17 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { InputError, defineUserMaterial, refractiveIndexAt } from '../../src-core/index.ts'
+import { thrownMessage } from './helpers.ts'
 
 const STUDY = [0.35, 0.55, 1.0]
-
-function thrownMessage(fn: () => unknown): string {
-  try {
-    fn()
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError)
-    return (e as Error).message
-  }
-  throw new Error('expected an InputError')
-}
 
 describe('user components: constant index', () => {
   it('returns the same index at every wavelength', () => {
