@@ -6,6 +6,9 @@ import { InputError } from '../errors.ts'
 import { defineUserMaterial, type Material } from '../materials/index.ts'
 import {
   BIN_SHAPE,
+  binNumberConcentration,
+  binSurfaceConcentration,
+  binVolumeConcentration,
   binsFromMeasurement,
   binValues,
   dNdlnD,
@@ -14,7 +17,10 @@ import {
   modeFromMass,
   modeFromNumber,
   modeFromVolume,
+  numberConcentration,
   particulateMatter,
+  surfaceConcentration,
+  volumeConcentration,
   particulateMatterBins,
   type LognormalMode,
   type SizeBins
@@ -112,19 +118,27 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
 }
 
 /**
- * The diameter range of a mode for optics: all but 1e-7 of its volume (third moment), extended upward to
- * hold the sixth moment (which carries Rayleigh scattering) as far as particles stay small next to the
- * longest wavelength (x ≤ 2 there), beyond which cross-sections grow no faster than D².
+ * The diameter range of a mode for optics: all but 1e-6 of its second moment, which carries the
+ * cross-sections of particles large next to the wavelength (C ∝ D²), extended upward to hold the sixth moment
+ * (which carries Rayleigh scattering, C ∝ D⁶) as far as particles stay small next to the longest wavelength
+ * (x ≤ 2 there). What is left out is ~1e-6 of σ, a hundredth of the integration tolerance.
  */
 function modeSegment(mode: LognormalMode, longestWavelengthUm: number): SizeSegment {
-  const r3 = integrationRange([mode], { highestMoment: 3, tailFraction: 1e-7 })
-  const r6 = integrationRange([mode], { highestMoment: 6, tailFraction: 1e-7 })
+  const r2 = integrationRange([mode], { highestMoment: 2, tailFraction: 1e-6 })
+  const r6 = integrationRange([mode], { highestMoment: 6, tailFraction: 1e-6 })
   const small = (2 * longestWavelengthUm) / Math.PI
-  const hi = Math.max(r3.max, Math.min(r6.max, small))
-  return { lo: Math.log(r3.min), hi: Math.log(hi), flat: false, density: (u) => dNdlnD(mode, Math.exp(u)) }
+  const hi = Math.max(r2.max, Math.min(r6.max, small))
+  return { lo: Math.log(r2.min), hi: Math.log(hi), flat: false, density: (u) => dNdlnD(mode, Math.exp(u)) }
 }
 
-/** Dry and wet volume (µm³ cm⁻³) and dry mass (µg m⁻³) of the populations at a humidity. */
+const GAUSS2 = [0.5 - 0.5 / Math.sqrt(3), 0.5 + 0.5 / Math.sqrt(3)]
+
+/**
+ * Number, surface, dry and wet volume (µm³ cm⁻³) and dry and wet mass (µg m⁻³) of the populations at a
+ * humidity. The dry moments are exact (Hatch–Choate for modes, exact bin integrals for bins); the water taken
+ * up, whose growth factor depends on size through the Kelvin term, scales each population's dry volume by the
+ * volume-weighted mean of gf³, integrated by 2-point Gauss panels in ln D over the population's range.
+ */
 function populationVolumes(pops: SamplePopulation[], cond: Conditions): { dryVolume: number; wetVolume: number; dryMass: number; wetMass: number; number: number; surface: number } {
   let dryVolume = 0
   let wetVolume = 0
@@ -132,26 +146,30 @@ function populationVolumes(pops: SamplePopulation[], cond: Conditions): { dryVol
   let number = 0
   let surface = 0
   for (const p of pops) {
-    // ∫ (π/6) D³ (gf³) dN over ln D by Gauss–Legendre on the population's segments (smooth integrand)
+    const n = p.mode ? numberConcentration(p.mode) : binNumberConcentration(p.bins!)
+    const s = p.mode ? surfaceConcentration(p.mode) : binSurfaceConcentration(p.bins!)
+    const v = p.mode ? volumeConcentration(p.mode) : binVolumeConcentration(p.bins!)
+    let vSum = 0
+    let wetSum = 0
     for (const seg of p.segments) {
-      const n = p.mode ? 96 : 8
-      const h = (seg.hi - seg.lo) / n
-      for (let i = 0; i < n; i++) {
-        // midpoint panels with 2-point Gauss each
-        for (const off of [0.5 - 0.5 / Math.sqrt(3), 0.5 + 0.5 / Math.sqrt(3)]) {
+      const panels = p.mode ? 96 : 8
+      const h = (seg.hi - seg.lo) / panels
+      for (let i = 0; i < panels; i++) {
+        for (const off of GAUSS2) {
           const u = seg.lo + (i + off) * h
           const d = Math.exp(u)
-          const dn = seg.density(u) * h * 0.5
-          const v = (Math.PI / 6) * d * d * d
+          const dv = seg.density(u) * d * d * d
           const gf = particleGrowth(p.kind, d, cond.rhPercent, cond.history, cond.temperatureK)
-          number += dn
-          surface += dn * Math.PI * d * d
-          dryVolume += dn * v
-          wetVolume += dn * v * gf * gf * gf
-          dryMass += dn * v * p.kind.densityGcm3
+          vSum += dv
+          wetSum += dv * gf * gf * gf
         }
       }
     }
+    number += n
+    surface += s
+    dryVolume += v
+    wetVolume += vSum > 0 ? (v * wetSum) / vSum : v
+    dryMass += v * p.kind.densityGcm3
   }
   // water density 0.997 g cm⁻³ (Kell 1975, from memory)
   return { dryVolume, wetVolume, dryMass, wetMass: dryMass + (wetVolume - dryVolume) * 0.997, number, surface }

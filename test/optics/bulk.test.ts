@@ -167,3 +167,14 @@ describe('size distribution curves for plotting', () => {
     expect(c.measured).toBe(false)
   })
 })
+
+describe('concentrations of a sample', () => {
+  it('dry mass is the Hatch–Choate volume times density, and wet equals dry without uptake (Seinfeld & Pandis ch. 8)', () => {
+    const s = oneModeStudy({ kind: 'modes', modes: [{ by: 'number', number_cm3: 1500, median_um: 0.08, gsd: 1.9 }] }, { components: [{ material: 'black-carbon', volume_fraction: 1 }], mixing: 'volume-average' }, [550], 90)
+    const r = computeSampleOptics(s.sample, s.study, { angularWavelengthsNm: [] })
+    const v = (Math.PI / 6) * 1500 * 0.08 ** 3 * Math.exp(4.5 * Math.log(1.9) ** 2)
+    expect(rel(r.volume_um3_cm3, v)).toBeLessThan(1e-12)
+    expect(rel(r.mass_ug_m3, 1.8 * v)).toBeLessThan(1e-12) // black carbon 1.8 g cm⁻³ (Bond & Bergstrom 2006)
+    expect(r.wet_volume_um3_cm3).toBe(r.volume_um3_cm3) // κ = 0: no water even at 90 %
+  })
+})
