@@ -4,46 +4,25 @@ import { readdirSync } from 'node:fs'
 import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, describe, expect, test } from 'vitest'
-import { buildAndServe, isLocal, launchChromium, ROOT, type Served } from './harness.ts'
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, test } from 'vitest'
+import { appSession, isLocal, ROOT } from './harness.ts'
 
-let served: Served
-let browser: Browser
 let scratch: string
-const requests: string[] = []
-const contexts: BrowserContext[] = []
+const session = appSession()
+const requests = session.requests
 
 beforeAll(async () => {
   scratch = await mkdtemp(join(tmpdir(), 'motebench-e2e-files-'))
-  browser = await launchChromium()
-  served = await buildAndServe()
-}, 180_000)
-
-// Close each test's pages, so that their workers stop computing and leave the CPU to the next test.
-afterEach(async () => {
-  for (const c of contexts.splice(0)) await c.close().catch(() => {})
 })
 
 afterAll(async () => {
-  await browser?.close()
-  await served?.close()
   if (scratch) await rm(scratch, { recursive: true, force: true })
 })
 
 /** A fresh browser profile with the app open on the demo study (results of the selected sample computed unless `wait` is false). */
 async function openApp(opts: { keepCautions?: boolean; wait?: boolean } = {}): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1366, height: 768 }, acceptDownloads: true })
-  contexts.push(context)
-  context.on('request', (r) => requests.push(r.url()))
-  const page = await context.newPage()
-  const errors: string[] = []
-  page.on('pageerror', (e) => errors.push(e.message))
-  await page.goto(served.url)
-  if (!opts.keepCautions) {
-    await page.getByTestId('cautions-ok').click()
-  }
-  if (opts.wait !== false && !opts.keepCautions) await waitForResults(page)
+  const { page, errors } = await session.open(opts)
   expect(errors).toEqual([])
   return page
 }

@@ -6,7 +6,8 @@ import { mkdtemp, readFile, rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { extname, join, normalize, resolve } from 'node:path'
 import type { AddressInfo } from 'node:net'
-import { chromium, type Browser } from 'playwright-core'
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
+import { afterAll, afterEach, beforeAll } from 'vitest'
 
 export const ROOT = resolve(import.meta.dirname, '../..')
 export const CHROMIUM = process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium'
@@ -82,4 +83,45 @@ export function isLocal(url: string): boolean {
   } catch {
     return false
   }
+}
+
+/**
+ * The shared set-up of an end-to-end test file: one build, server and browser for the file (hooks registered
+ * here), a fresh browser context per `open()` closed after each test, and every request URL recorded.
+ */
+export function appSession(): {
+  open: (o?: { keepCautions?: boolean; wait?: boolean }) => Promise<{ page: Page; errors: string[] }>
+  requests: string[]
+  url: () => string
+} {
+  let served: Served | undefined
+  let browser: Browser | undefined
+  const requests: string[] = []
+  const contexts: BrowserContext[] = []
+  beforeAll(async () => {
+    browser = await launchChromium()
+    served = await buildAndServe()
+  }, 180_000)
+  // Close each test's pages, so that their workers stop computing and leave the CPU to the next test.
+  afterEach(async () => {
+    for (const c of contexts.splice(0)) await c.close().catch(() => {})
+  })
+  afterAll(async () => {
+    await browser?.close()
+    await served?.close()
+  })
+  /** The app in a fresh profile on the demo study; unless told otherwise, cautions dismissed and results computed. */
+  const open = async (o: { keepCautions?: boolean; wait?: boolean } = {}) => {
+    const context = await browser!.newContext({ viewport: { width: 1366, height: 768 }, acceptDownloads: true })
+    contexts.push(context)
+    context.on('request', (r) => requests.push(r.url()))
+    const page = await context.newPage()
+    const errors: string[] = []
+    page.on('pageerror', (e) => errors.push(e.message))
+    await page.goto(served!.url)
+    if (!o.keepCautions) await page.getByTestId('cautions-ok').click()
+    if (o.wait !== false && !o.keepCautions) await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 60_000 })
+    return { page, errors }
+  }
+  return { open, requests, url: () => served!.url }
 }

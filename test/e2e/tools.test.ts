@@ -1,43 +1,14 @@
 // End-to-end: the three tool views (how sure is the verdict, index from measurements, instrument corrections) in
 // the web build, in headless Chromium, with one build, server and browser for the whole file.
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, describe, expect, test } from 'vitest'
+import type { Page } from 'playwright-core'
+import { describe, expect, test } from 'vitest'
 import { getMaterial, mixRefractiveIndices, refractiveIndexAt } from '../../src-core/index.ts'
-import { buildAndServe, isLocal, launchChromium, type Served } from './harness.ts'
+import { appSession, isLocal } from './harness.ts'
 
-let served: Served
-let browser: Browser
-const requests: string[] = []
-const contexts: BrowserContext[] = []
-
-beforeAll(async () => {
-  browser = await launchChromium()
-  served = await buildAndServe()
-}, 180_000)
-
-// Close each test's pages, so that their workers stop and leave the CPU to the next test.
-afterEach(async () => {
-  for (const c of contexts.splice(0)) await c.close().catch(() => {})
-})
-
-afterAll(async () => {
-  await browser?.close()
-  await served?.close()
-})
-
+const session = appSession()
+const requests = session.requests
 /** The app on the demo study, cautions dismissed, the selected sample's results computed. */
-async function openApp(): Promise<{ page: Page; errors: string[] }> {
-  const context = await browser.newContext({ viewport: { width: 1366, height: 768 } })
-  contexts.push(context)
-  context.on('request', (r) => requests.push(r.url()))
-  const page = await context.newPage()
-  const errors: string[] = []
-  page.on('pageerror', (e) => errors.push(e.message))
-  await page.goto(served.url)
-  await page.getByTestId('cautions-ok').click()
-  await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 60_000 })
-  return { page, errors }
-}
+const openApp = () => session.open()
 
 const tab = (page: Page, id: string) => page.locator(`[data-tab="${id}"]`).click()
 
