@@ -39,7 +39,8 @@ function onOptics(m: FromWorker): void {
   else if (m.type === 'finished') store().set({ job: { ...s.job, running: false } })
   else if (m.type === 'result') {
     const shown: ShownResult = { key: m.key, result: m.result }
-    cache.set(m.key, shown)
+    // a partial result (its f(RH) curve still to come) is shown but not kept for reuse
+    if (!m.partial) cache.set(m.key, shown)
     store().set({ results: { ...s.results, [m.id]: shown } })
   } else if (m.type === 'failed') {
     const old = s.results[m.id]

@@ -9,7 +9,8 @@ export type ToWorker =
   | { type: 'sizes'; job: number; items: { id: string; sample: Sample; userMaterials: UserMaterialSpec[] }[] }
 
 export type FromWorker =
-  | { type: 'result'; job: number; id: string; key: string; result: SampleResult }
+  /** `partial`: the f(RH) curve is still to come (a second result for the same key follows). */
+  | { type: 'result'; job: number; id: string; key: string; result: SampleResult; partial?: boolean }
   | { type: 'failed'; job: number; id: string; key: string; message: string }
   | { type: 'progress'; job: number; done: number; total: number }
   | { type: 'finished'; job: number }

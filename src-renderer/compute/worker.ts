@@ -1,7 +1,9 @@
 // The computing worker: all physics runs here, through src-core's public API only.
 import {
   evaluateStudy,
+  humidityGrowthCurve,
   sizeDistributionCurves,
+  type SampleResult,
   type Sample,
   type UserMaterialSpec
 } from '../../src-core/index.ts'
@@ -31,16 +33,31 @@ self.onmessage = (e: MessageEvent<ToWorker>) => {
     }
     return
   }
-  const total = m.items.length
+  // Two passes: every sample's optics and forcing first (posted as partial results), then the f(RH) curves,
+  // which cost one more integration per humidity and would otherwise hold the figures back.
+  const total = 2 * m.items.length
   post({ type: 'progress', job: m.job, done: 0, total })
-  m.items.forEach((item, i) => {
+  const partial = m.items.map((item, i) => {
+    let r: SampleResult | undefined
     try {
-      const r = evaluateStudy(item.study)
-      post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r.samples[0] })
+      r = evaluateStudy(item.study, { skipHumidityCurve: true }).samples[0]
+      post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
     } catch (err) {
       post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })
     }
     post({ type: 'progress', job: m.job, done: i + 1, total })
+    return r
+  })
+  m.items.forEach((item, i) => {
+    const r = partial[i]
+    if (r) {
+      try {
+        post({ type: 'result', job: m.job, id: item.id, key: item.key, result: { ...r, humidity: humidityGrowthCurve(item.study, 0) } })
+      } catch (err) {
+        post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })
+      }
+    }
+    post({ type: 'progress', job: m.job, done: m.items.length + i + 1, total })
   })
   post({ type: 'finished', job: m.job })
 }

@@ -10,7 +10,8 @@ import { StaleNote, Swatch, withResults } from './common.tsx'
 export function HumidityView() {
   const s = useApp()
   const shown = shownSamples(s)
-  const ok = withResults(shown)
+  // a result whose f(RH) curve is still being computed (a partial result) has no points yet
+  const ok = withResults(shown).filter((x) => x.result.humidity.f.length > 0)
   const stale = shown.some((x) => x.stale)
   const chart = useMemo(() => {
     if (!ok.length) return null
@@ -75,7 +76,7 @@ export function HumidityView() {
           </table>
         </>
       ) : (
-        <p class="empty">No humidity results yet.</p>
+        <p class="empty">{withResults(shown).length ? 'The f(RH) curve is being computed…' : 'No humidity results yet.'}</p>
       )}
     </div>
   )

@@ -114,6 +114,8 @@ async function main(): Promise<void> {
       await page.screenshot({ path: join(OUT, `optics-${theme}.png`) })
       for (const tab of ['angles', 'humidity', 'climate'] as const) {
         await page.locator(`[data-tab="${tab}"]`).click()
+        // the f(RH) curve follows the other figures (a second pass in the worker)
+        if (tab === 'humidity') await page.locator('[data-view="humidity"] canvas').first().waitFor({ timeout: 60_000 })
         await page.waitForTimeout(300)
         await page.screenshot({ path: join(OUT, `${tab}-${theme}.png`) })
       }
