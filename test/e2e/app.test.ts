@@ -106,6 +106,22 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(await sigmaExt550(page)).toBeGreaterThan(0)
   })
 
+  test('a sizer file dropped on the window is imported like one chosen from the menu', async () => {
+    const page = await openApp({ wait: false })
+    const text = await readFile(join(ROOT, 'resources', 'sizer-single-comma.csv'), 'utf8')
+    // a drop event carrying the file, as the browser makes it when a file is dragged onto the page
+    const transfer = await page.evaluateHandle((t) => {
+      const dt = new DataTransfer()
+      dt.items.add(new File([t], 'sizer-single-comma.csv', { type: 'text/csv' }))
+      return dt
+    }, text)
+    await page.locator('.app').dispatchEvent('dragover', { dataTransfer: transfer })
+    await page.locator('.app').dispatchEvent('drop', { dataTransfer: transfer })
+    await page.getByTestId('sizer-apply').click()
+    await page.getByTestId('bins-panel').waitFor()
+    expect(await page.locator('.sample-item').count()).toBe(6)
+  })
+
   test('a broken sizer file is refused with its line number', async () => {
     const page = await openApp({ wait: false })
     const good = await readFile(join(ROOT, 'resources', 'sizer-single-comma.csv'), 'utf8')
@@ -120,6 +136,23 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(await notice.textContent()).toContain(`line ${k + 1}`)
     expect(await notice.textContent()).toMatch(/not imported/)
     expect(await page.locator('.sample-item').count()).toBe(5)
+  })
+
+  test('after an unclean close, the recovery copy is offered and restores the unsaved edit', async () => {
+    const page = await openApp({ wait: false })
+    await page.getByTestId('sample-name').fill('Edited before a crash')
+    // the copy is written periodically while there are unsaved changes
+    await expect.poll(() => page.evaluate(() => localStorage.getItem('motebench.recovery') ?? ''), { timeout: 40_000 }).toContain('Edited before a crash')
+    // reopen the page as after a crash (no save, no clean close): the app asks, and restores on yes
+    const asked: string[] = []
+    page.on('dialog', (d) => {
+      asked.push(d.message())
+      void d.accept()
+    })
+    await page.evaluate(() => (window.onbeforeunload = null))
+    await page.reload()
+    await page.locator('.sample-item[data-sample="Edited before a crash"]').waitFor({ timeout: 30_000 })
+    expect(asked.some((m) => /recovery copy/i.test(m))).toBe(true)
   })
 
   test('saving and reopening gives the same study', async () => {
@@ -138,6 +171,35 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     const resaved = join(scratch, 'resaved.mote')
     await second.saveAs(resaved)
     expect(await readFile(resaved, 'utf8')).toBe(text)
+  })
+
+  test('results export as CSV and JSON, and a chart as a PNG picture', async () => {
+    const page = await openApp()
+    const sigma = await sigmaExt550(page)
+    const download = async (click: () => Promise<void>, name: string) => {
+      const [d] = await Promise.all([page.waitForEvent('download'), click()])
+      const path = join(scratch, name)
+      await d.saveAs(path)
+      return readFile(path)
+    }
+    // CSV: a header row naming units, and the 550 nm σext of the selected sample as the table shows it
+    const csv = (await download(() => page.getByTestId('export-csv').click(), 'results.csv')).toString('utf8')
+    const lines = csv.trim().split(/\r?\n/)
+    expect(lines[0]).toMatch(/Mm/)
+    expect(lines.length).toBeGreaterThan(13)
+    const header = lines[0].split(',')
+    const extCol = header.findIndex((h) => /ext/i.test(h) && /Mm/.test(h))
+    const wlCol = header.findIndex((h) => /wavelength/i.test(h))
+    expect(extCol).toBeGreaterThanOrEqual(0)
+    const row550 = lines.find((l) => l.split(',')[wlCol] === '550')
+    expect(row550).toBeDefined()
+    expect(Math.abs(Number(row550!.split(',')[extCol]) - sigma) / sigma).toBeLessThan(1e-3)
+    // JSON: parses, and holds the study and its results
+    const json = JSON.parse((await download(() => page.getByTestId('export-json').click(), 'results.json')).toString('utf8'))
+    expect(JSON.stringify(json)).toContain('Winter wood smoke')
+    // PNG: the file starts with the PNG signature (ISO/IEC 15948)
+    const png = await download(() => page.locator('figure.chart button', { hasText: 'PNG' }).first().click(), 'chart.png')
+    expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])
   })
 
   test('compare: two marked samples overlay in the charts and sit side by side in one table', async () => {
