@@ -1,7 +1,7 @@
 // Warming or cooling: the site, the verdict in plain words with its numbers, the forcing map over surface
 // albedo and ω, and the thin-layer and two-stream estimates side by side.
 import { useMemo } from 'preact/hooks'
-import { SURFACE_TYPES, type SampleForcing, type Site } from '../../src-core/index.ts'
+import { DEFAULT_VERDICT_MARGIN_WM2, SURFACE_TYPES, type SampleForcing, type Site } from '../../src-core/index.ts'
 import { ESTIMATE_CAUTION } from '../cautions.ts'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { drawHeat, drawOverlays } from '../charts/forcingMap.ts'
@@ -18,6 +18,7 @@ const siteEdit = (f: (s: Site) => void, key?: string) => edit((st) => f(st.site)
 function SiteForm() {
   const s = useApp()
   const site = s.study.site
+  const margin = s.study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2
   const surface = SURFACE_TYPES.find((t) => t.id === site.surface)
   return (
     <fieldset class="site">
@@ -53,6 +54,17 @@ function SiteForm() {
         <Field path="site.day_of_year" label="Day of year" value={site.day_of_year} read={readNumber('day of year')} write={(v) => String(v)} hint="1–366" width="3.5em" commit={(v) => siteEdit((x) => (x.day_of_year = v), 'day')} />
         <Field path="site.cloud_fraction" label="Cloud fraction" value={site.cloud_fraction} read={readNumber('cloud fraction')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.cloud_fraction = v), 'cloud')} />
         <Field path="site.transmittance" label="Transmittance above" value={site.transmittance} read={readNumber('transmittance')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.transmittance = v), 'trans')} />
+        <Field
+          path="verdict_margin_w_m2"
+          label="Too close to call within"
+          value={margin}
+          read={readNumber('verdict margin')}
+          write={(v) => num(v, 3)}
+          hint="W m⁻²"
+          width="3.5em"
+          title="Below this |ΔF| the verdict is “too close to call”"
+          commit={(v) => edit((st) => (st.verdict_margin_w_m2 = v), 'margin')}
+        />
       </div>
     </fieldset>
   )

@@ -235,6 +235,22 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(ssa).toBeLessThan(crit)
   })
 
+  test("the study's wavelengths and the verdict's margin are edited in place", async () => {
+    const page = await openApp()
+    const rows = page.locator('[data-testid="optics-table"] tbody tr')
+    const field = page.locator('[data-path="wavelengths_nm"]')
+    // a list out of order is refused at the field and the last good table stays
+    await field.fill('550, 450')
+    await expect.poll(() => page.locator('[data-error-for="wavelengths_nm"]').textContent()).toMatch(/ascending/)
+    expect(await rows.count()).toBe(13)
+    await field.fill('450, 550, 700')
+    await expect.poll(() => rows.count(), { timeout: 60_000 }).toBe(3)
+    // a margin larger than this forcing (about 1 W m⁻²) makes the verdict "too close to call" (|ΔF| < margin)
+    await page.locator('[data-tab="climate"]').click()
+    await page.locator('[data-path="verdict_margin_w_m2"]').fill('100')
+    await expect.poll(() => page.getByTestId('verdict').getAttribute('data-verdict'), { timeout: 60_000 }).toBe('too close to call')
+  })
+
   test('no request leaves the machine', () => {
     expect(requests.length).toBeGreaterThan(0)
     expect(requests.filter((u) => !isLocal(u))).toEqual([])
