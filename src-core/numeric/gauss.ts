@@ -10,6 +10,20 @@ export interface QuadratureRule {
 }
 
 const cache = new Map<number, QuadratureRule>()
+const pd = new Float64Array(2)
+
+/** P_n(z) and P_n'(z) into out[0], out[1], by the three-term recurrence (n ≥ 1, |z| < 1). */
+function legendreAt(n: number, z: number, out: Float64Array): void {
+  let p0 = 1
+  let p1 = z
+  for (let k = 2; k <= n; k++) {
+    const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k
+    p0 = p1
+    p1 = p2
+  }
+  out[0] = p1
+  out[1] = n === 1 ? 1 : (n * (z * p1 - p0)) / (z * z - 1)
+}
 
 export function gaussLegendre(n: number): QuadratureRule {
   if (!Number.isInteger(n) || n < 1) throw new RangeError(`gaussLegendre: n must be a positive integer, got ${n}`)
@@ -20,34 +34,14 @@ export function gaussLegendre(n: number): QuadratureRule {
   const half = (n + 1) >> 1
   for (let i = 0; i < half; i++) {
     let z = Math.cos((Math.PI * (i + 0.75)) / (n + 0.5))
-    let dp = 0
     for (let iter = 0; iter < 100; iter++) {
-      let p0 = 1
-      let p1 = z
-      for (let k = 2; k <= n; k++) {
-        const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k
-        p0 = p1
-        p1 = p2
-      }
-      if (n === 1) {
-        p1 = z
-        p0 = 1
-      }
-      dp = (n * (z * p1 - p0)) / (z * z - 1)
-      const dz = p1 / dp
+      legendreAt(n, z, pd)
+      const dz = pd[0] / pd[1]
       z -= dz
       if (Math.abs(dz) < 1e-16) break
     }
-    // recompute derivative at the converged node
-    let p0 = 1
-    let p1 = z
-    for (let k = 2; k <= n; k++) {
-      const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k
-      p0 = p1
-      p1 = p2
-    }
-    dp = n === 1 ? 1 : (n * (z * p1 - p0)) / (z * z - 1)
-    const w = 2 / ((1 - z * z) * dp * dp)
+    legendreAt(n, z, pd) // the derivative at the converged node
+    const w = 2 / ((1 - z * z) * pd[1] * pd[1])
     nodes[i] = -z
     nodes[n - 1 - i] = z
     weights[i] = w
