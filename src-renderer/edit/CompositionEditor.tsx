@@ -1,6 +1,6 @@
 // What the particles are made of: components from the catalogue (or the study's own), their volume fractions,
 // how they mix, and optional density and κ.
-import { listMaterials, type Composition, type MixingName, type UserMaterialSpec } from '../../src-core/index.ts'
+import { listMaterials, type Composition, type MixingName, type Sample, type UserMaterialSpec } from '../../src-core/index.ts'
 import { num } from '../format.ts'
 import { editSample } from '../state/actions.ts'
 import { ErrorRow, Field, problemAt, readNumber, readOptional } from './Field.tsx'
@@ -13,17 +13,29 @@ const MIXING: { id: MixingName; label: string; help: string }[] = [
   { id: 'core-shell', label: 'Core–shell', help: 'The first component is the core, the others form the shell.' }
 ]
 
-export function CompositionEditor(p: { id: string; index: number; composition: Composition; userMaterials: UserMaterialSpec[] }) {
-  const base = `samples[${p.index}].composition`
+/** The composition a sample's editor changes: the sample's own (`mode` absent) or that of one of its modes. */
+function compositionOf(s: Sample, mode?: number): Composition | undefined {
+  if (mode === undefined) return s.composition
+  return s.size.kind === 'modes' ? s.size.modes[mode]?.composition : undefined
+}
+
+export function CompositionEditor(p: { id: string; index: number; composition: Composition; userMaterials: UserMaterialSpec[]; mode?: number }) {
+  const base = p.mode === undefined ? `samples[${p.index}].composition` : `samples[${p.index}].size.modes[${p.mode}].composition`
+  /** Names the controls of a mode's editor apart from the sample's. */
+  const of = p.mode === undefined ? '' : ` of mode ${p.mode + 1}`
   const c = p.composition
   const materials = [...listMaterials().filter((m) => m.id !== 'water').map((m) => ({ id: m.id, name: m.name })), ...p.userMaterials.map((u) => ({ id: u.id, name: `${u.name} (own)` }))]
   const sumProblem = problemAt(`${base}.components`) ?? problemAt(base)
-  const change = (f: (c: Composition) => void, key?: string) => editSample(p.id, (s) => f(s.composition), key)
+  const change = (f: (c: Composition) => void, key?: string) =>
+    editSample(p.id, (s) => {
+      const cc = compositionOf(s, p.mode)
+      if (cc) f(cc)
+    }, key && `${base}.${key}`)
   const mixing = MIXING.find((m) => m.id === c.mixing)
   return (
     <div class="composition">
       <table class="grid-table comp-table">
-        <caption class="sr-only">Components by volume fraction of the dry particle</caption>
+        <caption class="sr-only">Components{of} by volume fraction of the dry particle</caption>
         <thead>
           <tr>
             <th scope="col">Component{c.mixing === 'core-shell' ? ' (first = core)' : c.mixing === 'maxwell-garnett' ? ' (first = host)' : ''}</th>
@@ -39,7 +51,7 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
             <tr data-component={k.material}>
               <td>
                 <select
-                  aria-label={`Component ${j + 1}`}
+                  aria-label={`Component ${j + 1}${of}`}
                   value={k.material}
                   data-path={`${base}.components[${j}].material`}
                   onChange={(e) => {
@@ -58,19 +70,19 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
                 <Field
                   bare
                   path={`${base}.components[${j}].volume_fraction`}
-                  label={`Volume fraction of component ${j + 1}`}
+                  label={`Volume fraction of component ${j + 1}${of}`}
                   value={k.volume_fraction}
                   read={readNumber('volume fraction')}
                   write={(v) => num(v, 4)}
                   width="5em"
-                  commit={(v) => change((cc) => (cc.components[j].volume_fraction = v), `${base}.f${j}`)}
+                  commit={(v) => change((cc) => (cc.components[j].volume_fraction = v), `f${j}`)}
                 />
               </td>
               <td>
                 <button
                   type="button"
                   class="small ghost"
-                  aria-label={`Remove component ${j + 1}`}
+                  aria-label={`Remove component ${j + 1}${of}`}
                   disabled={c.components.length <= 1}
                   onClick={() => change((cc) => void cc.components.splice(j, 1))}
                 >
@@ -112,7 +124,7 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
       </div>
       <div class="row wrap">
         <label class="field">
-          <span>Mixing</span>
+          <span>Mixing{of}</span>
           <select value={c.mixing} onChange={(e) => change((cc) => (cc.mixing = (e.target as HTMLSelectElement).value as MixingName))} data-path={`${base}.mixing`}>
             {MIXING.map((m) => (
               <option value={m.id} key={m.id}>
@@ -124,23 +136,23 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
         </label>
         <Field
           path={`${base}.density_g_cm3`}
-          label="Dry density"
+          label={`Dry density${of}`}
           value={c.density_g_cm3}
           read={readOptional('density')}
           write={(v) => (v === undefined ? '' : num(v, 4))}
           hint="g cm⁻³ (blank: from components)"
           width="4.5em"
-          commit={(v) => change((cc) => (v === undefined ? delete cc.density_g_cm3 : (cc.density_g_cm3 = v)), `${base}.density`)}
+          commit={(v) => change((cc) => (v === undefined ? delete cc.density_g_cm3 : (cc.density_g_cm3 = v)), 'density')}
         />
         <Field
           path={`${base}.kappa`}
-          label="Hygroscopicity κ"
+          label={`Hygroscopicity κ${of}`}
           value={c.kappa}
           read={readOptional('κ')}
           write={(v) => (v === undefined ? '' : num(v, 4))}
           hint="(blank: from components)"
           width="4.5em"
-          commit={(v) => change((cc) => (v === undefined ? delete cc.kappa : (cc.kappa = v)), `${base}.kappa`)}
+          commit={(v) => change((cc) => (v === undefined ? delete cc.kappa : (cc.kappa = v)), 'kappa')}
         />
       </div>
     </div>

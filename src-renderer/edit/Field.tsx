@@ -20,6 +20,8 @@ export interface FieldProps<T> {
   bare?: boolean
   width?: string
   title?: string
+  /** Words rather than a number (ids, names, expressions): the text keyboard on touch screens. */
+  text?: boolean
 }
 
 function reason(e: unknown): string {
@@ -82,7 +84,7 @@ export function Field<T>(p: FieldProps<T>) {
         <input
           id={id}
           type="text"
-          inputMode="decimal"
+          inputMode={p.text ? 'text' : 'decimal'}
           spellcheck={false}
           autocomplete="off"
           value={text}

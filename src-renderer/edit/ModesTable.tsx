@@ -1,5 +1,7 @@
-// The lognormal modes of a sample: amount (by number, volume or mass), median diameter and GSD.
-import { parseLength, type ModeSpec } from '../../src-core/index.ts'
+// The lognormal modes of a sample: amount (by number, volume or mass), median diameter and GSD, and what each is
+// made of: the sample's composition, or one of its own (modes of different compositions form an external mixture).
+import { parseLength, type ModeSpec, type UserMaterialSpec } from '../../src-core/index.ts'
+import { CompositionEditor } from './CompositionEditor.tsx'
 import { diameter, num } from '../format.ts'
 import { editSample } from '../state/actions.ts'
 import { ErrorRow, Field, readNumber } from './Field.tsx'
@@ -13,7 +15,7 @@ const BY = {
 
 const amountOf = (m: ModeSpec): number => (m.by === 'number' ? m.number_cm3 : m.by === 'volume' ? m.volume_um3_cm3 : m.mass_ug_m3)
 
-export function ModesTable(p: { id: string; index: number; modes: ModeSpec[] }) {
+export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; userMaterials: UserMaterialSpec[] }) {
   const base = `samples[${p.index}].size.modes`
   return (
     <div class="modes">
@@ -28,6 +30,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[] }) 
               Median D
             </th>
             <th scope="col" title="Geometric standard deviation σg (> 1)">σg</th>
+            <th scope="col" title="The sample's composition, or one of the mode's own (an external mixture of differently made modes)">Made of</th>
             <th scope="col">
               <span class="sr-only">Remove</span>
             </th>
@@ -54,7 +57,6 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[] }) 
                       }, `${path}.name`)
                     }}
                   />
-                  {m.composition && <span class="own-comp" title="This mode has a composition of its own">own composition</span>}
                 </td>
                 <td>
                   <select
@@ -130,6 +132,26 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[] }) 
                   />
                 </td>
                 <td>
+                  <select
+                    aria-label={`Mode ${j + 1} made of`}
+                    value={m.composition ? 'own' : 'sample'}
+                    data-path={`${path}.composition`}
+                    onChange={(e) => {
+                      const own = (e.target as HTMLSelectElement).value === 'own'
+                      editSample(p.id, (s) => {
+                        if (s.size.kind !== 'modes') return
+                        const mm = s.size.modes[j]
+                        // an own composition starts as a copy of the sample's, to be changed from there
+                        if (own) mm.composition = structuredClone(s.composition)
+                        else delete mm.composition
+                      })
+                    }}
+                  >
+                    <option value="sample">sample's composition</option>
+                    <option value="own">own composition</option>
+                  </select>
+                </td>
+                <td>
                   <button
                     type="button"
                     class="small ghost"
@@ -146,7 +168,15 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[] }) 
                   </button>
                 </td>
               </tr>
-              <ErrorRow span={6} paths={[`${path}.${by.key}`, `${path}.median_um`, `${path}.gsd`, path]} />
+              <ErrorRow span={7} paths={[`${path}.${by.key}`, `${path}.median_um`, `${path}.gsd`, path]} />
+              {m.composition && (
+                <tr class="mode-composition" data-mode-composition={j}>
+                  <td colSpan={7}>
+                    <p class="mode-composition-head">Own composition of {m.name || `mode ${j + 1}`}</p>
+                    <CompositionEditor id={p.id} index={p.index} mode={j} composition={m.composition} userMaterials={p.userMaterials} />
+                  </td>
+                </tr>
+              )}
               </Fragment>
             )
           })}

@@ -4,6 +4,7 @@ import { problemsOf } from '../compute/client.ts'
 import { CompositionEditor } from '../edit/CompositionEditor.tsx'
 import { Conditions } from '../edit/Conditions.tsx'
 import { ModesTable } from '../edit/ModesTable.tsx'
+import { OwnComponents } from '../edit/OwnComponents.tsx'
 import { diameter, num } from '../format.ts'
 import { editSample, renameSample } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
@@ -88,12 +89,16 @@ export function SampleEditor() {
       )}
       <fieldset>
         <legend>Size distribution</legend>
-        {sample.size.kind === 'modes' ? <ModesTable id={id} index={i} modes={sample.size.modes} /> : <BinsPanel id={id} bins={sample.size.bins} />}
+        {sample.size.kind === 'modes' ? <ModesTable id={id} index={i} modes={sample.size.modes} userMaterials={s.study.user_materials ?? []} /> : <BinsPanel id={id} bins={sample.size.bins} />}
         <SizePlot />
       </fieldset>
       <fieldset>
         <legend>Composition</legend>
+        {sample.size.kind === 'modes' && sample.size.modes.some((m) => m.composition) && (
+          <p class="hint block">Used by the modes made of the sample's composition; the others have their own (under the size distribution).</p>
+        )}
         <CompositionEditor id={id} index={i} composition={sample.composition} userMaterials={s.study.user_materials ?? []} />
+        <OwnComponents />
       </fieldset>
       <fieldset>
         <legend>Humidity and layer</legend>
