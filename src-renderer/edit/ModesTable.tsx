@@ -30,7 +30,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
               Median D
             </th>
             <th scope="col" title="Geometric standard deviation σg (> 1)">σg</th>
-            <th scope="col" title="The sample's composition, or one of the mode's own (an external mixture of differently made modes)">Made of</th>
+            <th scope="col" title="Ticked: the mode has a composition of its own (an external mixture of differently made modes)">Own mix</th>
             <th scope="col">
               <span class="sr-only">Remove</span>
             </th>
@@ -132,12 +132,15 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
                   />
                 </td>
                 <td>
-                  <select
-                    aria-label={`Mode ${j + 1} made of`}
-                    value={m.composition ? 'own' : 'sample'}
+                  <input
+                    type="checkbox"
+                    class="made-of"
+                    aria-label={`Mode ${j + 1} has a composition of its own`}
+                    title="Ticked: this mode has a composition of its own (an external mixture); else it is made of the sample's composition"
+                    checked={!!m.composition}
                     data-path={`${path}.composition`}
                     onChange={(e) => {
-                      const own = (e.target as HTMLSelectElement).value === 'own'
+                      const own = (e.target as HTMLInputElement).checked
                       editSample(p.id, (s) => {
                         if (s.size.kind !== 'modes') return
                         const mm = s.size.modes[j]
@@ -146,10 +149,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
                         else delete mm.composition
                       })
                     }}
-                  >
-                    <option value="sample">sample's composition</option>
-                    <option value="own">own composition</option>
-                  </select>
+                  />
                 </td>
                 <td>
                   <button

@@ -72,8 +72,8 @@ describe('own components and per-mode compositions', { timeout: 120_000 }, () =>
     const shared = await sigmaAbs550(page)
 
     const madeOf = page.locator(`[data-path="samples[${i}].size.modes[1].composition"]`)
-    expect(await madeOf.inputValue()).toBe('sample')
-    await madeOf.selectOption('own')
+    expect(await madeOf.isChecked()).toBe(false)
+    await madeOf.check()
     const own = page.locator(`[data-path="samples[${i}].size.modes[1].composition.components[0].material"]`)
     await own.waitFor()
     await own.selectOption('black-carbon')
@@ -84,7 +84,7 @@ describe('own components and per-mode compositions', { timeout: 120_000 }, () =>
     expect(await page.locator(`[data-path="samples[${i}].composition.components[0].material"]`).inputValue()).toBe('ammonium-sulfate')
 
     // back to the sample's composition: σabs returns to the sulfate value
-    await madeOf.selectOption('sample')
+    await madeOf.uncheck()
     await expect.poll(() => sigmaAbs550(page), { timeout: 60_000 }).toBe(shared)
   })
 })
