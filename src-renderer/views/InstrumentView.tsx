@@ -3,7 +3,7 @@
 // for the sample's index.
 import { Fragment } from 'preact'
 import { useEffect } from 'preact/hooks'
-import { InputError, parseLength, PSL_INDEX, type RebinResult } from '../../src-core/index.ts'
+import { InputError, parseLength, parseWavelengthList, PSL_INDEX, type RebinResult } from '../../src-core/index.ts'
 import { affectsOptics, problemsOf } from '../compute/client.ts'
 import type { ToolProblem, TruncationRow } from '../compute/toolMessages.ts'
 import { askSampleIndex, runRebinFor, runTruncationFor, stopRun } from '../compute/tools.ts'
@@ -42,13 +42,8 @@ function readResponse(t: string): { angles_deg: number[]; weight: number[] } | u
   return { angles_deg, weight }
 }
 
-/** Wavelengths in nm, comma-separated; bare numbers are in nm. */
-function readWavelengths(t: string): number[] {
-  const list = t.split(/[,;\s]+/).filter(Boolean)
-  if (!list.length) throw new InputError('wavelengths', 'no wavelength was given', 'Give one or more wavelengths in nm, e.g. 450, 550, 700.')
-  if (list.length > 8) throw new InputError('wavelengths', `${list.length} wavelengths were given`, 'Give at most 8.')
-  return list.map((x) => Math.round(parseLength(x, 'wavelength', 'nm') * 1000 * 1e6) / 1e6)
-}
+/** Wavelengths in nm, comma-separated; bare numbers are in nm; at most 8. */
+const readWavelengths = (t: string): number[] => parseWavelengthList(t, 'wavelengths', { max: 8 })
 
 /** Bin edges in µm (bare numbers), ascending. */
 function readEdges(t: string): number[] {

@@ -9,22 +9,10 @@ import { edit } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { sampleState, shownSamples } from '../shown.ts'
 import { StaleNote, withResults } from './common.tsx'
-import { InputError, type WavelengthOptics } from '../../src-core/index.ts'
+import { parseWavelengthList, type WavelengthOptics } from '../../src-core/index.ts'
 
-/** "350, 400, 550" (commas, semicolons or spaces) → ascending wavelengths in nm. */
-function readWavelengths(text: string): number[] {
-  const parts = text.split(/[,;\s]+/).filter((p) => p !== '')
-  if (!parts.length) throw new InputError('wavelengths', 'no wavelengths were given', 'Type at least one, such as 550.')
-  const values = parts.map((p) => {
-    const v = Number(p)
-    if (!Number.isFinite(v) || v <= 0) throw new InputError('wavelengths', `"${p}" is not a wavelength in nm`, 'Type positive numbers in nm, such as 450, 550, 700.')
-    return v
-  })
-  for (let i = 1; i < values.length; i++) {
-    if (!(values[i] > values[i - 1])) throw new InputError('wavelengths', `${values[i]} nm does not follow ${values[i - 1]} nm in ascending order`, 'List the wavelengths from shortest to longest, each once.')
-  }
-  return values
-}
+/** "350, 400, 550" (commas, semicolons or spaces; units allowed) → ascending wavelengths in nm. */
+const readWavelengths = (text: string): number[] => parseWavelengthList(text, 'wavelengths', { ascending: true })
 
 export const TABLE_COLUMNS: { head: string; title: string; get: (w: WavelengthOptics) => string }[] = [
   { head: 'λ (nm)', title: 'Wavelength', get: (w) => num(w.wavelength_nm, 5) },
