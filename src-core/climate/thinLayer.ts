@@ -11,8 +11,7 @@
  * Negative ΔF means the layer cools (less solar energy kept by the Earth–atmosphere system).
  */
 import { InputError } from '../errors.ts'
-import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2 } from './constants.ts'
-import { checkRange, checkRangeOpenLow } from './validate.ts'
+import { atmosphereAbove, checkRange, checkRangeOpenLow } from './validate.ts'
 
 /** Inputs of the global-mean thin-layer estimate. All dimensionless unless noted. */
 export interface ThinLayerInput {
@@ -52,13 +51,7 @@ function thinInputs(i: ThinLayerInput) {
   checkRange('omega', i.omega, 0, 1)
   checkRange('upscatter', i.upscatter, 0, 1)
   checkRange('surfaceAlbedo', i.surfaceAlbedo, 0, 1)
-  const T = i.transmittance ?? DEFAULT_ATMOSPHERIC_TRANSMITTANCE
-  const Ac = i.cloudFraction ?? DEFAULT_CLOUD_FRACTION
-  const S0 = i.solarConstant ?? SOLAR_CONSTANT_WM2
-  checkRange('transmittance', T, 0, 1)
-  checkRange('cloudFraction', Ac, 0, 1)
-  checkRange('solarConstant', S0, 0, 1e5, 'W m⁻²')
-  return { T, Ac, S0 }
+  return atmosphereAbove(i)
 }
 
 /**

@@ -22,10 +22,9 @@
  *   A = (1 − ω') [ 2 ∫₀^τ₁ (F↑ + F↓) dτ + 1 − e^{−τ₁/μ₀} ],
  * so that R + T + A = 1 is a real check of the solution.
  */
-import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2 } from './constants.ts'
 import { sunlitDayQuadrature } from './insolation.ts'
 import { gaussLegendreOn } from '../numeric/index.ts'
-import { checkRange, checkRangeOpenLow } from './validate.ts'
+import { atmosphereAbove, checkRange, checkRangeOpenLow } from './validate.ts'
 
 /** Largest asymmetry parameter accepted (the delta scaling degenerates as g → 1). */
 const G_MAX = 0.99
@@ -279,12 +278,7 @@ export function twoStreamForcing(input: TwoStreamForcingInput): TwoStreamForcing
   checkLayer(input)
   checkRangeOpenLow('cosZenith', input.cosZenith, 0, 1)
   checkRange('surfaceAlbedo', input.surfaceAlbedo, 0, 1)
-  const T = input.transmittance ?? DEFAULT_ATMOSPHERIC_TRANSMITTANCE
-  const Ac = input.cloudFraction ?? DEFAULT_CLOUD_FRACTION
-  const S0 = input.solarConstant ?? SOLAR_CONSTANT_WM2
-  checkRange('transmittance', T, 0, 1)
-  checkRange('cloudFraction', Ac, 0, 1)
-  checkRange('solarConstant', S0, 0, 1e5, 'W m⁻²')
+  const { T, Ac, S0 } = atmosphereAbove(input)
   const inc = input.incidentFluxWm2 ?? S0 * input.cosZenith
   checkRange('incidentFluxWm2', inc, 0, 1e5, 'W m⁻²')
   const s = scaleUnchecked(input)
@@ -337,11 +331,8 @@ export interface DailyTwoStreamResult {
 export function dailyMeanTwoStreamForcing(input: DailyTwoStreamInput): DailyTwoStreamResult {
   checkLayer(input)
   checkRange('surfaceAlbedo', input.surfaceAlbedo, 0, 1)
-  const T = input.transmittance ?? DEFAULT_ATMOSPHERIC_TRANSMITTANCE
-  const Ac = input.cloudFraction ?? DEFAULT_CLOUD_FRACTION
-  checkRange('transmittance', T, 0, 1)
-  checkRange('cloudFraction', Ac, 0, 1)
-  const q = sunlitDayQuadrature(input.latitudeDeg, input.dayOfYear, input.nodes ?? 20, input.solarConstant ?? SOLAR_CONSTANT_WM2)
+  const { T, Ac, S0 } = atmosphereAbove(input)
+  const q = sunlitDayQuadrature(input.latitudeDeg, input.dayOfYear, input.nodes ?? 20, S0)
   let toa = 0
   let sfc = 0
   if (q.cosZenith.length > 0) {

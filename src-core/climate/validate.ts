@@ -1,5 +1,6 @@
 /** Input checks private to the climate module. Each throws InputError with a plain-words fix. */
 import { InputError } from '../errors.ts'
+import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2 } from './constants.ts'
 
 export function checkFinite(where: string, value: number): void {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
@@ -37,4 +38,18 @@ export function evalChecked(where: string, f: (mu0: number) => number, mu0: numb
     throw new InputError(where, `the function returned ${String(v)} at cos(solar zenith) = ${mu0}, outside ${lo} to ${hi}`, `Make the function return a number from ${lo} to ${hi} for every cos(solar zenith) in (0, 1].`)
   }
   return v
+}
+
+/**
+ * The atmosphere above the layer with its defaults filled in and checked: transmittance T (0.76) and cloud
+ * fraction A_c (0.6) after Haywood & Shine (1995, from memory), solar constant S₀ (1361 W m⁻², Kopp & Lean 2011).
+ */
+export function atmosphereAbove(i: { transmittance?: number; cloudFraction?: number; solarConstant?: number }): { T: number; Ac: number; S0: number } {
+  const T = i.transmittance ?? DEFAULT_ATMOSPHERIC_TRANSMITTANCE
+  const Ac = i.cloudFraction ?? DEFAULT_CLOUD_FRACTION
+  const S0 = i.solarConstant ?? SOLAR_CONSTANT_WM2
+  checkRange('transmittance', T, 0, 1)
+  checkRange('cloudFraction', Ac, 0, 1)
+  checkRange('solarConstant', S0, 0, 1e5, 'W m⁻²')
+  return { T, Ac, S0 }
 }
