@@ -1,6 +1,7 @@
 // Drawing a forcing map in a uPlot chart: the heat map under the axes' grid, zero lines and sample markers over it.
 import type uPlot from 'uplot'
 import type { ForcingMapData } from '../../src-core/index.ts'
+import { drawGridHeat } from './heatGrid.ts'
 import { forcingColour, type Theme } from './palette.ts'
 
 export interface MapOverlay {
@@ -10,27 +11,13 @@ export interface MapOverlay {
   dash: number[]
 }
 
+/** The forcing map as a heat map, coloured by forcing relative to its largest magnitude. */
 export function drawHeat(map: ForcingMapData, theme: Theme): (u: uPlot) => void {
   let max = 0
   for (const row of map.forcing) for (const v of row) if (Number.isFinite(v)) max = Math.max(max, Math.abs(v))
-  const edges = (a: number[]) => a.map((v, k) => [k === 0 ? v : (a[k - 1] + v) / 2, k === a.length - 1 ? v : (v + a[k + 1]) / 2])
-  const xe = edges(map.surface_albedo)
-  const ye = edges(map.ssa)
-  return (u) => {
-    const ctx = u.ctx
-    ctx.save()
-    for (let i = 0; i < map.ssa.length; i++) {
-      const y0 = u.valToPos(ye[i][0], 'y', true)
-      const y1 = u.valToPos(ye[i][1], 'y', true)
-      for (let j = 0; j < map.surface_albedo.length; j++) {
-        const x0 = u.valToPos(xe[j][0], 'x', true)
-        const x1 = u.valToPos(xe[j][1], 'x', true)
-        ctx.fillStyle = forcingColour(max ? map.forcing[i][j] / max : 0, theme)
-        ctx.fillRect(Math.floor(x0), Math.floor(y1), Math.ceil(x1 - x0) + 1, Math.ceil(y0 - y1) + 1)
-      }
-    }
-    ctx.restore()
-  }
+  // forcing[i][j] sits at (surface albedo j, ω i): the grid wants z[x][y]
+  const z = map.surface_albedo.map((_, j) => map.ssa.map((_, i) => map.forcing[i][j]))
+  return drawGridHeat(map.surface_albedo, map.ssa, z, (v) => forcingColour(max ? v / max : 0, theme), false)
 }
 
 export function drawOverlays(overlays: MapOverlay[], ink: string): (u: uPlot) => void {
