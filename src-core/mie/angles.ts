@@ -94,35 +94,63 @@ export function angularFromCoefficients(x: number, ws: MieWorkspace, eff: Sphere
  * Angular functions pi_n(μ_j), tau_n(μ_j) tabulated once for a fixed set of cosines and reused for every
  * sphere: summing S1, S2 is then a pair of dot products per angle. For population phase functions, where
  * the same angles serve thousands of sizes.
+ *
+ * Mirrored cosines (μ and −μ, such as θ and 180° − θ, or Gauss nodes on both hemispheres) share one pass:
+ * pi_n(−μ) = (−1)^(n−1) pi_n(μ) and tau_n(−μ) = (−1)^n tau_n(μ) (Bohren & Huffman 1983, §4.4.2), so each sum
+ * splits into the terms that keep their sign under reflection (E) and those that change it (O), and
+ * S(μ) = E + O, S(−μ) = E − O. A set made of mirrored pairs costs half as much as the same number of
+ * unrelated cosines.
  */
 export class AngularTable {
   readonly mu: Float64Array
+  /** The cosines actually tabulated (one of each mirrored pair, the larger). */
+  private readonly base: Float64Array
+  /** For each requested cosine: its base index, and whether it is the mirror image (−μ) of that base. */
+  private readonly baseOf: Int32Array
+  private readonly mirrored: Uint8Array
   private pi: Float64Array = new Float64Array(0)
   private tau: Float64Array = new Float64Array(0)
   private nMax = 0
-  private s1r: Float64Array
-  private s1i: Float64Array
-  private s2r: Float64Array
-  private s2i: Float64Array
+  /** Per base cosine: E and O sums of S1 and S2, real and imaginary (8 running sums). */
+  private readonly sums: Float64Array
 
   constructor(mu: ArrayLike<number>) {
     this.mu = Float64Array.from(mu)
     const m = this.mu.length
-    this.s1r = new Float64Array(m)
-    this.s1i = new Float64Array(m)
-    this.s2r = new Float64Array(m)
-    this.s2i = new Float64Array(m)
+    this.baseOf = new Int32Array(m)
+    this.mirrored = new Uint8Array(m)
+    const bases: number[] = []
+    const taken = new Uint8Array(m)
+    for (let j = 0; j < m; j++) {
+      if (taken[j]) continue
+      const b = bases.length
+      bases.push(Math.abs(this.mu[j]))
+      taken[j] = 1
+      this.baseOf[j] = b
+      this.mirrored[j] = this.mu[j] < 0 ? 1 : 0
+      // its mirror image, if the set holds one (to rounding: Gauss nodes and cos θ are mirrored to an ulp or so)
+      for (let i = j + 1; i < m; i++) {
+        if (!taken[i] && Math.abs(this.mu[i] + this.mu[j]) <= 1e-15 && this.mu[j] !== 0) {
+          taken[i] = 1
+          this.baseOf[i] = b
+          this.mirrored[i] = this.mu[i] < 0 ? 1 : 0
+          break
+        }
+      }
+    }
+    this.base = Float64Array.from(bases)
+    this.sums = new Float64Array(8 * bases.length)
   }
 
   /** Makes sure pi_n, tau_n are tabulated up to n = nTerms. */
   private grow(nTerms: number): void {
     if (nTerms <= this.nMax) return
     const nMax = Math.max(nTerms, Math.ceil(this.nMax * 1.5), 32)
-    const m = this.mu.length
+    const m = this.base.length
     const pi = new Float64Array((nMax + 1) * m)
     const tau = new Float64Array((nMax + 1) * m)
     for (let j = 0; j < m; j++) {
-      const mu = this.mu[j]
+      const mu = this.base[j]
       let piPrev = 0
       let piN = 1
       for (let n = 1; n <= nMax; n++) {
@@ -145,16 +173,15 @@ export class AngularTable {
   accumulate(ws: MieWorkspace, weight: number, acc11: Float64Array, acc12: Float64Array | null): void {
     const nTerms = ws.terms
     this.grow(nTerms)
-    const m = this.mu.length
-    const { s1r, s1i, s2r, s2i, pi, tau } = this
-    s1r.fill(0)
-    s1i.fill(0)
-    s2r.fill(0)
-    s2i.fill(0)
+    const m = this.base.length
+    const { pi, tau, sums } = this
+    sums.fill(0)
     const aRe = ws.aRe
     const aIm = ws.aIm
     const bRe = ws.bRe
     const bIm = ws.bIm
+    // sums per base j at 8j: E1r, E1i, O1r, O1i, E2r, E2i, O2r, O2i.
+    // Odd n: a·pi and b·pi keep their sign (E), a·tau and b·tau change it (O); even n the other way round.
     for (let n = 1; n <= nTerms; n++) {
       const f = (2 * n + 1) / (n * (n + 1))
       const ar = f * aRe[n]
@@ -162,18 +189,34 @@ export class AngularTable {
       const br = f * bRe[n]
       const bi = f * bIm[n]
       const base = n * m
+      const odd = n & 1
+      // S1 = Σ a pi + b tau, S2 = Σ a tau + b pi; the pi terms go to E when n is odd, to O when even.
+      const piTo1 = odd ? 0 : 2
+      const tauTo1 = odd ? 2 : 0
       for (let j = 0; j < m; j++) {
         const p = pi[base + j]
         const t = tau[base + j]
-        s1r[j] += ar * p + br * t
-        s1i[j] += ai * p + bi * t
-        s2r[j] += ar * t + br * p
-        s2i[j] += ai * t + bi * p
+        const k = 8 * j
+        sums[k + piTo1] += ar * p
+        sums[k + piTo1 + 1] += ai * p
+        sums[k + tauTo1] += br * t
+        sums[k + tauTo1 + 1] += bi * t
+        sums[k + 4 + piTo1] += br * p
+        sums[k + 5 + piTo1] += bi * p
+        sums[k + 4 + tauTo1] += ar * t
+        sums[k + 5 + tauTo1] += ai * t
       }
     }
-    for (let j = 0; j < m; j++) {
-      const i1 = s1r[j] * s1r[j] + s1i[j] * s1i[j]
-      const i2 = s2r[j] * s2r[j] + s2i[j] * s2i[j]
+    const out = this.mu.length
+    for (let j = 0; j < out; j++) {
+      const k = 8 * this.baseOf[j]
+      const sgn = this.mirrored[j] ? -1 : 1
+      const s1r = sums[k] + sgn * sums[k + 2]
+      const s1i = sums[k + 1] + sgn * sums[k + 3]
+      const s2r = sums[k + 4] + sgn * sums[k + 6]
+      const s2i = sums[k + 5] + sgn * sums[k + 7]
+      const i1 = s1r * s1r + s1i * s1i
+      const i2 = s2r * s2r + s2i * s2i
       acc11[j] += weight * 0.5 * (i2 + i1)
       if (acc12) acc12[j] += weight * 0.5 * (i2 - i1)
     }

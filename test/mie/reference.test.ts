@@ -4,6 +4,7 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import {
+  AngularTable,
   angularFromCoefficients,
   coatedSphereEfficiencies,
   CoatedWorkspace,
@@ -90,6 +91,25 @@ describe('homogeneous sphere against 40-digit references (mpmath)', () => {
         expect(Math.abs(a.s1Im[i] - c.s1![i][1]) / scale).toBeLessThan(1e-9)
         expect(Math.abs(a.s2Re[i] - c.s2![i][0]) / scale).toBeLessThan(1e-9)
         expect(Math.abs(a.s2Im[i] - c.s2![i][1]) / scale).toBeLessThan(1e-9)
+      })
+    }
+  })
+  it('tabulated angular functions (AngularTable, mirrored cosines in one pass) give S11, S12 from the same references', () => {
+    // The reference angles hold mirrored pairs (0°/180°, 30°/150°, 60°/120°) and lone ones (10°, 90°, 179°),
+    // so both paths of the table are checked. S11 = (|S2|² + |S1|²)/2, S12 = (|S2|² − |S1|²)/2 (Bohren & Huffman eq. 4.77).
+    const ws = new MieWorkspace()
+    for (const c of spheres.filter((s) => s.angles_deg)) {
+      sphereEfficiencies(c.x, c.m[0], c.m[1], ws)
+      const table = new AngularTable(c.angles_deg!.map((a) => Math.cos((a * Math.PI) / 180)))
+      const s11 = new Float64Array(c.angles_deg!.length)
+      const s12 = new Float64Array(c.angles_deg!.length)
+      table.accumulate(ws, 2, s11, s12)
+      const scale = c.s1![0][0] ** 2 + c.s1![0][1] ** 2 // |S(0°)|², the largest intensity
+      c.angles_deg!.forEach((_, i) => {
+        const i1 = c.s1![i][0] ** 2 + c.s1![i][1] ** 2
+        const i2 = c.s2![i][0] ** 2 + c.s2![i][1] ** 2
+        expect(Math.abs(s11[i] - (i2 + i1)) / scale).toBeLessThan(1e-9)
+        expect(Math.abs(s12[i] - (i2 - i1)) / scale).toBeLessThan(1e-9)
       })
     }
   })
