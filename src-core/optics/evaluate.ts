@@ -5,7 +5,7 @@
 import type { Study } from '../study/model.ts'
 import { sampleForcing, sampleForcingMap } from './forcing.ts'
 import { OpticsWorkspace } from './integrate.ts'
-import { computeSampleOptics, studyMaterials, type SampleOpticsOptions } from './sample.ts'
+import { computeSampleOptics, finish, sampleOpticsSteps, studyMaterials, type SampleOpticsOptions } from './sample.ts'
 import type { HumidityGrowthCurve, SampleResult, StudyResults } from './types.ts'
 
 export const MOTEBENCH_VERSION = '0.1.0'
@@ -18,6 +18,11 @@ export interface EvaluateOptions extends Pick<SampleOpticsOptions, 'tolerance' |
   sampleIndices?: number[]
   /** Leave out the f(RH) curve (it costs one 550 nm computation per humidity). */
   skipHumidityCurve?: boolean
+  /**
+   * Workspace to reuse (Mie buffers and the node cache): pass the same one across evaluations of an edited
+   * study and nodes whose particles did not change are not computed again.
+   */
+  workspace?: OpticsWorkspace
   /** Called after each sample with (done, total); return false to stop early. */
   progress?: (done: number, total: number) => boolean | void
 }
@@ -27,27 +32,48 @@ export const HUMIDITY_CURVE_TOLERANCE = 1e-3
 
 /** f(RH) at 550 nm: σsca at each humidity over σsca dry, on the sample's humidity branch. */
 export function humidityGrowthCurve(study: Study, index: number, ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): HumidityGrowthCurve {
+  return finish(humidityCurveSteps(study, index, ws, tolerance))
+}
+
+/** humidityGrowthCurve in steps: a pause after each humidity. */
+export function* humidityCurveSteps(study: Study, index: number, ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): Generator<void, HumidityGrowthCurve> {
   const sample = study.samples[index]
   const own = studyMaterials(study)
   const tol = Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE)
+  // only σsca is needed: no angular sums
   const at = (rh: number) =>
-    computeSampleOptics(sample, { ...study, wavelengths_nm: [550] }, { rhPercent: rh, angularWavelengthsNm: [], workspace: ws, tolerance: tol }, own).wavelengths[0].sca
+    computeSampleOptics(sample, { ...study, wavelengths_nm: [550] }, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, workspace: ws, tolerance: tol }, own).wavelengths[0].sca
   const dry = at(0)
-  return { wavelength_nm: 550, rh_percent: [...HUMIDITY_CURVE_RH], f: HUMIDITY_CURVE_RH.map((rh) => (rh === 0 ? 1 : at(rh) / dry)) }
+  const f: number[] = []
+  for (const rh of HUMIDITY_CURVE_RH) {
+    f.push(rh === 0 ? 1 : at(rh) / dry)
+    yield
+  }
+  return { wavelength_nm: 550, rh_percent: [...HUMIDITY_CURVE_RH], f }
+}
+
+/**
+ * One sample's results in steps (a pause after each wavelength and each point of the f(RH) curve):
+ * optics, forcing, forcing map and, unless skipped, the f(RH) curve.
+ */
+export function* sampleResultSteps(study: Study, index: number, options: Omit<EvaluateOptions, 'sampleIndices' | 'progress'> = {}): Generator<void, SampleResult> {
+  const ws = options.workspace ?? new OpticsWorkspace()
+  const optics = yield* sampleOpticsSteps(study.samples[index], study, { tolerance: options.tolerance, anglesDeg: options.anglesDeg, workspace: ws }, studyMaterials(study))
+  const forcing = sampleForcing(optics, study.site, study.verdict_margin_w_m2)
+  const map = sampleForcingMap(forcing, study.site)
+  const humidity = options.skipHumidityCurve
+    ? { wavelength_nm: 550, rh_percent: [], f: [] }
+    : yield* humidityCurveSteps(study, index, ws, options.tolerance ?? HUMIDITY_CURVE_TOLERANCE)
+  return { optics, forcing, map, humidity }
 }
 
 /** Evaluates every sample of a study (or those chosen). */
 export function evaluateStudy(study: Study, options: EvaluateOptions = {}): StudyResults {
-  const own = studyMaterials(study)
-  const ws = new OpticsWorkspace()
+  const ws = options.workspace ?? new OpticsWorkspace()
   const indices = options.sampleIndices ?? study.samples.map((_, i) => i)
   const samples: SampleResult[] = []
   for (const i of indices) {
-    const optics = computeSampleOptics(study.samples[i], study, { tolerance: options.tolerance, anglesDeg: options.anglesDeg, workspace: ws }, own)
-    const forcing = sampleForcing(optics, study.site, study.verdict_margin_w_m2)
-    const map = sampleForcingMap(forcing, study.site)
-    const humidity = options.skipHumidityCurve ? { wavelength_nm: 550, rh_percent: [], f: [] } : humidityGrowthCurve(study, i, ws, options.tolerance ?? HUMIDITY_CURVE_TOLERANCE)
-    samples.push({ optics, forcing, map, humidity })
+    samples.push(finish(sampleResultSteps(study, i, { ...options, workspace: ws })))
     if (options.progress && options.progress(samples.length, indices.length) === false) break
   }
   return { samples, version: MOTEBENCH_VERSION }

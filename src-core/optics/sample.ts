@@ -40,8 +40,10 @@ export interface SampleOpticsOptions {
   angularWavelengthsNm?: number[]
   /** Override the sample's humidity (for f(RH) curves). */
   rhPercent?: number
-  /** Workspace to reuse across calls (Mie buffers, angular tables). */
+  /** Workspace to reuse across calls (Mie buffers, angular tables, the node cache). */
   workspace?: OpticsWorkspace
+  /** Compute b, β̄ and the phase function (default true); without them those figures are NaN. */
+  upscatter?: boolean
 }
 
 export const DEFAULT_ANGLES_DEG: number[] = Array.from({ length: 91 }, (_, i) => 2 * i)
@@ -177,6 +179,22 @@ function populationVolumes(pops: SamplePopulation[], cond: Conditions): { dryVol
 
 /** Everything optical about one sample at the study's wavelengths. */
 export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): SampleOptics {
+  return finish(sampleOpticsSteps(sample, study, options, own))
+}
+
+/** Runs a stepped computation to its end. */
+export function finish<T>(steps: Generator<void, T>): T {
+  for (;;) {
+    const r = steps.next()
+    if (r.done) return r.value
+  }
+}
+
+/**
+ * computeSampleOptics in steps: the generator pauses after each wavelength and returns the sample's optics
+ * at the end. A caller that must stay responsive (the app's worker) can look for newer work between steps.
+ */
+export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): Generator<void, SampleOptics> {
   const wavelengths = study.wavelengths_nm
   if (!wavelengths.length) throw new InputError('study: wavelengths', 'no wavelengths are given', 'Add at least one wavelength, such as 550 nm.')
   const longest = Math.max(...wavelengths) / 1000
@@ -194,7 +212,7 @@ export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_mat
   const unsettled: number[] = []
   for (const wl of wavelengths) {
     const wantAngles = angularAt.includes(wl)
-    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined }, ws)
+    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter }, ws)
     if (!r.converged) unsettled.push(wl)
     const rayleigh = rayleighScatteringMm(wl / 1000)
     const total = r.ext + rayleigh
@@ -223,6 +241,7 @@ export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_mat
     if (wantAngles && r.phase && r.polarization) {
       angular.push({ wavelength_nm: wl, angles_deg: angles.slice(), phase: Array.from(r.phase), polarization: Array.from(r.polarization) })
     }
+    yield
   }
   // Optical depth: a uniform layer of the sample (Mm⁻¹ × m × 1e-6), or scaled to a given AOD at 550 nm.
   let layerDepth = depth

@@ -5,10 +5,10 @@ import { msPerRun, report } from './timing.ts'
 export function benchSampleDemo(): void {
   const study = demoStudy()
   const sample = study.samples.find((s) => s.size.kind === 'modes' && s.size.modes.length >= 3) ?? study.samples[0]
-  const ws = new OpticsWorkspace()
   let evaluations = 0
+  // a fresh workspace each run: a cold computation, with no nodes kept from the run before
   const ms = msPerRun(() => {
-    const r = computeSampleOptics(sample, study, { workspace: ws })
+    const r = computeSampleOptics(sample, study, { workspace: new OpticsWorkspace() })
     evaluations = r.wavelengths.reduce((a, w) => a + w.mie_evaluations, 0)
   }, 5)
   report('sample-demo', {

@@ -1,5 +1,6 @@
 // `npm run bench`: one JSON line of figures per case. `npm run bench -- sphere-grid` runs one case.
 import { benchSampleDemo } from './optics.bench.ts'
+import { benchEditsDemo } from './edit.bench.ts'
 import { benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
 import { benchUncertaintyDemo } from './uncertainty.bench.ts'
 import { benchSeries } from './series.bench.ts'
@@ -10,6 +11,7 @@ const cases: Record<string, () => void | Promise<void>> = {
   'sphere-angles': benchSphereAngles,
   'coated-grid': benchCoatedGrid,
   'sample-demo': benchSampleDemo,
+  'edits-demo': benchEditsDemo,
   series: benchSeries,
   'uncertainty-demo': benchUncertaintyDemo
 }

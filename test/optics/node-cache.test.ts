@@ -1,0 +1,63 @@
+// The node cache (src-core/optics/nodeCache.ts) must be invisible in the results: a computation that takes
+// nodes from an earlier one gives the figures a cold computation gives, and only the Mie evaluations change.
+import { describe, expect, it } from 'vitest'
+import { computeSampleOptics, demoStudy, OpticsWorkspace, type Sample, type SampleOptics } from '../../src-core/index.ts'
+
+// three of the demo's wavelengths keep the test quick
+const study = { ...demoStudy(), wavelengths_nm: [450, 550, 700] }
+/** The demo's coastal sample: an accumulation mode and a humid sea-salt coarse mode (its own composition). */
+const coastal = study.samples.find((s) => s.size.kind === 'modes' && s.size.modes.some((m) => m.composition))!
+
+function editLastMode(s: Sample, change: (m: { median_um: number; gsd: number }) => object): Sample {
+  if (s.size.kind !== 'modes') throw new Error('modes expected')
+  const modes = s.size.modes.slice()
+  modes[modes.length - 1] = { ...modes[modes.length - 1], ...change(modes[modes.length - 1]) }
+  return { ...s, size: { ...s.size, modes } }
+}
+
+const evaluations = (r: SampleOptics) => r.wavelengths.reduce((a, w) => a + w.mie_evaluations, 0)
+
+function expectSameFigures(a: SampleOptics, b: SampleOptics) {
+  a.wavelengths.forEach((w, i) => {
+    const v = b.wavelengths[i]
+    for (const key of ['ext', 'sca', 'abs', 'g', 'backscatter_fraction', 'upscatter_fraction'] as const) {
+      expect(Math.abs(w[key] - v[key])).toBeLessThanOrEqual(1e-11 * Math.abs(v[key]))
+    }
+  })
+  a.angular[0].phase.forEach((p, i) => expect(Math.abs(p - b.angular[0].phase[i])).toBeLessThanOrEqual(1e-11 * b.angular[0].phase[i]))
+}
+
+describe('node cache', () => {
+  const edits: [string, (s: Sample) => Sample][] = [
+    ['a larger median', (s) => editLastMode(s, (m) => ({ median_um: m.median_um * 1.05 }))],
+    ['a wider mode', (s) => editLastMode(s, (m) => ({ gsd: m.gsd + 0.05 }))],
+    ['a higher humidity', (s) => ({ ...s, rh_percent: s.rh_percent + 3 })]
+  ]
+  for (const [what, edit] of edits) {
+    it(`after ${what}, a warm workspace gives the cold figures`, () => {
+      const ws = new OpticsWorkspace()
+      computeSampleOptics(coastal, study, { workspace: ws })
+      const edited = edit(coastal)
+      const warm = computeSampleOptics(edited, study, { workspace: ws })
+      const cold = computeSampleOptics(edited, study, { workspace: new OpticsWorkspace() })
+      expectSameFigures(warm, cold)
+    })
+  }
+
+  it('a size edit reuses most Mie evaluations; a humidity edit changes every particle and reuses none', () => {
+    const ws = new OpticsWorkspace()
+    const first = computeSampleOptics(coastal, study, { workspace: ws })
+    const median = computeSampleOptics(editLastMode(coastal, (m) => ({ median_um: m.median_um * 1.05 })), study, { workspace: ws })
+    expect(evaluations(median)).toBeLessThan(0.3 * evaluations(first))
+    const humid = computeSampleOptics({ ...coastal, rh_percent: coastal.rh_percent + 3 }, study, { workspace: ws })
+    const humidCold = computeSampleOptics({ ...coastal, rh_percent: coastal.rh_percent + 3 }, study, { workspace: new OpticsWorkspace() })
+    expect(evaluations(humid)).toBe(evaluations(humidCold))
+  })
+
+  it('stays within its node limit, dropping the contexts used longest ago, without changing results', () => {
+    const small = new OpticsWorkspace(2000)
+    const r = computeSampleOptics(coastal, study, { workspace: small })
+    expect(small.nodes.size).toBeLessThanOrEqual(2000)
+    expectSameFigures(r, computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace() }))
+  })
+})
