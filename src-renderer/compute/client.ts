@@ -1,10 +1,12 @@
 // Runs the computations in workers as the document changes: debounced, one job at a time, a newer edit
-// supersedes (and stops) the running job, unchanged samples are not computed again.
+// supersedes (and stops) the running job, unchanged samples are not computed again. The optics worker is
+// kept alive across jobs (its node cache makes edits of sizes and amounts cheap): a newer job or a cancel is
+// a message it reads between steps of its work.
 import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
 import type { FromWorker, ToWorker } from './messages.ts'
 
-const DEBOUNCE_MS = 250
+const DEBOUNCE_MS = 60
 
 let optics: Worker | null = null
 let sizes: Worker | null = null
@@ -55,11 +57,10 @@ function onSizes(m: FromWorker): void {
   store().set({ sizes: { ...s.sizes, [m.id]: m.curves ?? { error: m.error ?? 'no curve' } } })
 }
 
-/** Stops the running job (the next edit starts a new one). */
+/** Stops the running job at its next step (the next edit starts a new one). */
 export function cancel(): void {
-  if (optics) optics.terminate()
-  optics = null
   job++
+  if (optics) optics.postMessage({ type: 'cancel', job } satisfies ToWorker)
   store().set({ job: { running: false, done: 0, total: 0 } })
 }
 
@@ -100,13 +101,10 @@ function run(): void {
   const rank = (id: string) => (id === s.selected ? 0 : s.compare.includes(id) ? 1 : 2)
   items.sort((a, b) => rank(a.id) - rank(b.id))
 
-  // A newer edit supersedes the running job: stop it and start afresh.
-  if (optics && s.job.running) {
-    optics.terminate()
-    optics = null
-  }
+  // A newer edit supersedes the running job: the worker drops it at its next step when the new job arrives.
   job++
   if (!items.length) {
+    if (optics && s.job.running) optics.postMessage({ type: 'cancel', job } satisfies ToWorker)
     store().set({ job: { running: false, done: 0, total: 0 } })
     return
   }

@@ -7,6 +7,8 @@ export type ToWorker =
   | { type: 'evaluate'; job: number; items: { id: string; key: string; study: Study }[] }
   /** Size-distribution curves of samples (fast). */
   | { type: 'sizes'; job: number; items: { id: string; sample: Sample; userMaterials: UserMaterialSpec[] }[] }
+  /** Stop the running evaluation at its next step (`job` is a new number that no evaluation carries). */
+  | { type: 'cancel'; job: number }
 
 export type FromWorker =
   /** `partial`: the f(RH) curve is still to come (a second result for the same key follows). */
