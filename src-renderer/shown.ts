@@ -13,6 +13,8 @@ export interface ShownSample {
   stale: boolean
   /** Why there is no up-to-date result. */
   error?: string
+  /** The result is from the current inputs but only the quick first pass (the full one is running). */
+  preview: boolean
   style: LineStyle
 }
 
@@ -23,7 +25,7 @@ export function sampleState(s: AppState, id: string, position = 0): ShownSample 
   const blocked =
     problemsOf(s.problems, i).length > 0 || Object.keys(s.drafts).some((p) => affectsOptics(p) && !p.startsWith('samples[') || p.startsWith(`samples[${i}]`))
   const stale = !r?.result || blocked || r.key !== sampleKey(s.study, i) || !!r.error
-  return { id, index: i, sample: s.study.samples[i], result: r?.result, stale, error: r?.error, style: lineStyle(position, s.theme) }
+  return { id, index: i, sample: s.study.samples[i], result: r?.result, stale, error: r?.error, preview: !stale && !!r?.preview, style: lineStyle(position, s.theme) }
 }
 
 /** The compared samples when 2 or more are marked, else the selected one. */

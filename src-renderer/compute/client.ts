@@ -6,7 +6,7 @@ import { validateStudy, type Study, type StudyProblem } from '../../src-core/ind
 import { store, type AppState, type ShownResult } from '../state/store.ts'
 import type { FromWorker, ToWorker } from './messages.ts'
 
-const DEBOUNCE_MS = 60
+const DEBOUNCE_MS = 30
 
 let optics: Worker | null = null
 let sizes: Worker | null = null
@@ -40,8 +40,8 @@ function onOptics(m: FromWorker): void {
   if (m.type === 'progress') store().set({ job: { running: m.done < m.total, done: m.done, total: m.total } })
   else if (m.type === 'finished') store().set({ job: { ...s.job, running: false } })
   else if (m.type === 'result') {
-    const shown: ShownResult = { key: m.key, result: m.result }
-    // a partial result (its f(RH) curve still to come) is shown but not kept for reuse
+    const shown: ShownResult = m.preview ? { key: m.key, result: m.result, preview: true } : { key: m.key, result: m.result }
+    // a partial result (a preview, or its f(RH) curve still to come) is shown but not kept for reuse
     if (!m.partial) cache.set(m.key, shown)
     store().set({ results: { ...s.results, [m.id]: shown } })
   } else if (m.type === 'failed') {

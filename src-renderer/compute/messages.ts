@@ -11,9 +11,17 @@ export type ToWorker =
   | { type: 'cancel'; job: number }
 
 export type FromWorker =
-  /** `partial`: the f(RH) curve is still to come (a second result for the same key follows). */
-  | { type: 'result'; job: number; id: string; key: string; result: SampleResult; partial?: boolean }
+  /**
+   * `partial`: the f(RH) curve is still to come (a second result for the same key follows). `preview`: figures
+   * from a quick pass at PREVIEW_TOLERANCE, posted when the full computation will take a while.
+   */
+  | { type: 'result'; job: number; id: string; key: string; result: SampleResult; partial?: boolean; preview?: boolean }
   | { type: 'failed'; job: number; id: string; key: string; message: string }
   | { type: 'progress'; job: number; done: number; total: number }
   | { type: 'finished'; job: number }
   | { type: 'sizes'; job: number; id: string; curves?: SizeCurves; error?: string }
+
+/** Relative accuracy of the quick first pass whose figures are shown while the full one (1e-4) runs. */
+export const PREVIEW_TOLERANCE = 1e-2
+/** A quick pass that took longer than this (ms) is shown: the full computation will take several times as long. */
+export const PREVIEW_WORTH_MS = 40

@@ -13,7 +13,7 @@ import {
   type UserMaterialSpec
 } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
-import type { FromWorker, ToWorker } from './messages.ts'
+import { PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromWorker, type ToWorker } from './messages.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
 const workspace = new OpticsWorkspace()
@@ -59,6 +59,11 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
   const partial: (SampleResult | undefined)[] = []
   for (const [i, item] of m.items.entries()) {
     try {
+      // a quick pass first; its nodes are kept, so the full pass costs only what it adds
+      const started = performance.now()
+      const quick = await drive(sampleResultSteps(item.study, 0, { skipHumidityCurve: true, workspace, tolerance: PREVIEW_TOLERANCE }), m.job)
+      if (!job(m)) return
+      if (quick && performance.now() - started > PREVIEW_WORTH_MS) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: quick, partial: true, preview: true })
       const r = await drive(sampleResultSteps(item.study, 0, { skipHumidityCurve: true, workspace }), m.job)
       if (job(m) && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
       partial.push(r)

@@ -19,6 +19,8 @@ export interface ShownResult {
   result?: SampleResult
   /** Why the newest inputs gave no result (the older result, if any, stays and is marked stale). */
   error?: string
+  /** The figures are from the quick first pass; the full computation is still running. */
+  preview?: boolean
 }
 
 /** Size-distribution curves of one sample, for the plot. */

@@ -1,11 +1,23 @@
 // Pieces the result views share.
+import { PREVIEW_TOLERANCE } from '../compute/messages.ts'
 import type { ShownSample } from '../shown.ts'
 
 /** Says when results on screen are not from the current inputs, and why. */
 export function StaleNote(p: { shown: ShownSample[] }) {
   const stale = p.shown.filter((x) => x.stale && x.result)
   const missing = p.shown.filter((x) => !x.result)
-  if (!stale.length && !missing.length) return null
+  const preview = p.shown.filter((x) => x.preview)
+  if (!stale.length && !missing.length) {
+    if (!preview.length) return null
+    return (
+      <div class="preview-note" role="status" data-testid="preview-note">
+        <p>
+          <strong>Refining:</strong> the figures of {preview.map((x) => `“${x.sample.name}”`).join(', ')} are from a quick first pass (to about
+          {' '}{PREVIEW_TOLERANCE * 100} %); the full computation is running and replaces them.
+        </p>
+      </div>
+    )
+  }
   return (
     <div class="stale-note" role="status" data-testid="stale-note">
       {stale.length > 0 && (

@@ -1,6 +1,7 @@
 // `npm run bench`: one JSON line of figures per case. `npm run bench -- sphere-grid` runs one case.
 import { benchSampleDemo } from './optics.bench.ts'
 import { benchEditsDemo } from './edit.bench.ts'
+import { benchUiEdits } from './ui.bench.ts'
 import { benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
 import { benchUncertaintyDemo } from './uncertainty.bench.ts'
 import { benchSeries } from './series.bench.ts'
@@ -12,6 +13,7 @@ const cases: Record<string, () => void | Promise<void>> = {
   'coated-grid': benchCoatedGrid,
   'sample-demo': benchSampleDemo,
   'edits-demo': benchEditsDemo,
+  'ui-edits': benchUiEdits,
   series: benchSeries,
   'uncertainty-demo': benchUncertaintyDemo
 }

@@ -220,6 +220,23 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(await page.locator('[data-testid="compare-table"] .diff').count()).toBeGreaterThan(5)
   })
 
+  test('a slow change shows quick figures first, marked as such, then the full ones within the stated 1 %', async () => {
+    const page = await openApp()
+    // the coastal sample's humid sea-salt coarse mode: a humidity change makes every Mie evaluation new
+    await page.locator('.sample-item[data-sample="Coastal haze day"] button.sample-name').click()
+    await waitForResults(page)
+    const index = await page.locator('.sample-item').evaluateAll((els) => els.findIndex((e) => (e as HTMLElement).dataset.sample === 'Coastal haze day'))
+    await page.locator(`[data-path="samples[${index}].rh_percent"]`).fill('79')
+    await page.locator('#result-panel[data-preview="true"]').waitFor({ timeout: 60_000 })
+    const note = await page.getByTestId('preview-note').textContent()
+    expect(note).toMatch(/quick first pass/)
+    const quick = await sigmaExt550(page)
+    await waitForResults(page)
+    expect(await page.getByTestId('preview-note').count()).toBe(0)
+    const full = await sigmaExt550(page)
+    expect(Math.abs(quick - full) / full).toBeLessThan(0.01)
+  })
+
   test('the verdict flips when ω is pushed below ω_crit (more black carbon)', async () => {
     const page = await openApp()
     await page.locator('[data-tab="climate"]').click()

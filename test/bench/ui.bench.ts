@@ -1,0 +1,86 @@
+// Bench case for the app as a user meets it: the web build in headless Chromium (like the end-to-end tests),
+// timing from an edit typed into a field to the results on screen being from the new inputs (first figures,
+// possibly from the quick pass, and full ones), for each demo sample. The times include the 30 ms debounce and
+// the driver's round trips to the browser.
+import type { Page } from 'playwright-core'
+import { buildAndServe, launchChromium } from '../e2e/harness.ts'
+import { median, report } from './timing.ts'
+
+/**
+ * Types `value` into the field at `path` and returns the milliseconds until the results on screen are from the
+ * new inputs: first figures (a quick pass or the full one) and full figures.
+ */
+async function timeEdit(page: Page, path: string, value: (old: string) => string): Promise<{ first: number; full: number }> {
+  const field = page.locator(`[data-path="${path}"]`)
+  const old = await field.inputValue()
+  const start = performance.now()
+  await field.fill(value(old))
+  const panel = (want: string) =>
+    page.waitForFunction((w) => {
+      const el = document.getElementById('result-panel')
+      return !!el && (w === 'pending' ? el.dataset.fresh === 'false' && el.dataset.preview === 'false' : w === 'first' ? el.dataset.fresh === 'true' || el.dataset.preview === 'true' : el.dataset.fresh === 'true')
+    }, want, { polling: 'raf', timeout: 120_000 })
+  // the edit makes the shown results stale (for at least the 30 ms debounce), then first and full figures arrive
+  await panel('pending')
+  await panel('first')
+  const first = performance.now() - start
+  await panel('full')
+  const full = performance.now() - start
+  // back to the value before (its results are kept by the app), and wait until they are shown
+  await field.fill(old)
+  await panel('full')
+  return { first, full }
+}
+
+/** The number at the start of a field's text scaled by `f`, its unit kept. */
+const scaled = (f: number) => (old: string) => old.replace(/^\s*([0-9.eE+-]+)/, (_, n: string) => String(Number((Number(n) * f).toPrecision(6))))
+const plus = (d: number, top = Infinity) => (old: string) => String(Math.min(Number((Number(old) + d).toPrecision(6)), top))
+
+export async function benchUiEdits(): Promise<void> {
+  const browser = await launchChromium()
+  const served = await buildAndServe()
+  try {
+    const context = await browser.newContext({ viewport: { width: 1366, height: 768 } })
+    const page = await context.newPage()
+    await page.goto(served.url)
+    const start = performance.now()
+    await page.getByTestId('cautions-ok').click()
+    await page.locator('[data-status="ok"]').waitFor({ timeout: 300_000 })
+    report('ui-open-demo', { all_samples_ms: Math.round(performance.now() - start) })
+    const names = await page.locator('.sample-item').evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.sample ?? ''))
+    for (const [i, name] of names.entries()) {
+      await page.locator(`.sample-item[data-sample="${name}"] button.sample-name`).click()
+      await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 120_000 })
+      const modes = await page.locator(`[data-path^="samples[${i}].size.modes["][data-path$="].gsd"]`).count()
+      const last = `samples[${i}].size.modes[${modes - 1}]`
+      const amountPath = await page.locator(`[data-path^="${last}."][data-path$="_cm3"], [data-path^="${last}."][data-path$="_m3"]`).first().getAttribute('data-path')
+      const figures: Record<string, number | string> = { sample: name }
+      // three new values per edit (the app keeps results by input, so none may have been computed before)
+      const edits: [string, string, (r: number) => (old: string) => string][] = [
+        ['amount', amountPath!, (r) => scaled(1.2 + 0.1 * r)],
+        ['median', `${last}.median_um`, (r) => scaled(1.05 + 0.05 * r)],
+        ['width', `${last}.gsd`, (r) => plus(0.05 + 0.05 * r)],
+        ['humidity', `samples[${i}].rh_percent`, (r) => plus(-2 - r)]
+      ]
+      for (const [what, path, value] of edits) {
+        const first: number[] = []
+        const full: number[] = []
+        for (let r = 0; r < 3; r++) {
+          try {
+            const t = await timeEdit(page, path, value(r))
+            first.push(t.first)
+            full.push(t.full)
+          } catch (e) {
+            throw new Error(`${name}: editing ${path} (${what}): ${e instanceof Error ? e.message.split('\n')[0] : e}`)
+          }
+        }
+        figures[`${what}_first_ms`] = Math.round(median(first))
+        figures[`${what}_full_ms`] = Math.round(median(full))
+      }
+      report('ui-edits-demo', figures)
+    }
+  } finally {
+    await browser.close()
+    await served.close()
+  }
+}
