@@ -13,9 +13,9 @@ export function num(x: number | null | undefined, digits = 4): string {
 export const fixed = (x: number | null | undefined, decimals = 3): string =>
   x === null || x === undefined || !Number.isFinite(x) ? '—' : x.toFixed(decimals)
 
-/** A diameter in µm, written in nm below 1 µm. */
-export function diameter(um: number): string {
-  return um < 1 ? `${num(um * 1000, 4)} nm` : `${num(um, 4)} µm`
+/** A diameter in µm, written in nm below 1 µm, with `digits` significant digits. */
+export function diameter(um: number, digits = 4): string {
+  return um < 1 ? `${num(um * 1000, digits)} nm` : `${num(um, digits)} µm`
 }
 
 /** A signed number with its sign always shown (forcing, differences). */

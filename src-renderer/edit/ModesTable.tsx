@@ -7,13 +7,14 @@ import { editSample } from '../state/actions.ts'
 import { ErrorRow, Field, readNumber } from './Field.tsx'
 import { Fragment } from 'preact'
 
-const BY = {
+/** The three forms a mode is given in: amount symbol and unit, and the median the diameter is. */
+export const BY = {
   number: { label: 'number', amount: 'N', unit: 'cm⁻³', median: 'CMD', key: 'number_cm3', fresh: 1000 },
   volume: { label: 'volume', amount: 'V', unit: 'µm³ cm⁻³', median: 'VMD', key: 'volume_um3_cm3', fresh: 10 },
   mass: { label: 'mass', amount: 'M', unit: 'µg m⁻³', median: 'MMD', key: 'mass_ug_m3', fresh: 10 }
 } as const
 
-const amountOf = (m: ModeSpec): number => (m.by === 'number' ? m.number_cm3 : m.by === 'volume' ? m.volume_um3_cm3 : m.mass_ug_m3)
+export const amountOf = (m: ModeSpec): number => (m.by === 'number' ? m.number_cm3 : m.by === 'volume' ? m.volume_um3_cm3 : m.mass_ug_m3)
 
 export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; userMaterials: UserMaterialSpec[] }) {
   const base = `samples[${p.index}].size.modes`

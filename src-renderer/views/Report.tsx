@@ -1,17 +1,19 @@
-// The report: the study, each sample's inputs and results, charts, verdict, cautions, method references and the
+// The report: the study, its own components, each sample's inputs written out in full (modes or bins, main and
+// per-mode compositions; see ReportInputs.tsx) and results, charts, verdict, cautions, method references and the
 // software version, laid out for print (browser: print dialog; desktop: PDF).
-import { useEffect } from 'preact/hooks'
-import { SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
+import { useEffect, useMemo } from 'preact/hooks'
+import { DEFAULT_VERDICT_MARGIN_WM2, SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { lineStyle } from '../charts/palette.ts'
 import { printReport } from '../commands.ts'
 import { APP_VERSION } from '../exports.ts'
-import { diameter, num } from '../format.ts'
+import { num } from '../format.ts'
 import { host } from '../host/index.ts'
 import { store, useApp } from '../state/store.ts'
 import { sampleState } from '../shown.ts'
 import { CautionText } from './Cautions.tsx'
 import { ForcingMapChart, MethodsTable, Verdict } from './ClimateView.tsx'
+import { BinsSummary, CompositionText, mainCompositionUse, ModesList, OwnComponentsReport, ownComponentStates, type OwnComponentState } from './ReportInputs.tsx'
 import { wavelengthAxis, WavelengthTable } from './OpticsView.tsx'
 
 export const REFERENCES = [
@@ -25,25 +27,12 @@ export const REFERENCES = [
   'Seinfeld, J. H. and Pandis, S. N. (2016): Atmospheric Chemistry and Physics, 3rd ed. Wiley. (Size distributions, visibility.)'
 ]
 
-function describeSize(s: Sample): string {
-  if (s.size.kind === 'bins') {
-    const b = s.size.bins
-    return `${b.values.length} measured bins (${b.quantity}${b.source ? `, ${b.source}` : ''})`
-  }
-  return s.size.modes
-    .map((m) => {
-      const amount = m.by === 'number' ? `N = ${num(m.number_cm3)} cm⁻³, CMD` : m.by === 'volume' ? `V = ${num(m.volume_um3_cm3)} µm³ cm⁻³, VMD` : `M = ${num(m.mass_ug_m3)} µg m⁻³, MMD`
-      return `${m.name ?? 'mode'}: ${amount} ${diameter(m.median_um)}, σg ${num(m.gsd)}`
-    })
-    .join('; ')
-}
-
 function describeLayer(s: Sample): string {
   const l = s.layer
-  return l.kind === 'depth' ? `uniform, ${num(l.depth_m)} m deep` : l.kind === 'scale-height' ? `exponential, scale height ${num(l.scale_height_m)} m` : `AOD at 550 nm ${num(l.aod_550)}`
+  return l.kind === 'depth' ? `uniform, ${num(l.depth_m, 8)} m deep` : l.kind === 'scale-height' ? `exponential, scale height ${num(l.scale_height_m, 8)} m` : `scaled to an AOD at 550 nm of ${num(l.aod_550, 8)}`
 }
 
-function SampleSection(p: { id: string }) {
+function SampleSection(p: { id: string; own: OwnComponentState[] }) {
   const s = { ...useApp(), theme: 'light' as const } // the report is always in the light (print) theme
   const x = sampleState(s, p.id)
   if (!x) return null
@@ -53,7 +42,7 @@ function SampleSection(p: { id: string }) {
   const wl = r?.optics.wavelengths.map((w) => w.wavelength_nm) ?? []
   const specLines: Line[] = ['σext', 'σsca', 'σabs'].map((label, k) => ({ label, stroke: lineStyle(k, s.theme).stroke, dash: lineStyle(k, s.theme).dash }))
   return (
-    <section class="report-sample">
+    <section class="report-sample" data-report-sample={smp.name}>
       <h2>
         {x.index + 1}. {smp.name}
       </h2>
@@ -62,20 +51,35 @@ function SampleSection(p: { id: string }) {
         <tbody>
           <tr>
             <th scope="row">Size distribution</th>
-            <td>{describeSize(smp)}</td>
+            <td>{smp.size.kind === 'bins' ? <BinsSummary bins={smp.size.bins} /> : <ModesList modes={smp.size.modes} />}</td>
           </tr>
-          <tr>
-            <th scope="row">Composition</th>
+          <tr data-report-composition="main">
+            <th scope="row">Main composition</th>
             <td>
-              {smp.composition.components.map((c) => `${c.material} ${num(c.volume_fraction * 100, 3)} %`).join(', ')}; mixing: {smp.composition.mixing}
-              {smp.composition.density_g_cm3 ? `; density ${smp.composition.density_g_cm3} g cm⁻³` : ''}
-              {smp.composition.kappa !== undefined ? `; κ ${smp.composition.kappa}` : ''}
+              <CompositionText composition={smp.composition} own={p.own} where={`sample '${smp.name}'`} />
+              <div class="detail">{mainCompositionUse(smp.size)}</div>
             </td>
           </tr>
+          {smp.size.kind === 'modes' &&
+            smp.size.modes.map(
+              (m, j) =>
+                m.composition && (
+                  <tr key={j} data-report-composition={`mode-${j}`}>
+                    <th scope="row">
+                      Composition of mode {j + 1}{' '}
+                      {m.name && <div class="detail">{m.name}</div>}
+                    </th>
+                    <td>
+                      <CompositionText composition={m.composition} own={p.own} where={`sample '${smp.name}', mode ${j + 1}`} />
+                    </td>
+                  </tr>
+                )
+            )}
           <tr>
             <th scope="row">Humidity</th>
             <td>
-              {num(smp.rh_percent)} % ({smp.rh_history}){smp.temperature_k ? `, ${num(smp.temperature_k)} K` : ''}
+              {num(smp.rh_percent, 8)} % RH, {smp.rh_history} branch (particles were {smp.rh_history === 'rising' ? 'dry' : 'wet'} before);{' '}
+              {smp.temperature_k !== undefined ? `${num(smp.temperature_k, 8)} K` : 'temperature not given (the Kelvin term takes 298.15 K)'}
             </td>
           </tr>
           <tr>
@@ -89,6 +93,7 @@ function SampleSection(p: { id: string }) {
       ) : (
         <>
           {x.stale && <p class="stale-note">These results are stale (from earlier inputs).</p>}
+          {x.preview && <p class="stale-note">These figures are from the quick first pass (to about 1 %); the full computation was still running when this report was made.</p>}
           <Verdict x={{ ...x, result: r }} />
           <div class="report-charts">
             <Chart name={`report-ext-${x.index}`} title="Extinction, scattering, absorption" data={[wl, r.optics.wavelengths.map((w) => w.ext), r.optics.wavelengths.map((w) => w.sca), r.optics.wavelengths.map((w) => w.abs)]} lines={specLines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
@@ -107,6 +112,7 @@ export function Report() {
   const s = useApp()
   const st = s.study
   const surface = SURFACE_TYPES.find((t) => t.id === st.site.surface)
+  const own = useMemo(() => ownComponentStates(st), [st])
   useEffect(() => {
     document.documentElement.classList.add('printing-report')
     return () => document.documentElement.classList.remove('printing-report')
@@ -131,15 +137,16 @@ export function Report() {
           {st.notes && <p class="notes-text">{st.notes}</p>}
           <p>
             Site: {st.site.name ?? 'unnamed'}; latitude {num(st.site.latitude_deg)}°, day {st.site.day_of_year}, cloud fraction {num(st.site.cloud_fraction)}, transmittance {num(st.site.transmittance)}, surface{' '}
-            {st.site.surface === 'custom' ? `custom albedo ${num(st.site.surface_albedo ?? NaN)}` : `${surface?.name ?? st.site.surface} (albedo ${surface?.albedo})`}. Wavelengths: {st.wavelengths_nm.join(', ')} nm.
+            {st.site.surface === 'custom' ? `custom albedo ${num(st.site.surface_albedo ?? NaN)}` : `${surface?.name ?? st.site.surface} (albedo ${surface?.albedo})`}. Verdict “too close to call” within ±{num(st.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, 8)} W m⁻². Wavelengths: {st.wavelengths_nm.join(', ')} nm.
           </p>
         </header>
         <section class="report-cautions">
           <h2>Cautions</h2>
           <CautionText />
         </section>
+        <OwnComponentsReport study={st} own={own} />
         {s.ids.map((id) => (
-          <SampleSection id={id} key={id} />
+          <SampleSection id={id} key={id} own={own} />
         ))}
         <section class="report-references">
           <h2>Methods and references</h2>
