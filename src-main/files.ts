@@ -1,6 +1,6 @@
 // Study files on disk (Node): loading with the file's modification time, and saving atomically.
 //
-// Saving (saveTextAtomically):
+// Saving (saveTextAtomically; writeFileAtomically for bytes, e.g. PNG and PDF exports):
 //   1. if the caller recorded the file's mtime (and size) when it opened it, and the file on disk now differs,
 //      refuse with FileChangedError (someone else saved it meanwhile) unless `force`;
 //   2. write the new text to a temporary file in the same directory (`.NAME.PID-RANDOM.tmp`) and fsync it;
@@ -94,7 +94,12 @@ async function statOrUndefined(io: SaveIo, path: string) {
 }
 
 /** Writes `text` to `path` atomically (see the top of this file). Throws FileChangedError, or the fs error. */
-export async function saveTextAtomically(path: string, text: string, options: SaveOptions = {}): Promise<SavedFile> {
+export function saveTextAtomically(path: string, text: string, options: SaveOptions = {}): Promise<SavedFile> {
+  return writeFileAtomically(path, text, options)
+}
+
+/** Writes text (as UTF-8) or bytes to `path` atomically, as saveTextAtomically does. */
+export async function writeFileAtomically(path: string, data: string | Uint8Array, options: SaveOptions = {}): Promise<SavedFile> {
   const io: SaveIo = { ...nodeIo, ...options.io }
   const current = await statOrUndefined(io, path)
   if (options.expectedMtimeMs !== undefined && !options.force) {
@@ -108,7 +113,7 @@ export async function saveTextAtomically(path: string, text: string, options: Sa
     const handle = await io.open(tmp, 'wx', current ? current.mode & 0o777 : 0o644)
     tmpExists = true
     try {
-      await handle.writeFile(text, 'utf8')
+      await handle.writeFile(data, typeof data === 'string' ? 'utf8' : undefined)
       await handle.sync()
     } finally {
       await handle.close()

@@ -1,188 +1,117 @@
-// Electron main process: thin. Windows, menu, dialogs, files, recovery copies and printing; no physics here.
-// Every message from a renderer is checked against src-main/ipc-schemas.ts before it is acted on.
-import { app, BrowserWindow, dialog, ipcMain, Menu, shell, type IpcMainInvokeEvent, type MenuItemConstructorOptions } from 'electron'
-import { mkdir, readdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises'
+// Electron main process: glue only. It wires windows, dialogs, the menu and IPC to the Electron-free modules beside
+// it, which take every decision (and are tested under plain Node in test/desktop). No physics here.
+import { app, BrowserWindow, dialog, ipcMain, Menu, session, shell, type IpcMainEvent, type IpcMainInvokeEvent, type WebContents } from 'electron'
 import { basename, join } from 'node:path'
-import type { z } from 'zod'
-import { CHANNELS, FILE_FILTERS, type MenuCommand, type OpenedFile, type RecoveryCopy, type StartUp } from './host-api.ts'
-import { FileChangedError, saveTextAtomically } from './files.ts'
-import { exportFileRequest, keepRecoveryRequest, noArguments, printReportRequest, saveStudyRequest, setStateRequest } from './ipc-schemas.ts'
+import { closeAnswer, onCloseRequest, unsavedChangesQuestion } from './closing.ts'
+import { withContentPolicy } from './content-policy.ts'
+import { exportContent, writeExport } from './export-file.ts'
+import { CHANNELS, FILE_FILTERS, type MenuCommand, type OpenedFile, type StartUp } from './host-api.ts'
+import { checkMessage, type ChannelMessage, type ChannelName } from './ipc-schemas.ts'
+import { menuTemplate } from './menu.ts'
+import { appPage, isAppPage, permissionAllowed, windowOpenResponse } from './navigation.ts'
+import { RecentStudies } from './recent-studies.ts'
+import { RecoveryStore } from './recovery-store.ts'
+import { firstWindows, quitsWhenAllWindowsClose, studyArgument } from './start-up.ts'
+import { overwriteChosen, overwriteQuestion, readChosenFile, StudyFiles } from './study-saving.ts'
+import { windowOptions, windowTitle } from './window-options.ts'
+import { WindowRegistry, type WindowRecord } from './window-registry.ts'
 
-interface WindowState {
-  startUp: StartUp
-  title: string
-  dirty: boolean
-  pristine: boolean
-  /** The window may close without asking (after "save and close", or "don't save"). */
-  closing: boolean
-  recoveryFile: string
-}
-
-const windows = new Map<number, WindowState>()
 const STUDY_FILTERS = [FILE_FILTERS.study, { name: 'JSON', extensions: ['json'] }, { name: 'All files', extensions: ['*'] }]
 const SIZER_FILTERS = [{ name: 'Sizer export', extensions: ['csv', 'tsv', 'txt', 'dat'] }, { name: 'All files', extensions: ['*'] }]
-const MAX_RECENT = 8
 
-// ---------------------------------------------------------------------------------------------------------------
-// Files: every write goes to a temporary file in the same folder, then is renamed over the target. Studies are
-// saved by files.ts (which also keeps a .bak and refuses to overwrite a file that changed on disk unasked);
-// exports (PNG, PDF, CSV) by writeAtomically below.
+const page = appPage(process.env['ELECTRON_RENDERER_URL'], join(import.meta.dirname, '../renderer/index.html'))
+const preloadPath = join(import.meta.dirname, '../preload/index.cjs')
+const windows = new WindowRegistry()
+const studies = new StudyFiles()
+const recent = new RecentStudies(join(app.getPath('userData'), 'recent.json'))
+const recovery = new RecoveryStore(join(app.getPath('userData'), 'recovery'))
 
-/** Modification time and size of study files when this process last read or wrote them. */
-const stamps = new Map<string, { mtimeMs: number; size: number }>()
-
-async function writeAtomically(path: string, data: string | Uint8Array): Promise<void> {
-  const tmp = `${path}.${process.pid}.${Date.now()}.tmp`
-  try {
-    await writeFile(tmp, data)
-    await rename(tmp, path)
-  } catch (e) {
-    await rm(tmp, { force: true })
-    throw e
-  }
-}
-
-async function readText(path: string): Promise<OpenedFile> {
-  const before = await stat(path)
-  const text = await readFile(path, 'utf8')
-  stamps.set(path, { mtimeMs: before.mtimeMs, size: before.size })
-  return { name: basename(path), path, text }
-}
-
-/** Saves study text; if the file changed on disk since it was read, asks before overwriting it. */
-async function saveStudyText(win: BrowserWindow, path: string, text: string): Promise<boolean> {
-  const stamp = stamps.get(path)
-  try {
-    const saved = await saveTextAtomically(path, text, stamp ? { expectedMtimeMs: stamp.mtimeMs, expectedSize: stamp.size } : {})
-    stamps.set(path, { mtimeMs: saved.mtimeMs, size: saved.size })
-    return true
-  } catch (e) {
-    if (!(e instanceof FileChangedError)) throw e
-    const choice = dialog.showMessageBoxSync(win, {
-      type: 'warning',
-      buttons: ['Overwrite', 'Cancel'],
-      defaultId: 1,
-      cancelId: 1,
-      message: 'The file changed on disk since it was opened here.',
-      detail: `${path}\n\nOverwrite it with this window's study? (The previous version is kept as ${basename(path)}.bak.)`
-    })
-    if (choice !== 0) return false
-    const saved = await saveTextAtomically(path, text, { force: true })
-    stamps.set(path, { mtimeMs: saved.mtimeMs, size: saved.size })
-    return true
-  }
-}
-
-const userFile = (name: string) => join(app.getPath('userData'), name)
-const recoveryDir = () => userFile('recovery')
-
-// ---------------------------------------------------------------------------------------------------------------
-// Recent studies (a small JSON list in the user-data folder).
-
-async function recentStudies(): Promise<string[]> {
-  try {
-    const list = JSON.parse(await readFile(userFile('recent.json'), 'utf8')) as unknown
-    return Array.isArray(list) ? list.filter((p): p is string => typeof p === 'string').slice(0, MAX_RECENT) : []
-  } catch {
-    return []
-  }
-}
-
-async function rememberStudy(path: string): Promise<void> {
-  const list = [path, ...(await recentStudies()).filter((p) => p !== path)].slice(0, MAX_RECENT)
-  await mkdir(app.getPath('userData'), { recursive: true })
-  await writeAtomically(userFile('recent.json'), JSON.stringify(list, null, 2))
-  app.addRecentDocument(path)
-  await buildMenu()
-}
+const messageOf = (e: unknown) => (e instanceof Error ? e.message : String(e))
 
 // ---------------------------------------------------------------------------------------------------------------
 // Windows: one per study.
 
-let recoveryCounter = 0
+/** Sends a checked message to a window's page. */
+function sendTo<N extends 'command' | 'load'>(contents: WebContents, name: N, message: ChannelMessage<N>): void {
+  contents.send(CHANNELS[name], checkMessage(name, message))
+}
 
-function openWindow(startUp: StartUp): BrowserWindow {
-  const win = new BrowserWindow({
-    width: 1366,
-    height: 768,
-    minWidth: 1024,
-    minHeight: 640,
-    title: 'Motebench',
-    show: false,
-    webPreferences: {
-      preload: join(import.meta.dirname, '../preload/index.cjs'),
-      contextIsolation: true,
-      sandbox: true,
-      nodeIntegration: false,
-      webSecurity: true,
-      spellcheck: false
-    }
-  })
-  const id = win.webContents.id
-  windows.set(id, {
-    startUp,
-    title: 'Motebench',
-    dirty: false,
-    pristine: !startUp.file,
-    closing: false,
-    recoveryFile: join(recoveryDir(), `window-${process.pid}-${++recoveryCounter}.json`)
-  })
+function openWindow(startUp: StartUp, recoverySlot = recovery.newSlot()): BrowserWindow {
+  const win = new BrowserWindow(windowOptions(preloadPath))
+  const contents = win.webContents
+  const id = contents.id
+  windows.add(id, startUp, recoverySlot)
   win.once('ready-to-show', () => win.show())
 
-  // No navigation away from the app, no new windows, no permissions.
-  win.webContents.on('will-navigate', (e) => e.preventDefault())
-  win.webContents.on('will-redirect', (e) => e.preventDefault())
-  win.webContents.setWindowOpenHandler(() => ({ action: 'deny' }))
-  win.webContents.session.setPermissionRequestHandler((_wc, _perm, done) => done(false))
-
   win.on('close', (e) => {
-    const state = windows.get(id)
-    if (!state || state.closing || !state.dirty) return
+    const record = windows.get(id)
+    if (!record || onCloseRequest(record) === 'close') return
     e.preventDefault()
-    const choice = dialog.showMessageBoxSync(win, {
-      type: 'question',
-      buttons: ['Save…', 'Close without saving', 'Cancel'],
-      defaultId: 0,
-      cancelId: 2,
-      message: `Save the changes to “${state.title}” before closing?`,
-      detail: 'Unsaved changes are lost when the window closes without saving.'
-    })
-    if (choice === 0) win.webContents.send(CHANNELS.command, 'save-and-close' satisfies MenuCommand)
-    else if (choice === 1) {
-      state.closing = true
+    const answer = closeAnswer(dialog.showMessageBoxSync(win, unsavedChangesQuestion(record.title)))
+    if (answer === 'save-then-close') sendTo(contents, 'command', 'save-and-close')
+    else if (answer === 'close-without-saving') {
+      record.closing = true
       win.close()
     }
   })
   win.on('closed', () => {
-    const state = windows.get(id)
-    windows.delete(id)
-    if (state) void rm(state.recoveryFile, { force: true })
+    const record = windows.remove(id)
+    if (record) void recovery.discard(record.recoverySlot).catch((e: unknown) => console.warn(`Recovery copy not removed: ${messageOf(e)}`))
   })
 
-  const devUrl = process.env['ELECTRON_RENDERER_URL']
-  if (devUrl) void win.loadURL(devUrl)
-  else void win.loadFile(join(import.meta.dirname, '../renderer/index.html'))
+  void win.loadURL(page.url.href)
   return win
 }
 
-function stateOf(e: IpcMainInvokeEvent | Electron.IpcMainEvent): WindowState {
-  const state = windows.get(e.sender.id)
-  if (!state) throw new Error('message from an unknown window')
-  return state
+/** Keeps every page on the app: no navigation elsewhere, no new windows, no webviews. */
+function guardContents(contents: WebContents): void {
+  const refuseUnlessApp = (e: { preventDefault(): void }, url: string) => {
+    if (!isAppPage(url, page)) e.preventDefault()
+  }
+  contents.on('will-navigate', (e, url) => refuseUnlessApp(e, url))
+  contents.on('will-frame-navigate', (e) => refuseUnlessApp(e, e.url))
+  contents.on('will-redirect', (e, url) => refuseUnlessApp(e, url))
+  contents.on('will-attach-webview', (e) => e.preventDefault())
+  contents.setWindowOpenHandler(() => windowOpenResponse())
 }
 
-/** Opens a study file: into `win` when it holds nothing yet, else in a window of its own. */
+/** No permissions, and the app's Content-Security-Policy on every response (the dev server's included). */
+function guardSession(): void {
+  const s = session.defaultSession
+  s.setPermissionRequestHandler((_contents, permission, done) => done(permissionAllowed(permission)))
+  s.webRequest.onHeadersReceived((details, done) => done({ responseHeaders: withContentPolicy(details.responseHeaders) }))
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Studies and the recent list.
+
+/** Puts a study at the top of File ▸ Open recent; a failure here never fails the open or save that caused it. */
+async function rememberStudy(path: string): Promise<void> {
+  try {
+    await recent.add(path)
+    app.addRecentDocument(path)
+    await buildMenu()
+  } catch (e) {
+    console.warn(`The recent-studies list was not updated: ${messageOf(e)}`)
+  }
+}
+
+/** Opens a study file: into `win` when it holds nothing yet (resolves to the file), else in a window of its own. */
 async function openStudyFile(path: string, win: BrowserWindow | null): Promise<OpenedFile | null> {
   let file: OpenedFile
   try {
-    file = await readText(path)
+    file = await studies.read(path)
   } catch (e) {
-    dialog.showErrorBox('Could not open the study', `${path}\n\n${(e as Error).message}`)
+    dialog.showErrorBox('Could not open the study', messageOf(e))
+    await buildMenu().catch(() => {})
     return null
   }
   await rememberStudy(path)
-  const state = win ? windows.get(win.webContents.id) : undefined
-  if (win && state?.pristine) return file
+  const id = win && !win.isDestroyed() ? win.webContents.id : undefined
+  if (id !== undefined && windows.opensInto(id) === 'this-window') {
+    windows.grant(id, path)
+    return file
+  }
   openWindow({ file })
   return null
 }
@@ -195,202 +124,184 @@ async function askAndOpenStudy(win: BrowserWindow | null): Promise<OpenedFile | 
 }
 
 // ---------------------------------------------------------------------------------------------------------------
-// IPC: every handler validates its argument first.
+// IPC: a message is acted on only if it comes from the main frame of a study window showing the app's page, and
+// matches its channel's schema.
 
-function handle<S extends z.ZodType>(channel: string, schema: S, fn: (e: IpcMainInvokeEvent, arg: z.infer<S>) => Promise<unknown>): void {
-  ipcMain.handle(channel, async (e, raw: unknown) => {
-    const parsed = schema.safeParse(raw)
-    if (!parsed.success) throw new Error(`rejected message on ${channel}`)
-    stateOf(e)
-    return fn(e, parsed.data)
-  })
+function senderRecord(e: IpcMainInvokeEvent | IpcMainEvent): WindowRecord {
+  const frame = e.senderFrame
+  if (!frame || frame.parent !== null || !isAppPage(frame.url, page)) {
+    throw new Error(`A message came from ${frame?.url ?? 'a closed frame'}, which is not the app's page; it was ignored.`)
+  }
+  return windows.require(e.sender.id)
 }
 
-const windowOf = (e: IpcMainInvokeEvent | Electron.IpcMainEvent): BrowserWindow => {
+function windowOf(e: IpcMainInvokeEvent | IpcMainEvent): BrowserWindow {
   const win = BrowserWindow.fromWebContents(e.sender)
-  if (!win) throw new Error('no window')
+  if (!win) throw new Error('The message came from web contents without a window; it was ignored.')
   return win
 }
 
+function handle<N extends ChannelName>(name: N, fn: (e: IpcMainInvokeEvent, arg: ChannelMessage<N>, record: WindowRecord) => Promise<unknown>): void {
+  ipcMain.handle(CHANNELS[name], async (e, raw: unknown) => {
+    const record = senderRecord(e)
+    return fn(e, checkMessage(name, raw), record)
+  })
+}
+
+/** One-way messages cannot answer, so a refused one is only logged. */
+function listen<N extends ChannelName>(name: N, fn: (e: IpcMainEvent, arg: ChannelMessage<N>, record: WindowRecord) => void): void {
+  ipcMain.on(CHANNELS[name], (e, raw: unknown) => {
+    try {
+      fn(e, checkMessage(name, raw), senderRecord(e))
+    } catch (err) {
+      console.warn(messageOf(err))
+    }
+  })
+}
+
 function registerIpc(): void {
-  handle(CHANNELS.startUp, noArguments, async (e) => stateOf(e).startUp)
+  handle('startUp', async (_e, _arg, record) => record.startUp)
 
-  handle(CHANNELS.openStudy, noArguments, async (e) => askAndOpenStudy(windowOf(e)))
+  handle('openStudy', async (e) => askAndOpenStudy(windowOf(e)))
 
-  handle(CHANNELS.saveStudy, saveStudyRequest, async (e, req) => {
-    let path = req.path
-    if (!path || req.saveAs) {
-      const r = await dialog.showSaveDialog(windowOf(e), { title: 'Save the study', defaultPath: path ?? req.suggestedName, filters: [FILE_FILTERS.study] })
+  handle('saveStudy', async (e, req) => {
+    const win = windowOf(e)
+    let path = windows.savePathWithoutAsking(e.sender.id, req)
+    if (!path) {
+      const r = await dialog.showSaveDialog(win, { title: 'Save the study', defaultPath: req.path ?? req.suggestedName, filters: [FILE_FILTERS.study] })
       if (r.canceled || !r.filePath) return null
       path = r.filePath
     }
-    if (!(await saveStudyText(windowOf(e), path, req.text))) return null
+    try {
+      if (!(await studies.save(path, req.text, (p) => overwriteChosen(dialog.showMessageBoxSync(win, overwriteQuestion(p)))))) return null
+    } catch (err) {
+      dialog.showErrorBox('The study was not saved', `${path}\n\n${messageOf(err)}\n\nThe file on disk is as it was; save under another name or in another folder.`)
+      return null
+    }
+    windows.grant(e.sender.id, path)
     await rememberStudy(path)
-    const state = stateOf(e)
-    state.pristine = false
     return { name: basename(path), path }
   })
 
-  handle(CHANNELS.openSizer, noArguments, async (e) => {
+  handle('openSizer', async (e) => {
     const r = await dialog.showOpenDialog(windowOf(e), { title: 'Import a sizer file', properties: ['openFile'], filters: SIZER_FILTERS })
     if (r.canceled || r.filePaths.length === 0) return null
-    return readText(r.filePaths[0])
+    try {
+      return (await readChosenFile(r.filePaths[0])).file
+    } catch (err) {
+      dialog.showErrorBox('Could not import the sizer file', messageOf(err))
+      return null
+    }
   })
 
-  handle(CHANNELS.exportFile, exportFileRequest, async (e, req) => {
+  handle('exportFile', async (e, req) => {
     const r = await dialog.showSaveDialog(windowOf(e), { title: 'Export', defaultPath: req.suggestedName, filters: [FILE_FILTERS[req.kind]] })
     if (r.canceled || !r.filePath) return false
-    await writeAtomically(r.filePath, req.base64 !== undefined ? Buffer.from(req.base64, 'base64') : (req.text ?? ''))
-    return true
+    try {
+      await writeExport(r.filePath, exportContent(req))
+      return true
+    } catch (err) {
+      dialog.showErrorBox('The export was not written', `${r.filePath}\n\n${messageOf(err)}\n\nChoose another name or folder.`)
+      return false
+    }
   })
 
-  handle(CHANNELS.printReport, printReportRequest, async (e, req) => {
+  handle('printReport', async (e, req) => {
     const win = windowOf(e)
     const r = await dialog.showSaveDialog(win, { title: 'Save the report as PDF', defaultPath: req.suggestedName, filters: [FILE_FILTERS.pdf] })
     if (r.canceled || !r.filePath) return false
-    const pdf = await win.webContents.printToPDF({ printBackground: true, pageSize: 'A4', margins: { marginType: 'default' } })
-    await writeAtomically(r.filePath, pdf)
+    try {
+      await writeExport(r.filePath, await win.webContents.printToPDF({ printBackground: true, pageSize: 'A4', margins: { marginType: 'default' } }))
+    } catch (err) {
+      dialog.showErrorBox('The report was not saved', `${r.filePath}\n\n${messageOf(err)}\n\nChoose another name or folder.`)
+      return false
+    }
     void shell.openPath(r.filePath)
     return true
   })
 
-  handle(CHANNELS.keepRecovery, keepRecoveryRequest, async (e, copy) => {
-    const state = stateOf(e)
-    if (copy === null) await rm(state.recoveryFile, { force: true })
-    else {
-      await mkdir(recoveryDir(), { recursive: true })
-      await writeAtomically(state.recoveryFile, JSON.stringify(copy))
-    }
+  handle('keepRecovery', async (e, copy, record) => {
+    if (copy !== null) await recovery.keep(record.recoverySlot, copy)
+    // A copy written while its window was closing would be offered at the next start as if after a crash.
+    if (copy === null || windows.get(e.sender.id) !== record) await recovery.discard(record.recoverySlot)
   })
 
-  ipcMain.on(CHANNELS.setState, (e, raw: unknown) => {
-    const parsed = setStateRequest.safeParse(raw)
-    const state = windows.get(e.sender.id)
-    if (!parsed.success || !state) return
-    Object.assign(state, parsed.data)
+  listen('setState', (e, state) => {
+    windows.report(e.sender.id, state)
     const win = BrowserWindow.fromWebContents(e.sender)
-    win?.setTitle(`${parsed.data.title}${parsed.data.dirty ? ' •' : ''} — Motebench`)
-    win?.setDocumentEdited(parsed.data.dirty)
+    win?.setTitle(windowTitle(state.title, state.dirty))
+    win?.setDocumentEdited(state.dirty)
   })
 
-  ipcMain.on(CHANNELS.closeWindow, (e, raw: unknown) => {
-    const state = windows.get(e.sender.id)
-    if (raw !== undefined || !state) return
-    state.closing = true
+  listen('closeWindow', (e, _arg, record) => {
+    record.closing = true
     BrowserWindow.fromWebContents(e.sender)?.close()
   })
 }
 
 // ---------------------------------------------------------------------------------------------------------------
-// Recovery copies left by a crash: offered in the first window, one each.
-
-async function leftoverRecoveryCopies(): Promise<RecoveryCopy[]> {
-  let names: string[]
-  try {
-    names = await readdir(recoveryDir())
-  } catch {
-    return []
-  }
-  const copies: RecoveryCopy[] = []
-  for (const name of names.filter((n) => n.endsWith('.json'))) {
-    const path = join(recoveryDir(), name)
-    try {
-      const parsed = keepRecoveryRequest.safeParse(JSON.parse(await readFile(path, 'utf8')))
-      if (parsed.success && parsed.data) copies.push(parsed.data)
-    } catch {
-      /* unreadable copy: dropped below */
-    }
-    await rm(path, { force: true })
-  }
-  return copies
-}
-
-// ---------------------------------------------------------------------------------------------------------------
 // The application menu.
 
-function send(command: MenuCommand): void {
+function runCommand(command: MenuCommand): void {
   const win = BrowserWindow.getFocusedWindow()
-  if (win) win.webContents.send(CHANNELS.command, command)
+  if (command === 'new') openWindow({ blank: true })
+  else if (command === 'open') void askAndOpenStudy(win).then((f) => f && win && !win.isDestroyed() && sendTo(win.webContents, 'load', f))
+  else if (win) sendTo(win.webContents, 'command', command)
+}
+
+/** Opens a study chosen outside the app's dialogs (Open recent, the desktop): into the focused window if it is empty. */
+function openInFocusedWindow(path: string): void {
+  const win = BrowserWindow.getFocusedWindow()
+  void openStudyFile(path, win).then((f) => f && win && !win.isDestroyed() && sendTo(win.webContents, 'load', f))
 }
 
 async function buildMenu(): Promise<void> {
-  const recent = await recentStudies()
-  const isMac = process.platform === 'darwin'
-  const template: MenuItemConstructorOptions[] = [
-    ...(isMac ? [{ role: 'appMenu' as const }] : []),
-    {
-      label: '&File',
-      submenu: [
-        { label: 'New study', accelerator: 'CmdOrCtrl+N', click: () => openWindow({ blank: true }) },
-        { label: 'Open study…', accelerator: 'CmdOrCtrl+O', click: () => void askAndOpenStudy(BrowserWindow.getFocusedWindow()).then((f) => f && BrowserWindow.getFocusedWindow()?.webContents.send(CHANNELS.load, f)) },
-        {
-          label: 'Open recent',
-          submenu: recent.length
-            ? recent.map((path) => ({
-                label: path,
-                click: () => {
-                  const win = BrowserWindow.getFocusedWindow()
-                  void openStudyFile(path, win).then((f) => f && win?.webContents.send(CHANNELS.load, f))
-                }
-              }))
-            : [{ label: 'No recent studies', enabled: false }]
-        },
-        { type: 'separator' },
-        { label: 'Save', accelerator: 'CmdOrCtrl+S', click: () => send('save') },
-        { label: 'Save as…', accelerator: 'CmdOrCtrl+Shift+S', click: () => send('save-as') },
-        { type: 'separator' },
-        { label: 'Import sizer file…', accelerator: 'CmdOrCtrl+I', click: () => send('import-sizer') },
-        { label: 'Export results as CSV…', accelerator: 'CmdOrCtrl+E', click: () => send('export-csv') },
-        { label: 'Export results as JSON…', accelerator: 'CmdOrCtrl+Shift+E', click: () => send('export-json') },
-        { label: 'Export report as PDF…', accelerator: 'CmdOrCtrl+P', click: () => send('export-report') },
-        { type: 'separator' },
-        isMac ? { role: 'close' } : { role: 'quit', accelerator: 'CmdOrCtrl+Q' }
-      ]
-    },
-    {
-      label: '&Edit',
-      submenu: [
-        { label: 'Undo', accelerator: 'CmdOrCtrl+Z', click: () => send('undo') },
-        { label: 'Redo', accelerator: 'CmdOrCtrl+Shift+Z', click: () => send('redo') },
-        { type: 'separator' },
-        { role: 'cut' },
-        { role: 'copy' },
-        { role: 'paste' },
-        { role: 'selectAll' }
-      ]
-    },
-    { label: '&View', submenu: [{ role: 'resetZoom' }, { role: 'zoomIn' }, { role: 'zoomOut' }, { type: 'separator' }, { role: 'togglefullscreen' }] },
-    { label: '&Help', submenu: [{ label: 'Safety and limits of the estimate', accelerator: 'F1', click: () => send('cautions') }] }
-  ]
-  Menu.setApplicationMenu(Menu.buildFromTemplate(template))
+  Menu.setApplicationMenu(Menu.buildFromTemplate(menuTemplate(process.platform, await recent.list(), { send: runCommand, openRecent: openInFocusedWindow })))
 }
 
 // ---------------------------------------------------------------------------------------------------------------
+// Start-up.
+
+/** Files the desktop asked to open (macOS sends them as events, also before the app is ready). */
+const filesBeforeReady: string[] = []
+
+async function openFirstWindows(): Promise<void> {
+  const named = filesBeforeReady.shift() ?? studyArgument(process.argv, app.isPackaged, process.cwd())
+  for (const first of firstWindows(await recovery.leftovers(), named)) {
+    if ('recover' in first) {
+      const slot = await recovery.adopt(first.recover)
+      if (slot) openWindow({ recovery: first.recover.copy }, slot)
+    } else if ('openFile' in first) {
+      try {
+        openWindow({ file: await studies.read(first.openFile) })
+        await rememberStudy(first.openFile)
+      } catch (e) {
+        dialog.showErrorBox('Could not open the study', messageOf(e))
+      }
+    } else openWindow({})
+  }
+  if (windows.size === 0) openWindow({})
+  for (const path of filesBeforeReady.splice(0)) await openStudyFile(path, null)
+}
 
 app.enableSandbox()
-app.on('web-contents-created', (_e, contents) => {
-  contents.on('will-attach-webview', (e) => e.preventDefault())
-  contents.setWindowOpenHandler(() => ({ action: 'deny' }))
+app.on('web-contents-created', (_e, contents) => guardContents(contents))
+app.on('open-file', (e, path) => {
+  e.preventDefault()
+  if (app.isReady()) openInFocusedWindow(path)
+  else filesBeforeReady.push(path)
 })
 
 void app.whenReady().then(async () => {
+  guardSession()
   registerIpc()
   await buildMenu()
-  const copies = await leftoverRecoveryCopies()
-  const fileArg = process.argv.slice(app.isPackaged ? 1 : 2).find((a) => a.endsWith('.mote'))
-  if (copies.length) for (const recovery of copies) openWindow({ recovery })
-  else if (fileArg) {
-    try {
-      openWindow({ file: await readText(fileArg) })
-    } catch {
-      openWindow({})
-    }
-  } else openWindow({})
+  await openFirstWindows()
   app.on('activate', () => {
     if (BrowserWindow.getAllWindows().length === 0) openWindow({})
   })
 })
 
 app.on('window-all-closed', () => {
-  if (process.platform !== 'darwin') app.quit()
+  if (quitsWhenAllWindowsClose(process.platform)) app.quit()
 })
