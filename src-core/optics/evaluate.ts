@@ -6,7 +6,7 @@ import type { Study } from '../study/model.ts'
 import { sampleForcing, sampleForcingMap } from './forcing.ts'
 import { OpticsWorkspace } from './integrate.ts'
 import { computeSampleOptics, finish, sampleOpticsSteps, studyMaterials, type SampleOpticsOptions } from './sample.ts'
-import type { HumidityGrowthCurve, SampleResult, StudyResults } from './types.ts'
+import type { HumidityGrowthCurve, SampleOptics, SampleResult, StudyResults } from './types.ts'
 
 export const MOTEBENCH_VERSION = '0.1.0'
 
@@ -59,12 +59,15 @@ export function* humidityCurveSteps(study: Study, index: number, ws = new Optics
 export function* sampleResultSteps(study: Study, index: number, options: Omit<EvaluateOptions, 'sampleIndices' | 'progress'> = {}): Generator<void, SampleResult> {
   const ws = options.workspace ?? new OpticsWorkspace()
   const optics = yield* sampleOpticsSteps(study.samples[index], study, { tolerance: options.tolerance, anglesDeg: options.anglesDeg, workspace: ws }, studyMaterials(study))
+  const result = sampleResultFromOptics(study, optics)
+  if (!options.skipHumidityCurve) result.humidity = yield* humidityCurveSteps(study, index, ws, options.tolerance ?? HUMIDITY_CURVE_TOLERANCE)
+  return result
+}
+
+/** A sample's forcing and forcing map from its optics; the f(RH) curve is left empty (humidityCurveSteps fills it). */
+export function sampleResultFromOptics(study: Study, optics: SampleOptics): SampleResult {
   const forcing = sampleForcing(optics, study.site, study.verdict_margin_w_m2)
-  const map = sampleForcingMap(forcing, study.site)
-  const humidity = options.skipHumidityCurve
-    ? { wavelength_nm: 550, rh_percent: [], f: [] }
-    : yield* humidityCurveSteps(study, index, ws, options.tolerance ?? HUMIDITY_CURVE_TOLERANCE)
-  return { optics, forcing, map, humidity }
+  return { optics, forcing, map: sampleForcingMap(forcing, study.site), humidity: { wavelength_nm: 550, rh_percent: [], f: [] } }
 }
 
 /** Evaluates every sample of a study (or those chosen). */

@@ -195,24 +195,93 @@ export function finish<T>(steps: Generator<void, T>): T {
  * at the end. A caller that must stay responsive (the app's worker) can look for newer work between steps.
  */
 export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): Generator<void, SampleOptics> {
+  const bulk = yield* sampleBulkSteps(sample, study, options, own)
+  return assembleSampleOptics(sample, study, bulk, options, own)
+}
+
+/** One wavelength's bulk optics as the size integration gives them, before the figures derived from them. */
+export interface WavelengthBulk {
+  wavelength_nm: number
+  ext: number
+  sca: number
+  abs: number
+  g: number
+  backscatter: number
+  upscatter_mean: number
+  upscatter: number[]
+  /** The phase function and polarisation, at the angular wavelengths only. */
+  angular: AngularOptics | null
+  evaluations: number
+  converged: boolean
+}
+
+/** The sample's conditions and populations, as both halves of the computation see them. */
+function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: Pick<SampleOpticsOptions, 'rhPercent'>, own: Material[]) {
   const wavelengths = study.wavelengths_nm
   if (!wavelengths.length) throw new InputError('study: wavelengths', 'no wavelengths are given', 'Add at least one wavelength, such as 550 nm.')
-  const longest = Math.max(...wavelengths) / 1000
-  const pops = samplePopulations(sample, own, longest)
-  const rh = options.rhPercent ?? sample.rh_percent
-  const cond: Conditions = { rhPercent: rh, history: sample.rh_history, temperatureK: sample.temperature_k ?? 298.15 }
+  // the longest of all the study's wavelengths (not of a share of them) sets the modes' ranges, so that a
+  // computation split by wavelength integrates over the same sizes as a whole one
+  const pops = samplePopulations(sample, own, Math.max(...wavelengths) / 1000)
+  const cond: Conditions = { rhPercent: options.rhPercent ?? sample.rh_percent, history: sample.rh_history, temperatureK: sample.temperature_k ?? 298.15 }
+  return { pops, cond }
+}
+
+/**
+ * The size integration of a sample at its study's wavelengths, or at `only` (a share of them, for a computation
+ * split across workers): one WavelengthBulk per wavelength, with a pause after each.
+ */
+export function* sampleBulkSteps(
+  sample: Sample,
+  study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
+  options: SampleOpticsOptions & { only?: readonly number[] } = {},
+  own: Material[] = studyMaterials(study)
+): Generator<void, WavelengthBulk[]> {
+  const { pops, cond } = sampleSetting(sample, study, options, own)
+  const wavelengths = study.wavelengths_nm
   const ws = options.workspace ?? new OpticsWorkspace()
   const angularAt = options.angularWavelengthsNm ?? [wavelengths.includes(550) ? 550 : wavelengths[0]]
   const angles = options.anglesDeg ?? DEFAULT_ANGLES_DEG
-  const vol = populationVolumes(pops, cond)
-  const depth = layerDepthM(sample.layer)
+  const out: WavelengthBulk[] = []
+  for (const wl of options.only ?? wavelengths) {
+    const wantAngles = angularAt.includes(wl)
+    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter }, ws)
+    out.push({
+      wavelength_nm: wl,
+      ext: r.ext,
+      sca: r.sca,
+      abs: r.abs,
+      g: r.g,
+      backscatter: r.backscatter,
+      upscatter_mean: r.upscatterMean,
+      upscatter: Array.from(r.upscatter),
+      angular: wantAngles && r.phase && r.polarization ? { wavelength_nm: wl, angles_deg: angles.slice(), phase: Array.from(r.phase), polarization: Array.from(r.polarization) } : null,
+      evaluations: r.evaluations,
+      converged: r.converged
+    })
+    yield
+  }
+  return out
+}
 
+/**
+ * A sample's optics from the bulk optics at each of its study's wavelengths (in any order, from one computation
+ * or several): mass efficiencies, visual range, haze index, optical depth, PM fractions, Ångström fit, notes.
+ */
+export function assembleSampleOptics(
+  sample: Sample,
+  study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
+  bulk: readonly WavelengthBulk[],
+  options: Pick<SampleOpticsOptions, 'rhPercent'> = {},
+  own: Material[] = studyMaterials(study)
+): SampleOptics {
+  const { pops, cond } = sampleSetting(sample, study, options, own)
+  const vol = populationVolumes(pops, cond)
   const rows: WavelengthOptics[] = []
   const angular: AngularOptics[] = []
   const unsettled: number[] = []
-  for (const wl of wavelengths) {
-    const wantAngles = angularAt.includes(wl)
-    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter }, ws)
+  for (const wl of study.wavelengths_nm) {
+    const r = bulk.find((b) => b.wavelength_nm === wl)
+    if (!r) throw new Error(`assembleSampleOptics: no bulk optics at ${wl} nm`)
     if (!r.converged) unsettled.push(wl)
     const rayleigh = rayleighScatteringMm(wl / 1000)
     const total = r.ext + rayleigh
@@ -224,8 +293,8 @@ export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_mate
       ssa: r.ext > 0 ? r.sca / r.ext : 1,
       g: r.g,
       backscatter_fraction: r.backscatter,
-      upscatter_fraction: r.upscatterMean,
-      upscatter_by_cos_zenith: Array.from(r.upscatter),
+      upscatter_fraction: r.upscatter_mean,
+      upscatter_by_cos_zenith: r.upscatter.slice(),
       mass_ext_dry: r.ext / vol.dryMass,
       mass_sca_dry: r.sca / vol.dryMass,
       mass_abs_dry: r.abs / vol.dryMass,
@@ -238,13 +307,10 @@ export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_mate
       deciview: deciview(total),
       mie_evaluations: r.evaluations
     })
-    if (wantAngles && r.phase && r.polarization) {
-      angular.push({ wavelength_nm: wl, angles_deg: angles.slice(), phase: Array.from(r.phase), polarization: Array.from(r.polarization) })
-    }
-    yield
+    if (r.angular) angular.push(r.angular)
   }
   // Optical depth: a uniform layer of the sample (Mm⁻¹ × m × 1e-6), or scaled to a given AOD at 550 nm.
-  let layerDepth = depth
+  let layerDepth = layerDepthM(sample.layer)
   if (sample.layer.kind === 'optical-depth') {
     const ext550 = extinctionAt(rows, 550)
     layerDepth = ext550 > 0 ? sample.layer.aod_550 / (ext550 * 1e-6) : 0
