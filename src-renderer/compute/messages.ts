@@ -1,5 +1,5 @@
 // Messages between the UI and the computing worker.
-import type { Sample, SampleResult, Study, UserMaterialSpec } from '../../src-core/index.ts'
+import type { Sample, SampleResult, Study, UserMaterialSpec, WavelengthBulk } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
 
 export type ToWorker =
@@ -25,3 +25,12 @@ export type FromWorker =
 export const PREVIEW_TOLERANCE = 1e-2
 /** A quick pass that took longer than this (ms) is shown: the full computation will take several times as long. */
 export const PREVIEW_WORTH_MS = 40
+
+/** From the computing worker to its helpers: compute a one-sample study at `only` (a share of its wavelengths). */
+export type ToShareWorker =
+  | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number }
+  /** A newer job: drop anything older at its next step. */
+  | { type: 'newest'; job: number }
+
+/** `bulk` is null when the job was dropped for a newer one. */
+export type FromShareWorker = { type: 'share'; request: number; bulk: WavelengthBulk[] | null } | { type: 'share-failed'; request: number; message: string }

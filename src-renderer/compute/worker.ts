@@ -1,24 +1,55 @@
-// The computing worker: all physics runs here, through src-core's public API only.
+// The computing worker: all physics runs here and in its helpers, through src-core's public API only.
 //
-// One optics workspace lives as long as the worker, so its node cache carries every Mie evaluation from one
-// edit to the next. Work goes in steps (a wavelength, a point of the f(RH) curve); between steps the worker
-// lets messages in, and a newer job or a cancel stops the running one there.
+// Each optics workspace lives as long as its worker, so its node cache carries every Mie evaluation from one
+// edit to the next. A sample's wavelengths are shared between this worker and its helpers (one per further
+// processor, at most three), always the same wavelengths to the same worker. Work goes in steps (a wavelength, a
+// point of the f(RH) curve); between steps the workers let messages in, and a newer job or a cancel stops the
+// running one there.
 import {
+  assembleSampleOptics,
   humidityCurveSteps,
   OpticsWorkspace,
-  sampleResultSteps,
+  sampleBulkSteps,
+  sampleResultFromOptics,
   sizeDistributionCurves,
   type SampleResult,
   type Sample,
-  type UserMaterialSpec
+  type Study,
+  type UserMaterialSpec,
+  type WavelengthBulk
 } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromWorker, type ToWorker } from './messages.ts'
+import { PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
 const workspace = new OpticsWorkspace()
 /** The newest job asked for; a running job that is not it stops at its next step. */
 let newest = -1
+
+const helperCount = Math.max(0, Math.min(3, (navigator.hardwareConcurrency || 1) - 1))
+let helpers: Worker[] | null = null
+let request = 0
+const waiting = new Map<number, { resolve: (b: WavelengthBulk[] | null) => void; reject: (e: Error) => void }>()
+
+/** The helpers, started on first use. */
+function helperWorkers(): Worker[] {
+  if (!helpers) {
+    helpers = Array.from({ length: helperCount }, (_, i) => {
+      const w = new Worker(new URL('./shareWorker.ts', import.meta.url), { type: 'module', name: `motebench-share-${i + 1}` })
+      w.onmessage = (e: MessageEvent<FromShareWorker>) => {
+        const m = e.data
+        const p = waiting.get(m.request)
+        if (!p) return
+        waiting.delete(m.request)
+        if (m.type === 'share') p.resolve(m.bulk)
+        else p.reject(new Error(m.message))
+      }
+      return w
+    })
+  }
+  return helpers
+}
 
 function message(e: unknown): string {
   return e instanceof Error ? e.message : String(e)
@@ -29,57 +60,64 @@ function sizeCurves(sample: Sample, users: UserMaterialSpec[]): SizeCurves {
   return sizeDistributionCurves(sample, { user_materials: users, wavelengths_nm: [550] })
 }
 
-/** Resolves on the next turn of the event loop, after any message already waiting. */
-function pause(): Promise<void> {
-  return new Promise((resolve) => {
-    const channel = new MessageChannel()
-    channel.port1.onmessage = () => {
-      channel.port1.close()
-      resolve()
-    }
-    channel.port2.postMessage(null)
-  })
-}
+/** True while `job` is the newest. */
+const current = (job: number) => () => job === newest
 
-/** Runs stepped work to its end, or returns undefined once the job is no longer the newest. */
-async function drive<T>(steps: Generator<void, T>, job: number): Promise<T | undefined> {
-  for (;;) {
-    const r = steps.next()
-    if (r.done) return r.value
-    await pause()
-    if (job !== newest) return undefined
-  }
+/** A one-sample study's results (without f(RH)) at a tolerance, its wavelengths shared with the helpers. */
+async function sampleFigures(study: Study, tolerance: number | undefined, job: number): Promise<SampleResult | undefined> {
+  const workers = helperWorkers()
+  const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
+  const theirs = workers.map((w, k) => {
+    const only = shares[k + 1]
+    if (!only.length) return Promise.resolve([] as WavelengthBulk[])
+    const id = ++request
+    const answer = new Promise<WavelengthBulk[] | null>((resolve, reject) => waiting.set(id, { resolve, reject }))
+    w.postMessage({ type: 'share', job, request: id, study, only, tolerance } satisfies ToShareWorker)
+    return answer
+  })
+  // a failure here leaves the helpers' answers unread: they must not count as unhandled
+  for (const t of theirs) t.catch(() => {})
+  const mine = await drive(sampleBulkSteps(study.samples[0], study, { only: shares[0], tolerance, workspace }), current(job))
+  const settled = await Promise.allSettled(theirs)
+  const failed = settled.find((s) => s.status === 'rejected')
+  if (failed) throw failed.reason
+  const rest = settled.map((s) => (s.status === 'fulfilled' ? s.value : null))
+  if (!mine || job !== newest || rest.some((r) => r === null)) return undefined
+  const optics = assembleSampleOptics(study.samples[0], study, [...mine, ...rest.flatMap((r) => r ?? [])])
+  return sampleResultFromOptics(study, optics)
 }
 
 async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<void> {
   // Two passes: every sample's optics and forcing first (posted as partial results), then the f(RH) curves,
   // which cost one more integration per humidity and would otherwise hold the figures back.
   const total = 2 * m.items.length
+  const live = current(m.job)
   post({ type: 'progress', job: m.job, done: 0, total })
   const partial: (SampleResult | undefined)[] = []
   for (const [i, item] of m.items.entries()) {
     try {
       // a quick pass first; its nodes are kept, so the full pass costs only what it adds
       const started = performance.now()
-      const quick = await drive(sampleResultSteps(item.study, 0, { skipHumidityCurve: true, workspace, tolerance: PREVIEW_TOLERANCE }), m.job)
-      if (!job(m)) return
+      const quick = await sampleFigures(item.study, PREVIEW_TOLERANCE, m.job)
+      if (!live()) return
       if (quick && performance.now() - started > PREVIEW_WORTH_MS) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: quick, partial: true, preview: true })
-      const r = await drive(sampleResultSteps(item.study, 0, { skipHumidityCurve: true, workspace }), m.job)
-      if (job(m) && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
+      const r = await sampleFigures(item.study, undefined, m.job)
+      if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
       partial.push(r)
     } catch (err) {
+      if (!live()) return
       post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })
       partial.push(undefined)
     }
-    if (!job(m)) return
+    if (!live()) return
     post({ type: 'progress', job: m.job, done: i + 1, total })
   }
   for (const [i, item] of m.items.entries()) {
     const r = partial[i]
     if (r) {
       try {
-        const humidity = await drive(humidityCurveSteps(item.study, 0, workspace), m.job)
-        if (!job(m) || !humidity) return
+        const humidity = await drive(humidityCurveSteps(item.study, 0, workspace), live)
+        if (!live() || !humidity) return
         post({ type: 'result', job: m.job, id: item.id, key: item.key, result: { ...r, humidity } })
       } catch (err) {
         post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })
@@ -89,9 +127,6 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
   }
   post({ type: 'finished', job: m.job })
 }
-
-/** True while `m` is the newest job. */
-const job = (m: { job: number }) => m.job === newest
 
 self.onmessage = (e: MessageEvent<ToWorker>) => {
   const m = e.data
@@ -106,5 +141,6 @@ self.onmessage = (e: MessageEvent<ToWorker>) => {
     return
   }
   newest = m.job
+  for (const w of helpers ?? []) w.postMessage({ type: 'newest', job: m.job } satisfies ToShareWorker)
   if (m.type === 'evaluate') void evaluate(m)
 }

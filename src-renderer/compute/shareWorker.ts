@@ -1,0 +1,21 @@
+// A helper of the computing worker: the size integration of one sample at a share of the study's wavelengths,
+// with its own optics workspace (and node cache) kept across jobs.
+import { OpticsWorkspace, sampleBulkSteps } from '../../src-core/index.ts'
+import type { FromShareWorker, ToShareWorker } from './messages.ts'
+import { drive } from './steps.ts'
+
+const post = (m: FromShareWorker): void => (self as unknown as Worker).postMessage(m)
+const workspace = new OpticsWorkspace()
+let newest = -1
+
+self.onmessage = async (e: MessageEvent<ToShareWorker>) => {
+  const m = e.data
+  newest = Math.max(newest, m.job)
+  if (m.type !== 'share') return
+  try {
+    const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, workspace }), () => m.job === newest)
+    post({ type: 'share', request: m.request, bulk: bulk ?? null })
+  } catch (err) {
+    post({ type: 'share-failed', request: m.request, message: err instanceof Error ? err.message : String(err) })
+  }
+}

@@ -1,0 +1,40 @@
+// Running src-core's stepped computations inside a worker without shutting out its messages.
+
+/** Resolves on the next turn of the event loop, after any message already waiting. */
+export function pause(): Promise<void> {
+  return new Promise((resolve) => {
+    const channel = new MessageChannel()
+    channel.port1.onmessage = () => {
+      channel.port1.close()
+      resolve()
+    }
+    channel.port2.postMessage(null)
+  })
+}
+
+/** Runs stepped work to its end, or returns undefined once `current()` is false (a newer job came in). */
+export async function drive<T>(steps: Generator<void, T>, current: () => boolean): Promise<T | undefined> {
+  for (;;) {
+    const r = steps.next()
+    if (r.done) return r.value
+    await pause()
+    if (!current()) return undefined
+  }
+}
+
+/**
+ * Shares of the wavelengths for `threads` workers. The cost of a wavelength grows as it shortens (larger size
+ * parameters: roughly as λ⁻²), so wavelengths go, shortest first, to the share with the least estimated cost.
+ * The same wavelengths always make the same shares, so each worker's node cache keeps serving its own.
+ */
+export function wavelengthShares(wavelengthsNm: readonly number[], threads: number): number[][] {
+  const shares: number[][] = Array.from({ length: Math.max(1, threads) }, () => [])
+  const load = shares.map(() => 0)
+  for (const wl of [...wavelengthsNm].sort((a, b) => a - b)) {
+    let k = 0
+    for (let j = 1; j < load.length; j++) if (load[j] < load[k]) k = j
+    shares[k].push(wl)
+    load[k] += 1 / (wl * wl)
+  }
+  return shares
+}
