@@ -389,7 +389,7 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
   const firstStep = segs.map((sg) => {
     if (sg.s.flat) return (sg.t1 - sg.t0) / Math.max(2, Math.ceil(sg.t1 - sg.t0))
     let h = 1
-    while ((sg.t1 - sg.t0) / h < MIN_LATTICE_STEPS) h /= 2
+    while ((sg.t1 - sg.t0) / h < MIN_LATTICE_STEPS && h > 2 ** -40) h /= 2
     return h
   })
   const flatSums = new Sums(nUser)
