@@ -37,19 +37,29 @@ export function humidityGrowthCurve(study: Study, index: number, ws = new Optics
 
 /** humidityGrowthCurve in steps: a pause after each humidity. */
 export function* humidityCurveSteps(study: Study, index: number, ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): Generator<void, HumidityGrowthCurve> {
+  return humidityCurveFrom(yield* humidityScatteringSteps(study, index, HUMIDITY_CURVE_RH, ws, tolerance))
+}
+
+/**
+ * σsca at 550 nm at each of `humidities` (%) on the sample's humidity branch, the points of its f(RH) curve (a
+ * computation split across workers asks each for some of them): a pause after each.
+ */
+export function* humidityScatteringSteps(study: Study, index: number, humidities: readonly number[], ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): Generator<void, number[]> {
   const sample = study.samples[index]
   const own = studyMaterials(study)
-  const tol = Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE)
-  // only σsca is needed: no angular sums
-  const at = (rh: number) =>
-    computeSampleOptics(sample, { ...study, wavelengths_nm: [550] }, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, workspace: ws, tolerance: tol }, own).wavelengths[0].sca
-  const dry = at(0)
-  const f: number[] = []
-  for (const rh of HUMIDITY_CURVE_RH) {
-    f.push(rh === 0 ? 1 : at(rh) / dry)
+  const at550 = { ...study, wavelengths_nm: [550] }
+  const out: number[] = []
+  for (const rh of humidities) {
+    // only σsca is needed: no angular sums
+    out.push(computeSampleOptics(sample, at550, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, workspace: ws, tolerance: Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE) }, own).wavelengths[0].sca)
     yield
   }
-  return { wavelength_nm: 550, rh_percent: [...HUMIDITY_CURVE_RH], f }
+  return out
+}
+
+/** The f(RH) curve from σsca at each humidity of HUMIDITY_CURVE_RH, in its order (the first is the dry one, 0 %). */
+export function humidityCurveFrom(sca: readonly number[]): HumidityGrowthCurve {
+  return { wavelength_nm: 550, rh_percent: [...HUMIDITY_CURVE_RH], f: sca.map((v, i) => (i === 0 ? 1 : v / sca[0])) }
 }
 
 /**

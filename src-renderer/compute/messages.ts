@@ -29,8 +29,13 @@ export const PREVIEW_WORTH_MS = 40
 /** From the computing worker to its helpers: compute a one-sample study at `only` (a share of its wavelengths). */
 export type ToShareWorker =
   | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number }
+  /** σsca at 550 nm at these humidities (points of the f(RH) curve). */
+  | { type: 'humidity'; job: number; request: number; study: Study; humidities: number[] }
   /** A newer job: drop anything older at its next step. */
   | { type: 'newest'; job: number }
 
-/** `bulk` is null when the job was dropped for a newer one. */
-export type FromShareWorker = { type: 'share'; request: number; bulk: WavelengthBulk[] | null } | { type: 'share-failed'; request: number; message: string }
+/** `bulk` and `sca` are null when the job was dropped for a newer one. */
+export type FromShareWorker =
+  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null }
+  | { type: 'humidity'; request: number; sca: number[] | null }
+  | { type: 'share-failed'; request: number; message: string }

@@ -1,6 +1,6 @@
 // A helper of the computing worker: the size integration of one sample at a share of the study's wavelengths,
-// with its own optics workspace (and node cache) kept across jobs.
-import { OpticsWorkspace, sampleBulkSteps } from '../../src-core/index.ts'
+// or at a share of the humidities of its f(RH) curve, with its own optics workspace (and node cache) kept across jobs.
+import { humidityScatteringSteps, OpticsWorkspace, sampleBulkSteps } from '../../src-core/index.ts'
 import type { FromShareWorker, ToShareWorker } from './messages.ts'
 import { drive } from './steps.ts'
 
@@ -11,10 +11,16 @@ let newest = -1
 self.onmessage = async (e: MessageEvent<ToShareWorker>) => {
   const m = e.data
   newest = Math.max(newest, m.job)
-  if (m.type !== 'share') return
+  if (m.type === 'newest') return
+  const live = () => m.job === newest
   try {
-    const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, workspace }), () => m.job === newest)
-    post({ type: 'share', request: m.request, bulk: bulk ?? null })
+    if (m.type === 'share') {
+      const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, workspace }), live)
+      post({ type: 'share', request: m.request, bulk: bulk ?? null })
+    } else {
+      const sca = await drive(humidityScatteringSteps(m.study, 0, m.humidities, workspace), live)
+      post({ type: 'humidity', request: m.request, sca: sca ?? null })
+    }
   } catch (err) {
     post({ type: 'share-failed', request: m.request, message: err instanceof Error ? err.message : String(err) })
   }

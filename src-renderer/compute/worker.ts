@@ -7,11 +7,14 @@
 // running one there.
 import {
   assembleSampleOptics,
-  humidityCurveSteps,
+  HUMIDITY_CURVE_RH,
+  humidityCurveFrom,
+  humidityScatteringSteps,
   OpticsWorkspace,
   sampleBulkSteps,
   sampleResultFromOptics,
   sizeDistributionCurves,
+  type HumidityGrowthCurve,
   type SampleResult,
   type Sample,
   type Study,
@@ -30,7 +33,7 @@ let newest = -1
 const helperCount = Math.max(0, Math.min(3, (navigator.hardwareConcurrency || 1) - 1))
 let helpers: Worker[] | null = null
 let request = 0
-const waiting = new Map<number, { resolve: (b: WavelengthBulk[] | null) => void; reject: (e: Error) => void }>()
+const waiting = new Map<number, { resolve: (answer: unknown) => void; reject: (e: Error) => void }>()
 
 /** The helpers, started on first use. */
 function helperWorkers(): Worker[] {
@@ -43,6 +46,7 @@ function helperWorkers(): Worker[] {
         if (!p) return
         waiting.delete(m.request)
         if (m.type === 'share') p.resolve(m.bulk)
+        else if (m.type === 'humidity') p.resolve(m.sca)
         else p.reject(new Error(m.message))
       }
       return w
@@ -63,28 +67,54 @@ function sizeCurves(sample: Sample, users: UserMaterialSpec[]): SizeCurves {
 /** True while `job` is the newest. */
 const current = (job: number) => () => job === newest
 
-/** A one-sample study's results (without f(RH)) at a tolerance, its wavelengths shared with the helpers. */
-async function sampleFigures(study: Study, tolerance: number | undefined, job: number): Promise<SampleResult | undefined> {
-  const workers = helperWorkers()
-  const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
-  const theirs = workers.map((w, k) => {
-    const only = shares[k + 1]
-    if (!only.length) return Promise.resolve([] as WavelengthBulk[])
-    const id = ++request
-    const answer = new Promise<WavelengthBulk[] | null>((resolve, reject) => waiting.set(id, { resolve, reject }))
-    w.postMessage({ type: 'share', job, request: id, study, only, tolerance } satisfies ToShareWorker)
-    return answer
-  })
-  // a failure here leaves the helpers' answers unread: they must not count as unhandled
-  for (const t of theirs) t.catch(() => {})
-  const mine = await drive(sampleBulkSteps(study.samples[0], study, { only: shares[0], tolerance, workspace }), current(job))
+/** A request to a helper before it is numbered. */
+type Unsent<T> = T extends unknown ? Omit<T, 'request'> : never
+
+/** Sends a request to a helper; its answer (null if the job was dropped) or its failure. */
+function ask<T>(w: Worker, m: Unsent<Extract<ToShareWorker, { request: number }>>): Promise<T | null> {
+  const id = ++request
+  const answer = new Promise<T | null>((resolve, reject) => waiting.set(id, { resolve: resolve as (a: unknown) => void, reject }))
+  // a failure of this worker's own share leaves the helpers' answers unread: they must not count as unhandled
+  answer.catch(() => {})
+  w.postMessage({ ...m, request: id } as ToShareWorker)
+  return answer
+}
+
+/** This worker's share of stepped work and the helpers' shares (from `theirs`), or undefined if the job was dropped. */
+async function together<T>(mine: Generator<void, T>, theirs: Promise<T | null>[], job: number): Promise<{ mine: T; theirs: T[] } | undefined> {
+  const own = await drive(mine, current(job))
   const settled = await Promise.allSettled(theirs)
   const failed = settled.find((s) => s.status === 'rejected')
   if (failed) throw failed.reason
   const rest = settled.map((s) => (s.status === 'fulfilled' ? s.value : null))
-  if (!mine || job !== newest || rest.some((r) => r === null)) return undefined
-  const optics = assembleSampleOptics(study.samples[0], study, [...mine, ...rest.flatMap((r) => r ?? [])])
-  return sampleResultFromOptics(study, optics)
+  if (own === undefined || job !== newest || rest.some((r) => r === null)) return undefined
+  return { mine: own, theirs: rest as T[] }
+}
+
+/** A one-sample study's results (without f(RH)) at a tolerance, its wavelengths shared with the helpers. */
+async function sampleFigures(study: Study, tolerance: number | undefined, job: number): Promise<SampleResult | undefined> {
+  const workers = helperWorkers()
+  const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
+  const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], tolerance }) : Promise.resolve([])))
+  const parts = await together(sampleBulkSteps(study.samples[0], study, { only: shares[0], tolerance, workspace }), theirs, job)
+  if (!parts) return undefined
+  return sampleResultFromOptics(study, assembleSampleOptics(study.samples[0], study, [...parts.mine, ...parts.theirs.flat()]))
+}
+
+/** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */
+async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthCurve | undefined> {
+  const workers = helperWorkers()
+  const threads = workers.length + 1
+  const mineAt = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === 0)
+  const theirs = workers.map((w, k) => {
+    const humidities = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === k + 1)
+    return humidities.length ? ask<number[]>(w, { type: 'humidity', job, study, humidities }) : Promise.resolve([])
+  })
+  const parts = await together(humidityScatteringSteps(study, 0, mineAt, workspace), theirs, job)
+  if (!parts) return undefined
+  // back into the curve's order: point i was computed by thread i mod threads, as its (i div threads)-th
+  const all = [parts.mine, ...parts.theirs]
+  return humidityCurveFrom(HUMIDITY_CURVE_RH.map((_, i) => all[i % threads][Math.floor(i / threads)]))
 }
 
 async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<void> {
@@ -116,7 +146,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     const r = partial[i]
     if (r) {
       try {
-        const humidity = await drive(humidityCurveSteps(item.study, 0, workspace), live)
+        const humidity = await humidityCurve(item.study, m.job)
         if (!live() || !humidity) return
         post({ type: 'result', job: m.job, id: item.id, key: item.key, result: { ...r, humidity } })
       } catch (err) {

@@ -1,7 +1,18 @@
 // A sample computed in shares of its wavelengths (as the app's workers split it) and then assembled must be the
 // sample computed whole: the same size ranges, the same integration, the same derived figures.
 import { describe, expect, it } from 'vitest'
-import { assembleSampleOptics, computeSampleOptics, demoStudy, finish, OpticsWorkspace, sampleBulkSteps } from '../../src-core/index.ts'
+import {
+  assembleSampleOptics,
+  computeSampleOptics,
+  demoStudy,
+  finish,
+  HUMIDITY_CURVE_RH,
+  humidityCurveFrom,
+  humidityGrowthCurve,
+  humidityScatteringSteps,
+  OpticsWorkspace,
+  sampleBulkSteps
+} from '../../src-core/index.ts'
 
 describe('a computation split by wavelength', () => {
   const study = { ...demoStudy(), wavelengths_nm: [350, 550, 700, 1000, 2500] }
@@ -23,4 +34,24 @@ describe('a computation split by wavelength', () => {
       expect(split.angular).toEqual(whole.angular)
     })
   }
+})
+
+describe('an f(RH) curve split by humidity', () => {
+  it('assembles to the whole curve', () => {
+    const study = demoStudy()
+    const i = study.samples.findIndex((s) => s.name.startsWith('Humid'))
+    const whole = humidityGrowthCurve(study, i)
+    const odd = HUMIDITY_CURVE_RH.filter((_, k) => k % 2 === 1)
+    const even = HUMIDITY_CURVE_RH.filter((_, k) => k % 2 === 0)
+    const a = finish(humidityScatteringSteps(study, i, even, new OpticsWorkspace()))
+    const b = finish(humidityScatteringSteps(study, i, odd, new OpticsWorkspace()))
+    const split = humidityCurveFrom(HUMIDITY_CURVE_RH.map((_, k) => (k % 2 ? b[(k - 1) / 2] : a[k / 2])))
+    expect(split).toEqual(whole)
+    // the curve is σsca(RH)/σsca(0): it starts at 1 and, for this hygroscopic sample, does not fall with humidity
+    // (within the curve's integration tolerance, HUMIDITY_CURVE_TOLERANCE = 1e-3, twice over for a ratio) and is
+    // well above 1 at 95 % (water uptake more than doubles the volume of such particles; common practice)
+    expect(split.f[0]).toBe(1)
+    for (let k = 1; k < split.f.length; k++) expect(split.f[k]).toBeGreaterThanOrEqual(split.f[k - 1] - 2e-3)
+    expect(split.f[split.f.length - 1]).toBeGreaterThan(1.5)
+  })
 })
