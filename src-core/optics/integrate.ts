@@ -7,14 +7,18 @@
  * largest growth factor) and s(x) = X ln(1 + x/X) with X = 100 (≈ x below X, X ln(x/X) above): nodes equally spaced in t are
  * spaced by about h_u in ln D for small particles and by about h_x in size parameter for large ones, where
  * the interference and ripple structure of the efficiencies sits; beyond X the step grows in proportion to
- * x, since the ripple of such large spheres is weak and their weight in any distribution's tail small. On this grid the trapezoid rule is used, halving the step level by level and reusing
- * every node; a level is accepted when every figure (σext, σsca, σabs relative to σext, g, b, β̄) changed
- * by less than the tolerance at this level and either at the one before, or by under a quarter of a change
- * before that was itself below ten times the tolerance (the trapezoid error at the finer level is far smaller
- * than that change once the grid resolves the integrand; the tests compare with much finer integrations). For lognormal modes the integrand falls to
- * ~1e-9 of its peak at the ends of the range, where the trapezoid rule converges faster than any power of
- * the step; for a measured bin (flat in log D, with a jump at its edges) the levels are combined by
- * Richardson extrapolation (Simpson's rule).
+ * x, since the ripple of such large spheres is weak and their weight in any distribution's tail small.
+ *
+ * On this grid the trapezoid rule is used, halving the step level by level and reusing every node. A lognormal
+ * mode's nodes are the points t = j·2^−L of a lattice fixed on the whole t axis (L chosen so that at least four
+ * steps cross the mode): its integrand falls to ~1e-9 of its peak at the ends of the range, where the trapezoid
+ * rule converges faster than any power of the step and needs no end nodes, and every mode, and every edit of
+ * one, lands on the same nodes, whose values the workspace's node cache keeps (nodeCache.ts). A measured bin
+ * (flat in log D, with a jump at its edges) is split from its own edges, and its levels are combined by
+ * Richardson extrapolation (Simpson's rule). A level is accepted when every figure (σext, σsca, σabs relative
+ * to σext, g, and b, β̄ while they are refined) changed by less than the tolerance, and this change and the one
+ * before add up to less than it: where narrow resonances are not resolved, single changes are erratic and
+ * understate the error (the tests compare with much finer integrations, at many nearby wavelengths).
  *
  * Upscatter. The population phase function is accumulated at Gauss–Legendre cosines on each hemisphere.
  * For sun at cos-zenith μ₀, the fraction of light scattered at cos Θ = μ that goes upward is
@@ -394,7 +398,7 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
   })
   const flatSums = new Sums(nUser)
   const smoothSums = new Sums(nUser)
-  // Level sums are "sum of f at nodes" per segment class; trapezoid value = h·(sum) with ends halved.
+  // Trapezoid sums per segment class (smooth, flat), kept apart so that the flat ones can be extrapolated.
   let lv = 0
   let lastFigures: Figures | null = null
   let lastChange = Infinity
