@@ -67,6 +67,11 @@ export interface IntegrationOptions {
   stepLnD?: number
   stepX?: number
   /**
+   * The coarsest lattice step in t for lognormal modes (a power of two; default 1). A quick pass may start
+   * coarser (2, 4): its nodes are nodes of every finer pass, so a full pass after it reuses them all.
+   */
+  coarsestStep?: number
+  /**
    * Accumulate the angular sums (b, β̄, β(μ₀) and the phase function at `anglesDeg`); default true. Without
    * them only σext, σsca, σabs and g are computed (b, β̄ and β(μ₀) are NaN), at a fraction of the cost.
    */
@@ -392,7 +397,7 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
   // max(2, ⌈t1 − t0⌉) equal steps from its own edges, which Richardson extrapolation needs.
   const firstStep = segs.map((sg) => {
     if (sg.s.flat) return (sg.t1 - sg.t0) / Math.max(2, Math.ceil(sg.t1 - sg.t0))
-    let h = 1
+    let h = opts.coarsestStep
     while ((sg.t1 - sg.t0) / h < MIN_LATTICE_STEPS && h > 2 ** -40) h /= 2
     return h
   })
@@ -526,6 +531,13 @@ function addInto(into: Sums, s: Sums): void {
   }
 }
 
+/** The coarsest lattice step: a power of two from 1/64 to 64 (anything else is a programming error). */
+function coarsestStepOf(step = 1): number {
+  const e = Math.log2(step)
+  if (!(Number.isInteger(e) && Math.abs(e) <= 6)) throw new RangeError(`coarsestStep must be a power of two from 1/64 to 64, not ${step}`)
+  return step
+}
+
 /**
  * Bulk optics of an external mixture of populations at one wavelength (µm), with humidity `cond`.
  * Options: tolerance (default 1e-4), angles for the population phase function, grid controls.
@@ -536,6 +548,7 @@ export function bulkOpticsAt(populations: readonly Population[], wavelengthUm: n
     maxLevel: options.maxLevel ?? 9,
     stepLnD: options.stepLnD ?? 0.25,
     stepX: options.stepX ?? 2,
+    coarsestStep: coarsestStepOf(options.coarsestStep),
     upscatter: options.upscatter ?? true,
     anglesDeg: options.anglesDeg
   }

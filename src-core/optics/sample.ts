@@ -44,6 +44,8 @@ export interface SampleOpticsOptions {
   workspace?: OpticsWorkspace
   /** Compute b, β̄ and the phase function (default true); without them those figures are NaN. */
   upscatter?: boolean
+  /** The coarsest lattice step of the size integration (see IntegrationOptions.coarsestStep). */
+  coarsestStep?: number
 }
 
 export const DEFAULT_ANGLES_DEG: number[] = Array.from({ length: 91 }, (_, i) => 2 * i)
@@ -244,7 +246,7 @@ export function* sampleBulkSteps(
   const out: WavelengthBulk[] = []
   for (const wl of options.only ?? wavelengths) {
     const wantAngles = angularAt.includes(wl)
-    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter }, ws)
+    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter, coarsestStep: options.coarsestStep }, ws)
     out.push({
       wavelength_nm: wl,
       ext: r.ext,

@@ -15,7 +15,7 @@ self.onmessage = async (e: MessageEvent<ToShareWorker>) => {
   const live = () => m.job === newest
   try {
     if (m.type === 'share') {
-      const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, workspace }), live)
+      const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, coarsestStep: m.coarsestStep, workspace }), live)
       post({ type: 'share', request: m.request, bulk: bulk ?? null })
     } else {
       const sca = await drive(humidityScatteringSteps(m.study, 0, m.humidities, workspace), live)

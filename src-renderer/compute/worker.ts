@@ -22,7 +22,7 @@ import {
   type WavelengthBulk
 } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
 import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
@@ -91,12 +91,13 @@ async function together<T>(mine: Generator<void, T>, theirs: Promise<T | null>[]
   return { mine: own, theirs: rest as T[] }
 }
 
-/** A one-sample study's results (without f(RH)) at a tolerance, its wavelengths shared with the helpers. */
-async function sampleFigures(study: Study, tolerance: number | undefined, job: number): Promise<SampleResult | undefined> {
+/** A one-sample study's results (without f(RH)), full or quick, its wavelengths shared with the helpers. */
+async function sampleFigures(study: Study, quick: boolean, job: number): Promise<SampleResult | undefined> {
   const workers = helperWorkers()
   const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
-  const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], tolerance }) : Promise.resolve([])))
-  const parts = await together(sampleBulkSteps(study.samples[0], study, { only: shares[0], tolerance, workspace }), theirs, job)
+  const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
+  const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
+  const parts = await together(sampleBulkSteps(study.samples[0], study, { only: shares[0], ...grid, workspace }), theirs, job)
   if (!parts) return undefined
   return sampleResultFromOptics(study, assembleSampleOptics(study.samples[0], study, [...parts.mine, ...parts.theirs.flat()]))
 }
@@ -128,10 +129,10 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     try {
       // a quick pass first; its nodes are kept, so the full pass costs only what it adds
       const started = performance.now()
-      const quick = await sampleFigures(item.study, PREVIEW_TOLERANCE, m.job)
+      const quick = await sampleFigures(item.study, true, m.job)
       if (!live()) return
       if (quick && performance.now() - started > PREVIEW_WORTH_MS) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: quick, partial: true, preview: true })
-      const r = await sampleFigures(item.study, undefined, m.job)
+      const r = await sampleFigures(item.study, false, m.job)
       if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
       partial.push(r)
     } catch (err) {
