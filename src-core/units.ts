@@ -80,22 +80,29 @@ export function parseComplexIndex(text: string, where: string): { n: number; k: 
 }
 
 /**
- * A list of wavelengths typed by a person, in nm: "450, 550, 700", "450 550 700" or "0.45 um; 550 nm". Bare
- * numbers are nm. With `ascending`, each must be longer than the one before; `max` caps the count.
+ * A list of wavelengths typed by a person, in nm: "450, 550, 700", "450 550 700", "0.45 um; 550 nm" or
+ * "450,550,700nm". Numbers without a unit take the unit written on the last item (nm or um), else nm. With
+ * `ascending`, each must be longer than the one before; with `distinct`, none may repeat; `max` caps the count.
  */
-export function parseWavelengthList(text: string, where: string, options: { ascending?: boolean; max?: number } = {}): number[] {
+export function parseWavelengthList(text: string, where: string, options: { ascending?: boolean; distinct?: boolean; max?: number } = {}): number[] {
   // split at commas or semicolons, and at spaces that are followed by a number (so "450 nm" stays whole)
-  const parts = text.split(/\s*[,;]\s*|\s+(?=[\d.])/).map((p) => p.trim()).filter((p) => p !== '')
+  const parts = text
+    .trim()
+    .split(/\s*[,;]\s*|\s+(?=[\d.])/)
+    .filter((p) => p !== '')
   if (!parts.length) throw new InputError(where, 'no wavelength was given', 'Type one or more wavelengths in nm, such as 450, 550, 700.')
   if (options.max !== undefined && parts.length > options.max) {
     throw new InputError(where, `${parts.length} wavelengths were given`, `Give at most ${options.max}.`)
   }
-  const values = parts.map((p) => Math.round(parseLength(p, where, 'nm') * 1e9) / 1e6)
-  if (options.ascending) {
-    for (let i = 1; i < values.length; i++) {
-      if (!(values[i] > values[i - 1])) {
-        throw new InputError(where, `${values[i]} nm does not follow ${values[i - 1]} nm in ascending order`, 'List the wavelengths from shortest to longest, each once.')
-      }
+  const lastUnit = normaliseUnitText(/[a-zµμ]+$/i.exec(parts[parts.length - 1])?.[0] ?? '').toLowerCase()
+  const bareUnit = lastUnit === 'um' ? 'um' : 'nm'
+  const values = parts.map((p) => Math.round(parseLength(p, where, bareUnit) * 1e9) / 1e6)
+  for (let i = 1; i < values.length; i++) {
+    if (options.ascending && !(values[i] > values[i - 1])) {
+      throw new InputError(where, `${values[i]} nm does not follow ${values[i - 1]} nm in ascending order`, 'List the wavelengths from shortest to longest, each once.')
+    }
+    if (options.distinct && values.indexOf(values[i]) < i) {
+      throw new InputError(where, `${values[i]} nm is given twice`, 'List each wavelength once.')
     }
   }
   return values

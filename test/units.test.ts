@@ -34,5 +34,12 @@ describe('typed quantities (SI prefixes and the kelvin–Celsius offset, common 
     expect(() => parseWavelengthList('550, 450', 'w', { ascending: true })).toThrow(/ascending/)
     expect(() => parseWavelengthList('1,2,3', 'w', { max: 2 })).toThrow(/at most 2/)
     expect(() => parseWavelengthList(' ', 'w')).toThrow(/no wavelength/)
+    // a unit on the last item applies to the numbers without one (the command line's habit); else they are nm
+    expect(parseWavelengthList('450,550,700nm', 'w')).toEqual([450, 550, 700])
+    expect(parseWavelengthList('0.45, 0.55 um', 'w')).toEqual([450, 550])
+    expect(parseWavelengthList('0.45um,550', 'w')).toEqual([450, 550])
+    expect(parseWavelengthList(' 450, 550, ', 'w')).toEqual([450, 550])
+    expect(() => parseWavelengthList('450,550,450nm', 'w', { distinct: true })).toThrow(/450 nm is given twice/)
+    expect(() => parseWavelengthList('450, green', 'w')).toThrow(/green/)
   })
 })

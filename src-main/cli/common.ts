@@ -1,6 +1,6 @@
 // Shared pieces of the command line: argument errors, output, exit codes.
 import { parseArgs, type ParseArgsConfig } from 'node:util'
-import { InputError, parseLength, type Sample, type Study } from '../../src-core/index.ts'
+import { InputError, parseWavelengthList, type Sample, type Study } from '../../src-core/index.ts'
 import { StudyFileError } from '../files.ts'
 
 /** A bad command-line argument: printed as one line, exit status 2. */
@@ -98,24 +98,9 @@ export async function runGuarded(body: () => Promise<number> | number): Promise<
   }
 }
 
-/**
- * A list of wavelengths typed on the command line, in nm: "450,550,700nm" (the last unit applies to the
- * numbers without one), "0.45um,0.55um" or "450nm,0.7um".
- */
+/** A list of wavelengths typed on the command line, in nm (src-core's reader: "450,550,700nm", "0.45um,0.55um"). */
 export function readWavelengthsNm(text: string, flag = '--wavelengths'): number[] {
-  const parts = text.split(',').map((p) => p.trim())
-  if (parts.some((p) => p === '')) throw new UsageError(`${flag}: "${text}" has an empty item; write a comma-separated list such as 450,550,700nm`)
-  const unitOf = (p: string) => /[a-zµμ]+$/i.exec(p)?.[0].toLowerCase().replace(/[µμ]/, 'u')
-  const lastUnit = unitOf(parts[parts.length - 1])
-  const fallback = lastUnit === 'nm' || lastUnit === 'um' ? lastUnit : undefined
-  const out: number[] = []
-  for (const p of parts) {
-    if (unitOf(p) === undefined && fallback === undefined) throw new UsageError(`${flag}: "${text}" has no unit; add one, for example 450,550,700nm`)
-    const nm = Number((parseLength(p, flag, fallback) * 1000).toPrecision(12))
-    if (out.includes(nm)) throw new UsageError(`${flag}: ${nm} nm is given twice; list each wavelength once`)
-    out.push(nm)
-  }
-  return out
+  return parseWavelengthList(text, flag, { distinct: true })
 }
 
 /** A whole number typed on the command line, from lo to hi. */

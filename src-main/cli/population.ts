@@ -12,7 +12,7 @@ export const populationHelp = `motebench population: bulk optics of a particle p
   --density D           dry density in g cm⁻³ (overrides the material's; used for mass)
   --rh RH               relative humidity in percent (default 0: dry)
   --humidity-history H  rising (default: salts stay dry below deliquescence) or falling (they stay wet down to efflorescence)
-  --wavelengths LIST    wavelengths, e.g. 450,550,700nm (default 450,550,700nm)
+  --wavelengths LIST    wavelengths, e.g. 450,550,700 (nm) or 0.45,0.55um (default 450,550,700)
   --tolerance T         relative accuracy of the size integration (default 1e-4)
   --json                JSON output: number_cm3, volume_um3_cm3 (dry), mass_ug_m3 (dry), angstrom_ext, angstrom_sca,
                         angstrom_abs and wavelengths: [{wavelength_nm, ext, sca, abs (Mm⁻¹), ssa, g,

@@ -31,7 +31,7 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   SIZER                 sizer export with one row per time and one column per bin (.csv, .tsv or .txt)
   --study FILE          study whose sample gives composition, humidity and layer
   --sample NAME         that sample (its size distribution is replaced by each row's bins)
-  --wavelengths LIST    e.g. 450,550,700nm (default: the study's wavelengths)
+  --wavelengths LIST    e.g. 450,550,700 (nm) or 0.45,0.55um (default: the study's wavelengths)
   --out FILE            write the CSV to FILE (it appears only when complete) instead of standard output
   --on-bad-row P        skip (default: leave bad rows out, list them, exit status 1) or stop (at the first, exit 2)
   --workers N           worker threads beside the main thread, which computes rows too (default: one fewer

@@ -142,7 +142,7 @@ describe('motebench population', () => {
       ['--mode', '1000,0.12um,0.5', '--m', '1.5+0i'],
       ['--mode', '1000,0.12um,1.8', '--m', '1.5-0.1i'],
       ['--mode', '1000,0.12um,1.8', '--material', 'kryptonite'],
-      ['--mode', '1000,0.12um,1.8', '--material', 'water', '--wavelengths', '450,550']
+      ['--mode', '1000,0.12um,1.8', '--material', 'water', '--wavelengths', '450,450nm']
     ]) {
       const r = await runHere(runPopulation, args)
       expect(r.code, args.join(' ')).toBe(2)
