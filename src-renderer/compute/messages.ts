@@ -44,3 +44,9 @@ export type FromShareWorker =
   | { type: 'share'; request: number; bulk: WavelengthBulk[] | null }
   | { type: 'humidity'; request: number; sca: number[] | null }
   | { type: 'share-failed'; request: number; message: string }
+
+/**
+ * Nodes each computing worker keeps (src-core's node cache, about 270 bytes a node measured in Node 20: some
+ * 40 MB a worker). The demo study with its f(RH) curves needs about 270 000 in all, shared among the workers.
+ */
+export const NODE_CACHE_LIMIT = 150_000

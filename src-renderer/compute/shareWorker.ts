@@ -1,11 +1,11 @@
 // A helper of the computing worker: the size integration of one sample at a share of the study's wavelengths,
 // or at a share of the humidities of its f(RH) curve, with its own optics workspace (and node cache) kept across jobs.
 import { humidityScatteringSteps, OpticsWorkspace, sampleBulkSteps } from '../../src-core/index.ts'
-import type { FromShareWorker, ToShareWorker } from './messages.ts'
+import { NODE_CACHE_LIMIT, type FromShareWorker, type ToShareWorker } from './messages.ts'
 import { drive } from './steps.ts'
 
 const post = (m: FromShareWorker): void => (self as unknown as Worker).postMessage(m)
-const workspace = new OpticsWorkspace()
+const workspace = new OpticsWorkspace(NODE_CACHE_LIMIT)
 let newest = -1
 
 self.onmessage = async (e: MessageEvent<ToShareWorker>) => {

@@ -22,11 +22,11 @@ import {
   type WavelengthBulk
 } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
 import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
-const workspace = new OpticsWorkspace()
+const workspace = new OpticsWorkspace(NODE_CACHE_LIMIT)
 /** The newest job asked for; a running job that is not it stops at its next step. */
 let newest = -1
 
