@@ -93,7 +93,7 @@ function SampleSection(p: { id: string; own: OwnComponentState[] }) {
       ) : (
         <>
           {x.stale && <p class="stale-note">These results are stale (from earlier inputs).</p>}
-          {x.preview && <p class="stale-note">These figures are from the quick first pass (to about 1 %); the full computation was still running when this report was made.</p>}
+          {x.preview && <p class="stale-note">These figures are from the quick first pass (to about 1 % of σext); the full computation was still running when this report was made.</p>}
           <Verdict x={{ ...x, result: r }} />
           <div class="report-charts">
             <Chart name={`report-ext-${x.index}`} title="Extinction, scattering, absorption" data={[wl, r.optics.wavelengths.map((w) => w.ext), r.optics.wavelengths.map((w) => w.sca), r.optics.wavelengths.map((w) => w.abs)]} lines={specLines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />

@@ -13,7 +13,7 @@ export function StaleNote(p: { shown: ShownSample[] }) {
       <div class="preview-note" role="status" data-testid="preview-note">
         <p>
           <strong>Refining:</strong> the figures of {preview.map((x) => `“${x.sample.name}”`).join(', ')} are from a quick first pass (to about
-          {' '}{PREVIEW_TOLERANCE * 100} %); the full computation is running and replaces them.
+          {' '}{PREVIEW_TOLERANCE * 100} % of σext, so a small σabs may be further off); the full computation is running and replaces them.
         </p>
       </div>
     )
