@@ -1,7 +1,7 @@
 // Drawing a forcing map in a uPlot chart: the heat map under the axes' grid, zero lines and sample markers over it.
 import type uPlot from 'uplot'
 import type { ForcingMapData } from '../../src-core/index.ts'
-import { drawGridHeat } from './heatGrid.ts'
+import { drawGridHeat, insidePlot } from './heatGrid.ts'
 import { forcingColour, type Theme } from './palette.ts'
 
 export interface MapOverlay {
@@ -21,13 +21,7 @@ export function drawHeat(map: ForcingMapData, theme: Theme): (u: uPlot) => void 
 }
 
 export function drawOverlays(overlays: MapOverlay[], ink: string): (u: uPlot) => void {
-  return (u) => {
-    const ctx = u.ctx
-    const px = devicePixelRatio
-    ctx.save()
-    ctx.beginPath()
-    ctx.rect(u.bbox.left, u.bbox.top, u.bbox.width, u.bbox.height)
-    ctx.clip()
+  return (u) => insidePlot(u, (ctx, px) => {
     for (const o of overlays) {
       ctx.strokeStyle = o.stroke
       ctx.lineWidth = 2.5 * px
@@ -53,6 +47,5 @@ export function drawOverlays(overlays: MapOverlay[], ink: string): (u: uPlot) =>
       ctx.fill()
       ctx.stroke()
     }
-    ctx.restore()
-  }
+  })
 }

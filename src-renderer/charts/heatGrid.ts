@@ -57,15 +57,20 @@ export interface Marker {
   shape: 'circle' | 'diamond'
 }
 
+/** Runs `draw` on the chart's canvas clipped to the plot area (its state saved and restored around it). */
+export function insidePlot(u: uPlot, draw: (ctx: CanvasRenderingContext2D, px: number) => void): void {
+  const ctx = u.ctx
+  ctx.save()
+  ctx.beginPath()
+  ctx.rect(u.bbox.left, u.bbox.top, u.bbox.width, u.bbox.height)
+  ctx.clip()
+  draw(ctx, devicePixelRatio)
+  ctx.restore()
+}
+
 /** Markers drawn twice (a light halo, then dark), so that they show on any colour of the map. */
 export function drawMarkers(markers: Marker[]): (u: uPlot) => void {
-  return (u) => {
-    const ctx = u.ctx
-    const px = devicePixelRatio
-    ctx.save()
-    ctx.beginPath()
-    ctx.rect(u.bbox.left, u.bbox.top, u.bbox.width, u.bbox.height)
-    ctx.clip()
+  return (u) => insidePlot(u, (ctx, px) => {
     for (const m of markers) {
       const X = u.valToPos(m.x, 'x', true)
       const Y = u.valToPos(m.y, 'y', true)
@@ -94,8 +99,7 @@ export function drawMarkers(markers: Marker[]): (u: uPlot) => void {
         ctx.fill()
       }
     }
-    ctx.restore()
-  }
+  })
 }
 
 /** A vertical line at x (e.g. zero forcing), with short words on either side of it at the top. */
