@@ -31,8 +31,6 @@ export interface NodeValue {
 export class NodeCache {
   private contexts = new Map<string, Map<number, NodeValue>>()
   private count = 0
-  /** Nodes added since the cache was made (for benchmarks). */
-  added = 0
 
   constructor(readonly limit = 400_000) {}
 
@@ -54,7 +52,6 @@ export class NodeCache {
    */
   grew(n: number): void {
     this.count += n
-    this.added += n
     if (this.count <= this.limit) return
     for (const [key, nodes] of this.contexts) {
       if (this.count <= this.limit * 0.75) break
