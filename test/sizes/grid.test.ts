@@ -1,18 +1,10 @@
 import { describe, expect, it } from 'vitest'
-import { dNdlnD, integrationRange, type LognormalMode, modeFromNumber, moment } from '../../src-core/index.ts'
+import { integrationRange, type LognormalMode, modeFromNumber, moment } from '../../src-core/index.ts'
+import { trapezoidMoment } from './helpers.ts'
 
 /** Trapezoid ∫ D^k dN/dlnD dlnD over [lnA, lnB]. */
 function partialMoment(mode: LognormalMode, k: number, A: number, B: number, n = 20000): number {
-  const a = Math.log(A)
-  const b = Math.log(B)
-  const h = (b - a) / n
-  let s = 0
-  for (let i = 0; i <= n; i++) {
-    const u = a + i * h
-    const f = Math.exp(k * u) * dNdlnD(mode, Math.exp(u))
-    s += i === 0 || i === n ? f / 2 : f
-  }
-  return s * h
+  return trapezoidMoment(mode, k, Math.log(A), Math.log(B), n)
 }
 
 describe('integration range for the optics code (Hatch–Choate shifted medians, Seinfeld & Pandis ch. 8)', () => {

@@ -15,21 +15,13 @@ import {
   volumeConcentration,
   volumeMedianDiameter
 } from '../../src-core/index.ts'
+import { trapezoidMoment } from './helpers.ts'
 
 /** Trapezoid rule in u = ln D of D^k dN/dlnD over ±span ln σ_g about the D^k median, with n intervals. */
 function numericMoment(mode: LognormalMode, k: number, n = 4000, span = 14, upTo = Infinity): number {
   const l = Math.log(mode.gsd)
   const c = Math.log(mode.median) + k * l * l
-  const a = c - span * l
-  const b = Math.min(c + span * l, upTo)
-  const h = (b - a) / n
-  let s = 0
-  for (let i = 0; i <= n; i++) {
-    const u = a + i * h
-    const f = Math.exp(k * u) * dNdlnD(mode, Math.exp(u))
-    s += i === 0 || i === n ? f / 2 : f
-  }
-  return s * h
+  return trapezoidMoment(mode, k, c - span * l, Math.min(c + span * l, upTo), n)
 }
 
 const GSDS = [1.05, 1.5, 2.5, 3]
