@@ -11,7 +11,7 @@ import {
   binVolumeConcentration,
   binsFromMeasurement,
   binValues,
-  dNdlnD,
+  dNdlnDOfLnD,
   dNdlogD,
   integrationRange,
   modeFromMass,
@@ -132,7 +132,7 @@ function modeSegment(mode: LognormalMode, longestWavelengthUm: number): SizeSegm
   const r6 = integrationRange([mode], { highestMoment: 6, tailFraction: 1e-6 })
   const small = (2 * longestWavelengthUm) / Math.PI
   const hi = Math.max(r2.max, Math.min(r6.max, small))
-  return { lo: Math.log(r2.min), hi: Math.log(hi), flat: false, density: (u) => dNdlnD(mode, Math.exp(u)) }
+  return { lo: Math.log(r2.min), hi: Math.log(hi), flat: false, density: dNdlnDOfLnD(mode) }
 }
 
 const GAUSS2 = [0.5 - 0.5 / Math.sqrt(3), 0.5 + 0.5 / Math.sqrt(3)]

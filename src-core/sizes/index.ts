@@ -22,6 +22,7 @@ export {
   volumeMedianDiameter,
   toVolumeForm,
   dNdlnD,
+  dNdlnDOfLnD,
   dNdlogD
 } from './lognormal.ts'
 export {

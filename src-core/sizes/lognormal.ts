@@ -179,9 +179,25 @@ export function toVolumeForm(mode: LognormalMode): { volume: number; volumeMedia
 export function dNdlnD(mode: LognormalMode, diameter: number): number {
   checkMode(mode)
   requirePositive(`${modeLabel(mode)}: diameter`, diameter, 'the diameter', 'µm', 'Give D in µm as a number > 0.')
-  const l = Math.log(mode.gsd)
-  const u = (Math.log(diameter) - Math.log(mode.median)) / l
-  return (mode.number / (Math.sqrt(2 * Math.PI) * l)) * Math.exp(-0.5 * u * u)
+  return densityAtLnD(mode.number, Math.log(mode.median), Math.log(mode.gsd), Math.log(diameter))
+}
+
+/** The formula of dNdlnD, with ln D_g, ln σ_g and ln D given. */
+function densityAtLnD(number: number, lnMedian: number, lnGsd: number, lnD: number): number {
+  const z = (lnD - lnMedian) / lnGsd
+  return (number / (Math.sqrt(2 * Math.PI) * lnGsd)) * Math.exp(-0.5 * z * z)
+}
+
+/**
+ * dN/dlnD of a mode as a function of ln D (D in µm), for integration loops: the mode is checked once, here
+ * (throws InputError on bad values), and each call is then plain arithmetic.
+ */
+export function dNdlnDOfLnD(mode: LognormalMode): (lnD: number) => number {
+  checkMode(mode)
+  const { number } = mode
+  const lnMedian = Math.log(mode.median)
+  const lnGsd = Math.log(mode.gsd)
+  return (lnD) => densityAtLnD(number, lnMedian, lnGsd, lnD)
 }
 
 /** Number distribution dN/dlog₁₀D at D (µm), cm⁻³: ln(10) · dN/dlnD. */

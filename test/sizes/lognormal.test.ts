@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import {
   dNdlnD,
+  dNdlnDOfLnD,
   dNdlogD,
   type LognormalMode,
   massConcentration,
@@ -71,6 +72,23 @@ describe('lognormal modes: Hatch–Choate (Seinfeld & Pandis, ch. 8)', () => {
       s += i === 0 || i === n ? f / 2 : f
     }
     expect((s * (b - a)) / n).toBeCloseTo(1000, 8)
+  })
+
+  it('dN/dlnD as a function of ln D integrates to N over ln D and peaks at ln D_g, and rejects a bad mode once', () => {
+    // Normalisation of the lognormal (Seinfeld & Pandis, Atmospheric Chemistry and Physics, ch. 8):
+    // ∫ dN/dlnD dlnD = N. Trapezoid over ±14 ln σ_g, which is exact to rounding for a Gaussian (common practice).
+    const mode = modeFromNumber({ number: 250, median: 0.35, gsd: 2.1 })
+    const f = dNdlnDOfLnD(mode)
+    const l = Math.log(2.1)
+    const a = Math.log(0.35) - 14 * l
+    const n = 2000
+    const h = (28 * l) / n
+    let s = 0
+    for (let i = 0; i <= n; i++) s += (i === 0 || i === n ? 0.5 : 1) * f(a + i * h)
+    expect(s * h).toBeCloseTo(250, 9)
+    // its peak: N / (√(2π) ln σ_g) at D = D_g (the Gaussian's height)
+    expect(f(Math.log(0.35))).toBeCloseTo(250 / (Math.sqrt(2 * Math.PI) * l), 12)
+    expect(() => dNdlnDOfLnD({ number: 1, median: 0.1, gsd: 1 })).toThrow(/gsd/)
   })
 
   it('volume form → number form → volume form round trip', () => {
