@@ -1,5 +1,5 @@
-// A uPlot chart in a Preact component: sized to its box, redrawn when its data or theme changes,
-// with a button that saves it as PNG (title, legend and theme background included).
+// A uPlot chart in a Preact component: sized to its box, built anew when its layout or theme changes and only
+// redrawn when its data does, with a button that saves it as PNG (title, legend and theme background included).
 import { useEffect, useRef } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
@@ -66,7 +66,8 @@ function tick(v: number | null): string {
 
 const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
 
-function options(p: ChartProps, width: number, el: Element): uPlot.Options {
+/** `current` gives the newest props: the drawing hooks draw what the chart shows now, not what it first showed. */
+function options(p: ChartProps, width: number, el: Element, current: () => ChartProps = () => p): uPlot.Options {
   const ink = cssVar('--ink', el)
   const grid = cssVar('--grid', el)
   const axis = (label: string, side?: number, ticks?: number[]): uPlot.Axis => ({
@@ -114,8 +115,8 @@ function options(p: ChartProps, width: number, el: Element): uPlot.Options {
       )
     ],
     hooks: {
-      drawClear: p.drawUnder ? [(u) => p.drawUnder?.(u)] : [],
-      draw: p.drawOver ? [(u) => p.drawOver?.(u)] : []
+      drawClear: p.drawUnder ? [(u) => current().drawUnder?.(u)] : [],
+      draw: p.drawOver ? [(u) => current().drawOver?.(u)] : []
     }
   }
 }
@@ -161,13 +162,19 @@ export function Chart(p: ChartProps) {
   const plot = useRef<uPlot | null>(null)
   const props = useRef(p)
   props.current = p
+  /** What the plot shows now: new data or drawing over an unchanged layout is a redraw, not a new plot. */
+  const shown = useRef<Pick<ChartProps, 'data' | 'drawUnder' | 'drawOver'> | null>(null)
+  // Everything that shapes the plot (its series, axes and scales) apart from the data it draws.
+  const layout = JSON.stringify([p.lines, p.xLabel, p.yLabel, p.y2Label, p.xLog, p.yLog, p.xRange, p.yRange, p.xTicks, p.yTicks, p.height, !!p.drawUnder, !!p.drawOver])
 
   useEffect(() => {
     const el = box.current
     if (!el) return
     const width = Math.max(240, el.clientWidth)
-    const u = new uPlot(options(p, width, el), p.data as uPlot.AlignedData, el)
+    const now = props.current
+    const u = new uPlot(options(now, width, el, () => props.current), now.data as uPlot.AlignedData, el)
     plot.current = u
+    shown.current = { data: now.data, drawUnder: now.drawUnder, drawOver: now.drawOver }
     const ro = new ResizeObserver(() => {
       const w = Math.max(240, el.clientWidth)
       if (Math.abs(w - u.width) > 2) u.setSize({ width: w, height: props.current.height ?? 220 })
@@ -177,8 +184,18 @@ export function Chart(p: ChartProps) {
       ro.disconnect()
       u.destroy()
       plot.current = null
+      shown.current = null
     }
-  }, [p.data, p.lines, p.theme, p.height, p.xLabel, p.yLabel, p.xRange?.[0], p.xRange?.[1], p.yRange?.[0], p.yRange?.[1], p.xTicks?.join(), p.yTicks?.join(), p.drawUnder, p.drawOver])
+  }, [layout, p.theme])
+
+  useEffect(() => {
+    const u = plot.current
+    const was = shown.current
+    if (!u || !was) return
+    if (was.data !== p.data) u.setData(p.data as uPlot.AlignedData)
+    else if (was.drawUnder !== p.drawUnder || was.drawOver !== p.drawOver) u.redraw(false)
+    shown.current = { data: p.data, drawUnder: p.drawUnder, drawOver: p.drawOver }
+  }, [p.data, p.drawUnder, p.drawOver])
 
   const savePng = () => {
     const u = plot.current
