@@ -1,4 +1,4 @@
-// Runs the computations in workers as the document changes: debounced, one job at a time, a newer edit
+// Runs the computations in workers as the document changes: at once, or debounced while edits come fast, one job at a time, a newer edit
 // supersedes (and stops) the running job, unchanged samples are not computed again. The optics worker is
 // kept alive across jobs (its node cache makes edits of sizes and amounts cheap): a newer job or a cancel is
 // a message it reads between steps of its work.
@@ -6,24 +6,33 @@ import { validateStudy, type Study, type StudyProblem } from '../../src-core/ind
 import { store, type AppState, type ShownResult } from '../state/store.ts'
 import type { FromWorker, ToWorker } from './messages.ts'
 
+/** Changes that follow a run closer than this (ms) wait this long, so fast typing starts one job, not one a key. */
 const DEBOUNCE_MS = 30
 
 let optics: Worker | null = null
 let sizes: Worker | null = null
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
+let lastRun = -Infinity
 let lastStudy: Study | null = null
 let lastDrafts: AppState['drafts'] | null = null
 /** Results by input key (a few per sample), so undo and toggling back are instant. */
 const cache = new Map<string, ShownResult>()
+/** The inputs each sample's size curves were last asked for with, so only changed samples are sent again. */
+const sizeKeys = new Map<string, string>()
 
 function startWorker(): Worker {
   return new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-compute' })
 }
 
+/** Sample keys by study (a study is never changed in place: an edit makes a new one), as every view asks for them. */
+const keysOf = new WeakMap<Study, string[]>()
+
 /** The inputs that decide one sample's results. */
 export function sampleKey(study: Study, index: number): string {
-  return JSON.stringify([study.samples[index], study.site, study.wavelengths_nm, study.user_materials ?? [], study.verdict_margin_w_m2 ?? null])
+  let keys = keysOf.get(study)
+  if (!keys) keysOf.set(study, (keys = []))
+  return (keys[index] ??= JSON.stringify([study.samples[index], study.site, study.wavelengths_nm, study.user_materials ?? [], study.verdict_margin_w_m2 ?? null]))
 }
 
 /** False for the uncertainty settings: they change no sample's optics (the uncertainty view shows their problems). */
@@ -53,8 +62,7 @@ function onOptics(m: FromWorker): void {
 
 function onSizes(m: FromWorker): void {
   if (m.type !== 'sizes') return
-  const s = store().get()
-  store().set({ sizes: { ...s.sizes, [m.id]: m.curves ?? { error: m.error ?? 'no curve' } } })
+  store().set({ sizes: { ...store().get().sizes, ...m.curves } })
 }
 
 /** Stops the running job at its next step (the next edit starts a new one). */
@@ -65,6 +73,7 @@ export function cancel(): void {
 }
 
 function run(): void {
+  lastRun = performance.now()
   const s = store().get()
   const study = s.study
   const checked = validateStudy(study)
@@ -77,9 +86,10 @@ function run(): void {
   }
   const sizeItems = study.samples
     .map((sample, i) => ({ id: s.ids[i], sample, userMaterials: study.user_materials ?? [], ok: !problemsOf(problems, i).some((p) => p.path.startsWith(`samples[${i}]`)) }))
-    .filter((x) => x.ok)
+    .filter((x) => x.ok && !(x.id in s.sizes && sizeKeys.get(x.id) === JSON.stringify([x.sample, x.userMaterials])))
     .map(({ ok: _ok, ...item }) => item)
-  sizes.postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
+  for (const x of sizeItems) sizeKeys.set(x.id, JSON.stringify([x.sample, x.userMaterials]))
+  if (sizeItems.length) sizes.postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
 
   const items: { id: string; key: string; study: Study }[] = []
   const results = { ...s.results }
@@ -128,7 +138,8 @@ export function startComputing(): void {
     lastStudy = s.study
     lastDrafts = s.drafts
     clearTimeout(timer)
-    timer = setTimeout(run, immediate ? 0 : DEBOUNCE_MS)
+    // a lone edit runs at once (after the change's other updates); one hard on the heels of a run waits
+    timer = setTimeout(run, immediate || performance.now() - lastRun > DEBOUNCE_MS ? 0 : DEBOUNCE_MS)
   }
   store().subscribe(() => check(false))
   check(true)

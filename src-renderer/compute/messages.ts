@@ -19,7 +19,8 @@ export type FromWorker =
   | { type: 'failed'; job: number; id: string; key: string; message: string }
   | { type: 'progress'; job: number; done: number; total: number }
   | { type: 'finished'; job: number }
-  | { type: 'sizes'; job: number; id: string; curves?: SizeCurves; error?: string }
+  /** The curves of every sample of one `sizes` request, in one message (one update of the screen). */
+  | { type: 'sizes'; job: number; curves: Record<string, SizeCurves | { error: string }> }
 
 /** Relative accuracy of the quick first pass whose figures are shown while the full one (1e-4) runs. */
 export const PREVIEW_TOLERANCE = 1e-2

@@ -162,13 +162,15 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
 self.onmessage = (e: MessageEvent<ToWorker>) => {
   const m = e.data
   if (m.type === 'sizes') {
+    const curves: Record<string, SizeCurves | { error: string }> = {}
     for (const item of m.items) {
       try {
-        post({ type: 'sizes', job: m.job, id: item.id, curves: sizeCurves(item.sample, item.userMaterials) })
+        curves[item.id] = sizeCurves(item.sample, item.userMaterials)
       } catch (err) {
-        post({ type: 'sizes', job: m.job, id: item.id, error: message(err) })
+        curves[item.id] = { error: message(err) }
       }
     }
+    post({ type: 'sizes', job: m.job, curves })
     return
   }
   newest = m.job
