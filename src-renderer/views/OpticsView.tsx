@@ -105,6 +105,10 @@ export function OpticsView() {
   const stale = shown.some((x) => x.stale)
   const o = sel?.result?.optics
   const axis = wavelengthAxis(ok[0]?.result.optics.wavelengths.map((w) => w.wavelength_nm) ?? [550])
+  // The table is the view's largest piece: the same element is given back while its rows and caption stand,
+  // so other updates (progress, the size plot) do not redraw it.
+  const caption = sel ? `${sel.sample.name}: optics at each wavelength${sel.stale ? ' (stale)' : ''}` : ''
+  const table = useMemo(() => (o ? <WavelengthTable rows={o.wavelengths} caption={caption} /> : null), [o?.wavelengths, caption])
 
   return (
     <div class="view optics-view" data-view="optics">
@@ -156,7 +160,7 @@ export function OpticsView() {
           <Chart name="g-spectrum" title="Asymmetry parameter g" data={g.data} lines={g.lines} xLabel="Wavelength (nm)" yLabel="g" xLog {...axis} theme={s.theme} stale={stale} height={200} />
         </div>
       )}
-      {o && sel && <WavelengthTable rows={o.wavelengths} caption={`${sel.sample.name}: optics at each wavelength${sel.stale ? ' (stale)' : ''}`} />}
+      {sel && table}
       {o && o.notes.length > 0 && (
         <ul class="notes">
           {o.notes.map((n, k) => (
