@@ -14,6 +14,8 @@ let sizes: Worker | null = null
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
 let lastRun = -Infinity
+/** Numbers the scheduled runs: only the latest one runs. */
+let scheduled = 0
 let lastStudy: Study | null = null
 let lastDrafts: AppState['drafts'] | null = null
 /** Results by input key (a few per sample), so undo and toggling back are instant. */
@@ -46,7 +48,11 @@ export function problemsOf(problems: StudyProblem[], i: number): StudyProblem[] 
 function onOptics(m: FromWorker): void {
   if (m.job !== job) return
   const s = store().get()
-  if (m.type === 'progress') store().set({ job: { running: m.done < m.total, done: m.done, total: m.total } })
+  if (m.type === 'progress') {
+    // unchanged progress (the job's start, which run() has shown already) is not worth a render
+    const job = { running: m.done < m.total, done: m.done, total: m.total }
+    if (job.running !== s.job.running || job.done !== s.job.done || job.total !== s.job.total) store().set({ job })
+  }
   else if (m.type === 'finished') store().set({ job: { ...s.job, running: false } })
   else if (m.type === 'result') {
     const shown: ShownResult = m.preview ? { key: m.key, result: m.result, preview: true } : { key: m.key, result: m.result }
@@ -138,8 +144,12 @@ export function startComputing(): void {
     lastStudy = s.study
     lastDrafts = s.drafts
     clearTimeout(timer)
-    // a lone edit runs at once (after the change's other updates); one hard on the heels of a run waits
-    timer = setTimeout(run, immediate || performance.now() - lastRun > DEBOUNCE_MS ? 0 : DEBOUNCE_MS)
+    // A lone edit runs at once, once the task that made it is done (so the change's other updates are in, and
+    // the worker starts before the browser lays out and paints); one hard on the heels of a run waits.
+    const token = ++scheduled
+    const runIfLatest = () => token === scheduled && run()
+    if (immediate || performance.now() - lastRun > DEBOUNCE_MS) queueMicrotask(runIfLatest)
+    else timer = setTimeout(runIfLatest, DEBOUNCE_MS)
   }
   store().subscribe(() => check(false))
   check(true)
