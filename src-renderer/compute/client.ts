@@ -1,7 +1,7 @@
-// Runs the computations in workers as the document changes: at once, or debounced while edits come fast, one job at a time, a newer edit
-// supersedes (and stops) the running job, unchanged samples are not computed again. The optics worker is
-// kept alive across jobs (its node cache makes edits of sizes and amounts cheap): a newer job or a cancel is
-// a message it reads between steps of its work.
+// Runs the computations in workers as the document changes: at once, or debounced while edits come fast; one
+// job at a time, a newer edit supersedes (and stops) the running job, unchanged samples are not computed again.
+// The optics worker is kept alive across jobs (its node cache makes edits of sizes and amounts cheap): a newer
+// job or a cancel is a message it reads between steps of its work.
 import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
 import type { FromWorker, ToWorker } from './messages.ts'
@@ -50,8 +50,8 @@ function onOptics(m: FromWorker): void {
   const s = store().get()
   if (m.type === 'progress') {
     // unchanged progress (the job's start, which run() has shown already) is not worth a render
-    const job = { running: m.done < m.total, done: m.done, total: m.total }
-    if (job.running !== s.job.running || job.done !== s.job.done || job.total !== s.job.total) store().set({ job })
+    const now = { running: m.done < m.total, done: m.done, total: m.total }
+    if (now.running !== s.job.running || now.done !== s.job.done || now.total !== s.job.total) store().set({ job: now })
   }
   else if (m.type === 'finished') store().set({ job: { ...s.job, running: false } })
   else if (m.type === 'result') {
@@ -90,11 +90,16 @@ function run(): void {
     sizes = startWorker()
     sizes.onmessage = (e: MessageEvent<FromWorker>) => onSizes(e.data)
   }
-  const sizeItems = study.samples
-    .map((sample, i) => ({ id: s.ids[i], sample, userMaterials: study.user_materials ?? [], ok: !problemsOf(problems, i).some((p) => p.path.startsWith(`samples[${i}]`)) }))
-    .filter((x) => x.ok && !(x.id in s.sizes && sizeKeys.get(x.id) === JSON.stringify([x.sample, x.userMaterials])))
-    .map(({ ok: _ok, ...item }) => item)
-  for (const x of sizeItems) sizeKeys.set(x.id, JSON.stringify([x.sample, x.userMaterials]))
+  const userMaterials = study.user_materials ?? []
+  const sizeItems: Extract<ToWorker, { type: 'sizes' }>['items'] = []
+  study.samples.forEach((sample, i) => {
+    const id = s.ids[i]
+    const key = JSON.stringify([sample, userMaterials])
+    if (problemsOf(problems, i).some((p) => p.path.startsWith(`samples[${i}]`))) return
+    if (id in s.sizes && sizeKeys.get(id) === key) return
+    sizeKeys.set(id, key)
+    sizeItems.push({ id, sample, userMaterials })
+  })
   if (sizeItems.length) sizes.postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
 
   const items: { id: string; key: string; study: Study }[] = []
