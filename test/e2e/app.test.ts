@@ -61,13 +61,19 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(await page.getByTestId('verdict').getAttribute('data-verdict')).toMatch(/cools|warms|too close to call/)
   })
 
-  test('a larger accumulation-mode diameter at fixed number raises σext at 550 nm', async () => {
+  test('a larger accumulation-mode diameter at fixed number raises σext at 550 nm, and the charts follow', async () => {
     const page = await openApp()
     const before = await sigmaExt550(page)
+    const picture = (chart: string) => page.locator(`[data-chart="${chart}"] canvas`).first().screenshot()
+    const sizesBefore = await picture('size-distribution')
+    const spectrumBefore = await picture('extinction-spectrum')
     await page.locator('[data-path="samples[0].size.modes[1].median_um"]').fill('200 nm')
     await expect.poll(() => sigmaExt550(page), { timeout: 60_000 }).not.toBe(before)
     await waitForResults(page)
     expect(await sigmaExt550(page)).toBeGreaterThan(before)
+    // the size distribution and the extinction spectrum are drawn again from the new inputs
+    await expect.poll(async () => (await picture('size-distribution')).equals(sizesBefore), { timeout: 10_000 }).toBe(false)
+    expect((await picture('extinction-spectrum')).equals(spectrumBefore)).toBe(false)
   })
 
   test('a bad value is marked at its field and the last result stays, marked stale', async () => {
