@@ -91,6 +91,7 @@ function run(): void {
     sizes.onmessage = (e: MessageEvent<FromWorker>) => onSizes(e.data)
   }
   const userMaterials = study.user_materials ?? []
+  for (const id of sizeKeys.keys()) if (!s.ids.includes(id)) sizeKeys.delete(id)
   const sizeItems: Extract<ToWorker, { type: 'sizes' }>['items'] = []
   study.samples.forEach((sample, i) => {
     const id = s.ids[i]
