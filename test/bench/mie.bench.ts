@@ -1,5 +1,5 @@
 // Bench cases for single spheres.
-import { angularFromCoefficients, coatedSphereEfficiencies, CoatedWorkspace, MieWorkspace, newAngularScattering, sphereEfficiencies } from '../../src-core/index.ts'
+import { AngularTable, angularFromCoefficients, coatedSphereEfficiencies, CoatedWorkspace, MieWorkspace, newAngularScattering, sphereEfficiencies, UPSCATTER_SCATTERING_COSINES } from '../../src-core/index.ts'
 import { nsPerEvaluation, report } from './timing.ts'
 
 /** The sphere-grid sizes: x_i = 0.05 · 10^(3.3 i / 1999), i = 0 … 1999. */
@@ -38,6 +38,23 @@ export function benchSphereAngles(): void {
     angularFromCoefficients(50, ws, eff, out)
   }, 1, 5, 200)
   report('sphere-angles', { x: 50, angles: 181, us_per_eval: Number((ns / 1000).toFixed(2)) })
+}
+
+/**
+ * The tabulated angular sums the size integration adds at each node: S11 and S12 at the 64 upscatter
+ * cosines (32 mirrored pairs), per sphere and per series term and tabulated cosine.
+ */
+export function benchAngularTable(): void {
+  const table = new AngularTable(UPSCATTER_SCATTERING_COSINES.nodes)
+  const ws = new MieWorkspace()
+  const s11 = new Float64Array(table.mu.length)
+  const s12 = new Float64Array(table.mu.length)
+  for (const x of [30, 300, 1000]) {
+    sphereEfficiencies(x, 1.5, 0.001, ws)
+    const ns = nsPerEvaluation(() => table.accumulate(ws, 1, s11, s12), 1, 5, 200)
+    report('angular-table', { x, cosines: table.mu.length, us_per_sphere: Number((ns / 1000).toFixed(2)), ns_per_term_and_pair: Number((ns / (ws.terms * table.mu.length / 2)).toFixed(2)) })
+  }
+  if (!s11.every(Number.isFinite)) throw new Error('angular-table produced a non-finite sum')
 }
 
 export function benchCoatedGrid(): void {

@@ -2,7 +2,7 @@
 import { benchSampleDemo } from './optics.bench.ts'
 import { benchEditsDemo } from './edit.bench.ts'
 import { benchUiEdits } from './ui.bench.ts'
-import { benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
+import { benchAngularTable, benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
 import { benchUncertaintyDemo } from './uncertainty.bench.ts'
 import { benchSeries } from './series.bench.ts'
 
@@ -10,6 +10,7 @@ const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
   'sphere-large': benchSphereLarge,
   'sphere-angles': benchSphereAngles,
+  'angular-table': benchAngularTable,
   'coated-grid': benchCoatedGrid,
   'sample-demo': benchSampleDemo,
   'edits-demo': benchEditsDemo,
