@@ -104,7 +104,8 @@ export function angularFromCoefficients(x: number, ws: MieWorkspace, eff: Sphere
  * Layout for speed: the table holds one row per cosine (pi_n, tau_n interleaved along n), the coefficients
  * are scaled by (2n+1)/(n(n+1)) once per sphere, and each cosine's eight sums stay in local variables over
  * the whole series. `npm run bench -- angular-table` measured 4.5 ns per term and cosine pair, against 6.7 ns
- * when every term was added into all the cosines' sums in memory (Node 20).
+ * when every term was added into all the cosines' sums in memory (Node 20); the same loops in Chromium's
+ * newer engine took 3.8 ns against 4.2 ns.
  */
 export class AngularTable {
   readonly mu: Float64Array
