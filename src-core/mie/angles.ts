@@ -124,29 +124,30 @@ export class AngularTable {
     this.mu = Float64Array.from(mu)
     const m = this.mu.length
     const bases: number[] = []
-    const plus: number[] = []
-    const minus: number[] = []
+    // at most one base per requested cosine; trimmed to the bases found below
+    const plusAt = new Int32Array(m).fill(-1)
+    const minusAt = new Int32Array(m).fill(-1)
     const taken = new Uint8Array(m)
-    const place = (k: number) => (this.mu[k] < 0 ? minus : plus).push(k)
     for (let j = 0; j < m; j++) {
       if (taken[j]) continue
+      const b = bases.length
       bases.push(Math.abs(this.mu[j]))
-      plus.length = minus.length = bases.length - 1
       taken[j] = 1
-      place(j)
+      if (this.mu[j] < 0) minusAt[b] = j
+      else plusAt[b] = j
       // its mirror image, if the set holds one (to rounding: Gauss nodes and cos θ are mirrored to an ulp or so)
       for (let i = j + 1; i < m; i++) {
         if (!taken[i] && Math.abs(this.mu[i] + this.mu[j]) <= 1e-15 && this.mu[j] !== 0) {
           taken[i] = 1
-          place(i)
+          if (this.mu[i] < 0) minusAt[b] = i
+          else plusAt[b] = i
           break
         }
       }
     }
     this.base = Float64Array.from(bases)
-    plus.length = minus.length = bases.length
-    this.plusAt = Int32Array.from(plus, (k) => k ?? -1)
-    this.minusAt = Int32Array.from(minus, (k) => k ?? -1)
+    this.plusAt = plusAt.slice(0, bases.length)
+    this.minusAt = minusAt.slice(0, bases.length)
   }
 
   /** Makes sure pi_n, tau_n are tabulated up to n = nTerms. */
