@@ -181,7 +181,8 @@ export class AngularTable {
    */
   accumulate(ws: MieWorkspace, weight: number, acc11: Float64Array, acc12: Float64Array | null): void {
     const nTerms = ws.terms
-    this.grow(nTerms)
+    // one term beyond the series, with zero coefficients, so that the loop below always takes whole pairs
+    this.grow(nTerms + 1)
     const row = 2 * (this.nMax + 1)
     const { table, coef } = this
     for (let n = 1; n <= nTerms; n++) {
@@ -191,9 +192,13 @@ export class AngularTable {
       coef[4 * n + 2] = f * ws.bRe[n]
       coef[4 * n + 3] = f * ws.bIm[n]
     }
+    coef.fill(0, 4 * (nTerms + 1), 4 * (nTerms + 2))
     const m = this.base.length
     for (let j = 0; j < m; j++) {
       const at = j * row
+      // E and O sums of S1 and S2 (see the class comment): for odd n, a·pi and b·pi keep their sign under
+      // reflection (E) and a·tau, b·tau change it (O); for even n the other way round. An odd and an even term
+      // per step, so that each sum stays in a local variable.
       let e1r = 0
       let e1i = 0
       let o1r = 0
@@ -202,8 +207,7 @@ export class AngularTable {
       let e2i = 0
       let o2r = 0
       let o2i = 0
-      let n = 1
-      for (; n < nTerms; n += 2) {
+      for (let n = 1; n <= nTerms; n += 2) {
         const p = table[at + 2 * n]
         const t = table[at + 2 * n + 1]
         const ar = coef[4 * n]
@@ -232,22 +236,6 @@ export class AngularTable {
         o2i += di * q
         e2r += cr * u
         e2i += ci * u
-      }
-      if (n === nTerms) {
-        const p = table[at + 2 * n]
-        const t = table[at + 2 * n + 1]
-        const ar = coef[4 * n]
-        const ai = coef[4 * n + 1]
-        const br = coef[4 * n + 2]
-        const bi = coef[4 * n + 3]
-        e1r += ar * p
-        e1i += ai * p
-        o1r += br * t
-        o1i += bi * t
-        e2r += br * p
-        e2i += bi * p
-        o2r += ar * t
-        o2i += ai * t
       }
       // S(μ) = E + O at +μ_j, S(−μ) = E − O at −μ_j
       for (let h = 0; h < 2; h++) {
