@@ -176,10 +176,10 @@ export class AngularTable {
   }
 
   /**
-   * Adds weight·S11(μ_j) into acc11 and, if given, weight·S12(μ_j) into acc12, for the sphere whose
-   * coefficients are in `ws`.
+   * Adds weight·S11(μ_j) into acc11[at11 + j] and, if given, weight·S12(μ_j) into acc12[at12 + j], for the
+   * sphere whose coefficients are in `ws` (the offsets let a caller keep many spheres' rows in one array).
    */
-  accumulate(ws: MieWorkspace, weight: number, acc11: Float64Array, acc12: Float64Array | null): void {
+  accumulate(ws: MieWorkspace, weight: number, acc11: Float64Array, acc12: Float64Array | null, at11 = 0, at12 = 0): void {
     const nTerms = ws.terms
     // one term beyond the series, with zero coefficients, so that the loop below always takes whole pairs
     this.grow(nTerms + 1)
@@ -248,8 +248,8 @@ export class AngularTable {
         const s2i = e2i + sgn * o2i
         const i1 = s1r * s1r + s1i * s1i
         const i2 = s2r * s2r + s2i * s2i
-        acc11[k] += weight * 0.5 * (i2 + i1)
-        if (acc12) acc12[k] += weight * 0.5 * (i2 - i1)
+        acc11[at11 + k] += weight * 0.5 * (i2 + i1)
+        if (acc12) acc12[at12 + k] += weight * 0.5 * (i2 - i1)
       }
     }
   }

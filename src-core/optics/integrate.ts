@@ -32,7 +32,7 @@
 import { InputError } from '../errors.ts'
 import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, SPHERE_DOMAIN, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
 import { gaussLegendreOn } from '../numeric/index.ts'
-import { NodeCache } from './nodeCache.ts'
+import { NODE_ABS, NODE_DUDT, NODE_EXT, NODE_FIELDS, NODE_GSCA, NODE_SCA, NODE_U, NodeCache } from './nodeCache.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
 
 /** A stretch of the size distribution: ln D from lo to hi (D in µm), with dN/dlnD (cm⁻³) there. */
@@ -318,31 +318,35 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
     return u
   }
 
-  /** The Mie evaluation of the particle at dry ln-diameter u (its coefficients stay in ws.mie). */
-  const evaluate = (u: number) => {
+  /** The efficiencies of the last evaluation. */
+  let eff: SphereEfficiencies | null = null
+  /**
+   * The Mie evaluation of the particle at dry ln-diameter u: its efficiencies go to `eff`, its coefficients
+   * stay in ws.mie; returns its geometric cross-section (µm²).
+   */
+  const evaluate = (u: number): number => {
     const d = Math.exp(u)
     const gf = particleGrowth(kind, d, cond.rhPercent, cond.history, cond.temperatureK)
     wetParticle(kind, dry, gf, wet)
     const dw = d * gf
     const x = (Math.PI * dw) / wavelengthUm
-    let eff: SphereEfficiencies
     if (wet.coreRatio > 0) {
       eff = coatedSphereEfficiencies(x * wet.coreRatio, wet.coreN, wet.coreK, x, wet.n, wet.k, ws.mie)
     } else {
       eff = sphereEfficiencies(x, wet.n, wet.k, ws.mie)
     }
     ws.evaluations++
-    return { eff, area: 0.25 * Math.PI * dw * dw }
+    return 0.25 * Math.PI * dw * dw
   }
 
   // Adds f(t)·weight for one node: from the cache where it holds the node, else from a Mie evaluation.
   const addNode = (seg: { s: SizeSegment; u: number }, t: number, weight: number, sums: Sums, withAngles: boolean) => {
-    let node = nodes.get(t)
-    const u = node ? node.u : uAt(seg, t)
+    let i = nodes.find(t)
+    const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : uAt(seg, t)
     seg.u = u
     const dens = seg.s.density(u)
     if (!(dens > 0)) return
-    const dudt = node ? node.dudt : 1 / (iu + stretchSlope(u))
+    const dudt = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_DUDT] : 1 / (iu + stretchSlope(u))
     const w = weight * dens * dudt
     // A node whose largest possible extinction (Q_ext < 6 at the widest growth) is below 1e-10 of the
     // previous level's total cannot matter: leave it out (whether or not its value is known, so that the
@@ -350,42 +354,46 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
     const dMax = Math.exp(u) * gMax
     if (w * 1.5 * Math.PI * dMax * dMax < negligibleExt) return
     let fresh = false
-    if (!node) {
-      const { eff, area } = evaluate(u)
-      node = { u, dudt, ext: eff.qext * area, sca: eff.qsca * area, abs: eff.qabs * area, gsca: eff.qsca * area * eff.g, up: null, user: null, userKey: '' }
-      nodes.set(t, node)
+    if (i < 0) {
+      const area = evaluate(u)
+      const e = eff!
+      i = nodes.add(t, u, dudt, e.qext * area, e.qsca * area, e.qabs * area, e.qsca * area * e.g)
       added++
       fresh = true
     }
-    sums.ext += w * node.ext
-    sums.sca += w * node.sca
-    sums.abs += w * node.abs
-    sums.gsca += w * node.gsca
+    const v = nodes.values
+    const at = NODE_FIELDS * i
+    const sca = v[at + NODE_SCA]
+    sums.ext += w * v[at + NODE_EXT]
+    sums.sca += w * sca
+    sums.abs += w * v[at + NODE_ABS]
+    sums.gsca += w * v[at + NODE_GSCA]
     // The angular sums need only the nodes that carry scattering: below 1e-8 of the previous level's
     // σsca a node is left out of them (and out of the σsca they are divided by).
-    if (!withAngles || w * node.sca < negligibleSca) return
-    if (!node.up || (userTable && node.userKey !== userKey)) {
+    if (!withAngles || w * sca < negligibleSca) return
+    let upRow = nodes.upRow(i)
+    let userRow = userTable ? nodes.userRow(i, userKey) : -1
+    if (upRow < 0 || (userTable && userRow < 0)) {
       if (!fresh) evaluate(u)
-      if (!node.up) {
-        node.up = new Float64Array(upMu.length)
-        ws.upTable.accumulate(ws.mie, 1, node.up, null)
+      if (upRow < 0) {
+        upRow = nodes.newUpRow(i, upMu.length)
+        ws.upTable.accumulate(ws.mie, 1, nodes.angular, null, upRow)
       }
-      if (userTable) {
-        node.user = new Float64Array(2 * nUser)
-        userTable.accumulate(ws.mie, 1, node.user.subarray(0, nUser), node.user.subarray(nUser))
-        node.userKey = userKey
+      if (userTable && userRow < 0) {
+        userRow = nodes.newUserRow(i, userKey, 2 * nUser)
+        userTable.accumulate(ws.mie, 1, nodes.angular, nodes.angular, userRow, userRow + nUser)
       }
     }
-    sums.angSca += w * node.sca
-    const up = node.up
-    for (let j = 0; j < up.length; j++) sums.up[j] += w * up[j]
+    sums.angSca += w * sca
+    const rows = nodes.angular
+    const up = sums.up
+    for (let j = 0; j < up.length; j++) up[j] += w * rows[upRow + j]
     if (userTable) {
-      const user = node.user!
       const s11 = sums.user11!
       const s12 = sums.user12!
       for (let j = 0; j < nUser; j++) {
-        s11[j] += w * user[j]
-        s12[j] += w * user[nUser + j]
+        s11[j] += w * rows[userRow + j]
+        s12[j] += w * rows[userRow + nUser + j]
       }
     }
   }

@@ -68,6 +68,18 @@ describe('node cache', () => {
     })
   })
 
+  it('after a change of the phase-function angles, a warm workspace gives the cold phase function', () => {
+    // the nodes keep their sums at the angles asked for before; new angles need new sums at every node
+    const ws = new OpticsWorkspace()
+    computeSampleOptics(coastal, study, { workspace: ws })
+    const angles = [0, 30, 60, 90, 120, 150, 175]
+    const warm = computeSampleOptics(coastal, study, { workspace: ws, anglesDeg: angles })
+    const cold = computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace(), anglesDeg: angles })
+    expect(warm.angular[0].angles_deg).toEqual(angles)
+    expectSameFigures(warm, cold)
+    warm.angular[0].polarization.forEach((p, i) => expect(Math.abs(p - cold.angular[0].polarization[i])).toBeLessThanOrEqual(1e-11))
+  })
+
   it('stays within its node limit, dropping the contexts used longest ago, without changing results', () => {
     const small = new OpticsWorkspace(2000)
     const r = computeSampleOptics(coastal, study, { workspace: small })
