@@ -11,9 +11,10 @@
  *
  * On this grid the trapezoid rule is used, halving the step level by level and reusing every node. A lognormal
  * mode's nodes are the points t = j·2^−L of a lattice fixed on the whole t axis (L chosen so that at least four
- * steps cross the mode): its integrand falls to ~1e-9 of its peak at the ends of the range, where the trapezoid
- * rule converges faster than any power of the step and needs no end nodes, and every mode, and every edit of
- * one, lands on the same nodes, whose values the workspace's node cache keeps (nodeCache.ts). A measured bin
+ * steps cross the mode): its integrand is small at the ends of the range (sample.ts leaves out about a hundredth
+ * of the tolerance), where the trapezoid rule converges faster than any power of the step and needs no end
+ * nodes, and every mode, and every edit of one, lands on the same nodes, whose values the workspace's node
+ * cache keeps (nodeCache.ts). A measured bin
  * (flat in log D, with a jump at its edges) is split from its own edges, and its levels are combined by
  * Richardson extrapolation (Simpson's rule). A level is accepted when every figure (σext, σsca, σabs relative
  * to σext, g, and b, β̄ while they are refined) changed by less than the tolerance, and this change and the one
@@ -77,6 +78,9 @@ export interface IntegrationOptions {
    */
   upscatter?: boolean
 }
+
+/** The relative accuracy aimed at unless another is asked for. */
+export const DEFAULT_TOLERANCE = 1e-4
 
 /** Cos-zenith nodes where β(μ₀) is reported (Gauss–Legendre on [0, 1], 16 nodes), and their weights. */
 export const UPSCATTER_NODES = gaussLegendreOn(16, 0, 1)
@@ -552,7 +556,7 @@ function coarsestStepOf(step = 1): number {
  */
 export function bulkOpticsAt(populations: readonly Population[], wavelengthUm: number, cond: Conditions, options: IntegrationOptions = {}, ws = new OpticsWorkspace()): BulkOptics {
   const opts = {
-    tolerance: options.tolerance ?? 1e-4,
+    tolerance: options.tolerance ?? DEFAULT_TOLERANCE,
     maxLevel: options.maxLevel ?? 9,
     stepLnD: options.stepLnD ?? 0.25,
     stepX: options.stepX ?? 2,

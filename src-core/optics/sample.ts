@@ -26,7 +26,7 @@ import {
   type SizeBins
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
-import { bulkOpticsAt, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import { bulkOpticsAt, DEFAULT_TOLERANCE, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
 import { angstromFit, deciview, layerDepthM, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
@@ -83,7 +83,7 @@ interface SamplePopulation extends Population {
 }
 
 /** Resolves a sample into populations: one per mode (with its own composition if it has one), or the bins. */
-export function samplePopulations(sample: Sample, own: readonly Material[], longestWavelengthUm: number): SamplePopulation[] {
+export function samplePopulations(sample: Sample, own: readonly Material[], longestWavelengthUm: number, tolerance = DEFAULT_TOLERANCE): SamplePopulation[] {
   const where = `sample "${sample.name}"`
   const kindCache = new Map<Composition, ParticleKind>()
   const kindOf = (c: Composition, w: string) => {
@@ -100,7 +100,7 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
       const w = `${where}, mode ${i + 1}${spec.name ? ` (${spec.name})` : ''}`
       const kind = kindOf(spec.composition ?? sample.composition, w)
       const mode = modeFromSpec(spec, kind.densityGcm3)
-      return { label: spec.name ?? `mode ${i + 1}`, kind, mode, segments: [modeSegment(mode, longestWavelengthUm)] }
+      return { label: spec.name ?? `mode ${i + 1}`, kind, mode, segments: [modeSegment(mode, longestWavelengthUm, Math.max(FULL_TAIL, tolerance / 100))] }
     })
   }
   const b = sample.size.bins
@@ -122,18 +122,35 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
 }
 
 /**
- * The diameter range of a mode for optics: all but 1e-6 of its second moment, which carries the
- * cross-sections of particles large next to the wavelength (C ∝ D²), extended upward to hold the sixth moment
- * (which carries Rayleigh scattering, C ∝ D⁶) as far as particles stay small next to the longest wavelength
- * (x ≤ 2 there). What is left out is ~1e-6 of σ, a hundredth of the integration tolerance.
+ * Beyond this size parameter Q_ext stays within about a fifth of 2 for n ≥ 1.33: by anomalous diffraction,
+ * Q_ext = 2 − (4/ρ) sin ρ + (4/ρ²)(1 − cos ρ) with ρ = 2x(n − 1) (van de Hulst 1957, §11.22).
  */
-function modeSegment(mode: LognormalMode, longestWavelengthUm: number): SizeSegment {
-  const r2 = integrationRange([mode], { highestMoment: 2, tailFraction: 1e-6 })
-  const r6 = integrationRange([mode], { highestMoment: 6, tailFraction: 1e-6 })
+const GEOMETRIC_X = 20
+
+/**
+ * The diameter range of a mode for optics: all but 1e-6 of its second moment, which carries the cross-sections
+ * of particles large next to the wavelength (C ∝ D²), extended upward to hold the sixth moment (which carries
+ * Rayleigh scattering, C ∝ D⁶) as far as particles stay small next to the longest wavelength (x ≤ 2 there).
+ * What is left out is ~1e-6 of σ, a hundredth of the default integration tolerance (1e-4).
+ *
+ * A looser computation (a quick pass) may stop sooner: at the diameter past which only `tail` (a hundredth of
+ * its tolerance) of the second moment lies, if even at the longest wavelength the particles there are large
+ * (x ≥ GEOMETRIC_X, so that the second moment measures their share of σ). The largest particles, which cost
+ * most per node, are the ones it leaves out. Where the cut would fall among smaller particles (fine modes, whose
+ * Q_ext still climbs steeply with size there), it stays where the full computation puts it.
+ */
+function modeSegment(mode: LognormalMode, longestWavelengthUm: number, tail: number): SizeSegment {
+  const r2 = integrationRange([mode], { highestMoment: 2, tailFraction: FULL_TAIL })
+  const r6 = integrationRange([mode], { highestMoment: 6, tailFraction: FULL_TAIL })
   const small = (2 * longestWavelengthUm) / Math.PI
-  const hi = Math.max(r2.max, Math.min(r6.max, small))
+  const large = (GEOMETRIC_X * longestWavelengthUm) / Math.PI
+  const cut = tail > FULL_TAIL ? integrationRange([mode], { highestMoment: 2, tailFraction: tail }).max : r2.max
+  const hi = Math.max(cut, Math.min(r2.max, large), Math.min(r6.max, small))
   return { lo: Math.log(r2.min), hi: Math.log(hi), flat: false, density: dNdlnDOfLnD(mode) }
 }
+
+/** The share of a mode's second moment the full computation leaves out (see modeSegment). */
+const FULL_TAIL = 1e-6
 
 const GAUSS2 = [0.5 - 0.5 / Math.sqrt(3), 0.5 + 0.5 / Math.sqrt(3)]
 
@@ -218,12 +235,12 @@ export interface WavelengthBulk {
 }
 
 /** The sample's conditions and populations, as both halves of the computation see them. */
-function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: Pick<SampleOpticsOptions, 'rhPercent'>, own: Material[]) {
+function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: Pick<SampleOpticsOptions, 'rhPercent' | 'tolerance'>, own: Material[]) {
   const wavelengths = study.wavelengths_nm
   if (!wavelengths.length) throw new InputError('study: wavelengths', 'no wavelengths are given', 'Add at least one wavelength, such as 550 nm.')
   // the longest of all the study's wavelengths (not of a share of them) sets the modes' ranges, so that a
   // computation split by wavelength integrates over the same sizes as a whole one
-  const pops = samplePopulations(sample, own, Math.max(...wavelengths) / 1000)
+  const pops = samplePopulations(sample, own, Math.max(...wavelengths) / 1000, options.tolerance)
   const cond: Conditions = { rhPercent: options.rhPercent ?? sample.rh_percent, history: sample.rh_history, temperatureK: sample.temperature_k ?? 298.15 }
   return { pops, cond }
 }
@@ -276,7 +293,8 @@ export function assembleSampleOptics(
   options: Pick<SampleOpticsOptions, 'rhPercent'> = {},
   own: Material[] = studyMaterials(study)
 ): SampleOptics {
-  const { pops, cond } = sampleSetting(sample, study, options, own)
+  // the volumes (and so the mass efficiencies) come from the full range, whatever the integration's tolerance
+  const { pops, cond } = sampleSetting(sample, study, { rhPercent: options.rhPercent }, own)
   const vol = populationVolumes(pops, cond)
   const rows: WavelengthOptics[] = []
   const angular: AngularOptics[] = []
