@@ -5,7 +5,7 @@
 import type { Study } from '../study/model.ts'
 import { sampleForcing, sampleForcingMap } from './forcing.ts'
 import { OpticsWorkspace } from './integrate.ts'
-import { computeSampleOptics, finish, sampleOpticsSteps, studyMaterials, type SampleOpticsOptions } from './sample.ts'
+import { finish, sampleOpticsSteps, studyMaterials, type SampleOpticsOptions } from './sample.ts'
 import type { HumidityGrowthCurve, SampleOptics, SampleResult, StudyResults } from './types.ts'
 
 export const MOTEBENCH_VERSION = '0.1.0'
@@ -35,14 +35,14 @@ export function humidityGrowthCurve(study: Study, index: number, ws = new Optics
   return finish(humidityCurveSteps(study, index, ws, tolerance))
 }
 
-/** humidityGrowthCurve in steps: a pause after each humidity. */
+/** humidityGrowthCurve in steps: pauses every few milliseconds of work (see bulkOpticsSteps). */
 export function* humidityCurveSteps(study: Study, index: number, ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): Generator<void, HumidityGrowthCurve> {
   return humidityCurveFrom(yield* humidityScatteringSteps(study, index, HUMIDITY_CURVE_RH, ws, tolerance))
 }
 
 /**
  * σsca at 550 nm at each of `humidities` (%) on the sample's humidity branch, the points of its f(RH) curve (a
- * computation split across workers asks each for some of them): a pause after each.
+ * computation split across workers asks each for some of them), pausing every few milliseconds of work.
  */
 export function* humidityScatteringSteps(study: Study, index: number, humidities: readonly number[], ws = new OpticsWorkspace(), tolerance = HUMIDITY_CURVE_TOLERANCE): Generator<void, number[]> {
   const sample = study.samples[index]
@@ -51,8 +51,8 @@ export function* humidityScatteringSteps(study: Study, index: number, humidities
   const out: number[] = []
   for (const rh of humidities) {
     // only σsca is needed: no angular sums
-    out.push(computeSampleOptics(sample, at550, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, workspace: ws, tolerance: Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE) }, own).wavelengths[0].sca)
-    yield
+    const optics = yield* sampleOpticsSteps(sample, at550, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, workspace: ws, tolerance: Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE) }, own)
+    out.push(optics.wavelengths[0].sca)
   }
   return out
 }
@@ -63,7 +63,7 @@ export function humidityCurveFrom(sca: readonly number[]): HumidityGrowthCurve {
 }
 
 /**
- * One sample's results in steps (a pause after each wavelength and each point of the f(RH) curve):
+ * One sample's results in steps (pausing every few milliseconds of work and after each wavelength):
  * optics, forcing, forcing map and, unless skipped, the f(RH) curve.
  */
 export function* sampleResultSteps(study: Study, index: number, options: Omit<EvaluateOptions, 'sampleIndices' | 'progress'> = {}): Generator<void, SampleResult> {

@@ -260,10 +260,18 @@ type Settings = Required<Omit<IntegrationOptions, 'anglesDeg'>> & { anglesDeg?: 
 const MIN_LATTICE_STEPS = 4
 
 /**
- * Integrates one population at one wavelength into `into` (adds), refining until converged.
- * Returns the refinement level used.
+ * Work between pauses of a stepped integration, in series terms of the Mie evaluations (with the angular sums
+ * counted as ANGULAR_WORK terms each): about 2 ms on this project's 2-core test machine, so that a caller
+ * looking for newer work between steps (the app's workers) sees it within a few milliseconds.
  */
-function integratePopulation(pop: Population, wavelengthUm: number, cond: Conditions, opts: Settings, ws: OpticsWorkspace, into: Sums): { level: number; converged: boolean } {
+const STEP_WORK = 50_000
+const ANGULAR_WORK = 3
+
+/**
+ * Integrates one population at one wavelength into `into` (adds), refining until converged, with a pause
+ * after every STEP_WORK of work. Returns the refinement level used.
+ */
+function* integratePopulation(pop: Population, wavelengthUm: number, cond: Conditions, opts: Settings, ws: OpticsWorkspace, into: Sums): Generator<void, { level: number; converged: boolean }> {
   const kind = pop.kind
   const dry = dryIndicesAt(kind, wavelengthUm)
   const userTable = opts.upscatter && opts.anglesDeg && opts.anglesDeg.length ? ws.userTable(opts.anglesDeg) : null
@@ -288,6 +296,8 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
     JSON.stringify([wavelengthUm, dry, kind.coreShell, kind.fractions, kind.rule, kind.kappa, kind.phaseChange ?? null, cond, opts.stepLnD, opts.stepX])
   )
   let added = 0
+  /** Work since the last pause (see STEP_WORK). */
+  let work = 0
 
   const segs = pop.segments.map((s) => ({ s, t0: tOf(s.lo), t1: tOf(s.hi), u: s.lo }))
   const uTop = Math.max(...pop.segments.map((sg) => sg.hi))
@@ -363,6 +373,7 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
       const e = eff!
       i = nodes.add(t, u, dudt, e.qext * area, e.qsca * area, e.qabs * area, e.qsca * area * e.g)
       added++
+      work += e.terms
       fresh = true
     }
     const v = nodes.values
@@ -379,6 +390,7 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
     let userRow = userTable ? nodes.userRow(i, userKey) : -1
     if (upRow < 0 || (userTable && userRow < 0)) {
       if (!fresh) evaluate(u)
+      work += ANGULAR_WORK * eff!.terms
       if (upRow < 0) {
         upRow = nodes.newUpRow(i, upMu.length)
         ws.upTable.accumulate(ws.mie, 1, nodes.angular, null, upRow)
@@ -427,28 +439,42 @@ function integratePopulation(pop: Population, wavelengthUm: number, cond: Condit
     // Accumulate the new nodes of this level (weights in units of the level's step, scaled below).
     const fresh = new Sums(nUser)
     const freshFlat = new Sums(nUser)
-    segs.forEach((sg, i) => {
+    for (let i = 0; i < segs.length; i++) {
+      const sg = segs[i]
       const h0 = firstStep[i]
       sg.u = sg.s.lo
-      if (sg.s.flat) {
+      // This level's nodes in this segment: t = base + m·unit for m = m0, m0 + dm, … (count of them), weight w.
+      // A measured bin is split from its own edges: all of t0 + k·h0 at level 0 (the two ends at half weight),
+      // then the odd multiples of h from t0. A lognormal segment takes the lattice nodes inside [t0, t1]: all
+      // multiples of h0 at level 0, the odd multiples of h after.
+      const h = h0 / (1 << lv)
+      const flat = sg.s.flat
+      const base = flat ? sg.t0 : 0
+      const dm = lv === 0 ? 1 : 2
+      let m0: number
+      let count: number
+      if (flat) {
         const n0 = Math.round((sg.t1 - sg.t0) / h0)
-        if (lv === 0) {
-          for (let k = 0; k <= n0; k++) addNode(sg, sg.t0 + k * h0, k === 0 || k === n0 ? 0.5 * h0 : h0, freshFlat, withAngles)
-        } else {
-          const h = h0 / (1 << lv)
-          const count = n0 << (lv - 1)
-          for (let k = 0; k < count; k++) addNode(sg, sg.t0 + (2 * k + 1) * h, h, freshFlat, withAngles)
-        }
-        return
-      }
-      // lattice nodes inside [t0, t1]: all multiples of h0 at level 0, the odd multiples of h after
-      if (lv === 0) {
-        for (let j = Math.ceil(sg.t0 / h0), last = Math.floor(sg.t1 / h0); j <= last; j++) addNode(sg, j * h0, h0, fresh, withAngles)
+        m0 = lv === 0 ? 0 : 1
+        count = lv === 0 ? n0 + 1 : n0 << (lv - 1)
+      } else if (lv === 0) {
+        m0 = Math.ceil(sg.t0 / h0)
+        count = Math.floor(sg.t1 / h0) - m0 + 1
       } else {
-        const h = h0 / (1 << lv)
-        for (let k = Math.ceil((sg.t0 / h - 1) / 2), last = Math.floor((sg.t1 / h - 1) / 2); k <= last; k++) addNode(sg, (2 * k + 1) * h, h, fresh, withAngles)
+        const k0 = Math.ceil((sg.t0 / h - 1) / 2)
+        m0 = 2 * k0 + 1
+        count = Math.floor((sg.t1 / h - 1) / 2) - k0 + 1
       }
-    })
+      const target = flat ? freshFlat : fresh
+      const halfEnds = flat && lv === 0
+      for (let k = 0; k < count; k++) {
+        addNode(sg, base + (m0 + k * dm) * h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles)
+        if (work >= STEP_WORK) {
+          work = 0
+          yield
+        }
+      }
+    }
     // Trapezoid at this level = old trapezoid / 2 + new nodes·h (weights above already carry h).
     scaleInto(smoothSums, 0.5, lv > 0, fresh, withAngles)
     flatPrev.copyFrom(flatSums)
@@ -555,6 +581,22 @@ function coarsestStepOf(step = 1): number {
  * Options: tolerance (default 1e-4), angles for the population phase function, grid controls.
  */
 export function bulkOpticsAt(populations: readonly Population[], wavelengthUm: number, cond: Conditions, options: IntegrationOptions = {}, ws = new OpticsWorkspace()): BulkOptics {
+  return finish(bulkOpticsSteps(populations, wavelengthUm, cond, options, ws))
+}
+
+/** Runs a stepped computation to its end. */
+export function finish<T>(steps: Generator<void, T>): T {
+  for (;;) {
+    const r = steps.next()
+    if (r.done) return r.value
+  }
+}
+
+/**
+ * bulkOpticsAt in steps: the generator pauses every few milliseconds of work (STEP_WORK) and returns the bulk
+ * optics at the end, so that a caller that must stay responsive can look for newer work between steps.
+ */
+export function* bulkOpticsSteps(populations: readonly Population[], wavelengthUm: number, cond: Conditions, options: IntegrationOptions = {}, ws = new OpticsWorkspace()): Generator<void, BulkOptics> {
   const opts = {
     tolerance: options.tolerance ?? DEFAULT_TOLERANCE,
     maxLevel: options.maxLevel ?? 9,
@@ -570,7 +612,7 @@ export function bulkOpticsAt(populations: readonly Population[], wavelengthUm: n
   let level = 0
   let converged = true
   for (const pop of populations) {
-    const r = integratePopulation(pop, wavelengthUm, cond, opts, ws, total)
+    const r = yield* integratePopulation(pop, wavelengthUm, cond, opts, ws, total)
     level = Math.max(level, r.level)
     converged &&= r.converged
   }

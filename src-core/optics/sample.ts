@@ -26,7 +26,7 @@ import {
   type SizeBins
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
-import { bulkOpticsAt, DEFAULT_TOLERANCE, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
 import { angstromFit, deciview, layerDepthM, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
@@ -201,17 +201,11 @@ export function computeSampleOptics(sample: Sample, study: Pick<Study, 'user_mat
   return finish(sampleOpticsSteps(sample, study, options, own))
 }
 
-/** Runs a stepped computation to its end. */
-export function finish<T>(steps: Generator<void, T>): T {
-  for (;;) {
-    const r = steps.next()
-    if (r.done) return r.value
-  }
-}
+export { finish }
 
 /**
- * computeSampleOptics in steps: the generator pauses after each wavelength and returns the sample's optics
- * at the end. A caller that must stay responsive (the app's worker) can look for newer work between steps.
+ * computeSampleOptics in steps: the generator pauses every few milliseconds of work (see bulkOpticsSteps) and
+ * after each wavelength, and returns the sample's optics at the end. A caller that must stay responsive (the app's worker) can look for newer work between steps.
  */
 export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): Generator<void, SampleOptics> {
   const bulk = yield* sampleBulkSteps(sample, study, options, own)
@@ -247,7 +241,7 @@ function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wa
 
 /**
  * The size integration of a sample at its study's wavelengths, or at `only` (a share of them, for a computation
- * split across workers): one WavelengthBulk per wavelength, with a pause after each.
+ * split across workers): one WavelengthBulk per wavelength, pausing every few milliseconds of work.
  */
 export function* sampleBulkSteps(
   sample: Sample,
@@ -263,7 +257,7 @@ export function* sampleBulkSteps(
   const out: WavelengthBulk[] = []
   for (const wl of options.only ?? wavelengths) {
     const wantAngles = angularAt.includes(wl)
-    const r = bulkOpticsAt(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter, coarsestStep: options.coarsestStep }, ws)
+    const r = yield* bulkOpticsSteps(pops, wl / 1000, cond, { tolerance: options.tolerance, anglesDeg: wantAngles ? angles : undefined, upscatter: options.upscatter, coarsestStep: options.coarsestStep }, ws)
     out.push({
       wavelength_nm: wl,
       ext: r.ext,

@@ -12,12 +12,21 @@ export function pause(): Promise<void> {
   })
 }
 
+/**
+ * How long stepped work runs between looks at the message queue (ms). src-core's computations pause every couple
+ * of milliseconds of work; a look costs a turn of the event loop, so it is taken only once this much has passed.
+ */
+const SLICE_MS = 8
+
 /** Runs stepped work to its end, or returns undefined once `current()` is false (a newer job came in). */
 export async function drive<T>(steps: Generator<void, T>, current: () => boolean): Promise<T | undefined> {
+  let looked = performance.now()
   for (;;) {
     const r = steps.next()
     if (r.done) return r.value
+    if (performance.now() - looked < SLICE_MS) continue
     await pause()
+    looked = performance.now()
     if (!current()) return undefined
   }
 }

@@ -1,0 +1,28 @@
+// The size integration in steps (bulkOpticsSteps, src-core/optics/integrate.ts): the app's workers run it a few
+// milliseconds at a time, looking for newer work in between; the figures must not depend on that.
+import { describe, expect, it } from 'vitest'
+import { bulkOpticsAt, bulkOpticsSteps, demoStudy, OpticsWorkspace, samplePopulations, studyMaterials } from '../../src-core/index.ts'
+
+const study = demoStudy()
+const coastal = study.samples.find((s) => s.name.startsWith('Coastal haze'))!
+const pops = samplePopulations(coastal, studyMaterials(study), 2.5)
+const cond = { rhPercent: coastal.rh_percent, history: coastal.rh_history, temperatureK: coastal.temperature_k ?? 298.15 }
+
+describe('stepped size integration', () => {
+  it('pauses many times in a long integration and gives the figures of the one-go integration, bit for bit', () => {
+    const whole = bulkOpticsAt(pops, 0.35, cond, { anglesDeg: [0, 90, 180] })
+    const steps = bulkOpticsSteps(pops, 0.35, cond, { anglesDeg: [0, 90, 180] }, new OpticsWorkspace())
+    let pauses = 0
+    let r = steps.next()
+    while (!r.done) {
+      pauses++
+      r = steps.next()
+    }
+    const stepped = r.value
+    // tens of thousands of Mie evaluations: far more than one step's work
+    expect(stepped.evaluations).toBeGreaterThan(10_000)
+    expect(pauses).toBeGreaterThan(50)
+    for (const key of ['ext', 'sca', 'abs', 'g', 'backscatter', 'upscatterMean', 'evaluations', 'level'] as const) expect(stepped[key]).toBe(whole[key])
+    expect(Array.from(stepped.phase!)).toEqual(Array.from(whole.phase!))
+  })
+})
