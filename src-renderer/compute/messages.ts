@@ -29,7 +29,10 @@ export const PREVIEW_TOLERANCE = 1e-2
  * demo samples that halves its time and its figures stay within 2e-3 of the full ones.
  */
 export const PREVIEW_COARSEST_STEP = 2
-/** A quick pass that took longer than this (ms) is shown: the full computation will take several times as long. */
+/**
+ * The quick pass's figures are shown once this long (ms) has passed since the sample's computation began and the
+ * full figures are not there yet: at once if the quick pass itself took longer, else when this time is up.
+ */
 export const PREVIEW_WORTH_MS = 40
 
 /** From the computing worker to its helpers: compute a one-sample study at `only` (a share of its wavelengths). */

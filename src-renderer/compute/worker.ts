@@ -15,6 +15,7 @@ import {
   sampleResultFromOptics,
   sizeDistributionCurves,
   type HumidityGrowthCurve,
+  type SampleOptics,
   type SampleResult,
   type Sample,
   type Study,
@@ -91,15 +92,15 @@ async function together<T>(mine: Generator<void, T>, theirs: Promise<T | null>[]
   return { mine: own, theirs: rest as T[] }
 }
 
-/** A one-sample study's results (without f(RH)), full or quick, its wavelengths shared with the helpers. */
-async function sampleFigures(study: Study, quick: boolean, job: number): Promise<SampleResult | undefined> {
+/** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
+async function sampleOptics(study: Study, quick: boolean, job: number): Promise<SampleOptics | undefined> {
   const workers = helperWorkers()
   const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
   const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
   const parts = await together(sampleBulkSteps(study.samples[0], study, { only: shares[0], ...grid, workspace }), theirs, job)
   if (!parts) return undefined
-  return sampleResultFromOptics(study, assembleSampleOptics(study.samples[0], study, [...parts.mine, ...parts.theirs.flat()]))
+  return assembleSampleOptics(study.samples[0], study, [...parts.mine, ...parts.theirs.flat()])
 }
 
 /** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */
@@ -129,10 +130,19 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     try {
       // a quick pass first; its nodes are kept, so the full pass costs only what it adds
       const started = performance.now()
-      const quick = await sampleFigures(item.study, true, m.job)
+      const quick = await sampleOptics(item.study, true, m.job)
       if (!live()) return
-      if (quick && performance.now() - started > PREVIEW_WORTH_MS) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: quick, partial: true, preview: true })
-      const r = await sampleFigures(item.study, false, m.job)
+      // Shown if the full figures are not there PREVIEW_WORTH_MS after the start (the timer runs while the full
+      // pass pauses between its steps); their forcing is worked out only then.
+      const showQuick = () => {
+        if (quick && live()) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: sampleResultFromOptics(item.study, quick), partial: true, preview: true })
+      }
+      const wait = started + PREVIEW_WORTH_MS - performance.now()
+      let timer: ReturnType<typeof setTimeout> | undefined
+      if (wait <= 0) showQuick()
+      else timer = setTimeout(showQuick, wait)
+      const optics = await sampleOptics(item.study, false, m.job).finally(() => clearTimeout(timer))
+      const r = optics && sampleResultFromOptics(item.study, optics)
       if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
       partial.push(r)
     } catch (err) {
