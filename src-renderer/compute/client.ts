@@ -45,30 +45,62 @@ export function problemsOf(problems: StudyProblem[], i: number): StudyProblem[] 
   return problems.filter((p) => affectsOptics(p.path) && (!p.path.startsWith('samples[') || p.path.startsWith(`samples[${i}]`)))
 }
 
-function onOptics(m: FromWorker): void {
-  if (m.job !== job) return
-  const s = store().get()
+/** What a message of the optics worker changes in the state `s` (nothing for an older job's). */
+function opticsPatch(s: AppState, m: FromWorker): Partial<AppState> | null {
+  if (m.job !== job) return null
   if (m.type === 'progress') {
     // unchanged progress (the job's start, which run() has shown already) is not worth a render
     const now = { running: m.done < m.total, done: m.done, total: m.total }
-    if (now.running !== s.job.running || now.done !== s.job.done || now.total !== s.job.total) store().set({ job: now })
+    return now.running !== s.job.running || now.done !== s.job.done || now.total !== s.job.total ? { job: now } : null
   }
-  else if (m.type === 'finished') store().set({ job: { ...s.job, running: false } })
-  else if (m.type === 'result') {
+  if (m.type === 'finished') return { job: { ...s.job, running: false } }
+  if (m.type === 'result') {
     const shown: ShownResult = m.preview ? { key: m.key, result: m.result, preview: true } : { key: m.key, result: m.result }
     // a partial result (a preview, or its f(RH) curve still to come) is shown but not kept for reuse
     if (!m.partial) cache.set(m.key, shown)
-    store().set({ results: { ...s.results, [m.id]: shown } })
-  } else if (m.type === 'failed') {
+    return { results: { ...s.results, [m.id]: shown } }
+  }
+  if (m.type === 'failed') {
     const old = s.results[m.id]
     cache.set(m.key, { key: m.key, error: m.message })
-    store().set({ results: { ...s.results, [m.id]: { key: old?.key ?? '', result: old?.result, error: m.message } } })
+    return { results: { ...s.results, [m.id]: { key: old?.key ?? '', result: old?.result, error: m.message } } }
   }
+  return null
 }
 
-function onSizes(m: FromWorker): void {
-  if (m.type !== 'sizes') return
-  store().set({ sizes: { ...store().get().sizes, ...m.curves } })
+/** What a message of the size-curve worker changes in the state `s`. */
+function sizesPatch(s: AppState, m: FromWorker): Partial<AppState> | null {
+  return m.type === 'sizes' ? { sizes: { ...s.sizes, ...m.curves } } : null
+}
+
+/**
+ * Messages from the workers wait here for the next frame and are then shown together, in one update of the state:
+ * a busy screen often has several waiting (the size curves and the first progress, or a result, the progress
+ * and the end of the job), and each update redraws the whole window.
+ */
+let inbox: [patch: typeof opticsPatch, m: FromWorker][] = []
+
+function receive(patch: typeof opticsPatch, m: FromWorker): void {
+  inbox.push([patch, m])
+  if (inbox.length > 1) return
+  requestAnimationFrame(showInbox)
+  // a hidden window gets no frames
+  setTimeout(showInbox, 100)
+}
+
+function showInbox(): void {
+  if (!inbox.length) return
+  const waiting = inbox
+  inbox = []
+  let s = store().get()
+  let changed = false
+  for (const [patch, m] of waiting) {
+    const p = patch(s, m)
+    if (!p) continue
+    s = { ...s, ...p }
+    changed = true
+  }
+  if (changed) store().set(s)
 }
 
 /** Stops the running job at its next step (the next edit starts a new one). */
@@ -88,7 +120,7 @@ function run(): void {
 
   if (!sizes) {
     sizes = startWorker()
-    sizes.onmessage = (e: MessageEvent<FromWorker>) => onSizes(e.data)
+    sizes.onmessage = (e: MessageEvent<FromWorker>) => receive(sizesPatch, e.data)
   }
   const userMaterials = study.user_materials ?? []
   for (const id of sizeKeys.keys()) if (!s.ids.includes(id)) sizeKeys.delete(id)
@@ -132,7 +164,7 @@ function run(): void {
   }
   if (!optics) {
     optics = startWorker()
-    optics.onmessage = (e: MessageEvent<FromWorker>) => onOptics(e.data)
+    optics.onmessage = (e: MessageEvent<FromWorker>) => receive(opticsPatch, e.data)
     optics.onerror = (e) => {
       store().set({ job: { running: false, done: 0, total: 0 }, notice: { kind: 'error', title: 'The computation stopped', lines: [e.message] } })
       optics = null
