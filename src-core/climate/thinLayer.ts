@@ -62,7 +62,7 @@ function thinInputs(i: ThinLayerInput) {
 export function thinLayerForcing(input: ThinLayerInput): ThinLayerResult {
   const { T, Ac, S0 } = thinInputs(input)
   const { tau, omega, upscatter: beta, surfaceAlbedo: Rs } = input
-  const efficiency = -(S0 / 4) * T * T * (1 - Ac) * (2 * (1 - Rs) ** 2 * beta * omega - 4 * Rs * (1 - omega))
+  const efficiency = thinLayerEfficiency(S0, T, Ac, Rs, beta, omega)
   return {
     forcingWm2: efficiency * tau,
     efficiencyWm2PerTau: efficiency,
@@ -72,6 +72,15 @@ export function thinLayerForcing(input: ThinLayerInput): ThinLayerResult {
     tauScattering: omega * tau,
     tauAbsorption: (1 - omega) * tau
   }
+}
+
+/**
+ * The thin-layer forcing per unit optical depth, ΔF/τ = −(S₀/4) T² (1 − A_c) [2 (1 − R_s)² β̄ ω − 4 R_s (1 − ω)]
+ * (Chylek & Wong 1995), W m⁻², for inputs already checked (thinLayerForcing checks them; forcingMap checks
+ * the ones its grid shares once, and builds the rest inside their domain).
+ */
+export function thinLayerEfficiency(S0: number, T: number, Ac: number, Rs: number, beta: number, omega: number): number {
+  return -(S0 / 4) * T * T * (1 - Ac) * (2 * (1 - Rs) ** 2 * beta * omega - 4 * Rs * (1 - omega))
 }
 
 /**

@@ -4,9 +4,9 @@
  */
 import { InputError } from '../errors.ts'
 import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2, STEFAN_BOLTZMANN_WM2K4 } from './constants.ts'
-import { criticalSingleScatteringAlbedo, signFlipSurfaceAlbedo, thinLayerForcing } from './thinLayer.ts'
+import { criticalSingleScatteringAlbedo, signFlipSurfaceAlbedo, thinLayerEfficiency, thinLayerForcing } from './thinLayer.ts'
 import { twoStreamEquivalentUpscatter, twoStreamForcing } from './twoStream.ts'
-import { checkInteger, checkRange, checkRangeOpenLow } from './validate.ts'
+import { atmosphereAbove, checkInteger, checkRange, checkRangeOpenLow } from './validate.ts'
 
 /** The caution every verdict carries. */
 export const FORCING_CAUTION =
@@ -213,9 +213,11 @@ export function forcingMap(input: ForcingMapInput): ForcingMap {
   for (let i = 0; i < nR; i++) R[i] = i / (nR - 1)
   for (let j = 0; j < nW; j++) W[j] = wMin + ((wMax - wMin) * j) / (nW - 1)
   const F = new Float64Array(nR * nW)
-  const base = { tau: input.tau, upscatter: input.upscatter, transmittance: input.transmittance, cloudFraction: input.cloudFraction, solarConstant: input.solarConstant }
+  // the inputs every cell shares are checked once (a cell's ω and R_s lie in [0, 1] by construction)
+  checkRange('tau', input.tau, 0, 10)
+  const { T, Ac, S0 } = atmosphereAbove(input)
   for (let j = 0; j < nW; j++) {
-    for (let i = 0; i < nR; i++) F[j * nR + i] = thinLayerForcing({ ...base, omega: W[j], surfaceAlbedo: R[i] }).forcingWm2
+    for (let i = 0; i < nR; i++) F[j * nR + i] = input.tau * thinLayerEfficiency(S0, T, Ac, R[i], input.upscatter, W[j])
   }
   const xs: number[] = []
   const ys: number[] = []

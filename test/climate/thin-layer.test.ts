@@ -119,6 +119,20 @@ describe('verdict', () => {
 })
 
 describe('forcing map', () => {
+  it('each cell is the thin-layer forcing at its ω and R_s; the inputs the cells share are still checked', () => {
+    const shared = { tau: 0.3, upscatter: 0.2, transmittance: 0.8, cloudFraction: 0.4 }
+    const m = forcingMap({ nSurfaceAlbedo: 6, nOmega: 4, ...shared })
+    for (let j = 0; j < 4; j++) {
+      for (let i = 0; i < 6; i++) {
+        const one = thinLayerForcing({ tau: 0.3, upscatter: 0.2, transmittance: 0.8, cloudFraction: 0.4, omega: m.omega[j], surfaceAlbedo: m.surfaceAlbedo[i] })
+        expect(m.forcingWm2[j * 6 + i]).toBe(one.forcingWm2)
+      }
+    }
+    expect(() => forcingMap({ nSurfaceAlbedo: 6, nOmega: 4, ...shared, tau: -1 })).toThrow(InputError)
+    expect(() => forcingMap({ nSurfaceAlbedo: 6, nOmega: 4, ...shared, transmittance: 1.5 })).toThrow(InputError)
+    expect(() => forcingMap({ nSurfaceAlbedo: 6, nOmega: 4, ...shared, cloudFraction: -0.1 })).toThrow(InputError)
+  })
+
   it('has the requested grid, the forcing changes sign across the zero line, which follows ω_crit(R_s) (Chylek & Wong 1995)', () => {
     const m = forcingMap({ nSurfaceAlbedo: 21, nOmega: 11, tau: 0.1, upscatter: 0.25 })
     expect(m.surfaceAlbedo.length).toBe(21)
