@@ -443,7 +443,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       const sg = segs[i]
       const h0 = firstStep[i]
       sg.u = sg.s.lo
-      // This level's nodes in this segment: t = base + m·unit for m = m0, m0 + dm, … (count of them), weight w.
+      // This level's nodes in this segment: t = base + m·h for m = m0, m0 + dm, … (count of them), each weighted h.
       // A measured bin is split from its own edges: all of t0 + k·h0 at level 0 (the two ends at half weight),
       // then the odd multiples of h from t0. A lognormal segment takes the lattice nodes inside [t0, t1]: all
       // multiples of h0 at level 0, the odd multiples of h after.
