@@ -434,77 +434,82 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   let negligibleExt = 0
   let negligibleSca = 0
   const hasFlat = segs.some((sg) => sg.s.flat)
-  for (; lv <= opts.maxLevel; lv++) {
-    const withAngles = !anglesFrozen
-    // Accumulate the new nodes of this level (weights in units of the level's step, scaled below).
-    const fresh = new Sums(nUser)
-    const freshFlat = new Sums(nUser)
-    for (let i = 0; i < segs.length; i++) {
-      const sg = segs[i]
-      const h0 = firstStep[i]
-      sg.u = sg.s.lo
-      // This level's nodes in this segment: t = base + m·h for m = m0, m0 + dm, … (count of them), each weighted h.
-      // A measured bin is split from its own edges: all of t0 + k·h0 at level 0 (the two ends at half weight),
-      // then the odd multiples of h from t0. A lognormal segment takes the lattice nodes inside [t0, t1]: all
-      // multiples of h0 at level 0, the odd multiples of h after.
-      const h = h0 / (1 << lv)
-      const flat = sg.s.flat
-      const base = flat ? sg.t0 : 0
-      const dm = lv === 0 ? 1 : 2
-      let m0: number
-      let count: number
-      if (flat) {
-        const n0 = Math.round((sg.t1 - sg.t0) / h0)
-        m0 = lv === 0 ? 0 : 1
-        count = lv === 0 ? n0 + 1 : n0 << (lv - 1)
-      } else if (lv === 0) {
-        m0 = Math.ceil(sg.t0 / h0)
-        count = Math.floor(sg.t1 / h0) - m0 + 1
-      } else {
-        const k0 = Math.ceil((sg.t0 / h - 1) / 2)
-        m0 = 2 * k0 + 1
-        count = Math.floor((sg.t1 / h - 1) / 2) - k0 + 1
-      }
-      const target = flat ? freshFlat : fresh
-      const halfEnds = flat && lv === 0
-      for (let k = 0; k < count; k++) {
-        addNode(sg, base + (m0 + k * dm) * h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles)
-        if (work >= STEP_WORK) {
-          work = 0
-          yield
+  // The nodes added are counted against the cache's bound even when the caller gives the work up between
+  // steps (drive() in the app's workers calls return(), which runs this finally): they stay in the cache.
+  try {
+    for (; lv <= opts.maxLevel; lv++) {
+      const withAngles = !anglesFrozen
+      // Accumulate the new nodes of this level (weights in units of the level's step, scaled below).
+      const fresh = new Sums(nUser)
+      const freshFlat = new Sums(nUser)
+      for (let i = 0; i < segs.length; i++) {
+        const sg = segs[i]
+        const h0 = firstStep[i]
+        sg.u = sg.s.lo
+        // This level's nodes in this segment: t = base + m·h for m = m0, m0 + dm, … (count of them), each weighted h.
+        // A measured bin is split from its own edges: all of t0 + k·h0 at level 0 (the two ends at half weight),
+        // then the odd multiples of h from t0. A lognormal segment takes the lattice nodes inside [t0, t1]: all
+        // multiples of h0 at level 0, the odd multiples of h after.
+        const h = h0 / (1 << lv)
+        const flat = sg.s.flat
+        const base = flat ? sg.t0 : 0
+        const dm = lv === 0 ? 1 : 2
+        let m0: number
+        let count: number
+        if (flat) {
+          const n0 = Math.round((sg.t1 - sg.t0) / h0)
+          m0 = lv === 0 ? 0 : 1
+          count = lv === 0 ? n0 + 1 : n0 << (lv - 1)
+        } else if (lv === 0) {
+          m0 = Math.ceil(sg.t0 / h0)
+          count = Math.floor(sg.t1 / h0) - m0 + 1
+        } else {
+          const k0 = Math.ceil((sg.t0 / h - 1) / 2)
+          m0 = 2 * k0 + 1
+          count = Math.floor((sg.t1 / h - 1) / 2) - k0 + 1
+        }
+        const target = flat ? freshFlat : fresh
+        const halfEnds = flat && lv === 0
+        for (let k = 0; k < count; k++) {
+          addNode(sg, base + (m0 + k * dm) * h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles)
+          if (work >= STEP_WORK) {
+            work = 0
+            yield
+          }
         }
       }
+      // Trapezoid at this level = old trapezoid / 2 + new nodes·h (weights above already carry h).
+      scaleInto(smoothSums, 0.5, lv > 0, fresh, withAngles)
+      flatPrev.copyFrom(flatSums)
+      scaleInto(flatSums, 0.5, lv > 0, freshFlat, withAngles)
+      // Combine: smooth part as is; flat part by Richardson (S = (4 T_h − T_2h)/3) from level 1 on.
+      prevResult.copyFrom(result)
+      combine(result, smoothSums, flatSums, hasFlat && lv > 0 ? flatPrev : null, anglesFrozen ? frozenAngles : null)
+      const figures = figuresOf(result, lambda2)
+      // Stop when this level changed every figure by less than the tolerance and this change and the one before
+      // add up to less than it. Where narrow resonances of weakly absorbing spheres are not resolved, the
+      // changes between levels are erratic and understate the error: a single small change, or two that
+      // happen to fall off geometrically, were each measured to stop the refinement early (errors up to 1e-3
+      // on a 1e-4 tolerance, for lossless narrow modes at a dozen nearby wavelengths); two changes that together
+      // stay under the tolerance did not.
+      if (lastFigures) {
+        const change = largestChange(lastFigures, figures)
+        if (converged(lastFigures, figures, opts.tolerance, !anglesFrozen) && change + lastChange < opts.tolerance) break
+        lastChange = change
+      }
+      // The angular sums (b, β̄, the phase function) are ratios over the same nodes, far less sensitive to the
+      // grid than the cross-sections: they stop at level ANGULAR_LEVELS (or earlier, with everything else).
+      if (!anglesFrozen && lv >= ANGULAR_LEVELS) {
+        anglesFrozen = true
+        frozenAngles.copyFrom(result)
+      }
+      lastFigures = figures
+      negligibleExt = 1e-10 * figures.ext
+      negligibleSca = 1e-8 * figures.sca
     }
-    // Trapezoid at this level = old trapezoid / 2 + new nodes·h (weights above already carry h).
-    scaleInto(smoothSums, 0.5, lv > 0, fresh, withAngles)
-    flatPrev.copyFrom(flatSums)
-    scaleInto(flatSums, 0.5, lv > 0, freshFlat, withAngles)
-    // Combine: smooth part as is; flat part by Richardson (S = (4 T_h − T_2h)/3) from level 1 on.
-    prevResult.copyFrom(result)
-    combine(result, smoothSums, flatSums, hasFlat && lv > 0 ? flatPrev : null, anglesFrozen ? frozenAngles : null)
-    const figures = figuresOf(result, lambda2)
-    // Stop when this level changed every figure by less than the tolerance and this change and the one before
-    // add up to less than it. Where narrow resonances of weakly absorbing spheres are not resolved, the
-    // changes between levels are erratic and understate the error: a single small change, or two that
-    // happen to fall off geometrically, were each measured to stop the refinement early (errors up to 1e-3
-    // on a 1e-4 tolerance, for lossless narrow modes at a dozen nearby wavelengths); two changes that together
-    // stay under the tolerance did not.
-    if (lastFigures) {
-      const change = largestChange(lastFigures, figures)
-      if (converged(lastFigures, figures, opts.tolerance, !anglesFrozen) && change + lastChange < opts.tolerance) break
-      lastChange = change
-    }
-    // The angular sums (b, β̄, the phase function) are ratios over the same nodes, far less sensitive to the
-    // grid than the cross-sections: they stop at level ANGULAR_LEVELS (or earlier, with everything else).
-    if (!anglesFrozen && lv >= ANGULAR_LEVELS) {
-      anglesFrozen = true
-      frozenAngles.copyFrom(result)
-    }
-    lastFigures = figures
-    negligibleExt = 1e-10 * figures.ext
-    negligibleSca = 1e-8 * figures.sca
+  } finally {
+    ws.nodes.grew(added)
   }
-  ws.nodes.grew(added)
   addInto(into, result)
   return { level: Math.min(lv, opts.maxLevel), converged: lv <= opts.maxLevel }
 }

@@ -121,6 +121,9 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
   return [{ label: 'measured bins', kind, bins, segments }]
 }
 
+/** The share of a mode's second moment the full computation leaves out (see modeSegment). */
+const FULL_TAIL = 1e-6
+
 /**
  * Beyond this size parameter Q_ext stays within about a fifth of 2 for n ≥ 1.33: by anomalous diffraction,
  * Q_ext = 2 − (4/ρ) sin ρ + (4/ρ²)(1 − cos ρ) with ρ = 2x(n − 1) (van de Hulst 1957, §11.22).
@@ -148,9 +151,6 @@ function modeSegment(mode: LognormalMode, longestWavelengthUm: number, tail: num
   const hi = Math.max(cut, Math.min(r2.max, large), Math.min(r6.max, small))
   return { lo: Math.log(r2.min), hi: Math.log(hi), flat: false, density: dNdlnDOfLnD(mode) }
 }
-
-/** The share of a mode's second moment the full computation leaves out (see modeSegment). */
-const FULL_TAIL = 1e-6
 
 const GAUSS2 = [0.5 - 0.5 / Math.sqrt(3), 0.5 + 0.5 / Math.sqrt(3)]
 

@@ -27,7 +27,11 @@ export async function drive<T>(steps: Generator<void, T>, current: () => boolean
     if (performance.now() - looked < SLICE_MS) continue
     await pause()
     looked = performance.now()
-    if (!current()) return undefined
+    if (!current()) {
+      // ends the generators (their finally blocks run: the size integration counts the nodes it cached)
+      steps.return(undefined as T)
+      return undefined
+    }
   }
 }
 

@@ -25,4 +25,18 @@ describe('stepped size integration', () => {
     for (const key of ['ext', 'sca', 'abs', 'g', 'backscatter', 'upscatterMean', 'evaluations', 'level'] as const) expect(stepped[key]).toBe(whole[key])
     expect(Array.from(stepped.phase!)).toEqual(Array.from(whole.phase!))
   })
+
+  it('given up half way (as a superseded job is), it leaves its nodes counted in the cache, and they serve the next computation', () => {
+    const ws = new OpticsWorkspace()
+    const steps = bulkOpticsSteps(pops, 0.35, cond, {}, ws)
+    for (let i = 0; i < 20; i++) steps.next()
+    const spent = ws.evaluations
+    expect(steps.return(undefined as never).done).toBe(true)
+    // every node evaluated so far is counted against the cache's bound
+    expect(ws.nodes.size).toBe(spent)
+    const warm = bulkOpticsAt(pops, 0.35, cond, {}, ws)
+    const cold = bulkOpticsAt(pops, 0.35, cond, {}, new OpticsWorkspace())
+    for (const key of ['ext', 'sca', 'abs', 'g', 'backscatter', 'upscatterMean'] as const) expect(Math.abs(warm[key] - cold[key])).toBeLessThanOrEqual(1e-11 * Math.abs(cold[key]))
+    expect(warm.evaluations).toBe(cold.evaluations - spent)
+  })
 })
