@@ -4,7 +4,7 @@
 // job or a cancel is a message it reads between steps of its work.
 import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
-import type { FromWorker, ToWorker } from './messages.ts'
+import { jobSteps, type FromWorker, type ToWorker } from './messages.ts'
 
 /** Changes that follow a run closer than this (ms) wait this long, so fast typing starts one job, not one a key. */
 const DEBOUNCE_MS = 30
@@ -127,7 +127,8 @@ function run(): void {
   const sizeItems: Extract<ToWorker, { type: 'sizes' }>['items'] = []
   study.samples.forEach((sample, i) => {
     const id = s.ids[i]
-    const key = JSON.stringify([sample, userMaterials])
+    // the dry curves (and their errors) depend on these alone: a humidity or layer edit leaves the plot as it is
+    const key = JSON.stringify([sample.name, sample.size, sample.composition, userMaterials])
     if (problemsOf(problems, i).some((p) => p.path.startsWith(`samples[${i}]`))) return
     if (id in s.sizes && sizeKeys.get(id) === key) return
     sizeKeys.set(id, key)
@@ -170,7 +171,7 @@ function run(): void {
       optics = null
     }
   }
-  store().set({ job: { running: true, done: 0, total: items.length } })
+  store().set({ job: { running: true, done: 0, total: jobSteps(items.length) } })
   optics.postMessage({ type: 'evaluate', job, items } satisfies ToWorker)
 }
 

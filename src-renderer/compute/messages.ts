@@ -22,6 +22,12 @@ export type FromWorker =
   /** The curves of every sample of one `sizes` request, in one message (one update of the screen). */
   | { type: 'sizes'; job: number; curves: Record<string, SizeCurves | { error: string }> }
 
+/**
+ * The steps an evaluation of `items` samples reports progress in: each sample's optics, then each one's f(RH)
+ * curve. The page shows the job's start with this total at once, so the worker's first report changes nothing.
+ */
+export const jobSteps = (items: number): number => 2 * items
+
 /** Relative accuracy of the quick first pass whose figures are shown while the full one (1e-4) runs. */
 export const PREVIEW_TOLERANCE = 1e-2
 /**

@@ -23,7 +23,7 @@ import {
   type WavelengthBulk
 } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
 import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
@@ -122,7 +122,7 @@ async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthC
 async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<void> {
   // Two passes: every sample's optics and forcing first (posted as partial results), then the f(RH) curves,
   // which cost one more integration per humidity and would otherwise hold the figures back.
-  const total = 2 * m.items.length
+  const total = jobSteps(m.items.length)
   const live = current(m.job)
   post({ type: 'progress', job: m.job, done: 0, total })
   const partial: (SampleResult | undefined)[] = []
