@@ -39,6 +39,7 @@ const initial: AppState = {
   results: {},
   sizes: {},
   job: { running: false, done: 0, total: 0 },
+  resultsLate: true,
   toast: null,
   notice: null,
   cautionsOpen: stored(FIRST_START_KEY) === null,

@@ -9,7 +9,12 @@ export interface ShownSample {
   index: number
   sample: Sample
   result?: SampleResult
-  /** The result shown is not from the current inputs (an edit is pending, running, or a field is bad). */
+  /** The result shown is from the current inputs (possibly the quick first pass). */
+  current: boolean
+  /**
+   * The result shown is marked as not from the current inputs: a field is bad, the computation failed or
+   * stopped, or its new figures have been waited for longer than a short grace (AppState.resultsLate).
+   */
   stale: boolean
   /** Why there is no up-to-date result. */
   error?: string
@@ -24,8 +29,9 @@ export function sampleState(s: AppState, id: string, position = 0): ShownSample 
   const r = s.results[id]
   const blocked =
     problemsOf(s.problems, i).length > 0 || Object.keys(s.drafts).some((p) => affectsOptics(p) && !p.startsWith('samples[') || p.startsWith(`samples[${i}]`))
-  const stale = !r?.result || blocked || r.key !== sampleKey(s.study, i) || !!r.error
-  return { id, index: i, sample: s.study.samples[i], result: r?.result, stale, error: r?.error, preview: !stale && !!r?.preview, style: lineStyle(position, s.theme) }
+  const current = !!r?.result && !blocked && r.key === sampleKey(s.study, i) && !r.error
+  const stale = !current && (!r?.result || blocked || !!r.error || s.resultsLate)
+  return { id, index: i, sample: s.study.samples[i], result: r?.result, current, stale, error: r?.error, preview: current && !!r?.preview, style: lineStyle(position, s.theme) }
 }
 
 /** The compared samples when 2 or more are marked, else the selected one. */

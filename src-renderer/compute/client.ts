@@ -8,11 +8,19 @@ import { jobSteps, type FromWorker, type ToWorker } from './messages.ts'
 
 /** Changes that follow a run closer than this (ms) wait this long, so fast typing starts one job, not one a key. */
 const DEBOUNCE_MS = 30
+/**
+ * Results that an edit has put out of date are marked stale only once they have been waited for this long (ms):
+ * most edits give their first figures sooner, and marking and unmarking the whole result area in between would
+ * only flicker (and take from the computation the time the browser spends drawing it). Bad inputs and failures
+ * are marked at once, and so is whatever a finished or stopped job left out of date.
+ */
+export const STALE_GRACE_MS = 250
 
 let optics: Worker | null = null
 let sizes: Worker | null = null
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
+let graceTimer: ReturnType<typeof setTimeout> | undefined
 let lastRun = -Infinity
 /** Numbers the scheduled runs: only the latest one runs. */
 let scheduled = 0
@@ -53,7 +61,8 @@ function opticsPatch(s: AppState, m: FromWorker): Partial<AppState> | null {
     const now = { running: m.done < m.total, done: m.done, total: m.total }
     return now.running !== s.job.running || now.done !== s.job.done || now.total !== s.job.total ? { job: now } : null
   }
-  if (m.type === 'finished') return { job: { ...s.job, running: false } }
+  // once the job is over, whatever it did not bring up to date is marked stale
+  if (m.type === 'finished') return { job: { ...s.job, running: false }, resultsLate: true }
   if (m.type === 'result') {
     const shown: ShownResult = m.preview ? { key: m.key, result: m.result, preview: true } : { key: m.key, result: m.result }
     // a partial result (a preview, or its f(RH) curve still to come) is shown but not kept for reuse
@@ -107,7 +116,7 @@ function showInbox(): void {
 export function cancel(): void {
   job++
   if (optics) optics.postMessage({ type: 'cancel', job } satisfies ToWorker)
-  store().set({ job: { running: false, done: 0, total: 0 } })
+  store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true })
 }
 
 function run(): void {
@@ -160,14 +169,14 @@ function run(): void {
   job++
   if (!items.length) {
     if (optics && s.job.running) optics.postMessage({ type: 'cancel', job } satisfies ToWorker)
-    store().set({ job: { running: false, done: 0, total: 0 } })
+    store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true })
     return
   }
   if (!optics) {
     optics = startWorker()
     optics.onmessage = (e: MessageEvent<FromWorker>) => receive(opticsPatch, e.data)
     optics.onerror = (e) => {
-      store().set({ job: { running: false, done: 0, total: 0 }, notice: { kind: 'error', title: 'The computation stopped', lines: [e.message] } })
+      store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true, notice: { kind: 'error', title: 'The computation stopped', lines: [e.message] } })
       optics = null
     }
   }
@@ -183,6 +192,10 @@ export function startComputing(): void {
     lastStudy = s.study
     lastDrafts = s.drafts
     clearTimeout(timer)
+    // the grace before results put out of date are marked stale starts again (set before the views draw the change)
+    clearTimeout(graceTimer)
+    if (s.resultsLate) store().set({ resultsLate: false })
+    graceTimer = setTimeout(() => store().get().resultsLate || store().set({ resultsLate: true }), STALE_GRACE_MS)
     // A lone edit runs at once, once the task that made it is done (so the change's other updates are in, and
     // the worker starts before the browser lays out and paints); one hard on the heels of a run waits.
     const token = ++scheduled

@@ -51,8 +51,12 @@ export interface AppState extends Snapshot {
   problems: StudyProblem[]
   results: Record<string, ShownResult>
   sizes: Record<string, SizeCurves | { error: string }>
-  /** The key of the inputs each sample's size curves are from. */
   job: { running: boolean; done: number; total: number }
+  /**
+   * Results not yet brought up to date by the computation are marked stale (false for a short grace after each
+   * change of the inputs, see STALE_GRACE_MS; bad inputs and failures are marked at once).
+   */
+  resultsLate: boolean
   toast: { text: string; undo: boolean } | null
   notice: { kind: 'error' | 'info'; title: string; lines: string[] } | null
   cautionsOpen: boolean

@@ -92,13 +92,13 @@ function SampleSection(p: { id: string; own: OwnComponentState[] }) {
         <p class="stale-note">No results: the inputs of this sample have problems.</p>
       ) : (
         <>
-          {x.stale && <p class="stale-note">These results are stale (from earlier inputs).</p>}
+          {!x.current && <p class="stale-note">These results are stale (from earlier inputs).</p>}
           {x.preview && <p class="stale-note">These figures are from the quick first pass (to about 1 % of σext); the full computation was still running when this report was made.</p>}
           <Verdict x={{ ...x, result: r }} />
           <div class="report-charts">
             <Chart name={`report-ext-${x.index}`} title="Extinction, scattering, absorption" data={[wl, r.optics.wavelengths.map((w) => w.ext), r.optics.wavelengths.map((w) => w.sca), r.optics.wavelengths.map((w) => w.abs)]} lines={specLines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
             <Chart name={`report-ssa-${x.index}`} title="ω and g" data={[wl, r.optics.wavelengths.map((w) => w.ssa), r.optics.wavelengths.map((w) => w.g)]} lines={[{ label: 'ω', ...lineStyle(0, s.theme) }, { label: 'g', ...lineStyle(1, s.theme) }]} xLabel="Wavelength (nm)" yLabel="" xLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
-            <ForcingMapChart ok={ok} theme={s.theme} stale={x.stale} height={190} />
+            <ForcingMapChart ok={ok} theme={s.theme} stale={!x.current} height={190} />
           </div>
           <WavelengthTable rows={r.optics.wavelengths} caption="Optics at each wavelength" />
           <MethodsTable ok={ok} />

@@ -62,7 +62,7 @@ export function Results() {
         aria-labelledby={`tab-${current.id}`}
         class="result-panel"
         tabIndex={0}
-        data-fresh={shownSamples(s).every((x) => x.result && !x.stale && !x.preview) ? 'true' : 'false'}
+        data-fresh={shownSamples(s).every((x) => x.current && !x.preview) ? 'true' : 'false'}
         data-preview={shownSamples(s).some((x) => x.preview) ? 'true' : 'false'}
         data-current={current.id}
       >
