@@ -3,7 +3,7 @@ export { upwardFraction, bulkOpticsAt, bulkOpticsSteps, OpticsWorkspace, UPSCATT
 export type { SizeSegment, Population, Conditions, IntegrationOptions, BulkOptics } from './integrate.ts'
 export { resolveComposition, resolveMaterial, dryIndicesAt, particleGrowth, wetParticle } from './particles.ts'
 export type { ParticleKind, DryIndices, WetParticle } from './particles.ts'
-export { computeSampleOptics, sampleOpticsSteps, sampleBulkSteps, assembleSampleOptics, finish, sizeDistributionCurves, samplePopulations, studyMaterials, modeFromSpec, extinctionAt, valueAt, DEFAULT_ANGLES_DEG } from './sample.ts'
+export { computeSampleOptics, sampleOpticsSteps, sampleBulkSteps, assembleSampleOptics, finish, sizeDistributionCurves, samplePopulations, studyMaterials, modeFromSpec, extinctionAt, valueAt, DEFAULT_ANGLES_DEG, phaseFunctionWavelengthNm } from './sample.ts'
 export type { SampleOpticsOptions, SizeDistributionCurves, WavelengthBulk } from './sample.ts'
 export { angstromExponent, angstromFitOf, angstromFit, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M } from './metrics.ts'
 export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, LAYER_TOP_PRESSURE_HPA } from './forcing.ts'

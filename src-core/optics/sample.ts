@@ -239,6 +239,11 @@ function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wa
   return { pops, cond }
 }
 
+/** The wavelength whose phase function and polarisation are computed unless others are asked for: 550 nm if the study has it, else its first. */
+export function phaseFunctionWavelengthNm(wavelengthsNm: readonly number[]): number {
+  return wavelengthsNm.includes(550) ? 550 : wavelengthsNm[0]
+}
+
 /**
  * The size integration of a sample at its study's wavelengths, or at `only` (a share of them, for a computation
  * split across workers): one WavelengthBulk per wavelength, pausing every few milliseconds of work.
@@ -252,7 +257,7 @@ export function* sampleBulkSteps(
   const { pops, cond } = sampleSetting(sample, study, options, own)
   const wavelengths = study.wavelengths_nm
   const ws = options.workspace ?? new OpticsWorkspace()
-  const angularAt = options.angularWavelengthsNm ?? [wavelengths.includes(550) ? 550 : wavelengths[0]]
+  const angularAt = options.angularWavelengthsNm ?? [phaseFunctionWavelengthNm(wavelengths)]
   const angles = options.anglesDeg ?? DEFAULT_ANGLES_DEG
   const out: WavelengthBulk[] = []
   for (const wl of options.only ?? wavelengths) {

@@ -3,7 +3,8 @@ import { describe, expect, it } from 'vitest'
 import { wavelengthShares } from '../../src-renderer/compute/steps.ts'
 
 const demo = [350, 400, 450, 500, 550, 600, 700, 800, 1000, 1250, 1600, 2000, 2500]
-const load = (share: number[]) => share.reduce((a, wl) => a + 1 / (wl * wl), 0)
+// the estimated cost the shares balance: λ⁻², twice that for the wavelength that also carries the phase function (550 nm)
+const load = (share: number[]) => share.reduce((a, wl) => a + (wl === 550 ? 2 : 1) / (wl * wl), 0)
 
 describe('wavelength shares', () => {
   for (const threads of [1, 2, 3, 4]) {
