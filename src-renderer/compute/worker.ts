@@ -65,6 +65,12 @@ function sizeCurves(sample: Sample, users: UserMaterialSpec[]): SizeCurves {
   return sizeDistributionCurves(sample, { user_materials: users, wavelengths_nm: [550] })
 }
 
+/**
+ * After posting quick figures this worker starts its own share of the full pass this much later (ms), leaving a
+ * processor to the page to draw them (the helpers start theirs at once).
+ */
+const DISPLAY_HOLD_MS = 20
+
 /** True while `job` is the newest. */
 const current = (job: number) => () => job === newest
 
@@ -93,11 +99,12 @@ async function together<T>(mine: Generator<void, T>, theirs: Promise<T | null>[]
 }
 
 /** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
-async function sampleOptics(study: Study, quick: boolean, job: number): Promise<SampleOptics | undefined> {
+async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0): Promise<SampleOptics | undefined> {
   const workers = helperWorkers()
   const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
   const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
+  if (holdMs > 0) await new Promise((resolve) => setTimeout(resolve, holdMs))
   const parts = await together(sampleBulkSteps(study.samples[0], study, { only: shares[0], ...grid, workspace }), theirs, job)
   if (!parts) return undefined
   return assembleSampleOptics(study.samples[0], study, [...parts.mine, ...parts.theirs.flat()])
@@ -139,9 +146,12 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
       }
       const wait = started + PREVIEW_WORTH_MS - performance.now()
       let timer: ReturnType<typeof setTimeout> | undefined
-      if (wait <= 0) showQuick()
-      else timer = setTimeout(showQuick, wait)
-      const optics = await sampleOptics(item.study, false, m.job).finally(() => clearTimeout(timer))
+      let hold = 0
+      if (wait <= 0) {
+        showQuick()
+        hold = DISPLAY_HOLD_MS
+      } else timer = setTimeout(showQuick, wait)
+      const optics = await sampleOptics(item.study, false, m.job, hold).finally(() => clearTimeout(timer))
       const r = optics && sampleResultFromOptics(item.study, optics)
       if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
       partial.push(r)
