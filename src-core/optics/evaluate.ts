@@ -41,6 +41,17 @@ export function* humidityCurveSteps(study: Study, index: number, ws = new Optics
 }
 
 /**
+ * What the f(RH) curve of sample `index` depends on, as a string: the sample's size distribution, composition,
+ * humidity branch and temperature, and the study's own materials. Not its humidity (the curve covers
+ * HUMIDITY_CURVE_RH whatever it is), layer or name, nor the site or the study's wavelengths (the curve is at
+ * 550 nm): equal keys give equal curves, so a humidity or layer edit can keep the curve it has.
+ */
+export function humidityCurveKey(study: Study, index: number): string {
+  const s = study.samples[index]
+  return JSON.stringify([s.size, s.composition, s.rh_history, s.temperature_k ?? null, study.user_materials ?? []])
+}
+
+/**
  * σsca at 550 nm at each of `humidities` (%) on the sample's humidity branch, the points of its f(RH) curve (a
  * computation split across workers asks each for some of them), pausing every few milliseconds of work.
  */

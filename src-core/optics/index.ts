@@ -7,7 +7,7 @@ export { computeSampleOptics, sampleOpticsSteps, sampleBulkSteps, assembleSample
 export type { SampleOpticsOptions, SizeDistributionCurves, WavelengthBulk } from './sample.ts'
 export { angstromExponent, angstromFitOf, angstromFit, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M } from './metrics.ts'
 export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, LAYER_TOP_PRESSURE_HPA } from './forcing.ts'
-export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
+export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityCurveKey, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'
 export { binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
 export type { BinKernels, BinnedRow, BinLayout } from './binKernels.ts'

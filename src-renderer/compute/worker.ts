@@ -9,6 +9,7 @@ import {
   assembleSampleOptics,
   HUMIDITY_CURVE_RH,
   humidityCurveFrom,
+  humidityCurveKey,
   humidityScatteringSteps,
   OpticsWorkspace,
   sampleBulkSteps,
@@ -126,14 +127,30 @@ async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthC
   return humidityCurveFrom(HUMIDITY_CURVE_RH.map((_, i) => all[i % threads][Math.floor(i / threads)]))
 }
 
+/** f(RH) curves by the inputs they depend on (humidityCurveKey), the most recently used last. */
+const curves = new Map<string, HumidityGrowthCurve>()
+/** Curves kept: each is a dozen numbers, and one costs one 550 nm integration per humidity to work out again. */
+const CURVES_KEPT = 64
+
+function keepCurve(key: string, curve: HumidityGrowthCurve): void {
+  curves.delete(key)
+  curves.set(key, curve)
+  if (curves.size > CURVES_KEPT) curves.delete(curves.keys().next().value!)
+}
+
 async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<void> {
   // Two passes: every sample's optics and forcing first (posted as partial results), then the f(RH) curves,
-  // which cost one more integration per humidity and would otherwise hold the figures back.
+  // which cost one more integration per humidity and would otherwise hold the figures back. A curve already
+  // worked out for the same inputs (a humidity, layer or site edit leaves it as it is) goes with the figures.
   const total = jobSteps(m.items.length)
   const live = current(m.job)
   post({ type: 'progress', job: m.job, done: 0, total })
   const partial: (SampleResult | undefined)[] = []
   for (const [i, item] of m.items.entries()) {
+    const curveKey = humidityCurveKey(item.study, 0)
+    const known = curves.get(curveKey)
+    if (known) keepCurve(curveKey, known)
+    const withCurve = (r: SampleResult): SampleResult => (known ? { ...r, humidity: known } : r)
     try {
       // a quick pass first; its nodes are kept, so the full pass costs only what it adds
       const started = performance.now()
@@ -142,7 +159,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
       // Shown if the full figures are not there PREVIEW_WORTH_MS after the start (the timer runs while the full
       // pass pauses between its steps); their forcing is worked out only then.
       const showQuick = () => {
-        if (quick && live()) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: sampleResultFromOptics(item.study, quick), partial: true, preview: true })
+        if (quick && live()) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: withCurve(sampleResultFromOptics(item.study, quick)), partial: true, preview: true })
       }
       const wait = started + PREVIEW_WORTH_MS - performance.now()
       let timer: ReturnType<typeof setTimeout> | undefined
@@ -153,8 +170,8 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
       } else timer = setTimeout(showQuick, wait)
       const optics = await sampleOptics(item.study, false, m.job, hold).finally(() => clearTimeout(timer))
       const r = optics && sampleResultFromOptics(item.study, optics)
-      if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: r, partial: true })
-      partial.push(r)
+      if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: withCurve(r), partial: !known })
+      partial.push(known ? undefined : r)
     } catch (err) {
       if (!live()) return
       post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })
@@ -169,6 +186,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
       try {
         const humidity = await humidityCurve(item.study, m.job)
         if (!live() || !humidity) return
+        keepCurve(humidityCurveKey(item.study, 0), humidity)
         post({ type: 'result', job: m.job, id: item.id, key: item.key, result: { ...r, humidity } })
       } catch (err) {
         post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })

@@ -8,6 +8,7 @@ import {
   finish,
   HUMIDITY_CURVE_RH,
   humidityCurveFrom,
+  humidityCurveKey,
   humidityGrowthCurve,
   humidityScatteringSteps,
   OpticsWorkspace,
@@ -53,5 +54,34 @@ describe('an f(RH) curve split by humidity', () => {
     expect(split.f[0]).toBe(1)
     for (let k = 1; k < split.f.length; k++) expect(split.f[k]).toBeGreaterThanOrEqual(split.f[k - 1] - 2e-3)
     expect(split.f[split.f.length - 1]).toBeGreaterThan(1.5)
+  })
+})
+
+describe('the inputs of an f(RH) curve', () => {
+  // humidityCurveKey tells the app's worker when a curve it has worked out still holds; checked here against the
+  // computation itself, not against the list of fields the key is made of.
+  const study = demoStudy()
+  const i = study.samples.findIndex((s) => s.name.startsWith('Humid'))
+  const base = study.samples[i]
+  const withSample = (sample: typeof base, patch: Partial<typeof study> = {}) => ({ ...study, ...patch, samples: study.samples.map((s, k) => (k === i ? sample : s)) })
+  const whole = humidityGrowthCurve(study, i)
+
+  it('a change of humidity, layer, name, site or wavelengths keeps the key, and the curve is the same', () => {
+    const edited = withSample(
+      { ...base, name: 'renamed', rh_percent: base.rh_percent - 17, layer: { kind: 'depth', depth_m: 321 } },
+      { wavelengths_nm: [450, 700], site: { ...study.site, latitude_deg: study.site.latitude_deg - 20 } }
+    )
+    expect(humidityCurveKey(edited, i)).toBe(humidityCurveKey(study, i))
+    expect(humidityGrowthCurve(edited, i)).toEqual(whole)
+  })
+
+  it('a change of humidity branch or of the size distribution changes the key, and the curve', () => {
+    // the salts of this sample effloresce and deliquesce at different humidities (hysteresis), so the branch matters
+    const branch = withSample({ ...base, rh_history: base.rh_history === 'rising' ? 'falling' : 'rising' })
+    expect(humidityCurveKey(branch, i)).not.toBe(humidityCurveKey(study, i))
+    expect(humidityGrowthCurve(branch, i).f).not.toEqual(whole.f)
+    if (base.size.kind !== 'modes') throw new Error('the demo sample is given by modes')
+    const wider = withSample({ ...base, size: { ...base.size, modes: base.size.modes.map((m) => ({ ...m, gsd: m.gsd + 0.2 })) } })
+    expect(humidityCurveKey(wider, i)).not.toBe(humidityCurveKey(study, i))
   })
 })
