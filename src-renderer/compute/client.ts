@@ -64,7 +64,7 @@ function opticsPatch(s: AppState, m: FromWorker): Partial<AppState> | null {
   // once the job is over, whatever it did not bring up to date is marked stale
   if (m.type === 'finished') return { job: { ...s.job, running: false }, resultsLate: true }
   if (m.type === 'result') {
-    const shown: ShownResult = m.preview ? { key: m.key, result: m.result, preview: true } : { key: m.key, result: m.result }
+    const shown: ShownResult = m.preview ? { key: m.key, result: m.result, preview: true, partial: true } : m.partial ? { key: m.key, result: m.result, partial: true } : { key: m.key, result: m.result }
     // a partial result (a preview, or its f(RH) curve still to come) is shown but not kept for reuse
     if (!m.partial) cache.set(m.key, shown)
     return { results: { ...s.results, [m.id]: shown } }
@@ -157,7 +157,8 @@ function run(): void {
       results[id] = hit.result ? hit : { key: results[id]?.key ?? '', result: results[id]?.result, error: hit.error }
       return
     }
-    if (results[id]?.key === key) return
+    // done already; a quick or partial result is computed again (a newer job stops the one that was refining it)
+    if (results[id]?.key === key && !results[id].partial) return
     items.push({ id, key, study: { ...study, samples: [sample] } })
   })
   store().set({ results })

@@ -19,8 +19,10 @@ export interface ShownResult {
   result?: SampleResult
   /** Why the newest inputs gave no result (the older result, if any, stays and is marked stale). */
   error?: string
-  /** The figures are from the quick first pass; the full computation is still running. */
+  /** The figures are from the quick first pass; the full computation is still running (or was stopped). */
   preview?: boolean
+  /** The full figures, their f(RH) curve still to come (or stopped before it came). */
+  partial?: boolean
 }
 
 /** Size-distribution curves of one sample, for the plot. */

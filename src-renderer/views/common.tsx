@@ -1,9 +1,11 @@
 // Pieces the result views share.
 import { PREVIEW_TOLERANCE } from '../compute/messages.ts'
 import type { ShownSample } from '../shown.ts'
+import { useApp } from '../state/store.ts'
 
 /** Says when results on screen are not from the current inputs, and why. */
 export function StaleNote(p: { shown: ShownSample[] }) {
+  const running = useApp().job.running
   const stale = p.shown.filter((x) => x.stale && x.result)
   const missing = p.shown.filter((x) => !x.result)
   const preview = p.shown.filter((x) => x.preview)
@@ -12,8 +14,9 @@ export function StaleNote(p: { shown: ShownSample[] }) {
     return (
       <div class="preview-note" role="status" data-testid="preview-note">
         <p>
-          <strong>Refining:</strong> the figures of {preview.map((x) => `“${x.sample.name}”`).join(', ')} are from a quick first pass (to about
-          {' '}{PREVIEW_TOLERANCE * 100} % of σext, so a small σabs may be further off); the full computation is running and replaces them.
+          <strong>{running ? 'Refining:' : 'Quick figures:'}</strong> the figures of {preview.map((x) => `“${x.sample.name}”`).join(', ')} are from a quick first pass (to about
+          {' '}{PREVIEW_TOLERANCE * 100} % of σext, so a small σabs may be further off);{' '}
+          {running ? 'the full computation is running and replaces them.' : 'the full computation was stopped: the next edit starts it again.'}
         </p>
       </div>
     )

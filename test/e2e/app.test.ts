@@ -243,6 +243,27 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(Math.abs(quick - full) / full).toBeLessThan(0.01)
   })
 
+  test('a refinement stopped by the user keeps the quick figures, says so, and the next edit finishes it', async () => {
+    const page = await openApp()
+    await page.locator('.sample-item[data-sample="Coastal haze day"] button.sample-name').click()
+    await waitForResults(page)
+    const index = await page.locator('.sample-item').evaluateAll((els) => els.findIndex((e) => (e as HTMLElement).dataset.sample === 'Coastal haze day'))
+    // the coastal sample's full pass after a humidity change takes over a second: time to stop it
+    await page.locator(`[data-path="samples[${index}].rh_percent"]`).fill('77')
+    await page.locator('#result-panel[data-preview="true"]').waitFor({ timeout: 60_000 })
+    await page.locator('[data-status="busy"] button', { hasText: 'Stop' }).click()
+    await expect.poll(() => page.getByTestId('preview-note').textContent()).toMatch(/was stopped/)
+    expect(await page.locator('[data-status="busy"]').count()).toBe(0)
+    expect(await page.locator('#result-panel').getAttribute('data-fresh')).toBe('false')
+    // an edit of another sample starts a job that also finishes this one
+    await page.locator('.sample-item').first().locator('button.sample-name').click()
+    await page.locator('[data-path="samples[0].rh_percent"]').fill('61')
+    await waitForResults(page)
+    await page.locator('.sample-item[data-sample="Coastal haze day"] button.sample-name').click()
+    await waitForResults(page)
+    expect(await page.getByTestId('preview-note').count()).toBe(0)
+  })
+
   test('the verdict flips when ω is pushed below ω_crit (more black carbon)', async () => {
     const page = await openApp()
     await page.locator('[data-tab="climate"]').click()
