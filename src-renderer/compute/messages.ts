@@ -55,8 +55,16 @@ export type FromShareWorker =
   | { type: 'humidity'; request: number; sca: number[] | null }
   | { type: 'share-failed'; request: number; message: string }
 
+/** The computing workers: the optics worker and one helper per further processor, at most three. */
+export const COMPUTE_THREADS = 1 + Math.max(0, Math.min(3, ((typeof navigator === 'undefined' ? 1 : navigator.hardwareConcurrency) || 1) - 1))
+
 /**
- * Nodes each computing worker keeps (src-core's node cache, about 270 bytes a node measured in Node 20: some
- * 40 MB a worker). The demo study with its f(RH) curves needs about 270 000 in all, shared among the workers.
+ * Nodes the computing workers keep in all (src-core's node cache), shared equally among them: each worker
+ * computes a fixed share of the wavelengths, so each needs its share of the nodes. The demo study with its f(RH)
+ * curves makes 263 000 nodes; after a humidity edit the coastal sample alone makes 130 000 more, so with room for
+ * 150 000 a worker (two workers, as before) the nodes of the samples not being edited were soon dropped and a
+ * later edit of their amounts had to compute them again. Measured in Node 20: 150 bytes of typed arrays a node
+ * (263 000 nodes in 39 MB), so this is about 90 MB in all.
  */
-export const NODE_CACHE_LIMIT = 150_000
+const NODE_CACHE_TOTAL = 600_000
+export const NODE_CACHE_LIMIT = Math.round(NODE_CACHE_TOTAL / COMPUTE_THREADS)

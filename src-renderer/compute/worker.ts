@@ -24,7 +24,7 @@ import {
   type WavelengthBulk
 } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { COMPUTE_THREADS, jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
 import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
@@ -32,7 +32,7 @@ const workspace = new OpticsWorkspace(NODE_CACHE_LIMIT)
 /** The newest job asked for; a running job that is not it stops at its next step. */
 let newest = -1
 
-const helperCount = Math.max(0, Math.min(3, (navigator.hardwareConcurrency || 1) - 1))
+const helperCount = COMPUTE_THREADS - 1
 let helpers: Worker[] | null = null
 let request = 0
 const waiting = new Map<number, { resolve: (answer: unknown) => void; reject: (e: Error) => void }>()
