@@ -1,12 +1,14 @@
 /**
  * Line colours and dashes for samples and quantities. The hues are the colour-blind-safe set proposed by
  * Okabe & Ito (2008), darkened or lightened per theme for contrast; every line also has its own dash, so
- * lines stay apart in grey print and for any colour vision.
+ * lines stay apart in grey print and for any colour vision. On the light panel the set's black stands in for its
+ * orange: darkened enough for contrast on white, that orange could not be told from the vermilion in simulated
+ * deuteranopia (ΔE*ab 3.3). test/renderer/palette.test.ts checks contrast and separation for each theme.
  */
 export type Theme = 'light' | 'dark'
 
 const HUES: Record<Theme, string[]> = {
-  light: ['#0060a0', '#c24e00', '#007a5a', '#a8447f', '#9a6b00', '#3b8fc4'],
+  light: ['#0060a0', '#c24e00', '#007a5a', '#a8447f', '#2b2b2b', '#3b8fc4'],
   dark: ['#56b4e9', '#ef7a2e', '#2ec496', '#e08fc0', '#f0c030', '#9fd3f5']
 }
 
