@@ -295,6 +295,80 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     await expect.poll(() => page.getByTestId('verdict').getAttribute('data-verdict'), { timeout: 60_000 }).toBe('too close to call')
   })
 
+  test('by keyboard alone: choose, reorder, add, duplicate, delete and undo samples, mark two to compare, edit a value, switch views', async () => {
+    const page = await openApp()
+    const names = () => page.locator('.sample-item').evaluateAll((li) => li.map((x) => x.getAttribute('data-sample')))
+    const selected = () => page.locator('.sample-item.is-selected').getAttribute('data-sample')
+    /** Moves the focus with Tab (Shift+Tab when `back`) until it is on an element matching `selector`. */
+    const tabTo = async (selector: string, back = false) => {
+      for (let i = 0; i < 300; i++) {
+        if (await page.evaluate((sel) => document.activeElement?.matches(sel) ?? false, selector)) return
+        await page.keyboard.press(back ? 'Shift+Tab' : 'Tab')
+      }
+      throw new Error(`Tab never reached ${selector}`)
+    }
+    const first = await names()
+    expect(first.length).toBe(5)
+
+    // choose the third sample; the focus ring is drawn where the focus is
+    await tabTo(`.sample-item[data-sample="${first[2]}"] button.sample-name`)
+    expect(await page.evaluate(() => getComputedStyle(document.activeElement!).outlineStyle)).toBe('solid')
+    await page.keyboard.press('Enter')
+    expect(await selected()).toBe(first[2])
+    // Alt+↓ moves it down one place; Ctrl+Z (outside a text field) puts it back
+    await page.keyboard.press('Alt+ArrowDown')
+    expect(await names()).toEqual([first[0], first[1], first[3], first[2], first[4]])
+    await page.keyboard.press('Control+z')
+    expect(await names()).toEqual(first)
+
+    // add, then duplicate the new sample, then delete the copy and undo the deletion from the message
+    await tabTo('[data-testid="add-sample"]')
+    await page.keyboard.press('Enter')
+    expect((await names()).length).toBe(6)
+    const added = await selected()
+    await tabTo('[data-testid="duplicate-sample"]')
+    await page.keyboard.press('Enter')
+    expect(await selected()).toBe(`${added} (copy)`)
+    expect((await names()).length).toBe(7)
+    await tabTo('[data-testid="delete-sample"]')
+    await page.keyboard.press('Enter')
+    expect(await names()).toEqual([...first, added])
+    await tabTo('[data-testid="toast-undo"]')
+    await page.keyboard.press('Enter')
+    expect(await names()).toEqual([...first, added, `${added} (copy)`])
+
+    // rename the selected sample by typing in its name field
+    await tabTo('[data-testid="sample-name"]')
+    await page.keyboard.press('Control+a')
+    await page.keyboard.type('Typed name')
+    await expect.poll(() => selected()).toBe('Typed name')
+
+    // a value typed with its unit in a mode's field changes the figures
+    await tabTo(`.sample-item[data-sample="${first[0]}"] button.sample-name`, true)
+    await page.keyboard.press('Enter')
+    await page.keyboard.press('Alt+1')
+    await waitForResults(page)
+    const before = await sigmaExt550(page)
+    await tabTo('[data-path="samples[0].size.modes[1].median_um"]')
+    await page.keyboard.press('Control+a')
+    await page.keyboard.type('200 nm')
+    await expect.poll(() => sigmaExt550(page), { timeout: 60_000 }).toBeGreaterThan(before)
+    // mark the first two samples with Space and switch to the side-by-side view with Alt+5
+    await tabTo(`.sample-item[data-sample="${first[0]}"] [data-testid="compare-toggle"]`, true)
+    await page.keyboard.press('Space')
+    await tabTo(`.sample-item[data-sample="${first[1]}"] [data-testid="compare-toggle"]`)
+    await page.keyboard.press('Space')
+    expect(await page.locator('.sample-item input:checked').count()).toBe(2)
+    expect(await page.locator('[data-tab="compare"]').textContent()).toMatch(/\(2\)/)
+    await page.keyboard.press('Alt+5')
+    expect(await page.locator('#result-panel').getAttribute('data-current')).toBe('compare')
+    // the arrow keys move between the result views once a tab has the focus
+    await tabTo('[role="tab"][aria-selected="true"]')
+    await page.keyboard.press('ArrowLeft')
+    expect(await page.locator('#result-panel').getAttribute('data-current')).toBe('climate')
+
+  })
+
   test('no request leaves the machine', () => {
     expect(requests.length).toBeGreaterThan(0)
     expect(requests.filter((u) => !isLocal(u))).toEqual([])
