@@ -157,6 +157,13 @@ export function chartPng(u: uPlot, title: string, lines: Line[]): string {
   return out.toDataURL('image/png')
 }
 
+/** What the chart plots, in words, for screen readers (the axes are drawn on the canvas). */
+function axesInWords(p: ChartProps): string {
+  const scale = (log?: boolean) => (log ? ' (log scale)' : '')
+  const lines = p.lines.map((l) => l.label).join('; ')
+  return `${p.yLabel}${scale(p.yLog)}${p.y2Label ? ` and ${p.y2Label}` : ''} against ${p.xLabel}${scale(p.xLog)}${lines ? `. Lines: ${lines}` : ''}.`
+}
+
 export function Chart(p: ChartProps) {
   const box = useRef<HTMLDivElement>(null)
   const plot = useRef<uPlot | null>(null)
@@ -205,7 +212,7 @@ export function Chart(p: ChartProps) {
   }
 
   return (
-    <figure class={`chart${p.stale ? ' is-stale' : ''}`} data-chart={p.name}>
+    <figure class={`chart${p.stale ? ' is-stale' : ''}`} data-chart={p.name} data-y-scale={p.yLog ? 'log' : 'linear'}>
       <figcaption>
         <span class="chart-title">{p.title}</span>
         {p.stale && <span class="stale-tag">stale</span>}
@@ -213,6 +220,7 @@ export function Chart(p: ChartProps) {
           PNG
         </button>
       </figcaption>
+      <p class="sr-only" data-chart-axes>{axesInWords(p)}</p>
       <div class="chart-box" ref={box} />
     </figure>
   )

@@ -103,7 +103,7 @@ export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample[
         </div>
         <div>
           <dt>Sign flips at surface albedo</dt>
-          <dd>{f.flip_surface_albedo === null ? 'never (0–1)' : fixed(f.flip_surface_albedo, 3)}</dd>
+          <dd data-testid="flip-albedo">{f.flip_surface_albedo === null ? 'never (0–1)' : fixed(f.flip_surface_albedo, 3)}</dd>
         </div>
         <div>
           <dt>τ₅₅₀, surface albedo</dt>

@@ -369,6 +369,56 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
 
   })
 
+  test('the size plot, scattering angles, f(RH) and climate views show what they say they show', async () => {
+    const page = await openApp()
+    const axes = (chart: string) => page.locator(`[data-chart="${chart}"] [data-chart-axes]`).textContent()
+
+    // the size distribution as number, then as volume: the axis and the drawing change
+    expect(await axes('size-distribution')).toMatch(/^dN\/dlogDp .* against Dry diameter Dp \(µm\) \(log scale\)/)
+    const numberPicture = await page.locator('[data-chart="size-distribution"] canvas').first().screenshot()
+    await page.locator('input[name="size-moment"]').nth(2).check()
+    await expect.poll(() => axes('size-distribution')).toMatch(/^dV\/dlogDp/)
+    await expect.poll(async () => (await page.locator('[data-chart="size-distribution"] canvas').first().screenshot()).equals(numberPicture)).toBe(false)
+
+    // scattering angles: the phase function on a log scale and the polarisation, both over 0–180°
+    await page.locator('[data-tab="angles"]').click()
+    expect(await page.locator('[data-chart="phase-function"]').getAttribute('data-y-scale')).toBe('log')
+    expect(await axes('phase-function')).toMatch(/P\(θ\).*\(log scale\) against Scattering angle/)
+    expect(await page.locator('[data-chart="polarisation"]').getAttribute('data-y-scale')).toBe('linear')
+    expect(await axes('polarisation')).toMatch(/S₁₂\/S₁₁ .* against Scattering angle/)
+
+    // f(RH): water uptake raises the scattering of the humid sulfate–nitrate sample at 85 % RH well above the dry
+    // value (f(85 %) of ammonium sulfate about 1.5–2.5, common practice)
+    await page.locator('.sample-item[data-sample="Humid sulfate–nitrate episode"] button.sample-name').click()
+    await page.locator('[data-tab="humidity"]').click()
+    const f85 = page.locator('[data-view="humidity"] tbody tr td').nth(3)
+    await f85.waitFor({ timeout: 60_000 })
+    expect(Number(((await f85.textContent()) ?? '').split(' ')[0])).toBeGreaterThan(1.2)
+    expect(await axes('f-rh')).toMatch(/against Relative humidity/)
+
+    // climate: the thin-layer forcing changes sign at the stated surface albedo (Chylek & Wong 1995, GRL 22, 929):
+    // over a surface darker than that the layer of wood smoke cools, over a brighter one it warms
+    await page.locator('.sample-item[data-sample="Winter wood smoke"] button.sample-name').click()
+    await page.locator('[data-tab="climate"]').click()
+    await waitForResults(page)
+    const flip = Number(await page.getByTestId('flip-albedo').textContent())
+    expect(flip).toBeGreaterThan(0.05)
+    expect(flip).toBeLessThan(0.85)
+    await page.getByTestId('surface').selectOption('custom')
+    const albedo = page.locator('[data-path="site.surface_albedo"]')
+    for (const [value, verdict] of [[Math.max(0, flip - 0.2), 'cools'], [Math.min(1, flip + 0.15), 'warms']] as const) {
+      await albedo.fill(value.toFixed(3))
+      await expect.poll(() => page.getByTestId('verdict').getAttribute('data-verdict'), { timeout: 60_000 }).toBe(verdict)
+      // the sign flips at the same albedo whatever the surface
+      expect(Math.abs(Number(await page.getByTestId('flip-albedo').textContent()) - flip)).toBeLessThan(0.002)
+    }
+    // the thin-layer and two-stream estimates side by side, one column for the sample
+    const methods = page.getByTestId('methods-table')
+    expect(await methods.locator('tbody tr').count()).toBe(6)
+    expect(await methods.textContent()).toMatch(/Chylek & Wong.*Two-stream/s)
+    expect(await axes('forcing-map')).toMatch(/Single-scattering albedo ω against Surface albedo Rs.*zero line/)
+  })
+
   test('no request leaves the machine', () => {
     expect(requests.length).toBeGreaterThan(0)
     expect(requests.filter((u) => !isLocal(u))).toEqual([])
