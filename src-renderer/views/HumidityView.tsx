@@ -12,6 +12,7 @@ export function HumidityView() {
   const shown = shownSamples(s)
   // a result whose f(RH) curve is still being computed (a partial result) has no points yet
   const ok = withResults(shown).filter((x) => x.result.humidity.f.length > 0)
+  const pending = withResults(shown).filter((x) => x.result.humidity.f.length === 0)
   const stale = shown.some((x) => x.stale)
   const chart = useMemo(() => {
     if (!ok.length) return null
@@ -39,6 +40,11 @@ export function HumidityView() {
   return (
     <div class="view" data-view="humidity">
       <StaleNote shown={shown} />
+      {chart && pending.length > 0 && (
+        <p class="help" data-testid="f-rh-pending">
+          No f(RH) curve yet for {pending.map((x) => x.sample.name).join(', ')}.
+        </p>
+      )}
       {chart ? (
         <>
           <Chart name="f-rh" title={`Humidity growth of scattering f(RH) at ${chart.nm} nm`} data={chart.data} lines={chart.lines} xLabel="Relative humidity (%)" yLabel="f(RH) = σsca(RH)/σsca(dry)" xRange={[0, 100]} theme={s.theme} stale={stale} height={320} drawOver={chart.drawOver} />

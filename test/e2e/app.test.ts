@@ -219,6 +219,15 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     expect(await legend.textContent()).toContain('Winter wood smoke')
     expect(await legend.textContent()).toContain('Coastal haze day')
     expect(await page.locator('[data-chart="ssa-spectrum"] .u-legend .u-series').count()).toBe(2)
+    // every chart of every result view, and the size plot, draws both samples
+    for (const view of ['optics', 'angles', 'humidity', 'climate']) {
+      await page.locator(`[data-tab="${view}"]`).click()
+      await page.locator(`[data-view="${view}"] [data-chart]`).first().waitFor({ timeout: 60_000 })
+      const words = page.locator('[data-chart] [data-chart-axes]')
+      expect(await words.count()).toBeGreaterThanOrEqual(view === 'optics' ? 4 : 2)
+      // (a sample's f(RH) curve may still be coming: the view names it until it does)
+      await expect.poll(async () => (await words.allTextContents()).every((w) => /Winter wood smoke.*Coastal haze day/.test(w)), { timeout: 60_000 }).toBe(true)
+    }
     await page.locator('[data-tab="compare"]').click()
     const heads = page.locator('[data-testid="compare-table"] thead th[data-sample]')
     expect(await heads.count()).toBe(2)
