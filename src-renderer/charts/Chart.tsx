@@ -121,6 +121,32 @@ function options(p: ChartProps, width: number, el: Element, current: () => Chart
   }
 }
 
+const SVG_NS = 'http://www.w3.org/2000/svg'
+
+/**
+ * uPlot marks each line in its legend with a small box in the line's colour; this draws the line's own dash there
+ * instead, as the PNG legend and the sample list do, so the legend reads without telling colours apart.
+ */
+function legendDashes(root: HTMLElement, lines: Line[]): void {
+  const markers = root.querySelectorAll<HTMLElement>('.u-legend .u-series .u-marker')
+  const first = markers.length - lines.length // the x series' row, when uPlot lists it
+  lines.forEach((l, i) => {
+    const marker = markers[first + i]
+    if (!marker || l.bars || l.points) return
+    const svg = document.createElementNS(SVG_NS, 'svg')
+    svg.setAttribute('width', '26')
+    svg.setAttribute('height', '6')
+    svg.setAttribute('aria-hidden', 'true')
+    const line = document.createElementNS(SVG_NS, 'line')
+    for (const [k, v] of [['x1', '0'], ['y1', '3'], ['x2', '26'], ['y2', '3'], ['stroke', l.stroke], ['stroke-width', '2.5'], ['stroke-dasharray', (l.dash ?? []).join(' ')]]) line.setAttribute(k, v)
+    svg.appendChild(line)
+    marker.style.border = 'none'
+    marker.style.background = 'none'
+    marker.classList.add('dash-mark')
+    marker.replaceChildren(svg)
+  })
+}
+
 /** The chart's picture as PNG: theme background, title, plot and a legend written below. */
 export function chartPng(u: uPlot, title: string, lines: Line[]): string {
   const src = u.ctx.canvas
@@ -180,6 +206,7 @@ export function Chart(p: ChartProps) {
     const width = Math.max(240, el.clientWidth)
     const now = props.current
     const u = new uPlot(options(now, width, el, () => props.current), now.data as uPlot.AlignedData, el)
+    legendDashes(u.root, now.lines)
     plot.current = u
     shown.current = { data: now.data, drawUnder: now.drawUnder, drawOver: now.drawOver }
     const ro = new ResizeObserver(() => {

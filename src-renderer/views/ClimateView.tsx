@@ -88,25 +88,25 @@ export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample[
       <p class="explanation">{f.explanation}</p>
       <dl class="facts">
         <div>
-          <dt>Forcing, thin layer (S₀/4)</dt>
+          <dt>{p.compact ? 'ΔF' : 'Forcing, thin layer (S₀/4)'}</dt>
           <dd data-testid="forcing">{signed(f.thin_layer_w_m2)} W m⁻²</dd>
         </div>
         <div>
-          <dt>Efficiency</dt>
+          <dt>{p.compact ? 'per τ' : 'Efficiency'}</dt>
           <dd>{signed(f.efficiency_w_m2_per_tau)} W m⁻² per unit τ</dd>
         </div>
         <div>
-          <dt>ω at 550 nm vs ω_crit</dt>
+          <dt>{p.compact ? 'ω vs ω_crit' : 'ω at 550 nm vs ω_crit'}</dt>
           <dd data-testid="ssa-vs-crit">
             {fixed(f.ssa_550, 3)} {f.ssa_550 > f.critical_ssa ? '>' : f.ssa_550 < f.critical_ssa ? '<' : '='} {fixed(f.critical_ssa, 3)}
           </dd>
         </div>
         <div>
-          <dt>Sign flips at surface albedo</dt>
+          <dt>{p.compact ? 'flips at Rs' : 'Sign flips at surface albedo'}</dt>
           <dd data-testid="flip-albedo">{f.flip_surface_albedo === null ? 'never (0–1)' : fixed(f.flip_surface_albedo, 3)}</dd>
         </div>
         <div>
-          <dt>τ₅₅₀, surface albedo</dt>
+          <dt>{p.compact ? 'τ₅₅₀, Rs' : 'τ₅₅₀, surface albedo'}</dt>
           <dd>
             {num(f.tau_550, 3)}, {fixed(f.surface_albedo, 2)}
           </dd>
