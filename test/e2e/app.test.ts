@@ -382,6 +382,22 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     const page = await openApp()
     const axes = (chart: string) => page.locator(`[data-chart="${chart}"] [data-chart-axes]`).textContent()
 
+    // on a 1366 × 768 screen every view fits the width: the page never scrolls sideways, and the samples, the
+    // inputs and the results sit side by side within the window
+    for (let k = 1; k <= 8; k++) {
+      await page.keyboard.press(`Alt+${k}`)
+      await page.locator('#result-panel').waitFor()
+      const fit = await page.evaluate(() => ({
+        page: document.documentElement.scrollWidth,
+        window: window.innerWidth,
+        columns: ['.samples', '.editor', '.results'].map((c) => document.querySelector(c)?.getBoundingClientRect().right ?? Infinity)
+      }))
+      expect(fit.window).toBe(1366)
+      expect(fit.page, `view ${k}`).toBeLessThanOrEqual(fit.window)
+      for (const right of fit.columns) expect(right, `view ${k}`).toBeLessThanOrEqual(fit.window)
+    }
+    await page.keyboard.press('Alt+1')
+
     // the size distribution as number, then as volume: the axis and the drawing change
     expect(await axes('size-distribution')).toMatch(/^dN\/dlogDp .* against Dry diameter Dp \(µm\) \(log scale\)/)
     const numberPicture = await page.locator('[data-chart="size-distribution"] canvas').first().screenshot()
