@@ -1,10 +1,12 @@
 // A uPlot chart in a Preact component: sized to its box, built anew when its layout or theme changes and only
 // redrawn when its data does, with a button that saves it as PNG (title, legend and theme background included).
+import { render } from 'preact'
 import { useEffect, useRef } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
 import { host } from '../host/index.ts'
 import { fileStem } from '../format.ts'
+import { DashSwatch } from './DashSwatch.tsx'
 import type { Theme } from './palette.ts'
 
 export interface Line {
@@ -121,8 +123,6 @@ function options(p: ChartProps, width: number, el: Element, current: () => Chart
   }
 }
 
-const SVG_NS = 'http://www.w3.org/2000/svg'
-
 /**
  * uPlot marks each line in its legend with a small box in the line's colour; this draws the line's own dash there
  * instead, as the PNG legend and the sample list do, so the legend reads without telling colours apart.
@@ -133,17 +133,10 @@ function legendDashes(root: HTMLElement, lines: Line[]): void {
   lines.forEach((l, i) => {
     const marker = markers[first + i]
     if (!marker || l.bars || l.points) return
-    const svg = document.createElementNS(SVG_NS, 'svg')
-    svg.setAttribute('width', '26')
-    svg.setAttribute('height', '6')
-    svg.setAttribute('aria-hidden', 'true')
-    const line = document.createElementNS(SVG_NS, 'line')
-    for (const [k, v] of [['x1', '0'], ['y1', '3'], ['x2', '26'], ['y2', '3'], ['stroke', l.stroke], ['stroke-width', '2.5'], ['stroke-dasharray', (l.dash ?? []).join(' ')]]) line.setAttribute(k, v)
-    svg.appendChild(line)
     marker.style.border = 'none'
     marker.style.background = 'none'
     marker.classList.add('dash-mark')
-    marker.replaceChildren(svg)
+    render(<DashSwatch stroke={l.stroke} dash={l.dash ?? []} />, marker)
   })
 }
 

@@ -3,6 +3,7 @@ import { addSample, deleteSample, duplicateSample, MAX_COMPARE, moveSample, sele
 import { useApp } from '../state/store.ts'
 import { sampleState } from '../shown.ts'
 import { lineStyle } from '../charts/palette.ts'
+import { DashSwatch } from '../charts/DashSwatch.tsx'
 
 const VERDICT_MARK: Record<string, string> = { cools: '▼ cools', warms: '▲ warms', 'too close to call': '◆ close' }
 
@@ -45,11 +46,7 @@ export function SampleList() {
                 }}
                 title="Edit this sample (Alt+↑/↓ moves it)"
               >
-                {style && comparing && (
-                  <svg class="swatch" width="22" height="8" aria-hidden="true">
-                    <line x1="0" y1="4" x2="22" y2="4" stroke={style.stroke} stroke-width="2.5" stroke-dasharray={style.dash.join(' ')} />
-                  </svg>
-                )}
+                {style && comparing && <DashSwatch stroke={style.stroke} dash={style.dash} />}
                 <span class="name-text">{s.study.samples[i].name}</span>
                 {verdict && <span class={`verdict-mini v-${verdict.replace(/ /g, '-')}`}>{VERDICT_MARK[verdict]}</span>}
               </button>

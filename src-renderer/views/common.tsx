@@ -2,6 +2,7 @@
 import { PREVIEW_TOLERANCE } from '../compute/messages.ts'
 import type { ShownSample } from '../shown.ts'
 import { useApp } from '../state/store.ts'
+import { DashSwatch } from '../charts/DashSwatch.tsx'
 
 /** Says when results on screen are not from the current inputs, and why. */
 export function StaleNote(p: { shown: ShownSample[] }) {
@@ -41,11 +42,7 @@ export function StaleNote(p: { shown: ShownSample[] }) {
 
 /** A line sample in a legend or table header: the line's colour and dash, drawn. */
 export function Swatch(p: { shown: ShownSample }) {
-  return (
-    <svg class="swatch" width="22" height="8" aria-hidden="true">
-      <line x1="0" y1="4" x2="22" y2="4" stroke={p.shown.style.stroke} stroke-width="2.5" stroke-dasharray={p.shown.style.dash.join(' ')} />
-    </svg>
-  )
+  return <DashSwatch stroke={p.shown.style.stroke} dash={p.shown.style.dash} />
 }
 
 export const withResults = (shown: ShownSample[]) => shown.filter((x): x is ShownSample & { result: NonNullable<ShownSample['result']> } => !!x.result)
