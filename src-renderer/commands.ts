@@ -2,11 +2,12 @@
 import { demoStudy, InputError, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
 import type { MenuCommand, OpenedFile } from '../src-main/host-api.ts'
 import { cancel } from './compute/client.ts'
-import { resultsCsv, resultsJson } from './exports.ts'
+import { resultsCsv, resultsJson, statusLines, type ExportedResult } from './exports.ts'
 import { fileStem } from './format.ts'
 import { host } from './host/index.ts'
 import { blankStudy, load, redo, undo } from './state/actions.ts'
 import { store } from './state/store.ts'
+import { sampleState } from './shown.ts'
 
 const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store().set({ notice: { kind, title, lines } })
 
@@ -104,19 +105,32 @@ export async function importSizer(): Promise<void> {
 // ---------------------------------------------------------------------------------------------------------------
 // Exports and report.
 
-function currentResults() {
+/** Each sample's figures on screen, with how they stand to its current inputs. */
+function exportedResults(): (ExportedResult | undefined)[] {
   const s = store().get()
-  return s.ids.map((id) => s.results[id]?.result)
+  return s.ids.map((id) => {
+    const x = sampleState(s, id)
+    if (!x?.result) return undefined
+    return { result: x.result, status: !x.current ? 'out-of-date' : x.preview ? 'quick' : 'current' }
+  })
+}
+
+/** Says, after an export, which samples' figures were not from their current inputs (the file says it too). */
+function noteStatus(results: (ExportedResult | undefined)[]): void {
+  const lines = statusLines(store().get().study, results)
+  if (lines.length) store().set({ notice: { kind: 'info', title: 'Some exported figures are not from the current inputs', lines: [...lines, 'Each row says so in its status column. Export again once the figures are up to date.'] } })
 }
 
 export async function exportCsv(): Promise<void> {
   const s = store().get()
-  await host().exportFile({ suggestedName: `${fileStem(s.study.name)}-results.csv`, kind: 'csv', text: resultsCsv(s.study, currentResults()) })
+  const results = exportedResults()
+  if (await host().exportFile({ suggestedName: `${fileStem(s.study.name)}-results.csv`, kind: 'csv', text: resultsCsv(s.study, results) })) noteStatus(results)
 }
 
 export async function exportJson(): Promise<void> {
   const s = store().get()
-  await host().exportFile({ suggestedName: `${fileStem(s.study.name)}-results.json`, kind: 'json', text: resultsJson(s.study, currentResults()) })
+  const results = exportedResults()
+  if (await host().exportFile({ suggestedName: `${fileStem(s.study.name)}-results.json`, kind: 'json', text: resultsJson(s.study, results) })) noteStatus(results)
 }
 
 export const openReport = (): void => store().set({ reportOpen: true })

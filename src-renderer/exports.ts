@@ -24,20 +24,47 @@ const WAVELENGTH_COLUMNS: [string, (w: SampleResult['optics']['wavelengths'][num
   ['deciview', (w) => w.deciview]
 ]
 
+/**
+ * How an exported sample's figures relate to its inputs as they stand: computed from them ('current'), the quick
+ * first pass of a computation still running or stopped ('quick', within 1 % of the full figures), or from inputs
+ * that have since changed or cannot be read ('out-of-date'). Exported figures always carry it.
+ */
+export type ResultStatus = 'current' | 'quick' | 'out-of-date'
+
+export interface ExportedResult {
+  result: SampleResult
+  status: ResultStatus
+}
+
+const STATUS_WORDS: Record<Exclude<ResultStatus, 'current'>, string> = {
+  quick: 'quick figures (within 1 % of the full ones, still being refined)',
+  'out-of-date': 'out of date (computed before the inputs last changed)'
+}
+
+/** One line per sample whose exported figures are not from its current inputs; empty when all are. */
+export function statusLines(study: Study, results: (ExportedResult | undefined)[]): string[] {
+  return study.samples.flatMap((s, i) => {
+    const st = results[i]?.status
+    return st && st !== 'current' ? [`“${s.name}”: ${STATUS_WORDS[st]}`] : []
+  })
+}
+
 function csvCell(v: string | number): string {
   if (typeof v === 'number') return Number.isFinite(v) ? String(v) : ''
   return /[",\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v
 }
 
 /** One row per sample and wavelength, then one row per sample with the forcing summary. */
-export function resultsCsv(study: Study, results: (SampleResult | undefined)[]): string {
-  const rows: (string | number)[][] = [['sample', ...WAVELENGTH_COLUMNS.map(([h]) => h)]]
+export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]): string {
+  const rows: (string | number)[][] = [['sample', 'status', ...WAVELENGTH_COLUMNS.map(([h]) => h)]]
   study.samples.forEach((s, i) => {
-    for (const w of results[i]?.optics.wavelengths ?? []) rows.push([s.name, ...WAVELENGTH_COLUMNS.map(([, f]) => f(w))])
+    const x = results[i]
+    for (const w of x?.result.optics.wavelengths ?? []) rows.push([s.name, x!.status, ...WAVELENGTH_COLUMNS.map(([, f]) => f(w))])
   })
   rows.push([])
   rows.push([
     'sample',
+    'status',
     'verdict',
     'thin_layer_W_m-2',
     'spectral_W_m-2',
@@ -60,11 +87,13 @@ export function resultsCsv(study: Study, results: (SampleResult | undefined)[]):
     'pm2_5_ug_m-3'
   ])
   study.samples.forEach((s, i) => {
-    const r = results[i]
-    if (!r) return
+    const x = results[i]
+    if (!x) return
+    const r = x.result
     const f = r.forcing
     rows.push([
       s.name,
+      x.status,
       f.verdict,
       f.thin_layer_w_m2,
       f.spectral_w_m2,
@@ -88,19 +117,23 @@ export function resultsCsv(study: Study, results: (SampleResult | undefined)[]):
     ])
   })
   rows.push([])
+  for (const line of statusLines(study, results)) rows.push([`# Not from the current inputs: ${line}`])
   rows.push([`# ${ESTIMATE_CAUTION}`])
   rows.push([`# Motebench ${APP_VERSION}; study "${study.name}"`])
   return rows.map((r) => r.map(csvCell).join(',')).join('\n') + '\n'
 }
 
-export function resultsJson(study: Study, results: (SampleResult | undefined)[]): string {
+export function resultsJson(study: Study, results: (ExportedResult | undefined)[]): string {
   return (
     JSON.stringify(
       {
         software: { name: 'Motebench', version: APP_VERSION },
         cautions: { estimate: ESTIMATE_CAUTION, health: HEALTH_CAUTIONS },
         study,
-        results: study.samples.map((s, i) => ({ sample: s.name, ...(results[i] ?? { missing: 'no result (input problems)' }) }))
+        results: study.samples.map((s, i) => {
+          const x = results[i]
+          return x ? { sample: s.name, status: x.status, ...x.result } : { sample: s.name, missing: 'no result (input problems)' }
+        })
       },
       null,
       2

@@ -206,6 +206,22 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     // PNG: the file starts with the PNG signature (ISO/IEC 15948)
     const png = await download(() => page.locator('figure.chart button', { hasText: 'PNG' }).first().click(), 'chart.png')
     expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])
+
+    // every row says how its figures stand to the inputs: current here; out of date once an input of the sample
+    // cannot be read (the last good figures stay on screen, and an export of them says so, in the file and at once)
+    const statusCol = header.indexOf('status')
+    expect(row550!.split(',')[statusCol]).toBe('current')
+    expect(json.results[0].status).toBe('current')
+    await page.locator('[data-path="samples[0].size.modes[1].gsd"]').fill('0.9')
+    await page.locator('[data-error-for="samples[0].size.modes[1].gsd"]').first().waitFor()
+    const staleCsv = (await download(() => page.getByTestId('export-csv').click(), 'stale.csv')).toString('utf8')
+    const staleRow = staleCsv.split('\n').find((l) => l.startsWith('Winter wood smoke,') && l.split(',')[wlCol] === '550')
+    expect(staleRow!.split(',')[statusCol]).toBe('out-of-date')
+    expect(Number(staleRow!.split(',')[extCol])).toBe(Number(row550!.split(',')[extCol]))
+    expect(staleCsv).toMatch(/# Not from the current inputs: “Winter wood smoke”: out of date/)
+    await expect.poll(() => page.getByTestId('notice').textContent()).toMatch(/not from the current inputs/)
+    const staleJson = JSON.parse((await download(() => page.getByTestId('export-json').click(), 'stale.json')).toString('utf8'))
+    expect(staleJson.results[0].status).toBe('out-of-date')
   })
 
   test('compare: two marked samples overlay in the charts and sit side by side in one table', async () => {
