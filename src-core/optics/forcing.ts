@@ -121,11 +121,17 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
   }
 }
 
-/** Forcing over surface albedo (0…1) and ω (0.5…1) for this sample's τ and β̄ at 550 nm, as plain arrays. */
+/**
+ * Forcing over surface albedo (0…1) and ω for this sample's τ and β̄ at 550 nm, as plain arrays. ω runs from 0.5
+ * to 1, or from below the sample's own ω (to the next 0.05 under ω − 0.05) when it absorbs more than that, so the
+ * sample always has its place on the map.
+ */
 export function sampleForcingMap(forcing: SampleForcing, site: Site, nSurface = 41, nOmega = 26): ForcingMapData {
+  const omegaMin = Math.max(0, Math.min(0.5, Math.floor((forcing.ssa_550 - 0.05) * 20) / 20))
   const map = forcingMap({
     nSurfaceAlbedo: nSurface,
     nOmega,
+    omegaMin,
     tau: forcing.tau_550,
     upscatter: Math.max(forcing.upscatter_550, 1e-6),
     transmittance: site.transmittance,
