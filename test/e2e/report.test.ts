@@ -160,6 +160,30 @@ describe('the report', { timeout: 120_000 }, () => {
     expect(await text(section.locator('[data-report-composition="main"]'))).toContain('Used for the measured bins')
   })
 
+  test('each sample has its verdict, charts, optics table and methods table; the cautions and references are all there', async () => {
+    const page = await openApp()
+    await page.locator('[data-status="ok"]').waitFor({ timeout: 80_000 }) // every sample computed
+    const tableSigma = Number(await page.locator('[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]').textContent())
+    const report = await openReport(page)
+    const names = demoStudy().samples.map((x) => x.name)
+    for (const name of names) {
+      const sec = report.locator(`[data-report-sample="${name}"]`)
+      expect(await sec.getByTestId('verdict').getAttribute('data-verdict'), name).toMatch(/^(cools|warms|too close to call)$/)
+      expect(await sec.locator('figure.chart canvas').count(), name).toBeGreaterThanOrEqual(3)
+      expect(await sec.locator('[data-testid="optics-table"] tbody tr').count(), name).toBe(demoStudy().wavelengths_nm.length)
+      expect(await sec.getByTestId('methods-table').locator('tbody tr').count(), name).toBe(6)
+      expect(await sec.locator('.stale-note').count(), name).toBe(0)
+    }
+    // the selected sample's σext at 550 nm is the one the workbench showed
+    const first = report.locator(`[data-report-sample="${names[0]}"] [data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]`)
+    expect(Number(await first.textContent())).toBe(tableSigma)
+    const cautions = await text(report.locator('.report-cautions'))
+    for (const word of [/fine particles/i, /soot/i, /crystalline silica/i, /respirat/i, /exposure limits/i, /not a climate projection/i]) expect(cautions).toMatch(word)
+    const refs = await text(report.locator('.report-references'))
+    for (const word of ['Bohren', 'Wiscombe', 'Chylek', 'Petters', 'delta-Eddington']) expect(refs).toContain(word)
+    expect(refs).toMatch(/Produced with Motebench \S+/)
+  })
+
   test('no request leaves the machine', () => {
     expect(session.requests.length).toBeGreaterThan(0)
     expect(session.requests.filter((u) => !isLocal(u))).toEqual([])
