@@ -19,6 +19,8 @@ const WAVELENGTH_COLUMNS: [string, (w: SampleResult['optics']['wavelengths'][num
   ['mass_ext_wet_m2_g-1', (w) => w.mass_ext_wet],
   ['mass_sca_wet_m2_g-1', (w) => w.mass_sca_wet],
   ['mass_abs_wet_m2_g-1', (w) => w.mass_abs_wet],
+  ['angstrom_ext', (w) => w.angstrom_ext],
+  ['angstrom_abs', (w) => w.angstrom_abs],
   ['optical_depth', (w) => w.optical_depth],
   ['visual_range_km', (w) => w.visual_range_km],
   ['deciview', (w) => w.deciview]

@@ -35,6 +35,24 @@ export function angstromFitOf(wavelengths: readonly number[], sigmas: readonly n
   return den === 0 ? NaN : -(n * sxy - sx * sy) / den
 }
 
+/**
+ * Ångström exponent at each of ascending wavelengths: −Δln σ/Δln λ between the neighbours on either side (the
+ * wavelength below and the one above; at the ends, the wavelength itself and its one neighbour). Exact for a
+ * power law σ ∝ λ^(−å) (Ångström 1929, common practice). NaN where a σ it needs is not positive, or with fewer
+ * than two wavelengths.
+ */
+export function localAngstromExponents(wavelengths: readonly number[], sigmas: readonly number[]): number[] {
+  const n = wavelengths.length
+  const out: number[] = new Array(n).fill(NaN)
+  if (n < 2) return out
+  for (let i = 0; i < n; i++) {
+    const lo = Math.max(0, i - 1)
+    const hi = Math.min(n - 1, i + 1)
+    out[i] = angstromExponent(sigmas[lo], wavelengths[lo], sigmas[hi], wavelengths[hi])
+  }
+  return out
+}
+
 /** Ångström exponents of extinction, scattering and absorption, fitted over all rows. */
 export function angstromFit(rows: readonly WavelengthOptics[]): AngstromExponents {
   const wl = rows.map((r) => r.wavelength_nm)

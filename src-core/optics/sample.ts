@@ -27,7 +27,7 @@ import {
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
 import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
-import { angstromFit, deciview, layerDepthM, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
+import { angstromFit, deciview, layerDepthM, localAngstromExponents, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
 
@@ -320,6 +320,8 @@ export function assembleSampleOptics(
       mass_ext_wet: r.ext / vol.wetMass,
       mass_sca_wet: r.sca / vol.wetMass,
       mass_abs_wet: r.abs / vol.wetMass,
+      angstrom_ext: NaN,
+      angstrom_abs: NaN,
       optical_depth: 0,
       rayleigh_sca: rayleigh,
       visual_range_km: visualRangeKm(total),
@@ -335,6 +337,13 @@ export function assembleSampleOptics(
     layerDepth = ext550 > 0 ? sample.layer.aod_550 / (ext550 * 1e-6) : 0
   }
   for (const row of rows) row.optical_depth = row.ext * 1e-6 * layerDepth
+  const wls = rows.map((r) => r.wavelength_nm)
+  const aExt = localAngstromExponents(wls, rows.map((r) => r.ext))
+  const aAbs = localAngstromExponents(wls, rows.map((r) => r.abs))
+  rows.forEach((r, i) => {
+    r.angstrom_ext = aExt[i]
+    r.angstrom_abs = aAbs[i]
+  })
 
   const pm = pops.every((p) => p.mode)
     ? particulateMatter(pops.map((p) => p.mode!), { diameter: 'geometric', density: pops.map((p) => p.kind.densityGcm3) })

@@ -28,6 +28,9 @@ export interface WavelengthOptics {
   mass_ext_wet: number
   mass_sca_wet: number
   mass_abs_wet: number
+  /** Ångström exponents of extinction and absorption at this wavelength, from its neighbours (localAngstromExponents). */
+  angstrom_ext: number
+  angstrom_abs: number
   /** Optical depth of the sample's layer. */
   optical_depth: number
   /** Air's Rayleigh scattering at sea level (Mm⁻¹), added for visual range and haze index. */

@@ -23,6 +23,8 @@ export const TABLE_COLUMNS: { head: string; title: string; get: (w: WavelengthOp
   { head: 'g', title: 'Asymmetry parameter', get: (w) => fixed(w.g, 3) },
   { head: 'b', title: 'Hemispheric backscatter fraction', get: (w) => fixed(w.backscatter_fraction, 3) },
   { head: 'β̄', title: 'Sun-averaged upscatter fraction', get: (w) => fixed(w.upscatter_fraction, 3) },
+  { head: 'å', title: 'Ångström exponent of extinction at this wavelength (from the neighbouring wavelengths)', get: (w) => fixed(w.angstrom_ext, 2) },
+  { head: 'å abs', title: 'Ångström exponent of absorption at this wavelength (from the neighbouring wavelengths)', get: (w) => fixed(w.angstrom_abs, 2) },
   { head: 'MEE', title: 'Mass extinction efficiency per dry mass, m² g⁻¹', get: (w) => num(w.mass_ext_dry, 3) },
   { head: 'MSE', title: 'Mass scattering efficiency per dry mass, m² g⁻¹', get: (w) => num(w.mass_sca_dry, 3) },
   { head: 'MAE', title: 'Mass absorption efficiency per dry mass, m² g⁻¹', get: (w) => num(w.mass_abs_dry, 3) },

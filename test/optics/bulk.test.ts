@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest'
 import {
   bulkOpticsAt,
   computeSampleOptics,
+  localAngstromExponents,
   deciview,
   modeFromMass,
   moment,
@@ -67,6 +68,21 @@ describe('limits', () => {
     const dust = oneModeStudy({ kind: 'modes', modes: [{ by: 'mass', mass_ug_m3: 100, median_um: 4, gsd: 1.8 }] }, { components: [{ material: 'mineral-dust', volume_fraction: 1 }], mixing: 'volume-average' }, [450, 550, 700])
     const d = computeSampleOptics(dust.sample, dust.study, { angularWavelengthsNm: [] })
     expect(Math.abs(d.angstrom_fit.ext)).toBeLessThan(0.3)
+  })
+
+  it('the Ångström exponent at each wavelength: exact for a power law, and near 4 at every wavelength for tiny particles (common practice)', () => {
+    // σ ∝ λ^(−1.3) on an uneven grid: every local exponent is 1.3 (Ångström 1929)
+    const wl = [340, 370, 450, 520, 660, 880, 950]
+    for (const a of localAngstromExponents(wl, wl.map((l) => 7 * l ** -1.3))) expect(a).toBeCloseTo(1.3, 12)
+    // a curved spectrum: the exponent follows the local slope −d ln σ/d ln λ; ln σ = −(ln λ)²/2 has slope −ln λ,
+    // and the centred secant of a parabola is its slope at the midpoint of the neighbours' ln λ
+    const curved = localAngstromExponents(wl, wl.map((l) => Math.exp(-(Math.log(l) ** 2) / 2)))
+    for (let i = 1; i < wl.length - 1; i++) expect(curved[i]).toBeCloseTo((Math.log(wl[i - 1]) + Math.log(wl[i + 1])) / 2, 12)
+    expect(localAngstromExponents([550], [10])[0]).toBeNaN()
+    expect(localAngstromExponents([450, 550], [0, 10])).toEqual([NaN, NaN])
+    const tiny = oneModeStudy({ kind: 'modes', modes: [{ by: 'number', number_cm3: 1e5, median_um: 0.005, gsd: 1.5 }] }, { components: [{ material: 'ammonium-sulfate', volume_fraction: 1 }], mixing: 'volume-average' }, [400, 450, 550, 700, 1000])
+    const rows = computeSampleOptics(tiny.sample, tiny.study, { angularWavelengthsNm: [] }).wavelengths
+    for (const r of rows) expect(Math.abs(r.angstrom_ext - 4)).toBeLessThan(0.15)
   })
 })
 
