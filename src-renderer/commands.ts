@@ -118,7 +118,7 @@ function exportedResults(): (ExportedResult | undefined)[] {
 /** Says, after an export, which samples' figures were not from their current inputs (the file says it too). */
 function noteStatus(results: (ExportedResult | undefined)[]): void {
   const lines = statusLines(store().get().study, results)
-  if (lines.length) store().set({ notice: { kind: 'info', title: 'Some exported figures are not from the current inputs', lines: [...lines, 'Each row says so in its status column. Export again once the figures are up to date.'] } })
+  if (lines.length) notice('info', 'Some exported figures are not from the current inputs', [...lines, 'Each row says so in its status column. Export again once the figures are up to date.'])
 }
 
 export async function exportCsv(): Promise<void> {

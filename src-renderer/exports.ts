@@ -1,6 +1,7 @@
 // Results as CSV and JSON files (the numbers exactly as computed; no new physics).
 import type { SampleResult, Study } from '../src-core/index.ts'
 import { ESTIMATE_CAUTION, HEALTH_CAUTIONS } from './cautions.ts'
+import { PREVIEW_TOLERANCE } from './compute/messages.ts'
 
 export const APP_VERSION = typeof __APP_VERSION__ === 'string' ? __APP_VERSION__ : 'dev'
 
@@ -28,7 +29,7 @@ const WAVELENGTH_COLUMNS: [string, (w: SampleResult['optics']['wavelengths'][num
 
 /**
  * How an exported sample's figures relate to its inputs as they stand: computed from them ('current'), the quick
- * first pass of a computation still running or stopped ('quick', within 1 % of the full figures), or from inputs
+ * first pass of a computation still running or stopped ('quick', to PREVIEW_TOLERANCE), or from inputs
  * that have since changed or cannot be read ('out-of-date'). Exported figures always carry it.
  */
 export type ResultStatus = 'current' | 'quick' | 'out-of-date'
@@ -39,7 +40,7 @@ export interface ExportedResult {
 }
 
 const STATUS_WORDS: Record<Exclude<ResultStatus, 'current'>, string> = {
-  quick: 'quick figures (within 1 % of the full ones, still being refined)',
+  quick: `quick figures (to about ${PREVIEW_TOLERANCE * 100} % of σext, still being refined)`,
   'out-of-date': 'out of date (computed before the inputs last changed)'
 }
 
