@@ -20,7 +20,7 @@ import { InputError } from '../errors.ts'
 import { volumeEquivalentEdges, type ConversionSettings, type SizerKind } from './diameters.ts'
 
 export const OVERLAP_RULE =
-  'each sizer is trusted inside its own range; where two ranges overlap, the weights hand over linearly in log d_ve across the overlap (lower sizer 1 → 0, upper 0 → 1, taken at each bin middle); a sizer without data at a step drops out and the rest are renormalised; a bin no sizer with data covers is left empty'
+  'Each sizer is trusted inside its own range. Where two ranges overlap the weights hand over linearly in log d_ve across the overlap (the lower sizer from 1 to 0 and the upper from 0 to 1 at each bin middle). A sizer without data at a step drops out and the others are renormalised. A bin that no sizer with data covers is left empty.'
 
 /** One sizer, its bins in its own diameter. */
 export interface SizerInput {

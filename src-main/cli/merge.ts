@@ -57,7 +57,7 @@ export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --d
   --instruments-column   add a last column naming the sizers that contributed to each row
   --out FILE             the merged sizer file (it appears only when complete)
 Conversions to the volume-equivalent diameter after DeCarlo et al. (2004, Aerosol Sci. Technol. 38:1185) with
-the Cunningham slip correction; each bin keeps its particles. Overlap rule: ${OVERLAP_RULE}.
+the Cunningham slip correction; each bin keeps its particles. ${OVERLAP_RULE}
 A time step where a sizer has no data keeps its bins empty and is counted in the summary. Exit status 0, 1 when
 rows of an input were left out (listed with file, line and column), 2 for bad input (no output file).`
 
