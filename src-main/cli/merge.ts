@@ -21,7 +21,6 @@ import {
   mergedFileRow,
   mergeStep,
   MOTEBENCH_VERSION,
-  OVERLAP_RULE,
   parseComplexIndex,
   parseDuration,
   parseLength,
@@ -54,12 +53,16 @@ export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --d
   --optical-range LO:HI
   --every T              averaging step, e.g. 10min, 1h (default: the coarsest instrument's interval)
   --bins-per-decade N    merged bins per decade of diameter (default 32)
-  --instruments-column   add a last column naming the sizers that contributed to each row
+  --instruments-column   add a last column naming the sizers that contributed to each row (the sizer reader
+                         takes no column after the bins yet: leave it out for series, check and the app)
   --out FILE             the merged sizer file (it appears only when complete)
 Conversions to the volume-equivalent diameter after DeCarlo et al. (2004, Aerosol Sci. Technol. 38:1185) with
-the Cunningham slip correction; each bin keeps its particles. ${OVERLAP_RULE}
-A time step where a sizer has no data keeps its bins empty and is counted in the summary. Exit status 0, 1 when
-rows of an input were left out (listed with file, line and column), 2 for bad input (no output file).`
+the Cunningham slip correction; each bin keeps its particles. Overlap rule: each sizer is trusted inside its own
+range; where two ranges overlap, the weights hand over linearly in log d_ve across the overlap (the lower sizer
+from 1 to 0, the upper from 0 to 1, at each merged bin's middle). A sizer without data at a time step drops out
+and the others are renormalised; bins no sizer with data covers are left empty (never filled), and the summary
+lists those steps. Exit status 0, 1 when rows of an input were left out (listed with file, line and column),
+2 for bad input (no output file).`
 
 interface FileRead {
   kind: SizerKind
