@@ -156,6 +156,7 @@ export class TimeAverager {
   readonly width: number
   private readonly sums: Float64Array
   private readonly counts: Uint32Array
+  private finished = false
 
   constructor(base: TimeBase, width: number) {
     this.base = base
@@ -166,6 +167,7 @@ export class TimeAverager {
 
   /** Adds a record stamped t (ms); returns its step, or −1 when t is outside the base (the record is not used). */
   add(t: number, values: ArrayLike<number>): number {
+    if (this.finished) throw new Error('TimeAverager.add after means()')
     const k = stepOf(this.base, t)
     if (k < 0) return -1
     const w = this.width
@@ -180,12 +182,30 @@ export class TimeAverager {
     return this.counts[k]
   }
 
+  /**
+   * Turns the sums into means in place, once, and returns each step's mean as a view into them (no copy), or
+   * undefined for a step without records. `add` must not be called afterwards.
+   */
+  means(): (Float64Array | undefined)[] {
+    if (!this.finished) {
+      for (let k = 0; k < this.counts.length; k++) {
+        const c = this.counts[k]
+        if (c > 1) for (let j = k * this.width; j < (k + 1) * this.width; j++) this.sums[j] /= c
+      }
+      this.finished = true
+    }
+    const out: (Float64Array | undefined)[] = []
+    for (let k = 0; k < this.counts.length; k++) out.push(this.counts[k] > 0 ? this.sums.subarray(k * this.width, (k + 1) * this.width) : undefined)
+    return out
+  }
+
   /** The mean of step k into `out` (length width); false, and `out` untouched, when the step has no records. */
   mean(k: number, out: Float64Array): boolean {
     const c = this.counts[k]
     if (c === 0) return false
     const off = k * this.width
-    for (let j = 0; j < this.width; j++) out[j] = this.sums[off + j] / c
+    const d = this.finished ? 1 : c
+    for (let j = 0; j < this.width; j++) out[j] = this.sums[off + j] / d
     return true
   }
 }

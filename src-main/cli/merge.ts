@@ -276,10 +276,7 @@ export async function runMerge(argv: string[]): Promise<number> {
   const averagers = reads.map((r) => new TimeAverager(base, r.factor.length))
   for (let i = 0; i < reads.length; i++) await accumulate(reads[i], averagers[i])
   const inputs: SizerInput[] = reads.map((r) => ({ kind: r.kind, label: r.label, edgesUm: r.edgesUm, ...(ranges[r.kind] ? { rangeUm: ranges[r.kind]! } : {}) }))
-  const stepValues = (i: number, k: number): Float64Array | undefined => {
-    const out = new Float64Array(reads[i].factor.length)
-    return averagers[i].mean(k, out) ? out : undefined
-  }
+  const means = averagers.map((a) => a.means()) // views into the averagers' sums: no copies
 
   let densityFit: DensityFit | undefined
   let rho = density
@@ -287,31 +284,25 @@ export async function runMerge(argv: string[]): Promise<number> {
     const im = reads.findIndex((r) => r.kind === 'mobility')
     const ia = reads.findIndex((r) => r.kind === 'aerodynamic')
     const pairs: [Float64Array | undefined, Float64Array | undefined][] = []
-    for (let k = 0; k < steps; k++) pairs.push([stepValues(im, k), stepValues(ia, k)])
+    for (let k = 0; k < steps; k++) pairs.push([means[im][k], means[ia][k]])
     densityFit = fitDensity(inputs[im], inputs[ia], pairs, { shapeFactor })
     rho = densityFit.density
   }
   const settings: MergeSettings = { shapeFactor, density: rho, binsPerDecade, ...(optical ? { optical } : {}) }
   const plan = planMerge(inputs, settings)
 
-  // write
-  const target = await atomicOutput(values.out)
-  const merged = new Float64Array(plan.edges.length - 1)
+  // the gaps are known before writing, so the rows stream out
   const gapList: string[] = []
   let gapSteps = 0
+  for (let k = 0; k < steps; k++) {
+    const present = reads.filter((_, i) => means[i][k]).map((r) => r.kind)
+    if (present.length === reads.length) continue
+    gapSteps++
+    if (gapList.length < 20) gapList.push(`${formatTimeStamp(base.starts[k], zoned)}: ${present.length > 0 ? `only ${present.join(' and ')}` : 'no sizer'} had data`)
+  }
+  const target = await atomicOutput(values.out)
+  const merged = new Float64Array(plan.edges.length - 1)
   try {
-    const rows: string[] = []
-    for (let k = 0; k < steps; k++) {
-      const vals = reads.map((_, i) => stepValues(i, k))
-      mergeStep(plan, vals, merged)
-      const present = reads.filter((_, i) => vals[i]).map((r) => r.kind)
-      const time = formatTimeStamp(base.starts[k], zoned)
-      if (present.length < reads.length) {
-        gapSteps++
-        if (gapList.length < 20) gapList.push(`${time}: ${present.length > 0 ? `only ${present.join(' and ')}` : 'no sizer'} had data`)
-      }
-      rows.push(mergedFileRow(time, merged, values['instruments-column'] ? present : undefined))
-    }
     const head = mergedFileHead({
       plan,
       settings,
@@ -325,7 +316,17 @@ export async function runMerge(argv: string[]): Promise<number> {
       madeBy: `motebench ${MOTEBENCH_VERSION} merge`
     })
     await target.write(head.join('\n') + '\n')
-    for (let k = 0; k < rows.length; k += 500) await target.write(rows.slice(k, k + 500).join('\n') + '\n')
+    let chunk: string[] = []
+    for (let k = 0; k < steps; k++) {
+      const vals = reads.map((_, i) => means[i][k])
+      mergeStep(plan, vals, merged)
+      const present = reads.filter((_, i) => vals[i]).map((r) => r.kind)
+      chunk.push(mergedFileRow(formatTimeStamp(base.starts[k], zoned), merged, values['instruments-column'] ? present : undefined))
+      if (chunk.length === 500 || k === steps - 1) {
+        await target.write(chunk.join('\n') + '\n')
+        chunk = []
+      }
+    }
     await target.commit()
   } catch (e) {
     await target.discard()

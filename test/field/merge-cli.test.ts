@@ -162,6 +162,14 @@ describe('bad input: located, with the fix; an unreadable file stops with exit 2
     expect(existsSync(path('some.csv'))).toBe(true)
   })
 
+  it('trusted ranges that leave a hole between the sizers: refused with the options that fix it, no output', async () => {
+    const r = await runHere(runMerge, ['--mobility', path('mobility.csv'), '--aerodynamic', path('aerodynamic.csv'), '--density', '1.8', '--mobility-range', '10:200', '--out', path('none4.csv')])
+    expect(r.code).toBe(2)
+    expectOneLine(r.stderr)
+    expect(r.stderr).toMatch(/no sizer covers .* between mobility\.csv and aerodynamic\.csv.*Widen the trusted ranges \(--mobility-range, --aerodynamic-range\)/)
+    await noOutput('none4.csv')
+  })
+
   it('arguments: an aerodynamic sizer without density, and one file only', async () => {
     let r = await runHere(runMerge, ['--mobility', path('mobility.csv'), '--aerodynamic', path('aerodynamic.csv'), '--out', path('x.csv')])
     expect(r.code).toBe(2)

@@ -67,6 +67,12 @@ describe('time base and averaging', () => {
     expect(fast.mean(2, out)).toBe(true)
     expect(out[0]).toBe(24.5)
     expect(fast.add(31 * MIN, [0, 0])).toBe(-1) // outside the base: not used
+    // the same means as views, without copies; the empty step stays without one
+    const views = fast.means()
+    expect(Array.from(views[0]!)).toEqual([4.5, 9])
+    expect(views[1]).toBeUndefined()
+    expect(views[2]![1]).toBe(49)
+    expect(fast.mean(0, out) && out[0]).toBe(4.5)
   })
 
   it('a base of one step per stamp (for aligning other instruments to a sizer) cuts each step at the next stamp', () => {
