@@ -20,6 +20,8 @@ export interface MergedFileInfo {
   /** Steps written, and those in which at least one sizer had no data. */
   steps: number
   gapSteps: number
+  /** 'keep': gap steps are written with their uncovered bins empty; 'omit': they are left out of the table. */
+  gapRows?: 'keep' | 'omit'
   instrumentsColumn: boolean
   /** Who made it, e.g. "motebench 0.1.0 merge". */
   madeBy: string
@@ -62,7 +64,7 @@ export function mergedFileHead(info: MergedFileInfo): string[] {
   lines.push(`overlap rule: ${OVERLAP_RULE}`)
   for (const o of plan.overlaps) lines.push(`overlap: ${o.lower} hands over to ${o.upper} from ${range(o.fromUm, o.toUm)}`)
   lines.push(`time base: means of the records stamped inside each step of ${formatDuration(info.stepMs)} (${info.stepChosen}); the time is the step's start${info.zoned ? ' in UTC' : ' as the files give it (no zone)'}`)
-  lines.push(`gaps: ${info.gapSteps} of ${info.steps} steps lack data from a sizer; their uncovered bins are empty cells`)
+  lines.push(`gaps: ${info.gapSteps} of ${info.steps} steps lack data from a sizer; ${info.gapRows === 'omit' ? 'they are left out of the table' : 'their uncovered bins are empty cells'}`)
   const header = ['time', ...mergedMidpointsNm(plan).map(String)]
   if (info.instrumentsColumn) header.push('instruments')
   // no separators inside the metadata lines: the reader detects the table's separator from the first lines

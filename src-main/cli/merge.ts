@@ -53,6 +53,9 @@ export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --d
   --optical-range LO:HI
   --every T              averaging step, e.g. 10min, 1h (default: the coarsest instrument's interval)
   --bins-per-decade N    merged bins per decade of diameter (default 32)
+  --gap-rows P           keep (default): a step where a sizer has no data is written, its uncovered bins empty
+                         (readers leave such a row out with the reason); omit: such steps are left out of the
+                         table, so that the app imports the file whole (the summary and the file list them)
   --instruments-column   add a last column naming the sizers that contributed to each row (the sizer reader
                          takes no column after the bins yet: leave it out for series, check and the app)
   --out FILE             the merged sizer file (it appears only when complete)
@@ -215,6 +218,7 @@ export async function runMerge(argv: string[]): Promise<number> {
     every: { type: 'string' },
     'bins-per-decade': { type: 'string' },
     'instruments-column': { type: 'boolean', default: false },
+    'gap-rows': { type: 'string' },
     out: { type: 'string' }
   })
   const files: [SizerKind, string][] = []
@@ -249,6 +253,8 @@ export async function runMerge(argv: string[]): Promise<number> {
     aerodynamic: readRange(values['aerodynamic-range'], '--aerodynamic-range', 'um'),
     optical: readRange(values['optical-range'], '--optical-range', 'um')
   }
+  const gapRows = values['gap-rows'] ?? 'keep'
+  if (gapRows !== 'keep' && gapRows !== 'omit') throw new UsageError(`merge: --gap-rows "${gapRows}" is not keep or omit`)
   const everyGiven = values.every === undefined ? undefined : parseDuration(values.every, '--every')
 
   // pass 1: headers, times, intervals
@@ -312,6 +318,7 @@ export async function runMerge(argv: string[]): Promise<number> {
       ...(densityFit ? { densityFit } : {}),
       steps,
       gapSteps,
+      gapRows,
       instrumentsColumn: values['instruments-column'],
       madeBy: `motebench ${MOTEBENCH_VERSION} merge`
     })
@@ -319,10 +326,12 @@ export async function runMerge(argv: string[]): Promise<number> {
     let chunk: string[] = []
     for (let k = 0; k < steps; k++) {
       const vals = reads.map((_, i) => means[i][k])
-      mergeStep(plan, vals, merged)
       const present = reads.filter((_, i) => vals[i]).map((r) => r.kind)
-      chunk.push(mergedFileRow(formatTimeStamp(base.starts[k], zoned), merged, values['instruments-column'] ? present : undefined))
-      if (chunk.length === 500 || k === steps - 1) {
+      if (gapRows === 'keep' || present.length === reads.length) {
+        mergeStep(plan, vals, merged)
+        chunk.push(mergedFileRow(formatTimeStamp(base.starts[k], zoned), merged, values['instruments-column'] ? present : undefined))
+      }
+      if (chunk.length === 500 || (k === steps - 1 && chunk.length > 0)) {
         await target.write(chunk.join('\n') + '\n')
         chunk = []
       }
@@ -345,7 +354,7 @@ export async function runMerge(argv: string[]): Promise<number> {
     err.push(`  density fitted in the overlap (${(densityFit.overlapUm[0] * 1000).toPrecision(4)}–${(densityFit.overlapUm[1] * 1000).toPrecision(4)} nm volume-equivalent): ${densityFit.density.toPrecision(3)} g cm⁻³, misfit (RMS of ln aerodynamic/mobility) ${densityFit.misfit.toPrecision(3)} over ${densityFit.compared} values`)
   }
   for (const o of plan.overlaps) err.push(`  overlap: ${o.lower} hands over to ${o.upper} from ${(o.fromUm * 1000).toPrecision(4)} to ${(o.toUm * 1000).toPrecision(4)} nm (volume-equivalent)`)
-  err.push(`  ${steps} steps of ${formatDuration(stepMs)}${everyGiven === undefined ? ' (the coarsest interval)' : ''} written to ${values.out}; ${plan.edges.length - 1} bins from ${(plan.edges[0] * 1000).toPrecision(4)} to ${(plan.edges[plan.edges.length - 1] * 1000).toPrecision(4)} nm; ${gapSteps} step${gapSteps === 1 ? '' : 's'} with a sizer missing (its bins left empty)`)
+  err.push(`  ${steps} steps of ${formatDuration(stepMs)}${everyGiven === undefined ? ' (the coarsest interval)' : ''}, ${gapRows === 'omit' ? `${steps - gapSteps}` : 'all'} written to ${values.out}; ${plan.edges.length - 1} bins from ${(plan.edges[0] * 1000).toPrecision(4)} to ${(plan.edges[plan.edges.length - 1] * 1000).toPrecision(4)} nm; ${gapSteps} step${gapSteps === 1 ? '' : 's'} with a sizer missing (${gapRows === 'omit' ? 'left out of the table' : 'its bins left empty'})`)
   for (const g of gapList) err.push(`  gap ${g}`)
   if (gapSteps > gapList.length) err.push(`  ... and ${gapSteps - gapList.length} more gap steps`)
   process.stderr.write(err.join('\n') + '\n')

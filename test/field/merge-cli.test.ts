@@ -92,6 +92,18 @@ describe('motebench merge on two clocks', () => {
     expect(rows[2][1]).toBe(rows[1][1]) // the smallest bin: the mobility sizer's, the same in both
   })
 
+  it('--gap-rows omit leaves the gap steps out of the table (listed), so the file reads whole, as the app needs', async () => {
+    const out = path('gap-omit.csv')
+    const r = await runHere(runMerge, ['--mobility', path('mobility.csv'), '--aerodynamic', path('aerodynamic-gap.csv'), '--density', '1.8', '--shape-factor', String(KNOWN_SHAPE_FACTOR), '--gap-rows', 'omit', '--out', out])
+    expect(r.code, r.stderr).toBe(0)
+    expect(r.stderr).toMatch(/6 steps of 5 min \(the coarsest interval\), 4 written .* 2 steps with a sizer missing \(left out of the table\)/)
+    expect(r.stderr).toMatch(/gap 2026-06-01T10:15:00Z: only mobility had data/)
+    const { table } = await readBack(out)
+    expect(table.rejected).toEqual([])
+    expect(table.metadata.gaps).toMatch(/2 of 6 steps .* left out of the table/)
+    expect(table.records.map((x) => x.time)).toEqual(['2026-06-01T10:00:00Z', '2026-06-01T10:05:00Z', '2026-06-01T10:20:00Z', '2026-06-01T10:25:00Z'])
+  })
+
   it('an optical counter sampling PSL itself (index 1.59+0i) merges as its calibration bins, which hold the known aerosol', async () => {
     const mid = logMidpoints(0.5, 10, 16)
     const s = { shapeFactor: 1, density: 1 }
