@@ -253,6 +253,8 @@ export interface DensityFit {
   compared: number
   /** The overlap at the optimum, d_ve µm. */
   overlapUm: [number, number]
+  /** The best density lies at an end of the searched range: the true one may lie beyond it. */
+  atBound: boolean
   /** The misfit over the scanned densities (Infinity where the ranges do not overlap). */
   scan: { density: number; misfit: number }[]
 }
@@ -352,5 +354,6 @@ export function fitDensity(
     rho = scan[best].density
     at = evaluate(rho)
   }
-  return { density: rho, misfit: at.misfit, compared: at.compared, overlapUm: at.overlap, scan }
+  const atBound = rho <= min * 1.0001 || rho >= max / 1.0001 || best === 0 || best === N - 1
+  return { density: rho, misfit: at.misfit, compared: at.compared, overlapUm: at.overlap, atBound, scan }
 }

@@ -352,6 +352,7 @@ export async function runMerge(argv: string[]): Promise<number> {
   for (const s of plan.sizers) for (const f of s.flagged) err.push(`  ${s.label} bin ${f.bin + 1} flagged by the counter re-binning: ${f.reason}`)
   if (densityFit) {
     err.push(`  density fitted in the overlap (${(densityFit.overlapUm[0] * 1000).toPrecision(4)}–${(densityFit.overlapUm[1] * 1000).toPrecision(4)} nm volume-equivalent): ${densityFit.density.toPrecision(3)} g cm⁻³, misfit (RMS of ln aerodynamic/mobility) ${densityFit.misfit.toPrecision(3)} over ${densityFit.compared} values`)
+    if (densityFit.atBound) err.push(`  warning: the fitted density lies at an end of the searched range (0.5 to 5 g cm⁻³): the sizers may not agree for any density; check --shape-factor and the trusted ranges, or give --density`)
   }
   for (const o of plan.overlaps) err.push(`  overlap: ${o.lower} hands over to ${o.upper} from ${(o.fromUm * 1000).toPrecision(4)} to ${(o.toUm * 1000).toPrecision(4)} nm (volume-equivalent)`)
   err.push(`  ${steps} steps of ${formatDuration(stepMs)}${everyGiven === undefined ? ' (the coarsest interval)' : ''}, ${gapRows === 'omit' ? `${steps - gapSteps}` : 'all'} written to ${values.out}; ${plan.edges.length - 1} bins from ${(plan.edges[0] * 1000).toPrecision(4)} to ${(plan.edges[plan.edges.length - 1] * 1000).toPrecision(4)} nm; ${gapSteps} step${gapSteps === 1 ? '' : 's'} with a sizer missing (${gapRows === 'omit' ? 'left out of the table' : 'its bins left empty'})`)

@@ -89,6 +89,7 @@ describe('the density fitted in the overlap (Khlystov, Stanier & Pandis 2004)', 
     const atUnit = fit.scan.reduce((p, c) => (Math.abs(Math.log(c.density)) < Math.abs(Math.log(p.density)) ? c : p))
     expect(atUnit.misfit).toBeGreaterThan(5 * fit.misfit)
     expect(fit.compared).toBeGreaterThan(0)
+    expect(fit.atBound).toBe(false)
   })
 
   it('recovers another density (1.3 g cm⁻³, spheres) from files made with it, over several time steps', () => {
@@ -98,6 +99,14 @@ describe('the density fitted in the overlap (Khlystov, Stanier & Pandis 2004)', 
     const steps = [0.5, 1, 2].map((f) => [m.map((v) => v * f), a.map((v) => v * f)] as [number[], number[]])
     const fit = fitDensity(mobility, aerodynamic, [...steps, [m, undefined]], { shapeFactor: 1 })
     expect(Math.abs(fit.density / 1.3 - 1)).toBeLessThan(0.02)
+  })
+
+  it('says when the best density lies at the end of the searched range (files made with 8 g cm⁻³, searched 0.5–5)', () => {
+    const s = { shapeFactor: 1, density: 8 }
+    const m = instrumentValues('mobility', MOBILITY_MIDPOINTS_UM, KNOWN_MODES, s)
+    const a = instrumentValues('aerodynamic', AERODYNAMIC_MIDPOINTS_UM, KNOWN_MODES, s)
+    const fit = fitDensity(mobility, aerodynamic, [[m, a]], { shapeFactor: 1 })
+    expect(fit.atBound).toBe(true)
   })
 
   it('says so when the two ranges cannot overlap', () => {
