@@ -119,14 +119,6 @@ export function volumeEquivalentEdges(kind: SizerKind, nativeEdges: ArrayLike<nu
   return { edges: out, flagged }
 }
 
-/** A native diameter (µm) of a sizer kind as volume-equivalent (µm); optical counters need the re-binning, so two or more edges. */
-export function toVolumeEquivalent(kind: 'mobility' | 'aerodynamic', d: number, s: ConversionSettings): number {
-  const opts = { shapeFactor: s.shapeFactor, meanFreePath: s.meanFreePath }
-  if (kind === 'mobility') return volumeDiameterFromMobility(d, opts)
-  if (s.density === undefined) throw new InputError('aerodynamic: density', 'no particle density given', 'Give --density (g cm⁻³).')
-  return volumeDiameterFromAerodynamic(d, s.density, opts)
-}
-
 /** Forward conversion (for checks and synthetic data): native diameter (µm) of a particle of volume-equivalent d (µm). */
 export function fromVolumeEquivalent(kind: 'mobility' | 'aerodynamic', d: number, s: ConversionSettings): number {
   const opts = { shapeFactor: s.shapeFactor, meanFreePath: s.meanFreePath }

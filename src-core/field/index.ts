@@ -11,7 +11,6 @@ export {
   mobilityDiameter,
   volumeDiameterFromMobility,
   volumeEquivalentEdges,
-  toVolumeEquivalent,
   fromVolumeEquivalent
 } from './diameters.ts'
 export {

@@ -168,7 +168,6 @@ export function planMerge(inputs: readonly SizerInput[], settings: MergeSettings
       let r = 1
       if (prev && prev.hi > c.lo) r *= clamp01(Math.log(x / c.lo) / Math.log(prev.hi / c.lo))
       if (next && c.hi > next.lo) r *= clamp01(Math.log(c.hi / x) / Math.log(c.hi / next.lo))
-      // a bin it covers only partly, at the edge of its range, where no neighbour covers: it alone
       ramps[i][k] = r
     }
     if (next && c.hi > next.lo) overlaps.push({ lower: c.inp.label, upper: next.inp.label, fromUm: next.lo, toUm: c.hi })
