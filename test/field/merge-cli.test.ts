@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { binsFromMeasurement, parseSizerText } from '../../src-core/index.ts'
 import { runCheck } from '../../src-main/cli/check.ts'
 import { runMerge } from '../../src-main/cli/merge.ts'
-import { expectOneLine, runHere } from '../cli/helpers.ts'
+import { expectOneLine, run, runHere } from '../cli/helpers.ts'
 import { binFigures, modeFigures, relativeErrors } from './stats.ts'
 import { AERODYNAMIC_MIDPOINTS_UM, clock, instrumentValues, KNOWN_DENSITY, KNOWN_MODES, KNOWN_SHAPE_FACTOR, logMidpoints, MOBILITY_MIDPOINTS_UM, numberBetween, sizerFile } from './synthetic.ts'
 
@@ -126,6 +126,17 @@ describe('motebench merge on two clocks', () => {
     expect(err.volume).toBeLessThan(3e-2)
     expect(err.volumeMedianUm).toBeLessThan(3e-2)
   }, 60_000)
+})
+
+describe('the real command line', () => {
+  it('motebench merge is listed, has its help, and runs as a child process', async () => {
+    const help = await run(['help', 'merge'])
+    expect(help.stdout).toMatch(/--fit-density/)
+    const out = path('child.csv')
+    const r = await run(['merge', '--mobility', path('mobility.csv'), '--aerodynamic', path('aerodynamic.csv'), '--density', '1.8', '--shape-factor', String(KNOWN_SHAPE_FACTOR), '--out', out])
+    expect(r.code, r.stderr).toBe(0)
+    expect(parseSizerText(await readFile(out, 'utf8')).records).toHaveLength(6)
+  }, 120_000)
 })
 
 describe('bad input: located, with the fix; an unreadable file stops with exit 2 and no output', () => {
