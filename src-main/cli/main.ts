@@ -13,6 +13,7 @@ import { populationHelp, runPopulation } from './population.ts'
 import { forcingHelp, runForcing } from './forcing.ts'
 import { runStudy, studyHelp } from './study.ts'
 import { runSeries, seriesHelp } from './series.ts'
+import { mergeHelp, runMerge } from './merge.ts'
 
 interface Command {
   summary: string
@@ -31,6 +32,7 @@ const commands: Record<string, Command> = {
   forcing: { summary: 'direct-forcing estimate and verdict of a uniform layer', help: forcingHelp, run: runForcing },
   study: { summary: "evaluate a study: every sample's optics, figures and forcing", help: studyHelp, run: runStudy },
   series: { summary: 'optics of every distribution of a sizer time series', help: seriesHelp, run: runSeries },
+  merge: { summary: 'several sizers (mobility, aerodynamic, optical) merged into one volume-equivalent distribution', help: mergeHelp, run: runMerge },
   uncertainty: { summary: "Monte Carlo uncertainty of a sample's 550 nm optics and forcing", help: uncertaintyHelp, run: runUncertaintyCommand },
   closure: { summary: 'effective refractive index from a size distribution and optical measurements', help: closureHelp, run: runClosure },
   truncation: { summary: 'nephelometer angular-truncation correction from the particles\' phase function', help: truncationHelp, run: runTruncation },

@@ -1,0 +1,41 @@
+/**
+ * Field data: several sizers merged into one size distribution in volume-equivalent diameter (DeCarlo et al.
+ * 2004 conversions, a stated overlap rule, an optional density fit after Khlystov et al. 2004), and the time
+ * base that averages instruments on their own clocks onto common steps.
+ */
+export {
+  type SizerKind,
+  type ConversionSettings,
+  type ConvertedEdges,
+  SIZER_KINDS,
+  mobilityDiameter,
+  volumeDiameterFromMobility,
+  volumeEquivalentEdges,
+  fromVolumeEquivalent
+} from './diameters.ts'
+export {
+  type TimeStamp,
+  type TimeBase,
+  parseTimeStamp,
+  formatTimeStamp,
+  parseDuration,
+  formatDuration,
+  typicalInterval,
+  regularTimeBase,
+  stampTimeBase,
+  stepOf,
+  TimeAverager
+} from './timebase.ts'
+export {
+  type SizerInput,
+  type MergeSettings,
+  type PlannedSizer,
+  type MergePlan,
+  type DensityFit,
+  OVERLAP_RULE,
+  planMerge,
+  sizerValueInBin,
+  mergeStep,
+  fitDensity
+} from './merge.ts'
+export { type MergedFileInfo, mergedMidpointsNm, mergedFileHead, mergedFileRow } from './output.ts'
