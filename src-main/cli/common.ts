@@ -1,7 +1,7 @@
 // Shared pieces of the command line: argument errors, output, exit codes.
 import { parseArgs, type ParseArgsConfig } from 'node:util'
 import { InputError, parseWavelengthList, type Sample, type Study } from '../../src-core/index.ts'
-import { StudyFileError } from '../files.ts'
+import { StudyFileError } from '../studyFileError.ts'
 
 /** A bad command-line argument: printed as one line, exit status 2. */
 export class UsageError extends Error {}

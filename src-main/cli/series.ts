@@ -9,7 +9,7 @@ import { open, rename, stat, unlink, type FileHandle } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
 import { createInterface } from 'node:readline'
-import { Worker } from 'node:worker_threads'
+import type { Worker } from 'node:worker_threads'
 import {
   BIN_QUANTITIES,
   createSizerReader,
@@ -26,6 +26,7 @@ import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
 import { computeRow, SeriesRowComputer, seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, RowResult, ToWorker } from './workers/series-worker.ts'
+import { startCliWorker } from './workers/start.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
   SIZER                 sizer export with one row per time and one column per bin (.csv, .tsv or .txt)
@@ -200,6 +201,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
 
   const onMessage = (w: (typeof workers)[number], m: FromWorker): void => {
     w.ready = true
+    if (m.type === 'ready') return pump()
     w.inFlight -= m.results.length
     for (const r of m.results) done.set(r.seq, r)
     flush()
@@ -208,7 +210,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   }
 
   for (let i = 0; i < o.workers; i++) {
-    const worker = new Worker(new URL('./workers/series-bootstrap.mjs', import.meta.url), { workerData: setup })
+    const worker = startCliWorker('series-worker', setup)
     const entry = { worker, inFlight: 0, ready: false }
     worker.on('message', (m: FromWorker) => onMessage(entry, m))
     worker.on('error', (e) => fail(new Error(`a worker thread failed: ${e.message}`)))

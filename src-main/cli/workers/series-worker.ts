@@ -4,7 +4,7 @@ import { computeRow, SeriesRowComputer, type BinLayout, type RowResult, type Ser
 
 export type ToWorker = { type: 'bins'; bins: BinLayout } | { type: 'rows'; rows: { seq: number; values: number[] }[] }
 export type { RowResult }
-export type FromWorker = { type: 'results'; results: RowResult[] }
+export type FromWorker = { type: 'ready' } | { type: 'results'; results: RowResult[] }
 
 const port = parentPort!
 const computer = new SeriesRowComputer(workerData as SeriesSetup)
@@ -18,3 +18,4 @@ port.on('message', (m: ToWorker) => {
   const results = m.rows.map((row) => computeRow(computer, bins, row.seq, row.values))
   port.postMessage({ type: 'results', results } satisfies FromWorker)
 })
+port.postMessage({ type: 'ready' } satisfies FromWorker)
