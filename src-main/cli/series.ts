@@ -46,9 +46,14 @@ Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then
 (µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
-/** Rows per block sent to a worker, blocks a worker may hold, and text gathered before it is written. */
+/**
+ * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; about
+ * 3 MB: enough for the reading to go on while the workers integrate the bins' kernels), and text gathered before
+ * it is written.
+ */
 const BLOCK_ROWS = 256
 const BLOCKS_PER_WORKER = 3
+const BLOCKS_AHEAD = 16
 const WRITE_CHARS = 1 << 20
 /** Reasons kept for the summary (the counts go on). */
 const KEPT_REASONS = 1000
@@ -120,7 +125,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const started = performance.now()
   const setup: SeriesSetup = { sample: o.sample, userMaterials: o.userMaterials, wavelengthsNm: o.wavelengthsNm, tolerance: o.tolerance }
   const workers: { worker: Worker; inFlight: number }[] = []
-  const window = (BLOCKS_PER_WORKER + 1) * o.workers
+  const window = Math.max(BLOCKS_AHEAD, (BLOCKS_PER_WORKER + 1) * o.workers)
   const queue: Block[] = []
   /** Line numbers of the blocks sent and not yet written, by block. */
   const blockLines = new Map<number, number[]>()
@@ -474,7 +479,7 @@ export async function runSeries(argv: string[]): Promise<number> {
   const target = values.out !== undefined ? await fileOutput(values.out) : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
   // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
-  const stream = createReadStream(file, { encoding: 'utf8', highWaterMark: 1 << 20 })
+  const stream = createReadStream(file, { encoding: 'utf8', highWaterMark: 1 << 18 })
   const lines = fileLines(stream)
   const bar = process.stderr.isTTY ? progressBar(size, () => stream.bytesRead) : undefined
   let summary: SeriesSummary
