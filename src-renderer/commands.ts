@@ -1,5 +1,5 @@
 // What the menu, the buttons and the shortcuts do: files, exports, report, undo. The host does the platform part.
-import { demoStudy, InputError, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
+import { demoStudy, InputError, looksLikeDelimitedTable, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
 import type { MenuCommand, OpenedFile } from '../src-main/host-api.ts'
 import { cancel } from './compute/client.ts'
 import { resultsCsv, resultsJson, statusLines, type ExportedResult } from './exports.ts'
@@ -14,6 +14,12 @@ const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store
 /** Loads study text; problems are listed and the current study stays. */
 export function openText(file: OpenedFile): boolean {
   const r = parseStudy(file.text, file.name)
+  if (!r.ok && looksLikeDelimitedTable(file.text)) {
+    notice('error', `“${file.name}” is a table of values (like a sizer export), not a study: it was not opened`, [
+      'Open… reads Motebench studies (.mote files). To read this file’s size bins into a sample, use “Import sizer file…” (Ctrl+I) or drop the file on the window.'
+    ])
+    return false
+  }
   if (!r.ok) {
     notice(
       'error',
