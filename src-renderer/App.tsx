@@ -7,6 +7,7 @@ import { store, useApp } from './state/store.ts'
 import { CautionsDialog } from './views/Cautions.tsx'
 import { Header } from './views/Header.tsx'
 import { Notice, Toast } from './views/Messages.tsx'
+import { RecoveryOfferBanner } from './views/RecoveryOffer.tsx'
 import { Report } from './views/Report.tsx'
 import { Results, VIEWS } from './views/Results.tsx'
 import { SampleEditor } from './views/SampleEditor.tsx'
@@ -95,6 +96,7 @@ export function App() {
       </a>
       <Header />
       <Notice />
+      <RecoveryOfferBanner />
       <main class="workspace">
         <SampleList />
         <SampleEditor />

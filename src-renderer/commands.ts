@@ -178,9 +178,7 @@ export function run(command: MenuCommand): void {
 export { cancel }
 
 // ---------------------------------------------------------------------------------------------------------------
-// Recovery copy and the host's view of the window.
-
-const RECOVERY_EVERY_MS = 20_000
+// The host's view of the window (the recovery copy: recovery.ts).
 
 export function keepHostInformed(): void {
   let last = ''
@@ -191,11 +189,4 @@ export function keepHostInformed(): void {
     last = key
     host().setState({ title: s.file?.name ?? s.study.name, dirty: s.dirty, pristine: s.pristine })
   })
-  let copied: unknown = null
-  setInterval(() => {
-    const s = store().get()
-    if (!s.dirty || copied === s.study) return
-    copied = s.study
-    void host().keepRecovery({ text: serializeStudy(s.study), savedAt: new Date().toISOString(), name: s.study.name, path: s.file?.path })
-  }, RECOVERY_EVERY_MS)
 }
