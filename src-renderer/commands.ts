@@ -8,6 +8,7 @@ import { host } from './host/index.ts'
 import { blankStudy, load, redo, undo } from './state/actions.ts'
 import { store } from './state/store.ts'
 import { sampleState } from './shown.ts'
+import { openCatalogue } from './views/Catalogue.tsx'
 
 const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store().set({ notice: { kind, title, lines } })
 
@@ -169,6 +170,8 @@ export function run(command: MenuCommand): void {
       return redo()
     case 'cautions':
       return store().set({ cautionsOpen: true })
+    case 'catalogue':
+      return openCatalogue()
     case 'save-and-close':
       void save(false).then((ok) => ok && host().closeWindow())
       return
