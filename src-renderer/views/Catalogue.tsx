@@ -50,7 +50,8 @@ function indexAt(m: Material, nm: number): { n: number; k: number; source: strin
     const { n, k } = refractiveIndexAt(m, nm / 1000)
     return { n, k, source: indexSourceAt(m, nm / 1000) }
   } catch (e) {
-    return { problem: `outside its range (${rangeText(m)})` + (e instanceof Error && !/range/.test(e.message) ? `: ${e.message}` : '') }
+    const message = e instanceof Error ? e.message : String(e)
+    return { problem: /outside its tabulated range/.test(message) ? `not given here (the index is given for ${rangeText(m)})` : message }
   }
 }
 
