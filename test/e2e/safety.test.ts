@@ -19,7 +19,7 @@ async function openApp(o: { wait?: boolean } = {}): Promise<Page> {
   return page
 }
 
-const names = (page: Page) => page.locator('.sample-item').evaluateAll((li) => li.map((x) => x.getAttribute('data-sample')))
+const names = (page: Page) => page.locator('.sample-item').evaluateAll((li) => li.map((x) => x.getAttribute('data-sample') ?? ''))
 const recoveryCopy = (page: Page) => page.evaluate((key) => localStorage.getItem(key), RECOVERY_KEY)
 const pick = (page: Page, name: string) => page.locator(`.sample-item[data-sample="${name}"] button.sample-name`).click()
 
