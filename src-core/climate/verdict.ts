@@ -11,7 +11,8 @@ import { atmosphereAbove, checkInteger, checkRange, checkRangeOpenLow } from './
 /** The caution every verdict carries. */
 export const FORCING_CAUTION =
   'First-order, screening estimate of the direct forcing of a uniform aerosol layer, not a climate projection; ' +
-  'decisions rest with local codes and licensed practice.'
+  'any decision taken on it rests with qualified review under the local occupational-health and environmental ' +
+  'rules and the organisation’s own procedures.'
 
 /** Default margin below which the sign of the forcing is not called, W m⁻². */
 export const DEFAULT_VERDICT_MARGIN_WM2 = 0.5

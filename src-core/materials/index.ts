@@ -11,7 +11,7 @@ export type {
   ConstantIndex,
   ExpressionIndex
 } from './material.ts'
-export { refractiveIndexAt } from './material.ts'
+export { indexSourceAt, refractiveIndexAt } from './material.ts'
 export { listMaterials, getMaterial } from './catalogue.ts'
 export type { UserIndexSpec, UserMaterialDefinition } from './user.ts'
 export { defineUserMaterial } from './user.ts'

@@ -7,7 +7,7 @@ import { Chart, type Line } from '../charts/Chart.tsx'
 import { lineStyle } from '../charts/palette.ts'
 import { printReport } from '../commands.ts'
 import { APP_VERSION } from '../exports.ts'
-import { num } from '../format.ts'
+import { isoDateTime, num } from '../format.ts'
 import { host } from '../host/index.ts'
 import { store, useApp } from '../state/store.ts'
 import { sampleState } from '../shown.ts'
@@ -97,14 +97,35 @@ function SampleSection(p: { id: string; own: OwnComponentState[] }) {
           <Verdict x={{ ...x, result: r }} />
           <div class="report-charts">
             <Chart name={`report-ext-${x.index}`} title="Extinction, scattering, absorption" data={[wl, r.optics.wavelengths.map((w) => w.ext), r.optics.wavelengths.map((w) => w.sca), r.optics.wavelengths.map((w) => w.abs)]} lines={specLines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
-            <Chart name={`report-ssa-${x.index}`} title="ω and g" data={[wl, r.optics.wavelengths.map((w) => w.ssa), r.optics.wavelengths.map((w) => w.g)]} lines={[{ label: 'ω', ...lineStyle(0, s.theme) }, { label: 'g', ...lineStyle(1, s.theme) }]} xLabel="Wavelength (nm)" yLabel="" xLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
+            <Chart name={`report-ssa-${x.index}`} title="ω and g" data={[wl, r.optics.wavelengths.map((w) => w.ssa), r.optics.wavelengths.map((w) => w.g)]} lines={[{ label: 'ω', ...lineStyle(0, s.theme) }, { label: 'g', ...lineStyle(1, s.theme) }]} xLabel="Wavelength (nm)" yLabel="ω and g (no unit)" xLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
             <ForcingMapChart ok={ok} theme={s.theme} stale={!x.current} height={190} />
+            <ReportSizeChart id={p.id} index={x.index} />
           </div>
           <WavelengthTable rows={r.optics.wavelengths} caption="Optics at each wavelength" />
           <MethodsTable ok={ok} />
         </>
       )}
     </section>
+  )
+}
+
+/** The sample's dry number size distribution (as in the workbench's size plot; measured bins drawn as steps). */
+function ReportSizeChart(p: { id: string; index: number }) {
+  const c = useApp().sizes[p.id]
+  if (!c || 'error' in c) return <p class="empty">No size distribution to draw{c ? `: ${c.error}` : ''}.</p>
+  return (
+    <Chart
+      name={`report-size-${p.index}`}
+      title="Size distribution (dry)"
+      data={[c.diameter_um, c.number]}
+      lines={[{ label: 'dN/dlogDp', ...lineStyle(0, 'light'), steps: c.measured }]}
+      xLabel="Dry diameter Dp (µm)"
+      yLabel="dN/dlogDp (cm⁻³)"
+      xLog
+      xRange={[0.001, 100]}
+      theme="light"
+      height={190}
+    />
   )
 }
 
@@ -131,7 +152,7 @@ export function Report() {
         <header>
           <h1>{st.name}</h1>
           <p class="meta">
-            Motebench {APP_VERSION} · report made {new Date().toLocaleString()} · {st.samples.length} sample{st.samples.length === 1 ? '' : 's'}
+            Motebench {APP_VERSION} · report made <time data-testid="report-date" dateTime={new Date().toISOString()}>{isoDateTime(new Date())}</time> · {st.samples.length} sample{st.samples.length === 1 ? '' : 's'}
             {s.file ? ` · file ${s.file.name}` : ''}
           </p>
           {st.notes && <p class="notes-text">{st.notes}</p>}
