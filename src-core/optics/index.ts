@@ -10,4 +10,5 @@ export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, 
 export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityCurveKey, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'
 export { binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
+export { sampleWarnings } from './warnings.ts'
 export type { BinKernels, BinnedRow, BinLayout } from './binKernels.ts'

@@ -28,3 +28,8 @@ export function opticsWarnings(w: OpticsWarningInput): string[] {
   }
   return out
 }
+
+/** Every warning of a sample's results, its optics' first, then its forcing's. */
+export function sampleWarnings(r: { optics: { warnings: readonly string[] }; forcing: { warnings: readonly string[] } }): string[] {
+  return [...r.optics.warnings, ...r.forcing.warnings]
+}
