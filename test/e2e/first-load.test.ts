@@ -30,7 +30,6 @@ describe('first load', { timeout: 120_000 }, () => {
     const warning = page.getByTestId('warnings-forcing')
     await warning.waitFor({ timeout: 60_000 })
     expect(await warning.textContent()).toMatch(/Thin-layer forcing .* W m⁻² is outside its range.*Use the two-stream figure/)
-    await page.screenshot({ path: '/tmp/motebench-climate-warning.png' })
     await page.locator('.sample-item', { hasText: 'Winter wood smoke' }).click()
     await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 60_000 })
     await page.locator('[data-testid="verdict"]').first().waitFor()
