@@ -251,11 +251,11 @@ function Counter(p: { sel: ShownSample }) {
     if (m && problem) shown.add(problem.where)
     return m
   }
-  const edgeProblem = err(/opc: edge/)
-  const wlProblem = err(/opc: wavelength/)
-  const angleProblem = err(/opc: angles/)
-  const indexProblem = err(/opc: sample index/)
-  const calProblem = err(/opc: calibration/)
+  const edgeProblem = err(/optical particle counter: edge/)
+  const wlProblem = err(/optical particle counter: wavelength/)
+  const angleProblem = err(/optical particle counter: angles/)
+  const indexProblem = err(/optical particle counter: sample index/)
+  const calProblem = err(/optical particle counter: calibration/)
   return (
     <fieldset class="instrument" data-testid="counter">
       <legend>Optical particle counter re-binning</legend>

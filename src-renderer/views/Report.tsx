@@ -15,6 +15,7 @@ import { CautionText } from './Cautions.tsx'
 import { ForcingMapChart, MethodsTable, Verdict } from './ClimateView.tsx'
 import { BinsSummary, CompositionText, mainCompositionUse, ModesList, OwnComponentsReport, ownComponentStates, type OwnComponentState } from './ReportInputs.tsx'
 import { wavelengthAxis, WavelengthTable } from './OpticsView.tsx'
+import { Warnings } from './Warnings.tsx'
 
 export const REFERENCES = [
   'Bohren, C. F. and Huffman, D. R. (1983): Absorption and Scattering of Light by Small Particles. Wiley. (Mie theory, coated spheres.)',
@@ -24,6 +25,7 @@ export const REFERENCES = [
   'Chylek, P. and Wong, J. (1995): Effect of absorbing aerosols on global radiation budget. Geophys. Res. Lett. 22, 929–931.',
   'Wiscombe, W. J. and Grams, G. W. (1976): The backscattered fraction in two-stream approximations. J. Atmos. Sci. 33, 2440–2451.',
   'Joseph, J. H., Wiscombe, W. J. and Weinman, J. A. (1976): The delta-Eddington approximation for radiative flux transfer. J. Atmos. Sci. 33, 2452–2459.',
+  'Coakley, J. A. and Chýlek, P. (1975): The two-stream approximation in radiative transfer: including the angle of the incident radiation. J. Atmos. Sci. 32, 409–418. (The two-stream layer takes the population’s own upscatter fraction.)',
   'Seinfeld, J. H. and Pandis, S. N. (2016): Atmospheric Chemistry and Physics, 3rd ed. Wiley. (Size distributions, visibility.)'
 ]
 
@@ -101,6 +103,7 @@ function SampleSection(p: { id: string; own: OwnComponentState[] }) {
             <ForcingMapChart ok={ok} theme={s.theme} stale={!x.current} height={190} />
             <ReportSizeChart id={p.id} index={x.index} />
           </div>
+          <Warnings items={r.optics.warnings} name="optics" />
           <WavelengthTable rows={r.optics.wavelengths} caption="Optics at each wavelength" />
           <MethodsTable ok={ok} />
         </>
