@@ -18,16 +18,25 @@ export class CellSplitter {
   /** Splits `line`; trailing empty cells are dropped (exports often end rows with a separator). */
   split(line: string): number {
     if (line.indexOf('"') >= 0) return this.splitQuoted(line)
-    const d = this.delimiter.charCodeAt(0)
+    const d = this.delimiter
     this.text = line
+    const len = line.length
     let n = 0
     let start = 0
-    const len = line.length
-    for (let i = 0; i <= len; i++) {
-      if (i === len || line.charCodeAt(i) === d) {
-        this.push(n++, start, i)
-        start = i + 1
-      }
+    for (;;) {
+      let end = line.indexOf(d, start)
+      const last = end < 0
+      if (last) end = len
+      if (n >= this.starts.length) this.grow()
+      // spaces around a cell carry nothing
+      while (start < end && isSpace(line.charCodeAt(start))) start++
+      let e = end
+      while (e > start && isSpace(line.charCodeAt(e - 1))) e--
+      this.starts[n] = start
+      this.ends[n] = e
+      n++
+      if (last) break
+      start = end + 1
     }
     this.count = n
     this.trimTrailing()
@@ -50,20 +59,21 @@ export class CellSplitter {
   }
 
   private push(k: number, start: number, end: number): void {
-    if (k >= this.starts.length) {
-      const s = new Int32Array(this.starts.length * 2)
-      s.set(this.starts)
-      this.starts = s
-      const e = new Int32Array(this.ends.length * 2)
-      e.set(this.ends)
-      this.ends = e
-    }
-    // trim spaces around the cell
+    if (k >= this.starts.length) this.grow()
     const t = this.text
     while (start < end && isSpace(t.charCodeAt(start))) start++
     while (end > start && isSpace(t.charCodeAt(end - 1))) end--
     this.starts[k] = start
     this.ends[k] = end
+  }
+
+  private grow(): void {
+    const s = new Int32Array(this.starts.length * 2)
+    s.set(this.starts)
+    this.starts = s
+    const e = new Int32Array(this.ends.length * 2)
+    e.set(this.ends)
+    this.ends = e
   }
 
   private trimTrailing(): void {

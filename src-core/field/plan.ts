@@ -79,9 +79,10 @@ export function planTime(x: PlanInput): PlanTime {
   const candidates: number[] = []
   for (let j = 0; j < x.headerCells.length; j++) if (j < x.firstBin || j >= x.binEnd) candidates.push(j)
   const values = (j: number): string[] => x.dataRows.map((r) => r.cells[j] ?? '').filter((v) => v !== '')
+  // a column is of a kind when most of its first cells are (the others become bad rows, located)
   const all = (j: number, test: (v: string) => boolean): boolean => {
     const v = values(j)
-    return v.length > 0 && v.every(test)
+    return v.length > 0 && v.filter(test).length * 2 >= v.length
   }
   const name = (j: number): string => x.headerCells[j] ?? ''
   const meta = Object.entries(x.metadata)
@@ -117,8 +118,8 @@ export function planTime(x: PlanInput): PlanTime {
       meta.map(([k, v]) => (/date|format|order/.test(k) ? statedOrder(v) : undefined)).find((o) => o) ??
       statedOrder(name(plan.dateCol)) ??
       (x.unitsCells ? statedOrder(x.unitsCells[plan.dateCol] ?? '') : undefined)
-    const sample = values(plan.dateCol).map((v) => dateParts(v)!)
-    const yearFirst = sample.length > 0 && sample.every((p) => p.aDigits === 4)
+    const sample = values(plan.dateCol).map((v) => dateParts(v))
+    const yearFirst = sample.length > 0 && sample.every((p) => !p || p.aDigits === 4)
     if (yearFirst) plan.order = 'ymd'
     else if (x.options.dateOrder) plan.order = x.options.dateOrder
     else if (stated) {
@@ -186,7 +187,6 @@ export class RowTime {
     if (e === 'dmy' || e === 'mdy') {
       this.plan.order = e
       this.detectedAt = `line ${line}: ${cell}`
-      this.plan.notes.push(`dates read as ${DATE_ORDER_NAMES[e]}: detected from the column (line ${line} has ${cell})`)
       return e
     }
     return undefined

@@ -196,6 +196,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
         }
         const rows = held
         held = undefined
+        orderSettled()
         for (const r of rows) processRow(r.line, r.text)
         s.split(text)
       }
@@ -262,6 +263,15 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     columnValues.push(row)
   }
 
+  /** The date order is known (detected from a row, or immaterial): the header says it. */
+  const orderSettled = (): void => {
+    const h = det!.header
+    const o = time!.plan.order!
+    h.dateOrder = o
+    const name = o === 'dmy' ? 'day/month/year' : o === 'mdy' ? 'month/day/year' : 'year-month-day'
+    h.timeFormat = h.timeFormat.replace(/^dates in/, `dates in ${name} order${time!.detectedAt ? ` (detected: ${time!.detectedAt})` : ''} in`)
+  }
+
   const orderUnknown = (): InputError => {
     const first = held![0]
     splitter!.split(first.text)
@@ -283,6 +293,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     if (found.header.layout === 'time-rows') {
       time = new RowTime(found.time)
       if (time.needsOrder) held = []
+      else if (time.plan.order && found.header.timeFormat.startsWith('dates in')) orderSettled()
     }
     const rest = buffer.slice(found.dataStart)
     buffer = undefined
@@ -338,11 +349,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
         held = undefined
         time!.plan.order = 'dmy'
         for (const r of rows) processRow(r.line, r.text)
-      }
-      if (h.layout === 'time-rows' && time!.plan.order && time!.plan.kind !== 'label' && time!.plan.kind !== 'none') {
-        h.dateOrder = time!.plan.order
-        if (time!.detectedAt) h.timeFormat = h.timeFormat.replace(/^dates in/, `dates in ${time!.plan.order === 'dmy' ? 'day/month/year' : 'month/day/year'} order (detected: ${time!.detectedAt}) in`)
-        else if (h.timeFormat.startsWith('dates in')) h.timeFormat = h.timeFormat.replace(/^dates in/, `dates in ${time!.plan.order === 'dmy' ? 'day/month/year' : time!.plan.order === 'mdy' ? 'month/day/year' : 'year-month-day'} order in`)
+        orderSettled()
       }
       if (h.layout === 'single') {
         if (h.edges && !pendingTopEdge && singleDiameters.length > 0) {
