@@ -34,6 +34,7 @@ import { CellSplitter } from './cells.ts'
 import { detect, type Detected } from './header.ts'
 import { inferDiameterUnit, RowTime } from './plan.ts'
 import { SizerChoiceNeeded, toNumber, unitName, where } from './text.ts'
+import { readDateTime } from './time.ts'
 import type { SizerHeader, SizerOptions, SizerReader, SizerReaderOptions, SizerRecord, SizerRejection, SizerSummary, SizerTable } from './types.ts'
 
 /** Rejections kept in memory by a reader (the count goes on). */
@@ -360,7 +361,8 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
         settleUnit(diameters)
         if (h.diameters.length > 0 && singleValues.length > 0) {
           const t = Object.entries(h.metadata).find(([k]) => /^(time|date|start|start time|sampled)$/.test(k))?.[1] ?? ''
-          emit({ time: t, timeMs: NaN, values: singleValues.slice(), line: singleFirstLine })
+          const iso = readDateTime(t, undefined, 'ymd', undefined)
+          emit({ time: iso ? iso.iso : t, timeMs: iso ? iso.ms : NaN, values: singleValues.slice(), line: singleFirstLine })
         }
       } else if (h.layout === 'time-columns') {
         h.diameters = pendingTopEdge ? [...singleDiameters, pendingTopEdge.d] : singleDiameters.slice()
@@ -370,9 +372,12 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
           h.diameters = []
         }
         const nCols = det!.headerCells.length - 1
+        // column times as ISO 8601 when every one is a year-first date; else labels as written
+        const times = det!.headerCells.slice(1).map((c) => readDateTime(c, undefined, 'ymd', undefined))
+        const dated = times.every((x) => x)
         for (let j = 0; j < nCols && h.diameters.length > 0; j++) {
           if (badColumns.has(j)) continue
-          emit({ time: det!.headerCells[j + 1], timeMs: NaN, values: columnValues.map((r) => r[j]), line: h.headerLine })
+          emit({ time: dated ? times[j]!.iso : det!.headerCells[j + 1], timeMs: dated ? times[j]!.ms : NaN, values: columnValues.map((r) => r[j]), line: h.headerLine })
         }
       }
       return { ...h, recordCount, rejected: rejected.slice(), rejectedCount, rowsLeftOut, negativesZeroed: { cells: zeroCells, rows: zeroRows }, firstTime, lastTime }

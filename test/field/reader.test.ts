@@ -1,7 +1,7 @@
 // Instrument exports as they come: the layouts field sizers commonly write, each built here from invented
 // numbers (no real instrument's or maker's format), and what the reader makes of them.
 import { describe, expect, it } from 'vitest'
-import { createSizerReader, InputError, parseNumber, parseSizerText, SizerChoiceNeeded, type SizerOptions } from '../../src-core/index.ts'
+import { averageRecords, createSizerReader, InputError, parseNumber, parseSizerText, SizerChoiceNeeded, type SizerOptions } from '../../src-core/index.ts'
 
 /** Geometric bin midpoints from lo to hi (n bins), written with 4 significant digits. */
 function bins(n: number, lo: number, hi: number): string[] {
@@ -304,5 +304,32 @@ describe('numbers are read exactly as Number() reads them', () => {
       expect(parseNumber(s.replace('.', ','), true)).toBe(Number(s))
     }
     for (const bad of ['', '1.2.3', '1,5', '1e', 'e5', '--1', '1 000', 'nan', 'Infinity', '0x10', '.']) expect(parseNumber(bad, false)).toBeNaN()
+  })
+})
+
+describe('times of the other layouts', () => {
+  it('one column per time: year-first dates in the header become ISO 8601', () => {
+    const t = parseSizerText('units: nm\nquantity: dN\nDp (nm),2024-05-01 00:00,2024-05-01 01:00\n10,1,2\n20,3,4\n')
+    expect(t.records.map((r) => r.time)).toEqual(['2024-05-01T00:00:00', '2024-05-01T01:00:00'])
+    expect(t.records[1].timeMs - t.records[0].timeMs).toBe(3_600_000)
+  })
+
+  it('a single distribution: the time of its metadata line', () => {
+    const t = parseSizerText('time: 2024-05-01 12:30\nDp (nm),dN\n10,1\n20,2\n')
+    expect(t.records[0].time).toBe('2024-05-01T12:30:00')
+  })
+})
+
+describe('the mean over a time range', () => {
+  const t = parseSizerText('units: nm\nquantity: dN\ntime,10,20\n2024-05-01T00:00Z,1,10\n2024-05-01T00:05Z,2,20\n2024-05-01T00:10Z,6,60\n2024-05-01T00:15Z,100,100\n')
+  it('is the bin-by-bin mean of the rows inside the range (ends included), with their count', () => {
+    const m = averageRecords(t.records, { fromMs: Date.UTC(2024, 4, 1, 0, 0), toMs: Date.UTC(2024, 4, 1, 0, 10) })
+    expect(m.count).toBe(3)
+    expect(m.values).toEqual([3, 30])
+    expect([m.firstTime, m.lastTime]).toEqual(['2024-05-01T00:00:00Z', '2024-05-01T00:10:00Z'])
+  })
+  it('the whole file by default; a range with no row is refused', () => {
+    expect(averageRecords(t.records).count).toBe(4)
+    expect(() => averageRecords(t.records, { fromMs: Date.UTC(2025, 0, 1) })).toThrow(InputError)
   })
 })
