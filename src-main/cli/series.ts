@@ -38,7 +38,7 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are
                         integrated once and every row is a weighted sum of them
 ${sizerHelp()}
-Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
+Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
