@@ -97,8 +97,8 @@ export function SizerDialog(p: { pending: PendingSizer; onClose: () => void }) {
     const stem = p.pending.name.replace(/\.[^.]+$/, '')
     let bins
     let label: string
-    if (take === 'one' && many) {
-      const rec = t.records[record]
+    if (!many || take === 'one') {
+      const rec = t.records[many ? record : 0]
       bins = sizerRecordToBins(t, rec, p.pending.name)
       label = rec.time
     } else {
