@@ -3,7 +3,8 @@
 // tab-separated export with sample number, day/month/year date and time columns and trailing totals. Reports
 // rows per second (median of five passes after three warm-up passes), per second of
 // wall-clock time and per second of processor time, beside the goal: the reader must leave room for `series` to reach
-// 50,000 rows/s end to end (issue 19), so it aims at 200,000 rows/s on its own.
+// 50,000 rows/s end to end (issue 19), so it aims at 100,000 rows/s on its own (half the budget of a row).
+// On a machine shared with other work the processor-time figure is the one to read.
 import { createSizerReader } from '../../src-core/index.ts'
 import { median, report } from './timing.ts'
 
@@ -65,6 +66,6 @@ export function benchSizerRead(): void {
     iso_comma_rows_per_cpu_s: iso.cpu,
     tab_date_time_rows_per_s: tab.wall,
     tab_date_time_rows_per_cpu_s: tab.cpu,
-    goal_rows_per_s: 200_000
+    goal_rows_per_s: 100_000
   })
 }
