@@ -1,7 +1,8 @@
 /**
  * Field data: several sizers merged into one size distribution in volume-equivalent diameter (DeCarlo et al.
  * 2004 conversions, a stated overlap rule, an optional density fit after Khlystov et al. 2004), and the time
- * base that averages instruments on their own clocks onto common steps.
+ * base that averages instruments on their own clocks onto common steps; and reading instrument exports as they
+ * come (sizer tables with their time, units and extra columns).
  */
 export {
   type SizerKind,
@@ -39,3 +40,23 @@ export {
   fitDensity
 } from './merge.ts'
 export { type MergedFileInfo, mergedMidpointsNm, mergedFileHead, mergedFileRow } from './output.ts'
+export type {
+  SizerLayout,
+  SizerDelimiter,
+  SizerOptions,
+  SizerReaderOptions,
+  SizerRecord,
+  SizerRejection,
+  SizerColumn,
+  TimeRole,
+  SizerHeader,
+  SizerTable,
+  SizerSummary,
+  SizerReader
+} from './types.ts'
+export { MAX_KEPT_REJECTIONS, MAX_HELD_ROWS, createSizerReader, parseSizerText, sizerRecordToBins } from './reader.ts'
+export { SizerChoiceNeeded, type SizerChoice } from './text.ts'
+export { inferDiameterUnit } from './plan.ts'
+export { type DateOrder, type ParsedTime, DATE_ORDER_NAMES, readDateTime, readClock, readDayOfYear, readEpochSeconds, epochNamed, isoText } from './time.ts'
+export { readNumber, parseNumber } from './cells.ts'
+export { type AveragedRecords, averageRecords } from './average.ts'

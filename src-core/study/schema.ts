@@ -103,7 +103,8 @@ const bins = z.strictObject({
   edges: z.boolean(),
   quantity: z.enum(BIN_QUANTITIES),
   values: z.array(num((v) => v >= 0, (v) => `a bin value cannot be negative (it is ${fmt(v)})`, 'Check the instrument export; replace negative values (noise after inversion) by 0 or remove the bin.')).min(1),
-  source: z.string().optional()
+  source: z.string().optional(),
+  rows_averaged: z.number().int().min(1).optional()
 })
 
 const size = z.discriminatedUnion('kind', [z.strictObject({ kind: z.literal('modes'), modes: z.array(mode).min(1) }), z.strictObject({ kind: z.literal('bins'), bins })])

@@ -12,19 +12,18 @@ import { basename } from 'node:path'
 import type { Readable } from 'node:stream'
 import type { Worker } from 'node:worker_threads'
 import {
-  BIN_QUANTITIES,
   createSizerReader,
   dryIndicesAt,
   InputError,
   resolveComposition,
   studyMaterials,
-  type BinQuantityName,
   type SizerHeader,
   type SizerOptions,
   type SizerRejection
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
@@ -40,9 +39,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
                         one fewer than the processors, at least 1: ${Math.max(1, availableParallelism() - 1)} here)
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are
                         integrated once and every row is a weighted sum of them
-  --diameter-unit U     nm or um, when the file does not say
-  --quantity Q          ${BIN_QUANTITIES.join(', ')}, when the file does not say
-Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
+${sizerHelp()}
+Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
@@ -70,7 +68,7 @@ export interface SeriesRunOptions extends SeriesSetup {
    */
   lines: AsyncIterable<string | readonly string[]>
   fileName: string
-  sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout'>
+  sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout' | 'negatives' | 'dateOrder' | 'year'>
   onBadRow: 'skip' | 'stop'
   workers: number
   output: SeriesOutput
@@ -96,6 +94,8 @@ export interface SeriesSummary {
   rowsSkippedByOptics: number
   /** First KEPT_REASONS reasons, by line. */
   skipped: SkippedRow[]
+  /** With --negatives zero: the cells set to 0 and the rows that had any. */
+  negativesZeroed: { cells: number; rows: number }
   workers: number
   tolerance: number
   seconds: number
@@ -259,19 +259,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     }
   })
 
-  // Non-blank line numbers seen early, to count the data rows after the header once it is known.
-  const earlyNonBlank: number[] = []
-  let nonBlank = 0
-  let lineNo = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
     await o.output.write(seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
     const take = (line: string): void => {
-      lineNo++
-      if (line.trim() !== '') {
-        nonBlank++
-        if (earlyNonBlank.length < 5000) earlyNonBlank.push(lineNo)
-      }
       reader.push(line)
     }
     for await (const item of source) {
@@ -301,8 +292,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     const h = end
     let readerSkipped: number
     if (h.layout === 'time-rows') {
-      const beforeData = earlyNonBlank.filter((l) => l <= h.headerLine).length
-      readerSkipped = Math.max(0, nonBlank - beforeData - end.recordCount)
+      readerSkipped = end.rowsLeftOut
     } else {
       readerSkipped = new Set(end.rejected.map((r) => r.line)).size
     }
@@ -315,6 +305,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       rowsSkippedByReader: readerSkipped,
       rowsSkippedByOptics: opticsSkipCount,
       skipped: skipped.slice(0, KEPT_REASONS),
+      negativesZeroed: end.negativesZeroed,
       workers: o.workers,
       tolerance: o.tolerance,
       seconds: (performance.now() - started) / 1000
@@ -405,6 +396,7 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
       (skipped > 0 ? ` (${s.rowsSkippedByReader} with bad cells, ${s.rowsSkippedByOptics} whose distribution the optics could not use)` : ''),
     `  ${s.header.diameters.length - (s.header.edges ? 1 : 0)} bins (${s.header.quantity}), ${wavelengths} wavelength${wavelengths === 1 ? '' : 's'}; size-integration tolerance ${s.tolerance} (relative); ${s.workers} worker${s.workers === 1 ? '' : 's'}; ${s.seconds.toFixed(1)} s`
   ]
+  for (const l of readingLines({ ...s.header, negativesZeroed: s.negativesZeroed })) lines.push(`  ${l}`)
   const show = s.skipped.slice(0, 20)
   for (const r of show) lines.push(`  line ${r.line}${r.column !== undefined ? ` column ${r.column}` : ''}: ${r.reason}${r.fix ? `\n    fix: ${r.fix}` : ''}`)
   if (s.skipped.length > show.length) lines.push(`  ... and ${s.skipped.length - show.length} more reasons not shown`)
@@ -442,8 +434,7 @@ export async function runSeries(argv: string[]): Promise<number> {
       'on-bad-row': { type: 'string' },
       workers: { type: 'string' },
       tolerance: { type: 'string' },
-      'diameter-unit': { type: 'string' },
-      quantity: { type: 'string' }
+      ...sizerFlags
     },
     true
   )
@@ -455,16 +446,8 @@ export async function runSeries(argv: string[]): Promise<number> {
   if (policy !== 'skip' && policy !== 'stop') throw new UsageError(`series: --on-bad-row "${policy}" is not skip or stop`)
   const workers = readInteger(values.workers, '--workers', 1, 64, Math.max(1, availableParallelism() - 1))
   const tolerance = readTolerance(values.tolerance, 1e-4)
-  const sizer: SeriesRunOptions['sizer'] = {}
-  if (values['diameter-unit'] !== undefined) {
-    const u = values['diameter-unit'].replace(/[µμ]m/, 'um')
-    if (u !== 'nm' && u !== 'um') throw new UsageError(`series: --diameter-unit "${values['diameter-unit']}" is not nm or um`)
-    sizer.diameterUnit = u
-  }
-  if (values.quantity !== undefined) {
-    if (!(BIN_QUANTITIES as readonly string[]).includes(values.quantity)) throw new UsageError(`series: --quantity "${values.quantity}" is not one of ${BIN_QUANTITIES.join(', ')}`)
-    sizer.quantity = values.quantity as BinQuantityName
-  }
+  const sizer: SeriesRunOptions['sizer'] = readSizerFlags('series', values)
+
 
   const { study } = await loadStudyFile(values.study)
   const { sample } = findSample(study, values.sample, 'series')

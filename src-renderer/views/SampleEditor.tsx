@@ -21,6 +21,7 @@ function BinsPanel(p: { id: string; bins: BinsSpec }) {
     <div class="bins" data-testid="bins-panel">
       <p>
         <strong>{b.values.length} measured bins</strong> ({b.edges ? 'edges' : 'midpoints'} {diameter(lo)} – {diameter(hi)}), values as {b.quantity}
+        {b.rows_averaged ? `, the mean of ${b.rows_averaged} rows` : ''}
         {b.source ? `, from ${b.source}` : ''}.
       </p>
       <details>
