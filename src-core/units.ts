@@ -115,7 +115,8 @@ export function readLength(text: string, where: string, options: LengthOptions =
       throw new InputError(where, `"${split[2]}" in "${text}" is not a unit`, 'Use a length unit such as nm, um (µm), mm or m.')
     }
     try {
-      value = u.toNumber('um')
+      // 12 significant digits: the unit factors' round-off (1 mm is 1000.0000000000001 µm) is no one's value
+      value = Number(u.toNumber('um').toPrecision(12))
     } catch {
       throw new InputError(where, `"${text}" is not a length`, 'Use a length unit such as nm, um (µm), mm or m.')
     }
@@ -127,7 +128,7 @@ export function readLength(text: string, where: string, options: LengthOptions =
   if (options.max_um !== undefined && value > options.max_um) {
     const inUnit = unit(options.max_um, 'um').toNumber(unitName)
     const what = options.what ?? 'the length'
-    throw new InputError(where, `${text.trim()} is longer than ${what} can be (at most ${readableNumber(inUnit)} ${shown})`, `Give ${what} in ${shown} (or type a unit, e.g. "150 nm" or "2.5 µm").`)
+    throw new InputError(where, `${text.trim()} is larger than ${what} can be (at most ${readableNumber(inUnit)} ${shown})`, `Check the number and its unit: give ${what} of at most ${readableNumber(inUnit)} ${shown}.`)
   }
   return { um: value, unit: unitName, written: !!split }
 }

@@ -3,6 +3,7 @@
 import { useEffect, useRef, useState } from 'preact/hooks'
 import { InputError, parseNumber } from '../../src-core/index.ts'
 import { setDraft } from '../state/actions.ts'
+import { fieldLabel } from './fieldNames.ts'
 import { store, useApp } from '../state/store.ts'
 
 export interface FieldProps<T> {
@@ -143,12 +144,15 @@ export function readOptional(what: string): (t: string) => number | undefined {
 export function ErrorRow(p: { paths: string[]; span: number }) {
   const s = useApp()
   const messages = p.paths.map((path) => ({ path, text: s.drafts[path] ?? problemAt(path) })).filter((m) => m.text)
+  // several fields share the row: each reason says whose it is, as the column heads name them
+  const whose = (path: string) => (/\]$/.test(path) ? '' : `${fieldLabel(path)}: `)
   if (!messages.length) return null
   return (
     <tr class="error-row">
       <td colSpan={p.span}>
         {messages.map((m) => (
           <span class="field-error block" role="alert" id={`err-${m.path}`} data-error-for={m.path} key={m.path}>
+            {whose(m.path)}
             {m.text}
           </span>
         ))}

@@ -1,5 +1,5 @@
 // The top bar: the study's name, file actions, exports, the computing status and the cautions.
-import { affectsOptics } from '../compute/client.ts'
+import { studyStatus } from '../shown.ts'
 import { cancel, exportCsv, exportJson, importSizer, newStudy, openDemo, openReport, openStudy, save } from '../commands.ts'
 import { host } from '../host/index.ts'
 import { edit } from '../state/actions.ts'
@@ -7,7 +7,9 @@ import { store, useApp } from '../state/store.ts'
 
 function Status() {
   const s = useApp()
-  const stale = Object.keys(s.drafts).some(affectsOptics) || s.problems.some((p) => affectsOptics(p.path))
+  const status = studyStatus(s)
+  const stale = status.state === 'stale'
+  const why = status.inputs > 0 ? 'Inputs need attention' : status.failed.length > 0 ? `“${status.failed[0]}”${status.failed.length > 1 ? ` and ${status.failed.length - 1} more` : ''} could not be computed` : 'Not all samples computed'
   return (
     <span class="status-group" role="status">
       {s.job.running && (
@@ -20,11 +22,11 @@ function Status() {
         </span>
       )}
       {stale && (
-        <span class="status warn" data-status="stale">
-          Inputs need attention · results stale
+        <span class="status warn" data-status="stale" title="The results marked stale are from earlier inputs; they update when the inputs are complete and valid">
+          {why} · results stale
         </span>
       )}
-      {!stale && !s.job.running && (
+      {status.state === 'ok' && (
         <span class="status ok" data-status="ok">
           Results up to date
         </span>
