@@ -54,8 +54,9 @@ export function parseNumber(text: string, where: string, options: { percent?: Pe
       if (m) {
         const point = `${m[1] || '0'}.${m[2]}`
         const joined = `${m[1]}${m[2]}`.replace(/^([+-]?)0+(?=\d)/, '$1')
-        const fix = /^[+-]?0*$/.test(m[1]) ? `Write ${point} (a point as the decimal mark).` : `Write ${point} or ${joined}: a point is the decimal mark, and a comma separates thousands only before groups of three digits.`
-        throw new InputError(where, `"${text.trim()}" has a comma that could be a decimal mark or a thousands separator`, fix)
+        const zero = /^[+-]?0*$/.test(m[1])
+        const fix = zero ? `Write ${point}, with a point as the decimal mark.` : `Write ${point} or ${joined} (a point is the decimal mark).`
+        throw new InputError(where, `"${text.trim()}" is ambiguous: its comma could be a decimal mark or a thousands separator`, fix)
       }
       throw new InputError(where, `"${text.trim()}" is not a number`, 'Write a point as the decimal mark and commas only between groups of three digits, e.g. 12,500.5 or 12500.5.')
     }

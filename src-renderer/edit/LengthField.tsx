@@ -1,6 +1,7 @@
-// A length field (a median diameter): the number in the unit shown beside it, nm or µm. A bare number means that
-// unit; a number typed with a unit ("2.5 µm") is read in it, and the field then keeps that unit (the person's own
-// choice is not rewritten into another). A length above the largest accepted is refused in the unit it was typed in.
+// A length field (a median diameter): the cell shows the number with its unit, "45 nm" or "2.5 µm". A bare number
+// typed into it means the unit the cell showed; a number typed with a unit ("2.5 µm") is read in it, and the cell
+// then keeps that unit (the person's own choice is not rewritten into another). A length above the largest accepted
+// is refused in the unit it was typed in.
 import { readLength, type LengthOptions } from '../../src-core/index.ts'
 import { num } from '../format.ts'
 import { Field, type FieldProps } from './Field.tsx'
@@ -28,8 +29,8 @@ export function readLengthAt(path: string, unit: LengthUnit, where: string, opti
   }
 }
 
-/** The number of `um` in `unit`, as the field writes it. */
-export const writeLength = (um: number, unit: LengthUnit): string => num(unit === 'nm' ? um * 1000 : um, 5)
+/** `um` in `unit`, as the field writes it: "45 nm", "2.5 µm". */
+export const writeLength = (um: number, unit: LengthUnit): string => `${num(unit === 'nm' ? um * 1000 : um, 5)} ${UNIT_SHOWN[unit]}`
 
 export function LengthField(p: Omit<FieldProps<number>, 'read' | 'write' | 'hint'> & { where: string; options?: Omit<LengthOptions, 'defaultUnit'>; kind?: string }) {
   const unit = unitOf(p.path, p.value)
@@ -39,8 +40,8 @@ export function LengthField(p: Omit<FieldProps<number>, 'read' | 'write' | 'hint
       {...rest}
       read={readLengthAt(p.path, unit, where, options)}
       write={(v) => writeLength(v, unitOf(p.path, v))}
-      hint={kind ? `${UNIT_SHOWN[unit]} ${kind}` : UNIT_SHOWN[unit]}
-      title={p.title ?? `A number alone is in ${UNIT_SHOWN[unit]}; type a unit to give it in another ("150 nm", "2.5 µm").`}
+      hint={kind}
+      title={p.title ?? `A number alone is in ${UNIT_SHOWN[unit]}, the unit shown; type a unit to give it in another ("150 nm", "2.5 µm").`}
     />
   )
 }

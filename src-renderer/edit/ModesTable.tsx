@@ -28,7 +28,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
             <th scope="col">Mode</th>
             <th scope="col" title="How the mode's amount is given">Given by</th>
             <th scope="col" title="Number (cm⁻³), volume (µm³ cm⁻³) or mass (µg m⁻³) concentration">Amount</th>
-            <th scope="col" title="Median diameter: count (CMD), volume (VMD) or mass (MMD) median; a number alone is in the unit shown beside it (nm or µm), or type a unit (150 nm, 2.5 µm)">
+            <th scope="col" title="Median diameter: count (CMD), volume (VMD) or mass (MMD) median; a number alone is in the unit the cell shows (nm or µm), or type a unit (150 nm, 2.5 µm)">
               Median D
             </th>
             <th scope="col" title="Geometric standard deviation σg (> 1)">σg</th>

@@ -58,7 +58,7 @@ export function SampleList() {
                     {st?.stale && <span class="stale-tag">stale</span>}
                   </span>
                 )}
-                {!verdict && st?.stale && (
+                {!verdict && st?.stale && !s.job.running && (
                   <span class="verdict-mini is-stale" data-stale="true">
                     <span class="stale-tag">no results</span>
                   </span>

@@ -101,7 +101,7 @@ export function appSession(): {
   beforeAll(async () => {
     browser = await launchChromium()
     served = await buildAndServe()
-  }, 180_000)
+  }, 420_000) // the build takes minutes on a busy machine
   // Close each test's pages, so that their workers stop computing and leave the CPU to the next test.
   afterEach(async () => {
     for (const c of contexts.splice(0)) await c.close().catch(() => {})

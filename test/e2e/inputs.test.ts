@@ -64,22 +64,25 @@ describe('Typed values in the editor', { timeout: 120_000 }, () => {
   test('a bare number in the median cell is in the unit shown beside it; a typed unit is kept', async () => {
     const page = await openApp({ wait: false })
     const median = cell(page, MEDIAN)
-    const unitBeside = median.locator('xpath=following-sibling::span[contains(@class,"hint")]')
-    // the demo's Aitken mode: 45 nm, shown as 45 with nm beside it
-    expect(await median.inputValue()).toBe('45')
-    expect(await unitBeside.textContent()).toMatch(/^nm\b/)
+    // the demo's Aitken mode: the cell shows 45 nm; "60" typed there is 60 nm
+    expect(await median.inputValue()).toBe('45 nm')
     await type(page, MEDIAN, '60')
-    expect(await median.inputValue()).toBe('60')
+    expect(await median.inputValue()).toBe('60 nm')
     expect((await saved(page, 'sixty.mote')).samples[0].size.modes[0].median_um).toBeCloseTo(0.06, 12)
 
-    // a unit typed with the number is read in it, and the cell then shows that unit (not the number in another)
+    // a unit typed with the number is read in it, and the cell then keeps that unit (not the number in another);
+    // a bare number then means that unit
     await type(page, MEDIAN, '0.07 µm')
-    expect(await median.inputValue()).toBe('0.07')
-    expect(await unitBeside.textContent()).toMatch(/^µm\b/)
+    expect(await median.inputValue()).toBe('0.07 µm')
     expect((await saved(page, 'seventy.mote')).samples[0].size.modes[0].median_um).toBeCloseTo(0.07, 12)
+    await type(page, MEDIAN, '0.5')
+    expect(await median.inputValue()).toBe('0.5 µm')
+    expect((await saved(page, 'half.mote')).samples[0].size.modes[0].median_um).toBeCloseTo(0.5, 12)
+    // a diameter that crosses 1 µm while typed in nm stays in nm (the unit does not switch under the typing)
     await type(page, MEDIAN, '80 nm')
-    expect(await median.inputValue()).toBe('80')
-    expect(await unitBeside.textContent()).toMatch(/^nm\b/)
+    await type(page, MEDIAN, '1500')
+    expect(await median.inputValue()).toBe('1500 nm')
+    expect((await saved(page, 'crossed.mote')).samples[0].size.modes[0].median_um).toBeCloseTo(1.5, 12)
   })
 
   test('"1e9 nm" is refused in nm, stays as typed, and the model keeps the last good value', async () => {
@@ -172,7 +175,7 @@ describe('A bad input is told the same way everywhere', { timeout: 150_000 }, ()
     await page.locator('[data-status="stale"]').waitFor({ timeout: 60_000 })
     expect(await page.locator('[data-status="stale"]').textContent()).toMatch(/Winter wood smoke.*could not be computed/)
     await page.getByTestId('stale-note').waitFor()
-    expect(await page.getByTestId('stale-note').textContent()).toMatch(/Optical depth at 550 nm: [\d\u202f]+ is outside 0–10/)
+    expect(await page.getByTestId('stale-note').textContent()).toMatch(/Optical depth at 550 nm: [\d\u202f.]+ is outside 0–10/)
     expect(await page.getByTestId('problems').textContent()).toMatch(/Optical depth at 550 nm/)
     expect(await page.locator('.sample-item[data-sample="Winter wood smoke"] .verdict-mini').getAttribute('data-stale')).toBe('true')
     expect(await page.locator('[data-status="ok"]').count()).toBe(0)
