@@ -9,7 +9,13 @@ function Status() {
   const s = useApp()
   const status = studyStatus(s)
   const stale = status.state === 'stale'
-  const why = status.inputs > 0 ? 'Inputs need attention' : status.failed.length > 0 ? `“${status.failed[0]}”${status.failed.length > 1 ? ` and ${status.failed.length - 1} more` : ''} could not be computed` : 'Not all samples computed'
+  const why = status.inputs > 0 ? 'Inputs need attention' : status.failed.length > 0 ? 'Not computed' : 'Not all computed'
+  const detail =
+    status.inputs > 0
+      ? `${status.inputs} input${status.inputs === 1 ? '' : 's'} cannot be used as they stand (marked at the fields)`
+      : status.failed.length > 0
+        ? `${status.failed.map((n) => `“${n}”`).join(', ')} could not be computed from the current inputs (the reason is beside the results)`
+        : 'Some results are from earlier inputs'
   return (
     <span class="status-group" role="status">
       {s.job.running && (
@@ -22,7 +28,7 @@ function Status() {
         </span>
       )}
       {stale && (
-        <span class="status warn" data-status="stale" title="The results marked stale are from earlier inputs; they update when the inputs are complete and valid">
+        <span class="status warn" data-status="stale" title={`${detail}; the results marked stale are from earlier inputs and update when the inputs are complete and valid.`}>
           {why} · results stale
         </span>
       )}
