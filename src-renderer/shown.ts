@@ -36,8 +36,9 @@ export function sampleState(s: AppState, id: string, position = 0): ShownSample 
 
 /**
  * How the results of the whole study stand, told the same way by the header, the result views, the charts and the
- * sample list: 'stale' as soon as any sample's shown results are marked stale (sampleState) or an input needs
- * attention; 'ok' only when every sample's results are from its current inputs and nothing is computing.
+ * sample list: 'stale' as soon as an input needs attention or a sample's computation failed, or when no job runs
+ * and a sample's shown results are marked stale (sampleState); 'ok' only when every sample's results are from its
+ * current inputs and nothing is computing; else 'pending' (computing).
  */
 export interface StudyStatus {
   state: 'ok' | 'stale' | 'pending'
@@ -51,7 +52,8 @@ export function studyStatus(s: AppState): StudyStatus {
   const inputs = Object.keys(s.drafts).filter(affectsOptics).length + s.problems.filter((p) => affectsOptics(p.path)).length
   const states = s.ids.map((id) => sampleState(s, id)).filter((x): x is ShownSample => x !== null)
   const failed = states.filter((x) => x.error && !x.current).map((x) => x.sample.name)
-  const state = inputs > 0 || failed.length > 0 || states.some((x) => x.stale) ? 'stale' : !s.job.running && states.every((x) => x.current) ? 'ok' : 'pending'
+  // while a job runs, samples still waiting for their figures are pending (the header shows the progress), not stale
+  const state = inputs > 0 || failed.length > 0 ? 'stale' : s.job.running ? 'pending' : states.every((x) => x.current) ? 'ok' : states.some((x) => x.stale) ? 'stale' : 'pending'
   return { state, inputs, failed }
 }
 

@@ -65,6 +65,9 @@ describe('the study’s status, one for the header and every view', () => {
   it('is up to date only when every sample’s results are from its current inputs and nothing runs', () => {
     expect(studyStatus(state({ results: all })).state).toBe('ok')
     expect(studyStatus(state({ results: all, job: { running: true, done: 1, total: 2 } })).state).toBe('pending')
+    // samples waiting for their first figures while the job runs are pending, not stale; once it is over, stale
+    expect(studyStatus(state({ resultsLate: true, job: { running: true, done: 1, total: 10 } })).state).toBe('pending')
+    expect(studyStatus(state({ resultsLate: true })).state).toBe('stale')
     // one sample without results (the others current): not "up to date"
     expect(studyStatus(state({})).state).not.toBe('ok')
   })
