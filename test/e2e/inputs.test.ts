@@ -61,7 +61,7 @@ const MEDIAN = 'samples[0].size.modes[0].median_um'
 const AMOUNT = 'samples[0].size.modes[0].number_cm3'
 
 describe('Typed values in the editor', { timeout: 120_000 }, () => {
-  test('a bare number in the median cell is in the unit shown beside it; a typed unit is kept', async () => {
+  test('a bare number in the median cell is in the unit the cell shows; a typed unit is kept', async () => {
     const page = await openApp({ wait: false })
     const median = cell(page, MEDIAN)
     // the demo's Aitken mode: the cell shows 45 nm; "60" typed there is 60 nm
