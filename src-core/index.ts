@@ -4,6 +4,7 @@
  */
 export * from './errors.ts'
 export * from './units.ts'
+export * from './numberText.ts'
 export * from './numeric/index.ts'
 export * from './mie/index.ts'
 export * from './materials/index.ts'

@@ -177,7 +177,7 @@ export function readNumber(text: string, start: number, end: number, decimalComm
 }
 
 /** readNumber over a whole string. */
-export function parseNumber(cell: string, decimalComma: boolean): number {
+export function parseCellNumber(cell: string, decimalComma: boolean): number {
   const s = cell.trim()
   return readNumber(s, 0, s.length, decimalComma)
 }

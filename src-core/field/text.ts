@@ -2,7 +2,7 @@
 import Papa from 'papaparse/papaparse.js'
 import { InputError } from '../errors.ts'
 import type { BinQuantityName } from '../study/model.ts'
-import { parseNumber, type Delimiter } from './cells.ts'
+import { parseCellNumber, type Delimiter } from './cells.ts'
 
 /** What the user must choose for a file to be read; the message says so and how (option or app choice). */
 export type SizerChoice = 'diameterUnit' | 'quantity' | 'dateOrder' | 'year'
@@ -35,7 +35,7 @@ export function splitCells(text: string, delimiter: string): string[] {
 
 export function toNumber(cell: string | undefined, decimal: '.' | ','): number | undefined {
   if (cell === undefined) return undefined
-  const v = parseNumber(cell, decimal === ',')
+  const v = parseCellNumber(cell, decimal === ',')
   return Number.isNaN(v) ? undefined : v
 }
 

@@ -23,6 +23,7 @@
  * complex values are (re, im) pairs; nothing is allocated per term.
  */
 import { InputError } from '../errors.ts'
+import { readableBeside, readableNumber } from '../numberText.ts'
 
 /** Valid domain, checked on every call (the accuracy tests cover it end to end). */
 export const SPHERE_DOMAIN = {
@@ -73,7 +74,8 @@ export function checkSphereDomain(x: number, n: number, k: number, label = 'sphe
 }
 
 function rangeError(label: string, name: string, v: number, range: { min: number; max: number }): never {
-  throw new InputError(`${label}: ${name}`, `${v} is outside the valid range ${range.min} to ${range.max}`, `Give ${name} from ${range.min} to ${range.max}.`)
+  const [lo, hi] = [readableNumber(range.min), readableNumber(range.max)]
+  throw new InputError(`${label}: ${name}`, `${readableBeside(v, range.min, range.max)} is outside the valid range ${lo} to ${hi}`, `Give ${name} from ${lo} to ${hi}.`)
 }
 
 /**

@@ -17,6 +17,7 @@ import {
   twoStreamForcing
 } from '../climate/index.ts'
 import { InputError } from '../errors.ts'
+import { readableNumber, readableRange } from '../numberText.ts'
 import type { Site } from '../study/model.ts'
 import { UPSCATTER_COS_ZENITH } from './integrate.ts'
 import { valueAt } from './sample.ts'
@@ -48,11 +49,17 @@ export function upscatterFunction(row: WavelengthOptics): (mu0: number) => numbe
   }
 }
 
+/** The largest optical depth at 550 nm the forcing estimate takes (the range of forcingVerdict and forcingMap). */
+export const MAX_FORCING_TAU = 10
+
 /** The forcing estimate of a sample's layer at a site, with its verdict. */
 export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFAULT_VERDICT_MARGIN_WM2): SampleForcing {
   const rows = optics.wavelengths
   const at550 = (pick: (r: WavelengthOptics) => number) => valueAt(rows, 550, pick)
   const tau = at550((r) => r.optical_depth)
+  if (!(tau >= 0 && tau <= MAX_FORCING_TAU)) {
+    throw new InputError('Optical depth at 550 nm', `${readableNumber(tau)} is outside ${readableRange(0, MAX_FORCING_TAU)}, where the forcing estimate holds`, "Check the modes' amounts and median diameters (with their units) and the layer: a hazy layer's optical depth is about 0.1 to 1.")
+  }
   const omega = Math.min(1, Math.max(0, at550((r) => r.ssa)))
   const g = at550((r) => r.g)
   const upscatter = at550((r) => r.upscatter_fraction)

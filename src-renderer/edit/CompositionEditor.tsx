@@ -3,7 +3,7 @@
 import { listMaterials, type Composition, type MixingName, type Sample, type UserMaterialSpec } from '../../src-core/index.ts'
 import { num } from '../format.ts'
 import { editSample } from '../state/actions.ts'
-import { ErrorRow, Field, problemAt, readNumber, readOptional } from './Field.tsx'
+import { ErrorRow, Field, problemAt, readFraction, readOptional } from './Field.tsx'
 import { Fragment } from 'preact'
 
 const MIXING: { id: MixingName; label: string; help: string }[] = [
@@ -52,7 +52,7 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
         <thead>
           <tr>
             <th scope="col">Component{c.mixing === 'core-shell' ? ' (first = core)' : c.mixing === 'maxwell-garnett' ? ' (first = host)' : ''}</th>
-            <th scope="col" title="Volume fraction of the dry particle (0–1); the fractions add up to 1">Volume fraction</th>
+            <th scope="col" title="Volume fraction of the dry particle: 0–1, or in % (80 % = 0.8); the fractions add up to 1">Volume fraction</th>
             <th scope="col">
               <span class="sr-only">Move or remove</span>
             </th>
@@ -90,7 +90,7 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
                   path={`${base}.components[${j}].volume_fraction`}
                   label={`Volume fraction of component ${j + 1}${of}`}
                   value={k.volume_fraction}
-                  read={readNumber('volume fraction')}
+                  read={readFraction('volume fraction')}
                   write={(v) => num(v, 4)}
                   width="5em"
                   commit={(v) => change((cc) => (cc.components[j].volume_fraction = v), `f${j}`)}

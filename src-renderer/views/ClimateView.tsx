@@ -6,7 +6,7 @@ import { ESTIMATE_CAUTION } from '../cautions.ts'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { drawHeat, drawOverlays } from '../charts/forcingMap.ts'
 import { forcingColour } from '../charts/palette.ts'
-import { Field, readNumber } from '../edit/Field.tsx'
+import { Field, readFraction, readNumber } from '../edit/Field.tsx'
 import { fixed, num, signed } from '../format.ts'
 import { edit } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
@@ -48,13 +48,13 @@ function SiteForm() {
         </select>
       </label>
       {site.surface === 'custom' && (
-        <Field path="site.surface_albedo" label="Surface albedo" value={site.surface_albedo ?? 0.2} read={readNumber('surface albedo')} write={(v) => num(v, 3)} hint="0–1" width="4em" commit={(v) => siteEdit((x) => (x.surface_albedo = v), 'albedo')} />
+        <Field path="site.surface_albedo" label="Surface albedo" value={site.surface_albedo ?? 0.2} read={readFraction('surface albedo')} write={(v) => num(v, 3)} hint="0–1" width="4em" commit={(v) => siteEdit((x) => (x.surface_albedo = v), 'albedo')} />
       )}
       <div class="row wrap">
         <Field path="site.latitude_deg" label="Latitude" value={site.latitude_deg} read={readNumber('latitude')} write={(v) => num(v, 5)} hint="° N (south < 0)" width="4em" commit={(v) => siteEdit((x) => (x.latitude_deg = v), 'lat')} />
         <Field path="site.day_of_year" label="Day of year" value={site.day_of_year} read={readNumber('day of year')} write={(v) => String(v)} hint="1–366" width="3.5em" commit={(v) => siteEdit((x) => (x.day_of_year = v), 'day')} />
-        <Field path="site.cloud_fraction" label="Cloud fraction" value={site.cloud_fraction} read={readNumber('cloud fraction')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.cloud_fraction = v), 'cloud')} />
-        <Field path="site.transmittance" label="Transmittance above" value={site.transmittance} read={readNumber('transmittance')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.transmittance = v), 'trans')} />
+        <Field path="site.cloud_fraction" label="Cloud fraction" value={site.cloud_fraction} read={readFraction('cloud fraction')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.cloud_fraction = v), 'cloud')} />
+        <Field path="site.transmittance" label="Transmittance above" value={site.transmittance} read={readFraction('transmittance')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.transmittance = v), 'trans')} />
         <Field
           path="verdict_margin_w_m2"
           label="Too close to call within"

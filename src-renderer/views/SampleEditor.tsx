@@ -10,6 +10,8 @@ import { diameter, num } from '../format.ts'
 import { editSample, renameSample } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { SizePlot } from './SizePlot.tsx'
+import { screenName } from '../edit/fieldNames.ts'
+import { sampleState } from '../shown.ts'
 import type { BinsSpec } from '../../src-core/index.ts'
 
 function BinsPanel(p: { id: string; bins: BinsSpec }) {
@@ -67,6 +69,9 @@ export function SampleEditor() {
   const sample = s.study.samples[i]
   const id = s.selected
   const own = problemsOf(s.problems, i)
+  const st = sampleState(s, id)
+  // the computation's refusal of inputs that each passed (an optical depth beyond the forcing estimate's range)
+  const failed = !own.length && st?.error ? st.error : null
   return (
     <section class="editor" aria-label={`Inputs of ${sample.name}`}>
       <div class="editor-head">
@@ -82,11 +87,17 @@ export function SampleEditor() {
           </strong>
           <ul>
             {own.slice(0, 5).map((p, k) => (
-              <li key={k}>
-                <code>{p.path}</code>: {p.message}.
+              <li key={k} data-problem-for={p.path}>
+                <span class="where">{screenName(s.study, p.path)}</span>: {p.message}.
               </li>
             ))}
           </ul>
+        </div>
+      )}
+      {failed && (
+        <div class="problems" role="alert" data-testid="problems">
+          <strong>These inputs could not be computed; the results shown are from the last good inputs.</strong>
+          <p>{failed}</p>
         </div>
       )}
       <fieldset>

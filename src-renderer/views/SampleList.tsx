@@ -48,7 +48,21 @@ export function SampleList() {
               >
                 {style && comparing && <DashSwatch stroke={style.stroke} dash={style.dash} />}
                 <span class="name-text">{s.study.samples[i].name}</span>
-                {verdict && <span class={`verdict-mini v-${verdict.replace(/ /g, '-')}`}>{VERDICT_MARK[verdict]}</span>}
+                {verdict && (
+                  <span
+                    class={`verdict-mini v-${verdict.replace(/ /g, '-')}${st?.stale ? ' is-stale' : ''}`}
+                    data-stale={st?.stale ? 'true' : 'false'}
+                    title={st?.stale ? 'Stale: this verdict is from earlier inputs' : undefined}
+                  >
+                    {VERDICT_MARK[verdict]}
+                    {st?.stale && <span class="stale-tag">stale</span>}
+                  </span>
+                )}
+                {!verdict && st?.stale && !s.job.running && (
+                  <span class="verdict-mini is-stale" data-stale="true">
+                    <span class="stale-tag">no results</span>
+                  </span>
+                )}
               </button>
             </li>
           )

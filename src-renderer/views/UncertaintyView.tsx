@@ -24,6 +24,7 @@ import { affectsOptics, problemsOf, sampleKey } from '../compute/client.ts'
 import type { ToolProblem } from '../compute/toolMessages.ts'
 import { runUncertaintyFor, stopRun } from '../compute/tools.ts'
 import { Field, problemAt, readNumber, readOptional } from '../edit/Field.tsx'
+import { screenName } from '../edit/fieldNames.ts'
 import { fixed, num, signed } from '../format.ts'
 import { sampleState } from '../shown.ts'
 import { edit } from '../state/actions.ts'
@@ -601,7 +602,7 @@ export function UncertaintyView() {
               <ul class="problems">
                 {otherProblems.map((q, k) => (
                   <li key={k}>
-                    <code>{q.path}</code>: {q.message}. {q.fix}
+                    <span class="where">{screenName(s.study, q.path)}</span>: {q.message}. {q.fix}
                   </li>
                 ))}
               </ul>

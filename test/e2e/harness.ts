@@ -101,7 +101,7 @@ export function appSession(): {
   beforeAll(async () => {
     browser = await launchChromium()
     served = await buildAndServe()
-  }, Number(process.env['MOTEBENCH_E2E_SETUP_MS'] ?? 180_000)) // a busy machine may need longer to build
+  }, Number(process.env['MOTEBENCH_E2E_SETUP_MS'] ?? 420_000)) // the build takes minutes on a busy machine
   // Close each test's pages, so that their workers stop computing and leave the CPU to the next test.
   afterEach(async () => {
     for (const c of contexts.splice(0)) await c.close().catch(() => {})

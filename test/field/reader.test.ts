@@ -1,7 +1,7 @@
 // Instrument exports as they come: the layouts field sizers commonly write, each built here from invented
 // numbers (no real instrument's or maker's format), and what the reader makes of them.
 import { describe, expect, it } from 'vitest'
-import { averageRecords, createSizerReader, InputError, parseNumber, parseSizerText, SizerChoiceNeeded, type SizerOptions } from '../../src-core/index.ts'
+import { averageRecords, createSizerReader, InputError, parseCellNumber, parseSizerText, SizerChoiceNeeded, type SizerOptions } from '../../src-core/index.ts'
 
 /** Geometric bin midpoints from lo to hi (n bins), written with 4 significant digits. */
 function bins(n: number, lo: number, hi: number): string[] {
@@ -306,10 +306,10 @@ describe('numbers are read exactly as Number() reads them', () => {
       s = s.slice(0, p) + (p < digits ? '.' : '') + s.slice(p)
       if (rnd() < 0.3) s += 'e' + (rnd() < 0.5 ? '-' : '') + Math.floor(rnd() * 40)
       if (rnd() < 0.2) s = '-' + s
-      expect(parseNumber(s, false)).toBe(Number(s))
-      expect(parseNumber(s.replace('.', ','), true)).toBe(Number(s))
+      expect(parseCellNumber(s, false)).toBe(Number(s))
+      expect(parseCellNumber(s.replace('.', ','), true)).toBe(Number(s))
     }
-    for (const bad of ['', '1.2.3', '1,5', '1e', 'e5', '--1', '1 000', 'nan', 'Infinity', '0x10', '.']) expect(parseNumber(bad, false)).toBeNaN()
+    for (const bad of ['', '1.2.3', '1,5', '1e', 'e5', '--1', '1 000', 'nan', 'Infinity', '0x10', '.']) expect(parseCellNumber(bad, false)).toBeNaN()
   })
 })
 
