@@ -59,7 +59,7 @@ export function ResponseChart(p: { r: RebinResult; stale: boolean }) {
         data={chart.data}
         lines={chart.lines}
         xLabel="Diameter (µm)"
-        yLabel="Scattered power R(D) (relative)"
+        yLabel="R(D), relative"
         xLog
         yLog
         theme={theme}

@@ -128,7 +128,7 @@ describe('what the screen shows', { timeout: 120_000 }, () => {
     expect(Number(await curve.getAttribute('data-points'))).toBeGreaterThan(100)
     expect(Number(await curve.getAttribute('data-edges'))).toBe(5)
     expect(await page.locator('[data-chart="opc-response"] .u-legend .u-series').count()).toBeGreaterThanOrEqual(3)
-    expect(await page.locator('[data-chart="opc-response"] [data-chart-axes]').textContent()).toMatch(/Scattered power.*\(log scale\) against Diameter \(µm\) \(log scale\)/)
+    expect(await page.locator('[data-chart="opc-response"] [data-chart-axes]').textContent()).toMatch(/R\(D\), relative \(log scale\) against Diameter \(µm\) \(log scale\)/)
     // the curves were drawn: the canvas holds both lines' colours
     expect(await pixelsOf(page, 'opc-response', '#0060a0') + (await pixelsOf(page, 'opc-response', '#56b4e9'))).toBeGreaterThan(50)
     expect(errors).toEqual([])
