@@ -64,9 +64,9 @@ export function App() {
     }
   }, [])
 
-  useEffect(() => {
-    document.documentElement.dataset['theme'] = s.theme
-  }, [s.theme])
+  // Set while rendering, not in an effect: the charts read the theme's colours in their own effects, which run
+  // before this component's, so an effect here left every drawn chart in the old theme's ink and grid.
+  if (document.documentElement.dataset['theme'] !== s.theme) document.documentElement.dataset['theme'] = s.theme
 
   const onDrop = (e: DragEvent) => {
     e.preventDefault()

@@ -68,8 +68,9 @@ export interface ForcingVerdict {
   caution: string
 }
 
+/** A number for the explanation's words, with the minus sign U+2212 (typographic practice for written text). */
 function fmt(x: number, digits = 3): string {
-  return Number.isFinite(x) ? Number(x.toPrecision(digits)).toString() : String(x)
+  return Number.isFinite(x) ? Number(x.toPrecision(digits)).toString().replace(/-/g, '\u2212') : String(x)
 }
 
 /** Largest x in [0, 1] with pred(x) true, assuming pred is true below and false above a single switch. */

@@ -82,6 +82,8 @@ export function opcResponseCurve(diametersUm: readonly number[], index: { n: num
 
 export interface RebinnedEdge {
   calibration_um: number
+  /** R at the edge: the calibration sphere's response, which the true diameter matches. */
+  response: number
   /** The true diameter (unique candidate, or the one nearest the calibration diameter in ln D). */
   true_um: number
   /** Every diameter whose response for the sample's index equals the PSL response at the edge. */
@@ -110,11 +112,25 @@ export interface RebinResult {
   edges: RebinnedEdge[]
   bins: RebinnedBin[]
   notes: string[]
+  /** With `curve: true`: the response R(D) of the calibration and the sample index over the searched range. */
+  response?: OpcResponseCurves
 }
+
+/** R(D) of both indices on one set of diameters (the search grid, thinned to at most CURVE_POINTS points). */
+export interface OpcResponseCurves {
+  diameter_um: number[]
+  calibration: number[]
+  sample: number[]
+}
+
+/** The most points a returned response curve keeps (enough to draw it; the search itself uses every grid point). */
+export const CURVE_POINTS = 1500
 
 export interface RebinOptions {
   /** True diameters are searched from min(edges)/f to max(edges)·f (default 4). */
   searchFactor?: number
+  /** Also return the response curves of both indices (`response`), for a chart. */
+  curve?: boolean
 }
 
 /** A response curve on a fine grid of diameters: Δx ≤ 0.05 and Δln D ≤ 0.01. */
@@ -211,7 +227,7 @@ export function rebinOpcEdges(edgesUm: readonly number[], sampleIndex: { n: numb
       throw new InputError('optical particle counter: edges', `no diameter from ${lo.toPrecision(3)} to ${hi.toPrecision(3)} µm of index ${sampleIndex.n}+${sampleIndex.k}i scatters as much as a ${dc} µm calibration sphere`, 'Give a larger search factor, or check the index and the angles.')
     }
     const best = candidates.reduce((p, c) => (Math.abs(Math.log(c / dc)) < Math.abs(Math.log(p / dc)) ? c : p))
-    return { calibration_um: dc, true_um: best, candidates_um: candidates, calibration_candidates_um: calCandidates, ambiguous: candidates.length > 1 || calCandidates.length > 1 }
+    return { calibration_um: dc, response: target, true_um: best, candidates_um: candidates, calibration_candidates_um: calCandidates, ambiguous: candidates.length > 1 || calCandidates.length > 1 }
   })
   const bins: RebinnedBin[] = []
   for (let i = 0; i + 1 < edges.length; i++) {
@@ -224,7 +240,20 @@ export function rebinOpcEdges(edgesUm: readonly number[], sampleIndex: { n: numb
     if (!(b.true_um > a.true_um)) reasons.push('the true edges are not in increasing order')
     bins.push({ calibration_lo_um: a.calibration_um, calibration_hi_um: b.calibration_um, true_lo_um: a.true_um, true_hi_um: b.true_um, flagged: reasons.length > 0, reasons })
   }
+  let response: OpcResponseCurves | undefined
+  if (options.curve) {
+    // both grids step by the same rule from the same diameter, so they share their diameters
+    const n = Math.min(pslGrid.d.length, sampleGrid.d.length)
+    const step = Math.max(1, Math.ceil(n / CURVE_POINTS))
+    response = { diameter_um: [], calibration: [], sample: [] }
+    for (let i = 0; i < n; i += step) {
+      response.diameter_um.push(pslGrid.d[i])
+      response.calibration.push(pslGrid.v[i])
+      response.sample.push(sampleGrid.v[i])
+    }
+  }
   return {
+    ...(response ? { response } : {}),
     wavelength_nm: geometry.wavelengthNm,
     low_deg: geometry.lowDeg,
     high_deg: geometry.highDeg,

@@ -5,7 +5,7 @@ export { resolveComposition, resolveMaterial, dryIndicesAt, particleGrowth, wetP
 export type { ParticleKind, DryIndices, WetParticle } from './particles.ts'
 export { computeSampleOptics, sampleOpticsSteps, sampleBulkSteps, assembleSampleOptics, finish, sizeDistributionCurves, samplePopulations, studyMaterials, modeFromSpec, extinctionAt, valueAt, DEFAULT_ANGLES_DEG, phaseFunctionWavelengthNm } from './sample.ts'
 export type { SampleOpticsOptions, SizeDistributionCurves, WavelengthBulk } from './sample.ts'
-export { angstromExponent, angstromFitOf, angstromFit, localAngstromExponents, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M } from './metrics.ts'
+export { angstromExponent, angstromFitOf, angstromFit, localAngstromExponents, localAbsorptionExponents, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M, ABSORPTION_FLOOR_MM, ABSORPTION_SHARE_MIN, VISIBLE_NM, absorptionWithheld, visibilityWithheld, deciviewWithheld, withheldText } from './metrics.ts'
 export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, LAYER_TOP_PRESSURE_HPA } from './forcing.ts'
 export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityCurveKey, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'

@@ -27,7 +27,7 @@ import {
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
 import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
-import { angstromFit, deciview, layerDepthM, localAngstromExponents, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
+import { angstromFit, deciview, deciviewWithheld, layerDepthM, localAbsorptionExponents, localAngstromExponents, rayleighScatteringMm, visibilityWithheld, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
 import { opticsWarnings } from './warnings.ts'
@@ -325,10 +325,16 @@ export function assembleSampleOptics(
       angstrom_abs: NaN,
       optical_depth: 0,
       rayleigh_sca: rayleigh,
-      visual_range_km: visualRangeKm(total),
-      deciview: deciview(total),
-      mie_evaluations: r.evaluations
+      visual_range_km: visibilityWithheld(wl) ? NaN : visualRangeKm(total),
+      deciview: deciviewWithheld(wl, total) ? NaN : deciview(total),
+      mie_evaluations: r.evaluations,
+      withheld: {}
     })
+    const row = rows[rows.length - 1]
+    const vis = visibilityWithheld(wl)
+    if (vis) row.withheld.visual_range_km = vis
+    const dv = deciviewWithheld(wl, total)
+    if (dv) row.withheld.deciview = dv
     if (r.angular) angular.push(r.angular)
   }
   // Optical depth: a uniform layer of the sample (Mm⁻¹ × m × 1e-6), or scaled to a given AOD at 550 nm.
@@ -340,10 +346,11 @@ export function assembleSampleOptics(
   for (const row of rows) row.optical_depth = row.ext * 1e-6 * layerDepth
   const wls = rows.map((r) => r.wavelength_nm)
   const aExt = localAngstromExponents(wls, rows.map((r) => r.ext))
-  const aAbs = localAngstromExponents(wls, rows.map((r) => r.abs))
+  const aAbs = localAbsorptionExponents(wls, rows.map((r) => r.abs), rows.map((r) => r.ext))
   rows.forEach((r, i) => {
     r.angstrom_ext = aExt[i]
-    r.angstrom_abs = aAbs[i]
+    r.angstrom_abs = aAbs[i].value
+    if (aAbs[i].withheld) r.withheld.angstrom_abs = aAbs[i].withheld!
   })
 
   const pm = pops.every((p) => p.mode)

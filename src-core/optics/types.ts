@@ -41,7 +41,15 @@ export interface WavelengthOptics {
   deciview: number
   /** Mie evaluations this wavelength took (all populations, all refinement levels). */
   mie_evaluations: number
+  /**
+   * Figures left out (NaN) because they have no meaning here, each with its reason (optics/metrics.ts:
+   * absorptionWithheld, visibilityWithheld, deciviewWithheld).
+   */
+  withheld: Partial<Record<WithheldFigure, string>>
 }
+
+/** The row figures that can be withheld. */
+export type WithheldFigure = 'angstrom_abs' | 'visual_range_km' | 'deciview'
 
 /** Population phase function and polarisation at chosen angles, one wavelength. */
 export interface AngularOptics {
@@ -57,6 +65,8 @@ export interface AngstromExponents {
   ext: number
   sca: number
   abs: number
+  /** Why `abs` is NaN, where it is withheld (too little absorption at some wavelength). */
+  withheld?: { abs?: string }
 }
 
 /** Everything computed for one sample. */

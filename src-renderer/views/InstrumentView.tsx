@@ -11,6 +11,7 @@ import { readNumber } from '../edit/Field.tsx'
 import { reasonOf, TextField } from '../edit/ToolField.tsx'
 import { diameter as diameterText, fixed, num } from '../format.ts'
 import { sampleState, type ShownSample } from '../shown.ts'
+import { ResponseChart } from './ResponseChart.tsx'
 import { useApp, type AppState } from '../state/store.ts'
 import { toolStore, useTools, type CounterForm, type NephelometerForm, type Run } from '../state/tools.ts'
 
@@ -310,6 +311,7 @@ function RebinTables(p: { r: RebinResult; stale: boolean }) {
   const flagged = r.bins.filter((b) => b.flagged).length
   return (
     <div class={p.stale ? 'is-stale' : ''}>
+      <ResponseChart r={r} stale={p.stale} />
       <table class="grid-table numbers rebin-table" data-testid="rebin-edges">
         <caption>
           Edges: calibration ({fixed(r.calibration_index.n, 3)} + {num(r.calibration_index.k, 3)}i) → sample ({fixed(r.sample_index.n, 3)} + {num(r.sample_index.k, 3)}i) at {num(r.wavelength_nm, 5)} nm, {num(r.low_deg, 4)}°–{num(r.high_deg, 4)}°

@@ -7,6 +7,7 @@ import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { appSession, isLocal, ROOT } from './harness.ts'
+import { findClipped } from './clipping.ts'
 
 let scratch: string
 const session = appSession()
@@ -395,7 +396,7 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     const page = await openApp()
     const axes = (chart: string) => page.locator(`[data-chart="${chart}"] [data-chart-axes]`).textContent()
 
-    // on a 1366 × 768 screen every view fits the width: the page never scrolls sideways, and the samples, the
+    // on a 1366 × 768 screen every view fits the width (all eight views fit 1366 px): the page never scrolls sideways, and the samples, the
     // inputs and the results sit side by side within the window
     for (let k = 1; k <= 8; k++) {
       await page.keyboard.press(`Alt+${k}`)
@@ -408,6 +409,9 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
       expect(fit.window).toBe(1366)
       expect(fit.page, `view ${k}`).toBeLessThanOrEqual(fit.window)
       for (const right of fit.columns) expect(right, `view ${k}`).toBeLessThanOrEqual(fit.window)
+      // and inside the window every table and control lies within its box: no button, field text or column cut
+      // off, and a table wider than its box scrolls with its cue shown (test/e2e/clipping.ts)
+      expect(await findClipped(page), `view ${k}`).toEqual([])
     }
     await page.keyboard.press('Alt+1')
 
