@@ -39,3 +39,30 @@ export {
   fitDensity
 } from './merge.ts'
 export { type MergedFileInfo, mergedMidpointsNm, mergedFileHead, mergedFileRow } from './output.ts'
+export {
+  type OpticalQuantity,
+  type OpticalChannel,
+  type OpticalHeader,
+  type OpticalRecord,
+  type OpticalReaderOptions,
+  type OpticalReader,
+  OPTICAL_QUANTITIES,
+  readOpticalTime,
+  createOpticalReader,
+  parseOpticalText
+} from './optical-file.ts'
+export {
+  type MeasuredChannel,
+  type ComparisonPlan,
+  type InstrumentKernels,
+  DEFAULT_NEPHELOMETER_ANGLES,
+  ASSUMED_ABSORPTION_ANGSTROM,
+  MeasuredAlignment,
+  planWavelengths,
+  instrumentWavelengths,
+  instrumentKernels,
+  comparisonColumns,
+  absorptionAt,
+  RowComparer
+} from './optical.ts'
+export { type RatioSummary, percentileSorted, RatioCollector, comparisonNotes } from './optical-summary.ts'
