@@ -47,7 +47,7 @@ export {
   type OpticalReaderOptions,
   type OpticalReader,
   OPTICAL_QUANTITIES,
-  readOpticalTime,
+  readInstrumentTime,
   createOpticalReader,
   parseOpticalText
 } from './optical-file.ts'

@@ -17,7 +17,7 @@
  *   "# units: Mm-1" line; a file that states none, or another unit, is refused (convert it first).
  * - An empty cell, NaN or NA means no data for that quantity at that time (never counted as 0). Small
  *   negative values (instrument noise in clean air) are kept as they are, so that averages stay unbiased.
- * - Time stamps go through one call (`readOpticalTime`); all of a file's stamps have a zone or none has.
+ * - Time stamps go through one call (`readInstrumentTime`); all of a file's stamps have a zone or none has.
  */
 import Papa from 'papaparse/papaparse.js'
 import { InputError } from '../errors.ts'
@@ -52,7 +52,7 @@ export interface OpticalRecord {
 }
 
 /** The one place an optical file's time cell is parsed (ISO 8601 for now). */
-export function readOpticalTime(cell: string): TimeStamp | undefined {
+export function readInstrumentTime(cell: string): TimeStamp | undefined {
   return parseTimeStamp(cell)
 }
 
@@ -138,7 +138,7 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     if (cells.length > h.channels.length + 1) {
       throw new InputError(at(line, h.channels.length + 2), `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
     }
-    const t = readOpticalTime(cells[0])
+    const t = readInstrumentTime(cells[0])
     if (!t) throw new InputError(at(line, 1), `"${cells[0]}" is not a time stamp`, 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05 (ISO 8601, with or without a zone).')
     if (zoned === undefined) zoned = t.zoned
     else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
