@@ -25,6 +25,7 @@ import {
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
 import { computeRow, SeriesRowComputer, seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
+import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp, type SeriesExtra } from './series-optical.ts'
 import type { FromWorker, RowResult, ToWorker } from './workers/series-worker.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
@@ -40,6 +41,7 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
                         integrated once and every row is a weighted sum of them
   --diameter-unit U     nm or um, when the file does not say
   --quantity Q          ${BIN_QUANTITIES.join(', ')}, when the file does not say
+${seriesOpticalHelp}
 Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
@@ -69,6 +71,8 @@ export interface SeriesRunOptions extends SeriesSetup {
   onProgress?: (written: number) => void
   /** Called every few hundred milliseconds while the pipeline runs (e.g. to sample memory). */
   onTick?: () => void
+  /** Extra cells after each row's figures (measured optical instruments beside the sizer). */
+  extra?: SeriesExtra
 }
 
 export interface SkippedRow {
@@ -95,6 +99,7 @@ export interface SeriesSummary {
 interface RowMeta {
   time: string
   line: number
+  extra?: Float64Array
 }
 
 /** Splits an InputError message "where: problem. fix" back into its problem. */
@@ -173,7 +178,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       meta.delete(nextWrite)
       nextWrite++
       if (r.ok) {
-        text += csvCell(m.time) + ',' + r.cells.map(csvCell).join(',') + '\n'
+        text += csvCell(m.time) + ',' + r.cells.map(csvCell).join(',') + (m.extra ? ',' + Array.from(m.extra, csvCell).join(',') : '') + '\n'
+        if (m.extra) o.extra!.written(m.extra)
         written++
       } else if (r.internal) {
         fail(new Error(`the optics of line ${m.line} failed: ${r.message}`))
@@ -232,7 +238,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         binsSent = true
       }
       const seq = nextSeq++
-      meta.set(seq, { time: record.time, line: record.line })
+      meta.set(seq, { time: record.time, line: record.line, extra: o.extra?.cells(record.time, record.values, localBins!) })
       queue.push({ seq, values: record.values })
       pump()
     }
@@ -244,7 +250,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   let lineNo = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
-    await o.output.write(seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
+    const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
+    await o.output.write(comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n')
     for await (const line of source) {
       lineNo++
       if (line.trim() !== '') {
@@ -390,7 +397,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       workers: { type: 'string' },
       tolerance: { type: 'string' },
       'diameter-unit': { type: 'string' },
-      quantity: { type: 'string' }
+      quantity: { type: 'string' },
+      ...SERIES_OPTICAL_OPTIONS
     },
     true
   )
@@ -415,9 +423,13 @@ export async function runSeries(argv: string[]): Promise<number> {
 
   const { study } = await loadStudyFile(values.study)
   const { sample } = findSample(study, values.sample, 'series')
-  const wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
-  // Check the composition at every wavelength here, so a bad one is one clear message rather than one per row.
+  let wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
   const userMaterials = study.user_materials ?? []
+  // Measured optical instruments beside the sizer: read and aligned to the sizer rows before the run; the
+  // figures are computed at their wavelengths too.
+  const optical = await prepareSeriesOptical(values, { sizerPath: file, sizer, sample, userMaterials, tolerance })
+  if (optical) wavelengthsNm = [...new Set([...wavelengthsNm, ...optical.wavelengthsNm])].sort((a, b) => a - b)
+  // Check the composition at every wavelength here, so a bad one is one clear message rather than one per row.
   const own = studyMaterials({ user_materials: userMaterials, wavelengths_nm: wavelengthsNm })
   const kind = resolveComposition(sample.composition, own, `sample "${sample.name}"`)
   for (const w of wavelengthsNm) dryIndicesAt(kind, w / 1000)
@@ -442,6 +454,7 @@ export async function runSeries(argv: string[]): Promise<number> {
       onBadRow: policy,
       workers,
       output: target ? target.output : stdoutOutput,
+      extra: optical?.extra,
       onProgress: bar ? (n) => bar.update(n) : undefined
     })
     await target?.commit()
@@ -453,6 +466,6 @@ export async function runSeries(argv: string[]): Promise<number> {
     lines.close()
     stream.destroy()
   }
-  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length))
+  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
   return summary.rowsSkippedByReader + summary.rowsSkippedByOptics > 0 ? EXIT_SKIPPED : EXIT_OK
 }
