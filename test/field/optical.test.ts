@@ -126,6 +126,31 @@ describe('measured files made from the computed figures of a known distribution'
   })
 })
 
+describe('closure per row', () => {
+  it('finds the known index of the invented particles from coefficients computed with it', () => {
+    // measured = the library's bulk optics of the known distribution with m = 1.53 + 0.02i (a closure consistency
+    // check: the retrieval must return the index the coefficients were made with, within its own uncertainty)
+    const [r450, r700] = reference([450, 700])
+    const channels: MeasuredChannel[] = [
+      { quantity: 'scattering', wavelengthNm: 450 },
+      { quantity: 'scattering', wavelengthNm: 700 },
+      { quantity: 'absorption', wavelengthNm: 450 },
+      { quantity: 'absorption', wavelengthNm: 700 }
+    ]
+    const plan: ComparisonPlan = { channels, truncation: null, closure: { scatteringSd: 0.05, absorptionSd: 0.1 } }
+    const cmp = new RowComparer(instrumentKernels(SAMPLE, STUDY, LAYOUT, plan, { tolerance: 1e-4, workspace: ws }), plan)
+    const out = cmp.compare(VALUES, [r450.sca, r700.sca, r450.abs, r700.abs], new Float64Array(cmp.columns.length))
+    const cell = (name: string) => out[cmp.columns.indexOf(name)]
+    expect(Math.abs(cell('closure_n') - 1.53)).toBeLessThan(2 * cell('closure_n_sd'))
+    expect(Math.abs(cell('closure_k') - 0.02)).toBeLessThan(2 * cell('closure_k_sd'))
+    expect(cell('closure_chi2')).toBeLessThan(1)
+    expect(cell('closure_unique')).toBe(1)
+    // no measured data: no closure (empty, never a guess)
+    const none = cmp.compare(VALUES, [NaN, NaN, NaN, NaN], new Float64Array(cmp.columns.length))
+    expect(none[cmp.columns.indexOf('closure_n')]).toBeNaN()
+  }, 180_000)
+})
+
 describe('alignment of instruments on other clocks to the sizer rows', () => {
   // sizer rows every 5 min at :20 s; nephelometer every minute at :50 s; absorption every 2 min at :10 s
   const sizer = clock('2026-06-01T10:00:20Z', 300, 4).map((t) => Date.parse(t))
