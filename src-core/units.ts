@@ -3,7 +3,8 @@
  * and complex refractive indices ("1.53+0.01i"). mathjs does the unit arithmetic; this is for input,
  * never for hot loops.
  */
-import { complex, unit, type Unit } from 'mathjs'
+import type { Unit } from 'mathjs'
+import { mathComplex, mathUnit } from './mathjsOnDemand.ts'
 import { InputError } from './errors.ts'
 
 function normaliseUnitText(text: string): string {
@@ -12,7 +13,7 @@ function normaliseUnitText(text: string): string {
 
 function toUnit(text: string, where: string, example: string): Unit {
   try {
-    return unit(normaliseUnitText(text))
+    return mathUnit(normaliseUnitText(text))
   } catch {
     throw new InputError(where, `"${text}" is not a quantity with a unit`, `Write a number and a unit, for example "${example}".`)
   }
@@ -66,7 +67,7 @@ export function parseTemperature(text: string, where: string): number {
 export function parseComplexIndex(text: string, where: string): { n: number; k: number } {
   let c: { re: number; im: number }
   try {
-    c = complex(text.replace(/\s+/g, '').replace(/j$/, 'i'))
+    c = mathComplex(text.replace(/\s+/g, '').replace(/j$/, 'i'))
   } catch {
     throw new InputError(where, `"${text}" is not a complex refractive index`, 'Write it as n+ki, for example "1.53+0.01i".')
   }

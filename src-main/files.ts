@@ -12,6 +12,7 @@ import { randomBytes } from 'node:crypto'
 import * as fsp from 'node:fs/promises'
 import { basename, dirname, join } from 'node:path'
 import { parseStudy, serializeStudy, type Study, type StudyProblem } from '../src-core/index.ts'
+import { StudyFileError } from './studyFileError.ts'
 
 /** The file on disk changed since the caller read it (or was deleted). */
 export class FileChangedError extends Error {
@@ -33,18 +34,7 @@ export class FileChangedError extends Error {
   }
 }
 
-/** The study file does not hold a valid study. */
-export class StudyFileError extends Error {
-  readonly path: string
-  readonly problems: StudyProblem[]
-
-  constructor(path: string, problems: StudyProblem[]) {
-    super(`${path}: ${problems.length} problem${problems.length === 1 ? '' : 's'}: ${problems.map((p) => `${p.path}: ${p.message}`).join('; ')}`)
-    this.name = 'StudyFileError'
-    this.path = path
-    this.problems = problems
-  }
-}
+export { StudyFileError }
 
 /** The file system calls saving uses; tests replace some to simulate failures. */
 export interface SaveIo {

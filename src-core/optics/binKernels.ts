@@ -125,3 +125,83 @@ export function opticsFromBinKernels(k: BinKernels, layout: BinLayout, values: A
   }
   return { wavelengths, number_cm3: number, volume_um3_cm3: volume, mass_ug_m3: volume * k.kind.densityGcm3 }
 }
+
+/** Figures per row written by a BinnedRowEvaluator: per wavelength ext, sca, abs, ssa, g; then number, volume, mass. */
+export function binnedRowWidth(k: Pick<BinKernels, 'wavelengthsNm'>): number {
+  return 5 * k.wavelengthsNm.length + 3
+}
+
+/**
+ * Writes one distribution's figures (the values of opticsFromBinKernels, in the order of binnedRowWidth) into
+ * `out` at `outAt`, from `values[at .. at + bins)`. Allocates nothing: for long series, e.g. rows packed in one
+ * Float64Array.
+ */
+export type BinnedRowEvaluator = (values: ArrayLike<number>, at: number, out: Float64Array, outAt: number) => void
+
+/**
+ * opticsFromBinKernels for many rows on the same layout, with the same arithmetic in the same order (the same
+ * numbers to the last bit): the conversion of the layout's quantity to dN/dlogD uses per-bin constants
+ * computed once with binsFromMeasurement's expressions, then the same dot products. A row with a non-finite or
+ * negative value is handed to binsFromMeasurement, which throws its InputError.
+ */
+export function binnedRowEvaluator(k: BinKernels, layout: BinLayout): BinnedRowEvaluator {
+  const n = k.edgesUm.length - 1
+  const e = k.edgesUm
+  const density = k.kind.densityGcm3
+  // dN/dlogD = v · mul / div per bin, as binsFromMeasurement writes it for each quantity
+  const mul = new Float64Array(n).fill(1)
+  const div = new Float64Array(n).fill(1)
+  const q = layout.quantity
+  for (let i = 0; i < n; i++) {
+    const dlog = binPowerIntegral(e[i], e[i + 1], 0)
+    if (q === 'dN') div[i] = dlog
+    else if (q === 'dS/dlogDp') (mul[i] = dlog), (div[i] = Math.PI * binPowerIntegral(e[i], e[i + 1], 2))
+    else if (q === 'dV/dlogDp') (mul[i] = dlog), (div[i] = (Math.PI / 6) * binPowerIntegral(e[i], e[i + 1], 3))
+    else if (q === 'dM/dlogDp') (mul[i] = dlog), (div[i] = density * (Math.PI / 6) * binPowerIntegral(e[i], e[i + 1], 3))
+    else if (q !== 'dN/dlogDp') binsFromMeasurement({ diameters: layout.diameters, diameterKind: layout.edges ? 'edges' : 'midpoints', diameterUnit: layout.diameter_unit, quantity: q, values: new Float64Array(n), density })
+  }
+  const v = new Float64Array(n)
+  const nw = k.wavelengthsNm.length
+  return (values, at, out, outAt) => {
+    for (let i = 0; i < n; i++) {
+      const x = values[at + i]
+      if (!(x >= 0 && x < Infinity)) {
+        binsFromMeasurement({ diameters: layout.diameters, diameterKind: layout.edges ? 'edges' : 'midpoints', diameterUnit: layout.diameter_unit, quantity: q, values: Array.from({ length: n }, (_, j) => values[at + j]), density })
+        throw new Error(`bin ${i + 1}: the value ${x} was refused without a reason`)
+      }
+      // the same expressions as binsFromMeasurement: v, v / dlog, (v · dlog) / (...)
+      v[i] = q === 'dN/dlogDp' ? x : q === 'dN' ? x / div[i] : (x * mul[i]) / div[i]
+    }
+    let o = outAt
+    for (let j = 0; j < nw; j++) {
+      let ext = 0
+      let sca = 0
+      let abs = 0
+      let gsca = 0
+      const ke = k.ext[j]
+      const ks = k.sca[j]
+      const ka = k.abs[j]
+      const kg = k.gsca[j]
+      for (let i = 0; i < n; i++) {
+        ext += v[i] * ke[i]
+        sca += v[i] * ks[i]
+        abs += v[i] * ka[i]
+        gsca += v[i] * kg[i]
+      }
+      out[o++] = ext
+      out[o++] = sca
+      out[o++] = abs
+      out[o++] = ext > 0 ? sca / ext : NaN
+      out[o++] = sca > 0 ? gsca / sca : NaN
+    }
+    let number = 0
+    let volume = 0
+    for (let i = 0; i < n; i++) {
+      number += v[i] * k.numberWeights[i]
+      volume += v[i] * k.volumeWeights[i]
+    }
+    out[o++] = number
+    out[o++] = volume
+    out[o] = volume * density
+  }
+}

@@ -9,5 +9,5 @@ export { angstromExponent, angstromFitOf, angstromFit, localAngstromExponents, v
 export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, upscatterFunction, LAYER_TOP_PRESSURE_HPA } from './forcing.ts'
 export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityCurveKey, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'
-export { binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
-export type { BinKernels, BinnedRow, BinLayout } from './binKernels.ts'
+export { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
+export type { BinKernels, BinnedRow, BinnedRowEvaluator, BinLayout } from './binKernels.ts'

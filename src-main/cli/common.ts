@@ -1,7 +1,8 @@
 // Shared pieces of the command line: argument errors, output, exit codes.
 import { parseArgs, type ParseArgsConfig } from 'node:util'
 import { InputError, parseWavelengthList, type Sample, type Study } from '../../src-core/index.ts'
-import { StudyFileError } from '../files.ts'
+import { StudyFileError } from '../studyFileError.ts'
+import { sevenDigits } from './number-text.ts'
 
 /** A bad command-line argument: printed as one line, exit status 2. */
 export class UsageError extends Error {}
@@ -121,7 +122,7 @@ export function readTolerance(text: string | undefined, fallback: number): numbe
 /** One CSV cell: numbers as they are (7 significant digits), text quoted when it must be. */
 export function csvCell(v: string | number | boolean | null | undefined): string {
   if (v === null || v === undefined) return ''
-  if (typeof v === 'number') return Number.isFinite(v) ? String(Number(v.toPrecision(7))) : ''
+  if (typeof v === 'number') return Number.isFinite(v) ? sevenDigits(v) : ''
   const s = String(v)
   return /[",\r\n]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s
 }

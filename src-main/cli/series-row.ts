@@ -1,5 +1,18 @@
-// One output row of `motebench series`: the figures of one distribution, shared by the command, its workers and the bench.
-import { binOpticsKernels, InputError, opticsFromBinKernels, OpticsWorkspace, type BinKernels, type BinLayout, type Sample, type UserMaterialSpec } from '../../src-core/index.ts'
+// The rows of `motebench series`: figures and CSV text of a block of distributions, shared by the command's worker
+// threads and the bench.
+import {
+  binnedRowEvaluator,
+  binnedRowWidth,
+  binOpticsKernels,
+  InputError,
+  OpticsWorkspace,
+  type BinKernels,
+  type BinLayout,
+  type BinnedRowEvaluator,
+  type Sample,
+  type UserMaterialSpec
+} from '../../src-core/index.ts'
+import { csvCell } from './common.ts'
 
 /** What every row of a series shares: the sample (composition, humidity, layer), wavelengths and accuracy. */
 export interface SeriesSetup {
@@ -19,45 +32,80 @@ export function seriesColumns(wavelengthsNm: readonly number[]): string[] {
   return cols
 }
 
-/**
- * Computes rows one after another. The bins are the same on every row, so each bin's cross-sections per
- * unit dN/dlogD are integrated once (binOpticsKernels) and every row is a dot product (opticsFromBinKernels).
- */
-export class SeriesRowComputer {
-  private readonly study: { wavelengths_nm: number[]; user_materials: UserMaterialSpec[] }
-  private readonly ws = new OpticsWorkspace()
-  private kernels: BinKernels | null = null
-  private kernelLayout: BinLayout | null = null
-
-  constructor(private readonly setup: SeriesSetup) {
-    this.study = { wavelengths_nm: setup.wavelengthsNm, user_materials: setup.userMaterials }
-  }
-
-  /** The numbers of one output row (all columns but time). Throws InputError for a distribution it cannot use. */
-  cells(bins: BinLayout, values: number[]): number[] {
-    if (this.kernelLayout !== bins || !this.kernels) {
-      this.kernels = binOpticsKernels(this.setup.sample, this.study, bins, { tolerance: this.setup.tolerance, workspace: this.ws })
-      this.kernelLayout = bins
-    }
-    const o = opticsFromBinKernels(this.kernels, bins, values)
-    const out: number[] = []
-    // ssa and g of an empty distribution are undefined: NaN (an empty cell)
-    for (const w of o.wavelengths) out.push(w.ext, w.sca, w.abs, w.ssa, w.g)
-    out.push(o.number_cm3, o.volume_um3_cm3, o.mass_ug_m3)
-    return out
-  }
+/** A row of a block that gave no figures: its index in the block, where its text would have started, and why. */
+export interface RowFailure {
+  index: number
+  /** Characters of the block's text before this row (what is written when the run stops here). */
+  at: number
+  where: string
+  message: string
+  fix: string
+  /** Not the input's fault (a bug): the run stops. */
+  internal: boolean
 }
 
-/** One row's outcome, as a worker posts it back (or the main thread records it). */
-export type RowResult = { seq: number; ok: true; cells: number[] } | { seq: number; ok: false; where: string; message: string; fix: string; internal: boolean }
+/** A block's outcome: the CSV lines of its good rows, in order, and its failed rows. */
+export interface BlockResult {
+  text: string
+  written: number
+  failures: RowFailure[]
+}
 
-/** Computes one row, turning a refusal into a result that says why (internal: not the input's fault). */
-export function computeRow(computer: SeriesRowComputer, bins: BinLayout | undefined, seq: number, values: number[]): RowResult {
-  try {
-    if (!bins) throw new Error('rows arrived before the bin layout')
-    return { seq, ok: true, cells: computer.cells(bins, values) }
-  } catch (e) {
-    if (e instanceof InputError) return { seq, ok: false, where: e.where, message: e.message, fix: e.fix, internal: false }
-    return { seq, ok: false, where: '', message: (e as Error)?.stack ?? String(e), fix: '', internal: true }
+/**
+ * Computes blocks of rows. The bins are the same on every row, so each bin's cross-sections per unit dN/dlogD are
+ * integrated once (binOpticsKernels) and every row is a dot product (binnedRowEvaluator), written straight into
+ * its CSV line (numbers to 7 significant digits, csvCell).
+ */
+export class SeriesBlockComputer {
+  private kernels: BinKernels | null = null
+  private evaluate: BinnedRowEvaluator | null = null
+  private kernelError: unknown = null
+  private figures = new Float64Array(0)
+  private width = 0
+
+  constructor(private readonly setup: SeriesSetup) {}
+
+  /** Integrates the layout's kernels (once per series; a few hundred milliseconds). */
+  useLayout(layout: BinLayout): void {
+    try {
+      const study = { wavelengths_nm: this.setup.wavelengthsNm, user_materials: this.setup.userMaterials }
+      this.kernels = binOpticsKernels(this.setup.sample, study, layout, { tolerance: this.setup.tolerance, workspace: new OpticsWorkspace() })
+      this.evaluate = binnedRowEvaluator(this.kernels, layout)
+      this.width = binnedRowWidth(this.kernels)
+      this.figures = new Float64Array(this.width)
+    } catch (e) {
+      // as before, a layout the optics cannot use is every row's failure (reported per row)
+      this.kernelError = e
+    }
+  }
+
+  /** The figures of one row (all columns but time), for the bench. */
+  rowFigures(values: ArrayLike<number>): Float64Array {
+    if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
+    this.evaluate(values, 0, this.figures, 0)
+    return this.figures
+  }
+
+  /** Rows `values[r·bins .. (r+1)·bins)` with their time stamps. */
+  block(times: readonly string[], values: Float64Array, bins: number): BlockResult {
+    let text = ''
+    let written = 0
+    const failures: RowFailure[] = []
+    const out = this.figures
+    for (let r = 0; r < times.length; r++) {
+      try {
+        if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
+        this.evaluate(values, r * bins, out, 0)
+      } catch (e) {
+        if (e instanceof InputError) failures.push({ index: r, at: text.length, where: e.where, message: e.message, fix: e.fix, internal: false })
+        else failures.push({ index: r, at: text.length, where: '', message: (e as Error)?.stack ?? String(e), fix: '', internal: true })
+        continue
+      }
+      let line = csvCell(times[r])
+      for (let c = 0; c < this.width; c++) line += ',' + csvCell(out[c])
+      text += line + '\n'
+      written++
+    }
+    return { text, written, failures }
   }
 }

@@ -1,15 +1,16 @@
 // motebench series SIZER --study FILE --sample NAME: one row of optics per time step of a sizer time series.
 //
-// The sizer file is read line by line (node:readline) into createSizerReader, so memory does not grow with the
-// number of rows. Each distribution goes to a worker thread (computeSampleOptics with the sample's composition,
-// humidity and layer and the row's bins); results come back out of order and are written in input order. At most
-// WINDOW rows are read ahead of the last row written: when the window is full, reading waits (backpressure).
+// The sizer file is read in large chunks and split into lines (node:readline) for createSizerReader, so memory does
+// not grow with the number of rows. Rows are packed in blocks (BLOCK_ROWS distributions in one Float64Array) and
+// each block goes to a worker thread, which integrates the bins' kernels once and turns the block into CSV text
+// (series-row.ts). Blocks come back out of order and are written in input order, in chunks of about a megabyte.
+// At most a few blocks per worker are read ahead of the last block written: then reading waits (backpressure).
 import { createReadStream } from 'node:fs'
 import { open, rename, stat, unlink, type FileHandle } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
-import { createInterface } from 'node:readline'
-import { Worker } from 'node:worker_threads'
+import type { Readable } from 'node:stream'
+import type { Worker } from 'node:worker_threads'
 import {
   BIN_QUANTITIES,
   createSizerReader,
@@ -24,9 +25,10 @@ import {
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
-import { computeRow, SeriesRowComputer, seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
+import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
+import type { FromWorker, ToWorker } from './workers/series-worker.ts'
+import { startCliWorker } from './workers/start.ts'
 import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp, type SeriesExtra } from './series-optical.ts'
-import type { FromWorker, RowResult, ToWorker } from './workers/series-worker.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
   SIZER                 sizer export with one row per time and one column per bin (.csv, .tsv or .txt)
@@ -35,8 +37,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   --wavelengths LIST    e.g. 450,550,700 (nm) or 0.45,0.55um (default: the study's wavelengths)
   --out FILE            write the CSV to FILE (it appears only when complete) instead of standard output
   --on-bad-row P        skip (default: leave bad rows out, list them, exit status 1) or stop (at the first, exit 2)
-  --workers N           worker threads beside the main thread, which computes rows too (default: one fewer
-                        than the processors, at least 1: ${Math.max(1, availableParallelism() - 1)} here)
+  --workers N           worker threads that compute the rows while the main thread reads the file (default:
+                        one fewer than the processors, at least 1: ${Math.max(1, availableParallelism() - 1)} here)
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are
                         integrated once and every row is a weighted sum of them
   --diameter-unit U     nm or um, when the file does not say
@@ -46,11 +48,15 @@ Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then
 (µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
-/** Rows sent to one worker at a time, and rows read ahead of the last written per worker. */
-/** Rows per message to a worker, rows a worker may hold, and rows read ahead of the writer per worker. */
-const BATCH = 16
-const IN_FLIGHT_PER_WORKER = 2 * BATCH
-const WINDOW_PER_WORKER = 8 * BATCH
+/**
+ * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; about
+ * 3 MB: enough for the reading to go on while the workers integrate the bins' kernels), and text gathered before
+ * it is written.
+ */
+const BLOCK_ROWS = 256
+const BLOCKS_PER_WORKER = 3
+const BLOCKS_AHEAD = 16
+const WRITE_CHARS = 1 << 20
 /** Reasons kept for the summary (the counts go on). */
 const KEPT_REASONS = 1000
 
@@ -60,8 +66,11 @@ export interface SeriesOutput {
 }
 
 export interface SeriesRunOptions extends SeriesSetup {
-  /** The sizer file's lines (without line breaks); the iterator is taken synchronously when the run starts. */
-  lines: AsyncIterable<string>
+  /**
+   * The sizer file's lines (without line breaks), one at a time or in batches (fileLines gives batches of a
+   * megabyte); the iterator is taken synchronously when the run starts.
+   */
+  lines: AsyncIterable<string | readonly string[]>
   fileName: string
   sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout'>
   onBadRow: 'skip' | 'stop'
@@ -71,7 +80,7 @@ export interface SeriesRunOptions extends SeriesSetup {
   onProgress?: (written: number) => void
   /** Called every few hundred milliseconds while the pipeline runs (e.g. to sample memory). */
   onTick?: () => void
-  /** Extra cells after each row's figures (measured optical instruments beside the sizer). */
+  /** Extra cells after each row's figures (measured optical instruments beside the sizer; series-optical.ts). */
   extra?: SeriesExtra
 }
 
@@ -96,12 +105,6 @@ export interface SeriesSummary {
   seconds: number
 }
 
-interface RowMeta {
-  time: string
-  line: number
-  extra?: Float64Array
-}
-
 /** Splits an InputError message "where: problem. fix" back into its problem. */
 function problemOf(r: { where: string; message: string; fix: string }): string {
   let m = r.message
@@ -110,30 +113,65 @@ function problemOf(r: { where: string; message: string; fix: string }): string {
   return r.where ? `${r.where}: ${m}` : m
 }
 
+/** A block of rows on its way to a worker: time stamps, values packed row after row, and the rows' lines. */
+interface Block {
+  id: number
+  times: string[]
+  lines: number[]
+  values: Float64Array
+  /** With `extra`: each row's extra cells, computed on the main thread when the row is read. */
+  extras?: Float64Array[]
+}
+
+/**
+ * A block's CSV text with each written row's extra cells appended (rows are one line each, in order, without the
+ * failed ones); the failures' offsets are moved to match. Calls `written` for every row of the text.
+ */
+function appendExtras(r: { text: string; failures: { index: number; at: number }[] }, extras: Float64Array[], written: (cells: Float64Array) => void): { text: string; at: number[] } {
+  const rows = r.text.split('\n')
+  rows.pop() // after the last line break
+  const failed = new Set(r.failures.map((f) => f.index))
+  let out = ''
+  let row = 0
+  const at: number[] = []
+  let f = 0
+  for (let i = 0; i < extras.length; i++) {
+    if (failed.has(i)) {
+      at[f++] = out.length
+      continue
+    }
+    if (row >= rows.length) break
+    out += rows[row++] + ',' + Array.from(extras[i], csvCell).join(',') + '\n'
+    written(extras[i])
+  }
+  return { text: out, at }
+}
+
 /** Runs the series machinery: reads `lines`, computes in worker threads, writes CSV rows in input order. */
 export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSummary> {
   // Take the iterator before anything awaits, so a readline source buffers from its first line.
   const lineIterator = o.lines[Symbol.asyncIterator]()
-  const source: AsyncIterable<string> = { [Symbol.asyncIterator]: () => lineIterator }
+  const source: AsyncIterable<string | readonly string[]> = { [Symbol.asyncIterator]: () => lineIterator }
   const started = performance.now()
   const setup: SeriesSetup = { sample: o.sample, userMaterials: o.userMaterials, wavelengthsNm: o.wavelengthsNm, tolerance: o.tolerance }
-  const workers: { worker: Worker; inFlight: number; ready: boolean }[] = []
-  const window = WINDOW_PER_WORKER * o.workers
-  // The main thread computes a row itself whenever every worker is full; worker threads take a few seconds to
-  // load, and until then it does all the work.
-  const local = new SeriesRowComputer(setup)
-  let localBins: BinLayout | undefined
-  const queue: { seq: number; values: number[] }[] = []
-  const meta = new Map<number, RowMeta>()
-  const done = new Map<number, RowResult>()
-  let nextSeq = 0
+  const workers: { worker: Worker; inFlight: number }[] = []
+  const window = Math.max(BLOCKS_AHEAD, (BLOCKS_PER_WORKER + 1) * o.workers)
+  const queue: Block[] = []
+  /** Line numbers of the blocks sent and not yet written, by block. */
+  const blockLines = new Map<number, number[]>()
+  const blockExtras = new Map<number, Float64Array[]>()
+  const done = new Map<number, Extract<FromWorker, { type: 'block' }>>()
+  let bins = 0
+  let layoutForExtra: BinLayout | undefined
+  let current: Block | undefined
+  let nextId = 0
   let nextWrite = 0
   let written = 0
+  let text = ''
   let failure: Error | undefined
   let wake: (() => void) | undefined
   let writing: Promise<void> = Promise.resolve()
   let unwrittenChars = 0
-  let binsSent = false
   const opticsSkips: SkippedRow[] = []
   let opticsSkipCount = 0
 
@@ -148,74 +186,89 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     notify()
   }
 
+  /** Sends queued blocks to the workers with room, the least busy first. */
   const pump = (): void => {
     while (queue.length > 0 && !failure) {
       let best: (typeof workers)[number] | undefined
-      for (const w of workers) {
-        const room = (w.ready ? IN_FLIGHT_PER_WORKER : BATCH) - w.inFlight
-        if (room >= Math.min(BATCH, queue.length) && (!best || w.inFlight < best.inFlight)) best = w
-      }
-      if (best) {
-        const rows = queue.splice(0, BATCH)
-        best.inFlight += rows.length
-        best.worker.postMessage({ type: 'rows', rows } satisfies ToWorker)
-      } else {
-        // every worker is full (or still loading): the main thread takes the row
-        const row = queue.shift()!
-        done.set(row.seq, computeRow(local, localBins, row.seq, row.values))
-        flush()
-      }
+      for (const w of workers) if (w.inFlight < BLOCKS_PER_WORKER && (!best || w.inFlight < best.inFlight)) best = w
+      if (!best) return
+      const b = queue.shift()!
+      best.inFlight++
+      blockLines.set(b.id, b.lines)
+      if (b.extras) blockExtras.set(b.id, b.extras)
+      best.worker.postMessage({ type: 'block', id: b.id, times: b.times, values: b.values, bins } satisfies ToWorker, [b.values.buffer as ArrayBuffer])
     }
   }
 
-  /** Writes every finished row that is next in input order. */
+  const send = (b: Block): void => {
+    queue.push(b)
+    pump()
+  }
+
+  const write = (chunk: string): void => {
+    unwrittenChars += chunk.length
+    writing = writing.then(async () => {
+      await o.output.write(chunk)
+      unwrittenChars -= chunk.length
+      notify()
+    })
+    writing.catch(fail)
+  }
+
+  /** Takes every finished block that is next in input order; writes once a megabyte of text is gathered. */
   const flush = (): void => {
-    let text = ''
-    while (done.has(nextWrite)) {
-      const r = done.get(nextWrite)!
-      const m = meta.get(nextWrite)!
+    while (done.has(nextWrite) && !failure) {
+      let r = done.get(nextWrite)!
+      const lines = blockLines.get(nextWrite)!
+      const extras = blockExtras.get(nextWrite)
       done.delete(nextWrite)
-      meta.delete(nextWrite)
+      blockLines.delete(nextWrite)
+      blockExtras.delete(nextWrite)
       nextWrite++
-      if (r.ok) {
-        text += csvCell(m.time) + ',' + r.cells.map(csvCell).join(',') + (m.extra ? ',' + Array.from(m.extra, csvCell).join(',') : '') + '\n'
-        if (m.extra) o.extra!.written(m.extra)
-        written++
-      } else if (r.internal) {
-        fail(new Error(`the optics of line ${m.line} failed: ${r.message}`))
-        return
-      } else if (o.onBadRow === 'stop') {
-        fail(new InputError(`${o.fileName} line ${m.line}`, `the distribution of this row cannot be used (${problemOf(r)})`, r.fix))
-        return
-      } else {
-        opticsSkipCount++
-        if (opticsSkips.length < KEPT_REASONS) opticsSkips.push({ line: m.line, reason: `the distribution cannot be used (${problemOf(r)}); the row is left out`, fix: r.fix })
+      if (extras) {
+        // the failures' offsets move with the extra cells; rows after a stopping failure are not counted as written
+        const stopAt = o.onBadRow === 'stop' || r.failures.some((f) => f.internal) ? (r.failures[0]?.index ?? Infinity) : Infinity
+        const x = appendExtras(r, extras.slice(0, Math.min(extras.length, stopAt)), o.extra!.written)
+        r = { ...r, text: x.text, failures: r.failures.map((f, k) => ({ ...f, at: x.at[k] ?? x.text.length })) }
       }
+      for (let k = 0; k < r.failures.length; k++) {
+        const f = r.failures[k]
+        const line = lines[f.index]
+        if (f.internal || o.onBadRow === 'stop') {
+          // the rows before this one are written, then the run stops
+          text += r.text.slice(0, f.at)
+          written += f.index - k
+          if (text) write(text)
+          text = ''
+          if (f.internal) fail(new Error(`the optics of line ${line} failed: ${f.message}`))
+          else fail(new InputError(`${o.fileName} line ${line}`, `the distribution of this row cannot be used (${problemOf(f)})`, f.fix))
+          return
+        }
+        opticsSkipCount++
+        if (opticsSkips.length < KEPT_REASONS) opticsSkips.push({ line, reason: `the distribution cannot be used (${problemOf(f)}); the row is left out`, fix: f.fix })
+      }
+      text += r.text
+      written += r.written
     }
-    if (text) {
-      unwrittenChars += text.length
-      writing = writing.then(async () => {
-        await o.output.write(text)
-        unwrittenChars -= text.length
-        notify()
-      })
-      writing.catch(fail)
+    if (text.length >= WRITE_CHARS) {
+      write(text)
+      text = ''
       o.onProgress?.(written)
     }
   }
 
   const onMessage = (w: (typeof workers)[number], m: FromWorker): void => {
-    w.ready = true
-    w.inFlight -= m.results.length
-    for (const r of m.results) done.set(r.seq, r)
+    if (m.type === 'ready') return
+    w.inFlight--
+    done.set(m.id, m)
     flush()
     pump()
     notify()
   }
 
   for (let i = 0; i < o.workers; i++) {
-    const worker = new Worker(new URL('./workers/series-bootstrap.mjs', import.meta.url), { workerData: setup })
-    const entry = { worker, inFlight: 0, ready: false }
+    const worker = startCliWorker('series-worker', setup)
+    const entry = { worker, inFlight: 0 }
     worker.on('message', (m: FromWorker) => onMessage(entry, m))
     worker.on('error', (e) => fail(new Error(`a worker thread failed: ${e.message}`)))
     worker.on('exit', (code) => {
@@ -230,17 +283,22 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     onBadRow: o.onBadRow,
     maxKeptRejections: KEPT_REASONS,
     onRecord: (record) => {
-      if (!binsSent) {
+      if (bins === 0) {
         const h = reader.header!
-        const bins: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
-        for (const w of workers) w.worker.postMessage({ type: 'bins', bins } satisfies ToWorker)
-        localBins = bins
-        binsSent = true
+        const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
+        for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
+        bins = h.edges ? h.diameters.length - 1 : h.diameters.length
+        layoutForExtra = layout
       }
-      const seq = nextSeq++
-      meta.set(seq, { time: record.time, line: record.line, extra: o.extra?.cells(record.time, record.values, localBins!) })
-      queue.push({ seq, values: record.values })
-      pump()
+      if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins), extras: o.extra ? [] : undefined }
+      current.extras?.push(o.extra!.cells(record.time, record.values, layoutForExtra!))
+      current.values.set(record.values, current.times.length * bins)
+      current.times.push(record.time)
+      current.lines.push(record.line)
+      if (current.times.length === BLOCK_ROWS) {
+        send(current)
+        current = undefined
+      }
     }
   })
 
@@ -252,22 +310,35 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   try {
     const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
     await o.output.write(comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n')
-    for await (const line of source) {
+    const take = (line: string): void => {
       lineNo++
       if (line.trim() !== '') {
         nonBlank++
         if (earlyNonBlank.length < 5000) earlyNonBlank.push(lineNo)
       }
       reader.push(line)
-      while (!failure && (nextSeq - nextWrite >= window || unwrittenChars > 1 << 20)) await changed()
+    }
+    for await (const item of source) {
+      if (typeof item === 'string') take(item)
+      else for (const line of item) take(line)
+      while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
       if (failure) throw failure
     }
     const end = reader.end()
     if (end.recordCount === 0 && end.rejectedCount === 0) {
       throw new InputError(o.fileName, 'the file has a header but no distributions', 'Export at least one time step (one row per time, one column per bin).')
     }
-    while (!failure && nextWrite < nextSeq) await changed()
+    if (current) {
+      // the last block, cut to its rows
+      const n = current.times.length
+      send({ ...current, values: current.values.slice(0, n * bins) })
+      current = undefined
+    }
+    while (!failure && nextWrite < nextId) await changed()
     if (failure) throw failure
+    if (text) write(text)
+    text = ''
+    o.onProgress?.(written)
     await writing
     if (failure) throw failure
 
@@ -384,6 +455,25 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
   return lines.join('\n') + '\n'
 }
 
+/**
+ * The lines of a text stream in batches (one per chunk read), split as node:readline splits them (at \r\n, \n or
+ * a lone \r; no empty last line after a final line break), without an event and a promise per line.
+ */
+export async function* fileLines(stream: AsyncIterable<string> & Readable): AsyncGenerator<string[]> {
+  let rest = ''
+  for await (const chunk of stream) {
+    let text = rest + chunk
+    // a \r at the end may be the first half of \r\n: keep it for the next chunk
+    const keep = text.endsWith('\r') ? 1 : 0
+    const parts = text.slice(0, text.length - keep).split(/\r\n|\n|\r/)
+    rest = parts.pop()! + (keep ? '\r' : '')
+    text = ''
+    if (parts.length > 0) yield parts
+  }
+  if (rest.endsWith('\r')) rest = rest.slice(0, -1)
+  if (rest !== '') yield [rest]
+}
+
 export async function runSeries(argv: string[]): Promise<number> {
   const { values, positionals } = readArgs(
     'series',
@@ -425,7 +515,7 @@ export async function runSeries(argv: string[]): Promise<number> {
   const { sample } = findSample(study, values.sample, 'series')
   let wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
   const userMaterials = study.user_materials ?? []
-  // Measured optical instruments beside the sizer: read and aligned to the sizer rows before the run; the
+  // Measured optical instruments beside the sizer: read and averaged onto the sizer rows before the run; the
   // figures are computed at their wavelengths too.
   const optical = await prepareSeriesOptical(values, { sizerPath: file, sizer, sample, userMaterials, tolerance })
   if (optical) wavelengthsNm = [...new Set([...wavelengthsNm, ...optical.wavelengthsNm])].sort((a, b) => a - b)
@@ -438,8 +528,8 @@ export async function runSeries(argv: string[]): Promise<number> {
   const target = values.out !== undefined ? await fileOutput(values.out) : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
   // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
-  const stream = createReadStream(file, { encoding: 'utf8' })
-  const lines = createInterface({ input: stream, crlfDelay: Infinity })
+  const stream = createReadStream(file, { encoding: 'utf8', highWaterMark: 1 << 18 })
+  const lines = fileLines(stream)
   const bar = process.stderr.isTTY ? progressBar(size, () => stream.bytesRead) : undefined
   let summary: SeriesSummary
   try {
@@ -463,7 +553,6 @@ export async function runSeries(argv: string[]): Promise<number> {
     throw e
   } finally {
     bar?.clear()
-    lines.close()
     stream.destroy()
   }
   process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))

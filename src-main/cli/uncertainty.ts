@@ -3,7 +3,7 @@
 import { readFile } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
-import { Worker } from 'node:worker_threads'
+import type { Worker } from 'node:worker_threads'
 import {
   centralFigures,
   computeDraws,
@@ -25,6 +25,7 @@ import {
   type UncertaintyStatus
 } from '../../src-core/index.ts'
 import { formatNumber, printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { startCliWorker } from './workers/start.ts'
 
 export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: Monte Carlo uncertainty of a sample's 550 nm optics and forcing
   FILE.mote             a study whose "uncertainty" settings list the sample's uncertain inputs:
@@ -58,17 +59,10 @@ export interface ParallelOptions {
 }
 
 const FORCING = UNCERTAINTY_FIGURES.findIndex((f) => f.key === 'forcing')
-const WORKER_URL = new URL('./workers/uncertainty-worker.ts', import.meta.url)
-/**
- * Workers run TypeScript through tsx. With Node 20, \`execArgv: ['--import', 'tsx']\` on the Worker did not
- * install tsx's loader in the worker (it failed with "Unknown file extension .ts"), so each worker starts
- * from a one-line module that registers tsx's loader (tsx/esm/api, resolved here) and then imports the worker.
- */
-const WORKER_BOOT = `import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(WORKER_URL.href)}) })`
 
-/** Starts one uncertainty worker thread. */
+/** Starts one uncertainty worker thread (built JavaScript when the command line is built; see workers/start.ts). */
 export function startUncertaintyWorker(workerData: unknown): Worker {
-  return new Worker(WORKER_BOOT, { eval: true, workerData })
+  return startCliWorker('uncertainty-worker', workerData)
 }
 
 /** Contiguous draws from 0 among the received blocks. */

@@ -5,6 +5,7 @@ import { benchUiEdits } from './ui.bench.ts'
 import { benchAngularTable, benchCoatedGrid, benchSphereAngles, benchSphereGrid, benchSphereLarge } from './mie.bench.ts'
 import { benchUncertaintyDemo } from './uncertainty.bench.ts'
 import { benchSeries } from './series.bench.ts'
+import { benchCliStart } from './cli-start.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
@@ -16,6 +17,7 @@ const cases: Record<string, () => void | Promise<void>> = {
   'edits-demo': benchEditsDemo,
   'ui-edits': benchUiEdits,
   series: benchSeries,
+  'cli-start': benchCliStart,
   'uncertainty-demo': benchUncertaintyDemo
 }
 

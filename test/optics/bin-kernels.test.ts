@@ -1,6 +1,6 @@
 // Per-bin kernels: a distribution's optics as a dot product must match the full integration of the same bins.
 import { describe, expect, it } from 'vitest'
-import { binOpticsKernels, computeSampleOptics, opticsFromBinKernels, type Sample, type Study } from '../../src-core/index.ts'
+import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, computeSampleOptics, InputError, opticsFromBinKernels, type BinLayout, type Sample, type Study } from '../../src-core/index.ts'
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b)
 
@@ -33,5 +33,40 @@ describe('bin kernels', () => {
     const twice = opticsFromBinKernels(k, layout, values.map((v) => 2 * v))
     expect(twice.wavelengths[1].ext).toBeCloseTo(2 * row.wavelengths[1].ext, 9)
     expect(twice.wavelengths[1].g).toBeCloseTo(row.wavelengths[1].g, 12)
+  })
+
+  it('the per-row evaluator of long series gives opticsFromBinKernels\'s numbers bit for bit, for every quantity, and its errors', () => {
+    // Same arithmetic in the same order (a faster path, not a new method): the numbers must be identical.
+    const diameters = Array.from({ length: 12 }, (_, i) => 30 * 1.3 ** i)
+    const sample: Pick<Sample, 'name' | 'composition' | 'rh_percent' | 'rh_history' | 'temperature_k'> = {
+      name: 'evaluator test',
+      composition: { components: [{ material: 'ammonium-sulfate', volume_fraction: 0.8 }, { material: 'black-carbon', volume_fraction: 0.2 }], mixing: 'volume-average' },
+      rh_percent: 40,
+      rh_history: 'falling'
+    }
+    const study = { wavelengths_nm: [450, 700] }
+    for (const quantity of ['dN/dlogDp', 'dN', 'dS/dlogDp', 'dV/dlogDp', 'dM/dlogDp'] as const) {
+      const layout: BinLayout = { diameters, diameter_unit: 'nm', edges: false, quantity }
+      const k = binOpticsKernels(sample, study, layout, { tolerance: 1e-3 })
+      const evaluate = binnedRowEvaluator(k, layout)
+      const rows = [diameters.map((d, i) => 1000 * Math.exp(-i / 3) + d / 7), diameters.map(() => 0), diameters.map((_, i) => (i % 3 === 0 ? 0.5 : 1e-7 * i))]
+      const packed = Float64Array.from(rows.flat())
+      const out = new Float64Array(binnedRowWidth(k) * rows.length)
+      rows.forEach((_, r) => evaluate(packed, r * diameters.length, out, r * binnedRowWidth(k)))
+      rows.forEach((values, r) => {
+        const o = opticsFromBinKernels(k, layout, values)
+        const want = [...o.wavelengths.flatMap((w) => [w.ext, w.sca, w.abs, w.ssa, w.g]), o.number_cm3, o.volume_um3_cm3, o.mass_ug_m3]
+        expect(Array.from(out.subarray(r * want.length, (r + 1) * want.length)), quantity).toEqual(want) // toEqual: same doubles (NaN equals NaN)
+      })
+      // a negative value: the same InputError as binsFromMeasurement's
+      const bad = rows[0].slice()
+      bad[4] = -1
+      let mine: unknown
+      let theirs: unknown
+      try { evaluate(bad, 0, out, 0) } catch (e) { mine = e }
+      try { opticsFromBinKernels(k, layout, bad) } catch (e) { theirs = e }
+      expect(mine).toBeInstanceOf(InputError)
+      expect((mine as Error).message).toBe((theirs as Error).message)
+    }
   })
 })

@@ -1,20 +1,16 @@
-// Worker thread of `motebench series`: computes the rows it is sent and posts their cells back, tagged by sequence number.
+// Worker thread of `motebench series`: integrates the bins' kernels once, then turns each block of rows it is sent
+// into CSV text (see series-row.ts) and posts it back with the block's number.
 import { parentPort, workerData } from 'node:worker_threads'
-import { computeRow, SeriesRowComputer, type BinLayout, type RowResult, type SeriesSetup } from '../series-row.ts'
+import { SeriesBlockComputer, type BinLayout, type BlockResult, type SeriesSetup } from '../series-row.ts'
 
-export type ToWorker = { type: 'bins'; bins: BinLayout } | { type: 'rows'; rows: { seq: number; values: number[] }[] }
-export type { RowResult }
-export type FromWorker = { type: 'results'; results: RowResult[] }
+export type ToWorker = { type: 'layout'; layout: BinLayout } | { type: 'block'; id: number; times: string[]; values: Float64Array; bins: number }
+export type FromWorker = { type: 'ready' } | ({ type: 'block'; id: number } & BlockResult)
 
 const port = parentPort!
-const computer = new SeriesRowComputer(workerData as SeriesSetup)
-let bins: BinLayout | undefined
+const computer = new SeriesBlockComputer(workerData as SeriesSetup)
 
 port.on('message', (m: ToWorker) => {
-  if (m.type === 'bins') {
-    bins = m.bins
-    return
-  }
-  const results = m.rows.map((row) => computeRow(computer, bins, row.seq, row.values))
-  port.postMessage({ type: 'results', results } satisfies FromWorker)
+  if (m.type === 'layout') computer.useLayout(m.layout)
+  else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
 })
+port.postMessage({ type: 'ready' } satisfies FromWorker)

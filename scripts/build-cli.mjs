@@ -1,0 +1,57 @@
+// Builds the command line to plain JavaScript: src-main/cli/main.ts and its worker threads, each bundled with
+// what it imports (src-core and the libraries) into out/cli/*.mjs, so no TypeScript is compiled when a command
+// runs. Run by `npm install` / `npm ci` (the "prepare" script) and by `npm run build:cli`; the tests run it too
+// (test/global-setup.ts) so they exercise the current source. Uses esbuild's JavaScript API (its binary comes in
+// the @esbuild/<platform> package; esbuild's own install script is not needed).
+import { build } from 'esbuild'
+import { fileURLToPath } from 'node:url'
+
+const root = fileURLToPath(new URL('..', import.meta.url))
+
+const ownModulesWithoutSideEffects = {
+  name: 'own-modules-without-side-effects',
+  setup(b) {
+    b.onResolve({ filter: /^\.\.?\// }, async (args) => {
+      if (args.pluginData?.own || args.importer.includes('/node_modules/')) return undefined
+      const r = await b.resolve(args.path, { kind: args.kind, resolveDir: args.resolveDir, importer: args.importer, pluginData: { own: true } })
+      if (r.errors.length > 0 || r.path.includes('/node_modules/') || !/\/src-(core|main)\//.test(r.path)) return r.errors.length > 0 ? { errors: r.errors } : undefined
+      return { path: r.path, sideEffects: false }
+    })
+  }
+}
+
+export async function buildCli({ quiet = false } = {}) {
+  const t0 = performance.now()
+  const result = await build({
+    absWorkingDir: root,
+    entryPoints: {
+      main: 'src-main/cli/main.ts',
+      'series-worker': 'src-main/cli/workers/series-worker.ts',
+      'uncertainty-worker': 'src-main/cli/workers/uncertainty-worker.ts'
+    },
+    // Each command is its own chunk (main.ts imports them on demand), so a command loads only what it uses.
+    // Everything in one folder: src-main/cli/workers/start.ts finds a worker beside the chunk that starts it.
+    splitting: true,
+    chunkNames: '[name]-[hash]',
+    outdir: 'out/cli',
+    outExtension: { '.js': '.mjs' },
+    bundle: true,
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    minifyWhitespace: true,
+    minifySyntax: true,
+    // CommonJS libraries bundled into an ES module call require() for Node's built-ins
+    banner: { js: "import { createRequire as __motebenchRequire } from 'node:module'; const require = __motebenchRequire(import.meta.url);" },
+    // The project's own modules do nothing when imported but define things (none is imported for its side
+    // effects), so a module a command does not use is left out of its chunk even when it comes through
+    // src-core/index.ts.
+    plugins: [ownModulesWithoutSideEffects],
+    metafile: true,
+    logLevel: 'warning'
+  })
+  if (process.env.MOTEBENCH_BUILD_META) (await import('node:fs')).writeFileSync(process.env.MOTEBENCH_BUILD_META, JSON.stringify(result.metafile))
+  if (!quiet) process.stdout.write(`motebench: command line built into out/cli in ${Math.round(performance.now() - t0)} ms\n`)
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) await buildCli()

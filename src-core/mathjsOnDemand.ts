@@ -1,0 +1,22 @@
+/**
+ * mathjs instances made on first use, each with only the functions it needs. Importing mathjs's ready-made
+ * functions builds every one of them when the module loads (over a second on a field laptop), which every
+ * command and the app's start paid even when nothing was typed with a unit; from the factories, a bundler keeps
+ * only what is used, and the work is done when a unit or complex number is first read. Expressions (which may
+ * call any mathjs function) have their own instance: see mathjsExpressions.ts.
+ */
+import { complexDependencies, create, unitDependencies, type MathJsInstance, type Unit } from 'mathjs'
+
+let quantities: MathJsInstance | undefined
+
+const forQuantities = (): MathJsInstance => (quantities ??= create({ unitDependencies, complexDependencies }))
+
+/** mathjs's unit(text): a quantity with a unit ("120 nm"). */
+export function mathUnit(text: string): Unit {
+  return forQuantities().unit(text)
+}
+
+/** mathjs's complex(text): "1.53+0.01i". */
+export function mathComplex(text: string): { re: number; im: number } {
+  return forQuantities().complex(text)
+}

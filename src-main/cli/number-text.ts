@@ -1,0 +1,42 @@
+// Numbers as the command line's CSV writes them: String(Number(v.toPrecision(7))), the value to 7 significant digits
+// in JavaScript's shortest form ("0.1234568", "1234568", "1.5e-7"), without the two conversions through
+// toPrecision's text and back, which took most of a `series` worker's time. Same text for every finite number.
+
+const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`)) // exact doubles
+
+/** JavaScript's Number-to-String of the decimal 0.d₁d₂…dₖ × 10ⁿ (digits without trailing zeros). */
+function shortestForm(digits: string, n: number): string {
+  const k = digits.length
+  if (k <= n && n <= 21) return digits + '0'.repeat(n - k)
+  if (0 < n && n <= 21) return digits.slice(0, n) + '.' + digits.slice(n)
+  if (-6 < n && n <= 0) return '0.' + '0'.repeat(-n) + digits
+  const e = n - 1
+  return (k === 1 ? digits : digits[0] + '.' + digits.slice(1)) + (e < 0 ? 'e-' : 'e+') + Math.abs(e)
+}
+
+/** String(Number(v.toPrecision(7))) for a finite v. */
+export function sevenDigits(v: number): string {
+  if (v === 0) return '0'
+  const a = v < 0 ? -v : v
+  // within 1e-16 .. 1e28 the scaled value is one correctly rounded operation on exact powers of ten
+  if (a >= 1e-16 && a < 1e28) {
+    let e = Math.floor(Math.log10(a))
+    let scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]
+    if (scaled >= 1e7) (e++, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
+    else if (scaled < 1e6) (e--, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
+    const low = Math.floor(scaled)
+    const frac = scaled - low
+    // far from a tie the rounding of the scaled value is that of the exact one; near one, ask toPrecision
+    if (scaled >= 1e6 && scaled < 1e7 && Math.abs(frac - 0.5) > 1e-6) {
+      let m = frac > 0.5 ? low + 1 : low
+      let n = e + 1
+      if (m === 1e7) (m = 1e6), n++
+      let digits = String(m)
+      let end = digits.length
+      while (digits.charCodeAt(end - 1) === 48) end--
+      digits = digits.slice(0, end)
+      return (v < 0 ? '-' : '') + shortestForm(digits, n)
+    }
+  }
+  return String(Number(v.toPrecision(7)))
+}

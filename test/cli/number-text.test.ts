@@ -1,0 +1,56 @@
+// The command line's fast number text (sevenDigits) against the expression it replaces, String(Number(v.toPrecision(7))),
+// and the series command's line splitting (fileLines) against node:readline's: faster paths that must give the
+// same text (the CSV output must not change by a character).
+import { createInterface } from 'node:readline'
+import { Readable } from 'node:stream'
+import { describe, expect, it } from 'vitest'
+import { sevenDigits } from '../../src-main/cli/number-text.ts'
+import { fileLines } from '../../src-main/cli/series.ts'
+
+const reference = (v: number) => String(Number(v.toPrecision(7)))
+
+describe('sevenDigits', () => {
+  it('writes what String(Number(v.toPrecision(7))) writes, for random doubles of every magnitude, ties and edge cases', () => {
+    const mismatches: string[] = []
+    const check = (v: number) => {
+      const got = sevenDigits(v)
+      if (got !== reference(v) && mismatches.length < 5) mismatches.push(`${v}: ${got} vs ${reference(v)}`)
+    }
+    // a fixed pseudo-random sequence (xorshift), so a failure repeats
+    let x = 0x9e3779b9
+    const next = () => ((x ^= x << 13), (x ^= x >>> 17), (x ^= x << 5), (x >>> 0) / 2 ** 32)
+    const bits = new Float64Array(1)
+    const words = new Uint32Array(bits.buffer)
+    for (let i = 0; i < 100_000; i++) {
+      words[0] = next() * 2 ** 32
+      words[1] = next() * 2 ** 32
+      if (Number.isFinite(bits[0])) check(bits[0]) // any double, denormals included
+      check((next() - 0.3) * 10 ** Math.floor(next() * 50 - 25))
+    }
+    for (let i = 0; i < 20_000; i++) {
+      check(i)
+      check(i / 1000)
+      check(12345675 + 10 * i) // exact ties at the 8th digit (rounded away from zero)
+      check(-(12345675 + 10 * i))
+      check((1234567 + i) / 1e6 + 5e-8) // near ties
+    }
+    for (const v of [1, 10, 1e6, 1e7, 9999999.5, 999999.95, 0.1, 1e21, 1e22, 1.5e-7, 1e-6, 9.9999995e-7, 5e-324, 2.2e-308, Number.MAX_VALUE, -0, 0.5, 1.2345675, 1e28, 1e-16]) check(v)
+    expect(mismatches).toEqual([])
+  })
+})
+
+describe('fileLines', () => {
+  it('splits text into the lines node:readline gives, whatever the chunks (\\n, \\r\\n, a lone \\r, blank lines, no final break)', async () => {
+    const text = 'units: nm\r\nquantity: dN\r\n\r\ntime,10,20\n2024-01-01,1,2\r2024-01-02,3,4\r\n\n\n2024-01-03,5,6\r\nlast,7,8'
+    const viaReadline: string[] = []
+    for await (const l of createInterface({ input: Readable.from([text]), crlfDelay: Infinity })) viaReadline.push(l)
+    for (const size of [1, 2, 3, 5, 7, 1000]) {
+      const chunks: string[] = []
+      for (let i = 0; i < text.length; i += size) chunks.push(text.slice(i, i + size))
+      const ours: string[] = []
+      for await (const batch of fileLines(Readable.from(chunks))) ours.push(...batch)
+      expect(ours, `chunks of ${size}`).toEqual(viaReadline)
+    }
+    expect(viaReadline).toHaveLength(10)
+  })
+})
