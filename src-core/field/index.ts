@@ -1,7 +1,9 @@
 /**
  * Field data: several sizers merged into one size distribution in volume-equivalent diameter (DeCarlo et al.
  * 2004 conversions, a stated overlap rule, an optional density fit after Khlystov et al. 2004), and the time
- * base that averages instruments on their own clocks onto common steps.
+ * base that averages instruments on their own clocks onto common steps; and the optical instruments beside the
+ * sizers (measured scattering, backscattering and absorption in our own file layout, averaged onto the sizer rows
+ * and compared with the computed coefficients, with the truncation correction and per-row closure).
  */
 export {
   type SizerKind,

@@ -107,6 +107,8 @@ export async function prepareSeriesOptical(
     if (args.truncation || args.closure || args['neph-angles'] !== undefined || args['closure-sd'] !== undefined) throw new UsageError('series: --truncation, --neph-angles and --closure need --scattering and/or --absorption')
     return undefined
   }
+  if (args['neph-angles'] !== undefined && !args.truncation) throw new UsageError('series: --neph-angles gives the angles of the truncation correction: add --truncation')
+  if (args['closure-sd'] !== undefined && !args.closure) throw new UsageError('series: --closure-sd gives the uncertainties of the closure: add --closure')
   if ((args.truncation || args['neph-angles'] !== undefined) && args.scattering === undefined) throw new UsageError('series: --truncation corrects measured scattering: give --scattering FILE')
   const angles = readPair(args['neph-angles'] ?? DEFAULT_NEPHELOMETER_ANGLES.join(':'), '--neph-angles')
   const sd = readPair(args['closure-sd'] ?? '10:25', '--closure-sd')

@@ -45,7 +45,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   --quantity Q          ${BIN_QUANTITIES.join(', ')}, when the file does not say
 ${seriesOpticalHelp}
 Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
-(µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
+(µm³ cm⁻³) and mass (µg m⁻³); with measured files, their columns after these (the "#" lines that open the
+file say how they were made comparable). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
 /**
