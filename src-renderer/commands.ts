@@ -1,5 +1,5 @@
 // What the menu, the buttons and the shortcuts do: files, exports, report, undo. The host does the platform part.
-import { demoStudy, InputError, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
+import { demoStudy, InputError, looksLikeDelimitedTable, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
 import type { MenuCommand, OpenedFile } from '../src-main/host-api.ts'
 import { cancel } from './compute/client.ts'
 import { resultsCsv, resultsJson, statusLines, type ExportedResult } from './exports.ts'
@@ -8,12 +8,19 @@ import { host } from './host/index.ts'
 import { blankStudy, load, redo, undo } from './state/actions.ts'
 import { store } from './state/store.ts'
 import { sampleState } from './shown.ts'
+import { openCatalogue } from './views/Catalogue.tsx'
 
 const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store().set({ notice: { kind, title, lines } })
 
 /** Loads study text; problems are listed and the current study stays. */
 export function openText(file: OpenedFile): boolean {
   const r = parseStudy(file.text, file.name)
+  if (!r.ok && looksLikeDelimitedTable(file.text)) {
+    notice('error', `“${file.name}” is a table of values (like a sizer export), not a study: it was not opened`, [
+      'Open… reads Motebench studies (.mote files). To read this file’s size bins into a sample, use “Import sizer file…” (Ctrl+I) or drop the file on the window.'
+    ])
+    return false
+  }
   if (!r.ok) {
     notice(
       'error',
@@ -163,6 +170,8 @@ export function run(command: MenuCommand): void {
       return redo()
     case 'cautions':
       return store().set({ cautionsOpen: true })
+    case 'catalogue':
+      return openCatalogue()
     case 'save-and-close':
       void save(false).then((ok) => ok && host().closeWindow())
       return
@@ -172,9 +181,7 @@ export function run(command: MenuCommand): void {
 export { cancel }
 
 // ---------------------------------------------------------------------------------------------------------------
-// Recovery copy and the host's view of the window.
-
-const RECOVERY_EVERY_MS = 20_000
+// The host's view of the window (the recovery copy: recovery.ts).
 
 export function keepHostInformed(): void {
   let last = ''
@@ -185,11 +192,4 @@ export function keepHostInformed(): void {
     last = key
     host().setState({ title: s.file?.name ?? s.study.name, dirty: s.dirty, pristine: s.pristine })
   })
-  let copied: unknown = null
-  setInterval(() => {
-    const s = store().get()
-    if (!s.dirty || copied === s.study) return
-    copied = s.study
-    void host().keepRecovery({ text: serializeStudy(s.study), savedAt: new Date().toISOString(), name: s.study.name, path: s.file?.path })
-  }, RECOVERY_EVERY_MS)
 }

@@ -1,5 +1,5 @@
 // Results as CSV and JSON files (the numbers exactly as computed; no new physics).
-import type { SampleResult, Study } from '../src-core/index.ts'
+import { sampleWarnings, type SampleResult, type Study } from '../src-core/index.ts'
 import { ESTIMATE_CAUTION, HEALTH_CAUTIONS } from './cautions.ts'
 import { PREVIEW_TOLERANCE } from './compute/messages.ts'
 
@@ -121,6 +121,10 @@ export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]
   })
   rows.push([])
   for (const line of statusLines(study, results)) rows.push([`# Not from the current inputs: ${line}`])
+  study.samples.forEach((s, i) => {
+    const x = results[i]
+    for (const w of x ? sampleWarnings(x.result) : []) rows.push([`# Warning, “${s.name}”: ${w}`])
+  })
   rows.push([`# ${ESTIMATE_CAUTION}`])
   rows.push([`# Motebench ${APP_VERSION}; study "${study.name}"`])
   return rows.map((r) => r.map(csvCell).join(',')).join('\n') + '\n'

@@ -36,3 +36,15 @@ export function fileStem(title: string): string {
       .slice(0, 60) || 'motebench'
   )
 }
+
+const two = (x: number): string => String(x).padStart(2, '0')
+
+/** A local date in ISO 8601 form, 2026-12-03. */
+export function isoDate(d: Date): string {
+  return `${d.getFullYear()}-${two(d.getMonth() + 1)}-${two(d.getDate())}`
+}
+
+/** A local date and time to the minute, ISO 8601 order: 2026-12-03 17:40. */
+export function isoDateTime(d: Date): string {
+  return `${isoDate(d)} ${two(d.getHours())}:${two(d.getMinutes())}`
+}

@@ -12,6 +12,7 @@ import {
   solarBandWeights,
   SOLAR_CONSTANT_WM2,
   surfaceTypeById,
+  thinLayerDepartureWarning,
   thinLayerForcing,
   twoStreamForcing
 } from '../climate/index.ts'
@@ -89,10 +90,12 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
     latitudeDeg: site.latitude_deg,
     dayOfYear: site.day_of_year
   })
+  // the same β̄ as the thin-layer form, so that the two compare like with like (twoStream.ts)
   const two = twoStreamForcing({
     tau,
     omega,
     asymmetry: Math.min(0.99, Math.max(0, g)),
+    upscatter,
     cosZenith: 0.5,
     surfaceAlbedo,
     incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4,
@@ -100,6 +103,8 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
   })
   const verdict = forcingVerdict({ tau, omega, surfaceAlbedo, upscatter, ...common, marginWm2 })
   const flip = thin.flipSurfaceAlbedo
+  const departure = thinLayerDepartureWarning(thin.forcingWm2, two.toaWm2, tau, verdict.marginWm2)
+  const warnings = departure ? [`${departure} The verdict, the spectral and daily figures and the map are thin-layer figures too.`] : []
   return {
     tau_550: tau,
     ssa_550: omega,
@@ -117,7 +122,8 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
     verdict: verdict.verdict,
     explanation: verdict.explanation,
     margin_w_m2: verdict.marginWm2,
-    caution: verdict.caution
+    caution: verdict.caution,
+    warnings
   }
 }
 

@@ -11,3 +11,4 @@ export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurve
 export type { EvaluateOptions } from './evaluate.ts'
 export { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
 export type { BinKernels, BinnedRow, BinnedRowEvaluator, BinLayout } from './binKernels.ts'
+export { sampleWarnings } from './warnings.ts'

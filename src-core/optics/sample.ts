@@ -30,6 +30,7 @@ import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, UPSCATTER_
 import { angstromFit, deciview, layerDepthM, localAngstromExponents, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
+import { opticsWarnings } from './warnings.ts'
 
 export interface SampleOpticsOptions {
   /** Relative accuracy of the size integration (default 1e-4). */
@@ -357,9 +358,6 @@ export function assembleSampleOptics(
     `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀ over ${UPSCATTER_COS_ZENITH.length} sun angles.`
   ]
   if (pops.some((p) => p.bins)) notes.push(BIN_SHAPE)
-  if (unsettled.length) {
-    notes.push(`At ${unsettled.join(', ')} nm the size integration reached its finest grid before two successive refinements agreed to the tolerance (narrow resonances of weakly absorbing particles); those figures may be less accurate than the tolerance.`)
-  }
   return {
     name: sample.name,
     wavelengths: rows,
@@ -375,7 +373,8 @@ export function assembleSampleOptics(
     pm10_ug_m3: pm ? pm.pm10 : NaN,
     angstrom_fit: angstromFit(rows),
     layer_depth_m: layerDepth,
-    notes
+    notes,
+    warnings: opticsWarnings({ rhPercent: cond.rhPercent, kappa: Math.max(0, ...pops.map((p) => p.kind.kappa)), unsettledNm: unsettled })
   }
 }
 

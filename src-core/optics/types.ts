@@ -82,6 +82,11 @@ export interface SampleOptics {
   layer_depth_m: number
   /** Statements the results must carry (bin shape, approximations used). */
   notes: string[]
+  /**
+   * Figures that come from a method outside its range of validity: each says which figure, why and what to use
+   * instead (optics/warnings.ts). Empty when there is nothing to say.
+   */
+  warnings: string[]
 }
 
 /** The verdict words. */
@@ -107,13 +112,15 @@ export interface SampleForcing {
   daily_mean_w_m2: number
   /** Daily-mean top-of-atmosphere insolation at the site, W m⁻². */
   insolation_w_m2: number
-  /** Delta-Eddington two-stream layer (global-mean equivalent: μ₀ = 0.5, incident S₀/4). */
+  /** Delta-Eddington two-stream layer (global-mean equivalent: μ₀ = 0.5, incident S₀/4), with the same β̄ as the thin-layer form. */
   two_stream: { toa_w_m2: number; surface_w_m2: number; atmosphere_w_m2: number }
   verdict: VerdictWord
   /** One or two sentences with the numbers that decide the verdict. */
   explanation: string
   margin_w_m2: number
   caution: string
+  /** The thin-layer figures' warning when they depart from the two-stream layer (climate/validity.ts); else empty. */
+  warnings: string[]
 }
 
 /** Forcing over surface albedo × single-scattering albedo for a sample (thin-layer form). */

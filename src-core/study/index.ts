@@ -7,7 +7,7 @@ export { type StudyProblem, type ParseStudyResult, STUDY_WAVELENGTH_RANGE_NM, st
 export { type MigrationResult, migrateStudy } from './migrate.ts'
 export { serializeStudy } from './serialize.ts'
 export { demoStudy } from './demo.ts'
-export { type JsonSyntaxProblem, findJsonSyntaxError, lineColumnAt } from './jsonSyntax.ts'
+export { type JsonSyntaxProblem, findJsonSyntaxError, lineColumnAt, looksLikeDelimitedTable } from './jsonSyntax.ts'
 export {
   type SizerLayout,
   type SizerDelimiter,

@@ -12,7 +12,7 @@ import { InputError } from '../errors.ts'
 import { defineUserMaterial, listMaterials } from '../materials/index.ts'
 import { BIN_QUANTITIES, MAX_GSD } from '../sizes/index.ts'
 import { SURFACE_TYPES } from '../climate/index.ts'
-import { findJsonSyntaxError } from './jsonSyntax.ts'
+import { findJsonSyntaxError, looksLikeDelimitedTable } from './jsonSyntax.ts'
 import { migrateStudy } from './migrate.ts'
 import { uncertaintySettingsSchema } from '../uncertainty/settings.ts'
 import { STUDY_FORMAT, STUDY_VERSION, type Study } from './model.ts'
@@ -584,6 +584,18 @@ export function parseStudy(text: string, fileName?: string): ParseStudyResult {
   } catch {
     const where = findJsonSyntaxError(text)
     const file = fileName ? `${fileName} ` : ''
+    if (looksLikeDelimitedTable(body)) {
+      return {
+        ok: false,
+        problems: [
+          {
+            path: `${file}document`.trim(),
+            message: 'this is a table of values (CSV or similar, such as a sizer export), not a Motebench study',
+            fix: 'Import it as a sizer file instead (in the app: Import sizer file…; on the command line: motebench series or motebench closure --sizer); studies are .mote files saved by Motebench.'
+          }
+        ]
+      }
+    }
     if (where) {
       return { ok: false, problems: [{ path: `${file}line ${where.line} column ${where.column}`, message: `not valid JSON: ${where.message}`, fix: where.fix, line: where.line, column: where.column }] }
     }

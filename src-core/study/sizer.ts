@@ -1,5 +1,5 @@
 /**
- * Reading size-distribution exports from particle sizers (SMPS, OPC and the like) as text tables.
+ * Reading size-distribution exports from particle sizers (mobility sizers, optical particle counters and the like) as text tables.
  *
  * Accepted:
  *  - separators: comma, semicolon or tab (detected, or `delimiter`); cells split by papaparse (quotes allowed);

@@ -1,5 +1,5 @@
 // motebench materials and motebench material NAME: the component catalogue, and one component at one wavelength.
-import { listMaterials, parseLength, refractiveIndexAt, type Material } from '../../src-core/index.ts'
+import { indexSourceAt, listMaterials, parseLength, refractiveIndexAt, type Material } from '../../src-core/index.ts'
 import { printJson, printTable, readArgs, UsageError } from './common.ts'
 
 export const materialsHelp = `motebench materials: lists the built-in components
@@ -45,18 +45,6 @@ export function findMaterial(name: string): Material {
   const m = all.find((c) => c.id === lower) ?? all.find((c) => c.name.toLowerCase() === lower)
   if (!m) throw new UsageError(`material: "${name}" is not in the catalogue; known: ${all.map((c) => c.id).join(', ')}`)
   return m
-}
-
-/** Where the refractive index at this wavelength comes from: the table rows around it, or the entry's source. */
-function indexSourceAt(m: Material, wavelengthUm: number): string {
-  const idx = m.index
-  if (idx.kind !== 'table') return m.sources.index
-  const w = idx.wavelengthsUm
-  let hi = w.findIndex((x) => x >= wavelengthUm)
-  if (hi < 0) hi = w.length - 1
-  const lo = w[hi] === wavelengthUm || hi === 0 ? hi : hi - 1
-  const list = [...new Set([idx.sources[lo], idx.sources[hi]])]
-  return list.join(' / ')
 }
 
 export function runMaterial(argv: string[]): number {

@@ -12,6 +12,7 @@ import { edit } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { sampleState, shownSamples, type ShownSample } from '../shown.ts'
 import { StaleNote, Swatch, withResults } from './common.tsx'
+import { Warnings } from './Warnings.tsx'
 
 const siteEdit = (f: (s: Site) => void, key?: string) => edit((st) => f(st.site), key && `site.${key}`)
 
@@ -86,6 +87,7 @@ export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample[
         {p.x.stale && <span class="stale-tag">stale</span>}
       </h3>
       <p class="explanation">{f.explanation}</p>
+      <Warnings items={f.warnings} name="forcing" />
       <dl class="facts">
         <div>
           <dt>{p.compact ? 'ΔF' : 'Forcing, thin layer (S₀/4)'}</dt>
@@ -127,7 +129,10 @@ export function MethodsTable(p: { ok: (ShownSample & { result: NonNullable<Shown
   ]
   return (
     <table class="grid-table numbers methods" data-testid="methods-table">
-      <caption>Thin-layer and two-stream estimates (W m⁻²; negative = cooling at the top of the atmosphere)</caption>
+      <caption>
+        Thin-layer and two-stream estimates (W m⁻²; negative = cooling at the top of the atmosphere). Both methods take the sample’s upscatter fraction β̄ at 550 nm
+        {p.ok.length === 1 ? ` (${fixed(p.ok[0].result.forcing.upscatter_550, 3)})` : ''}, the two-stream layer also its g, so they differ only by what the thin form leaves out.
+      </caption>
       <thead>
         <tr>
           <th scope="col">Method</th>

@@ -1,10 +1,11 @@
 // Side by side: the marked samples in one table, each compared with the first marked one (the reference).
-import type { SampleResult, WavelengthOptics } from '../../src-core/index.ts'
+import { sampleWarnings, type SampleResult, type WavelengthOptics } from '../../src-core/index.ts'
 import { fixed, num, signed } from '../format.ts'
 import { MAX_COMPARE } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { isComparing, shownSamples } from '../shown.ts'
 import { StaleNote, Swatch, withResults } from './common.tsx'
+import { Warnings } from './Warnings.tsx'
 
 const at550 = (r: SampleResult): WavelengthOptics =>
   r.optics.wavelengths.reduce((b, w) => (Math.abs(w.wavelength_nm - 550) < Math.abs(b.wavelength_nm - 550) ? w : b), r.optics.wavelengths[0])
@@ -48,7 +49,7 @@ export function CompareTable(p: { ok: ReturnType<typeof withResults> }) {
   return (
     <div class="table-wrap">
       <table class="grid-table numbers compare-table" data-testid="compare-table">
-        <caption>Differences are against “{ref.sample.name}” (the first marked sample).</caption>
+        <caption>Differences are against “{ref.sample.name}” (the first marked sample). Both forcing rows take each sample’s own β̄ at 550 nm.</caption>
         <thead>
           <tr>
             <th scope="col">Quantity</th>
@@ -86,6 +87,7 @@ export function CompareTable(p: { ok: ReturnType<typeof withResults> }) {
           })}
         </tbody>
       </table>
+      <Warnings items={p.ok.flatMap((x) => sampleWarnings(x.result).map((w) => `${x.sample.name}: ${w}`))} name="compare" />
     </div>
   )
 }

@@ -4,6 +4,7 @@ import { cancel, exportCsv, exportJson, importSizer, newStudy, openDemo, openRep
 import { host } from '../host/index.ts'
 import { edit } from '../state/actions.ts'
 import { store, useApp } from '../state/store.ts'
+import { UndoButtons } from './UndoButtons.tsx'
 
 function Status() {
   const s = useApp()
@@ -93,6 +94,7 @@ export function Header() {
           </button>
         )}
       </nav>
+      <UndoButtons />
       <Status />
       <span class="spacer" />
       <button type="button" class="caution-button" onClick={() => store().set({ cautionsOpen: true })} title="Safety and limits of the estimate (F1)" data-testid="cautions">

@@ -9,6 +9,7 @@ import { edit } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { sampleState, shownSamples } from '../shown.ts'
 import { StaleNote, withResults } from './common.tsx'
+import { Warnings } from './Warnings.tsx'
 import { parseWavelengthList, type WavelengthOptics } from '../../src-core/index.ts'
 
 /** "350, 400, 550" (commas, semicolons or spaces; units allowed) → ascending wavelengths in nm. */
@@ -162,6 +163,7 @@ export function OpticsView() {
           <Chart name="g-spectrum" title="Asymmetry parameter g" data={g.data} lines={g.lines} xLabel="Wavelength (nm)" yLabel="g" xLog {...axis} theme={s.theme} stale={stale} height={200} />
         </div>
       )}
+      {o && <Warnings items={o.warnings} name="optics" />}
       {sel && table}
       {o && o.notes.length > 0 && (
         <ul class="notes">

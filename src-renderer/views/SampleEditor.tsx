@@ -5,6 +5,7 @@ import { CompositionEditor } from '../edit/CompositionEditor.tsx'
 import { Conditions } from '../edit/Conditions.tsx'
 import { ModesTable } from '../edit/ModesTable.tsx'
 import { OwnComponents } from '../edit/OwnComponents.tsx'
+import { openCatalogue } from './Catalogue.tsx'
 import { diameter, num } from '../format.ts'
 import { editSample, renameSample } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
@@ -99,6 +100,9 @@ export function SampleEditor() {
         )}
         <CompositionEditor id={id} index={i} composition={sample.composition} userMaterials={s.study.user_materials ?? []} />
         <OwnComponents />
+        <button type="button" class="small ghost" onClick={openCatalogue} title="Every component’s refractive index at the study’s wavelengths, density, κ and sources (Ctrl+Shift+M)" data-testid="open-catalogue">
+          Component catalogue…
+        </button>
       </fieldset>
       <fieldset>
         <legend>Humidity and layer</legend>

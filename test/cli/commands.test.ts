@@ -58,7 +58,7 @@ describe('motebench growth', () => {
       const r = await runHere(runGrowth, ['--kappa', String(kappa), '--rh', String(rh), '--diameter', '100nm', '--no-kelvin', '--json'])
       expect(r.code).toBe(0)
       const g = json(r.stdout)
-      expect(Object.keys(g).sort()).toEqual(['growth_factor', 'wet_diameter_nm'])
+      expect(Object.keys(g).sort()).toEqual(['growth_factor', 'warnings', 'wet_diameter_nm'])
       const closed = Math.cbrt(1 + (kappa * rh) / (100 - rh))
       expect(g.growth_factor).toBeCloseTo(closed, 10)
       expect(g.wet_diameter_nm).toBeCloseTo(100 * closed, 8)
@@ -91,7 +91,7 @@ describe('motebench population', () => {
     const r = await runHere(runPopulation, ['--mode', '1000,10nm,1.2', '--m', '1.5+0i', '--wavelengths', '400,550,700nm', '--json'])
     expect(r.code).toBe(0)
     const p = json(r.stdout)
-    expect(Object.keys(p).sort()).toEqual(['angstrom_abs', 'angstrom_ext', 'angstrom_sca', 'mass_ug_m3', 'number_cm3', 'volume_um3_cm3', 'wavelengths'])
+    expect(Object.keys(p).sort()).toEqual(['angstrom_abs', 'angstrom_ext', 'angstrom_sca', 'mass_ug_m3', 'number_cm3', 'volume_um3_cm3', 'warnings', 'wavelengths'])
     for (const w of p.wavelengths) {
       expect(Object.keys(w).sort()).toEqual(['abs', 'backscatter_fraction', 'ext', 'g', 'sca', 'ssa', 'upscatter_fraction', 'wavelength_nm'])
       expect(w.abs).toBe(0) // k = 0: no absorption

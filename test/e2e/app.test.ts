@@ -147,18 +147,15 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
   test('after an unclean close, the recovery copy is offered and restores the unsaved edit', async () => {
     const page = await openApp({ wait: false })
     await page.getByTestId('sample-name').fill('Edited before a crash')
-    // the copy is written periodically while there are unsaved changes
+    // the copy is written shortly after each edit while there are unsaved changes
     await expect.poll(() => page.evaluate(() => localStorage.getItem('motebench.recovery') ?? ''), { timeout: 40_000 }).toContain('Edited before a crash')
-    // reopen the page as after a crash (no save, no clean close): the app asks, and restores on yes
-    const asked: string[] = []
-    page.on('dialog', (d) => {
-      asked.push(d.message())
-      void d.accept()
-    })
+    // reopen the page as after a crash (no save, no clean close): the app offers the copy, and restores it on request
     await page.evaluate(() => (window.onbeforeunload = null))
     await page.reload()
+    await page.getByTestId('recovery-offer').waitFor({ timeout: 30_000 })
+    expect(await page.getByTestId('recovery-offer').textContent()).toMatch(/Unsaved work was found/)
+    await page.getByTestId('recovery-restore').click()
     await page.locator('.sample-item[data-sample="Edited before a crash"]').waitFor({ timeout: 30_000 })
-    expect(asked.some((m) => /recovery copy/i.test(m))).toBe(true)
   })
 
   test('saving and reopening gives the same study', async () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { InputError, getMaterial, listMaterials, refractiveIndexAt, type Material } from '../../src-core/index.ts'
+import { InputError, defineUserMaterial, getMaterial, indexSourceAt, listMaterials, refractiveIndexAt, type Material, type TableIndex } from '../../src-core/index.ts'
 import { c, div, eps, sub, add } from './helpers.ts'
 
 const IDS = ['water', 'ammonium-sulfate', 'ammonium-nitrate', 'sea-salt', 'black-carbon', 'organic-matter', 'brown-carbon', 'mineral-dust', 'sulfuric-acid']
@@ -227,5 +227,27 @@ describe('errors', () => {
     expect(() => {
       m.densityGcm3 = 2
     }).toThrow()
+  })
+})
+
+describe('indexSourceAt: the source of the index at a wavelength', () => {
+  it('names the tabulated row at its own wavelength, both neighbours between rows, and the whole index otherwise', () => {
+    // a table whose rows have different sources, built through the public user-component path
+    const m = defineUserMaterial(
+      { id: 'two-sources', name: 'Two sources', densityGcm3: 1.5, source: 'A', index: { kind: 'table', rows: [[0.4, 1.5, 0.01], [0.6, 1.5, 0.01]] } },
+      [0.5]
+    )
+    expect(indexSourceAt(m, 0.4)).toBe('A')
+    const mixed: Material = { ...m, index: { ...(m.index as TableIndex), sources: ['A', 'B'] } }
+    expect(indexSourceAt(mixed, 0.4)).toBe('A')
+    expect(indexSourceAt(mixed, 0.6)).toBe('B')
+    expect(indexSourceAt(mixed, 0.5)).toBe('A / B')
+    const constant = defineUserMaterial({ id: 'flat', name: 'Flat', densityGcm3: 1, source: 'typed by hand', index: { kind: 'constant', n: 1.5, k: 0 } }, [0.55])
+    expect(indexSourceAt(constant, 0.55)).toBe('typed by hand')
+    // every catalogue component names a source at every tabulated wavelength
+    for (const c of listMaterials()) {
+      if (c.index.kind !== 'table') continue
+      for (const w of c.index.wavelengthsUm) expect(indexSourceAt(c, w).length, `${c.id} at ${w} µm`).toBeGreaterThan(0)
+    }
   })
 })
