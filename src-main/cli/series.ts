@@ -27,6 +27,7 @@ import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-opt
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
+import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp, type SeriesExtra } from './series-optical.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
   SIZER                 sizer export with one row per time and one column per bin (.csv, .tsv or .txt)
@@ -40,8 +41,10 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are
                         integrated once and every row is a weighted sum of them
 ${sizerHelp()}
+${seriesOpticalHelp}
 Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
-(µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
+(µm³ cm⁻³) and mass (µg m⁻³); with measured files, their columns after these (the "#" lines that open the
+file say how they were made comparable). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
 /**
@@ -76,6 +79,8 @@ export interface SeriesRunOptions extends SeriesSetup {
   onProgress?: (written: number) => void
   /** Called every few hundred milliseconds while the pipeline runs (e.g. to sample memory). */
   onTick?: () => void
+  /** Extra cells after each row's figures (measured optical instruments beside the sizer; series-optical.ts). */
+  extra?: SeriesExtra
 }
 
 export interface SkippedRow {
@@ -115,6 +120,32 @@ interface Block {
   times: string[]
   lines: number[]
   values: Float64Array
+  /** With `extra`: each row's extra cells, computed on the main thread when the row is read. */
+  extras?: Float64Array[]
+}
+
+/**
+ * A block's CSV text with each written row's extra cells appended (rows are one line each, in order, without the
+ * failed ones); the failures' offsets are moved to match. Calls `written` for every row of the text.
+ */
+function appendExtras(r: { text: string; failures: { index: number; at: number }[] }, extras: Float64Array[], written: (cells: Float64Array) => void): { text: string; at: number[] } {
+  const rows = r.text.split('\n')
+  rows.pop() // after the last line break
+  const failed = new Set(r.failures.map((f) => f.index))
+  let out = ''
+  let row = 0
+  const at: number[] = []
+  let f = 0
+  for (let i = 0; i < extras.length; i++) {
+    if (failed.has(i)) {
+      at[f++] = out.length
+      continue
+    }
+    if (row >= rows.length) break
+    out += rows[row++] + ',' + Array.from(extras[i], csvCell).join(',') + '\n'
+    written(extras[i])
+  }
+  return { text: out, at }
 }
 
 /** Runs the series machinery: reads `lines`, computes in worker threads, writes CSV rows in input order. */
@@ -129,8 +160,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const queue: Block[] = []
   /** Line numbers of the blocks sent and not yet written, by block. */
   const blockLines = new Map<number, number[]>()
+  const blockExtras = new Map<number, Float64Array[]>()
   const done = new Map<number, Extract<FromWorker, { type: 'block' }>>()
   let bins = 0
+  let layoutForExtra: BinLayout | undefined
   let current: Block | undefined
   let nextId = 0
   let nextWrite = 0
@@ -163,6 +196,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       const b = queue.shift()!
       best.inFlight++
       blockLines.set(b.id, b.lines)
+      if (b.extras) blockExtras.set(b.id, b.extras)
       best.worker.postMessage({ type: 'block', id: b.id, times: b.times, values: b.values, bins } satisfies ToWorker, [b.values.buffer as ArrayBuffer])
     }
   }
@@ -185,11 +219,19 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   /** Takes every finished block that is next in input order; writes once a megabyte of text is gathered. */
   const flush = (): void => {
     while (done.has(nextWrite) && !failure) {
-      const r = done.get(nextWrite)!
+      let r = done.get(nextWrite)!
       const lines = blockLines.get(nextWrite)!
+      const extras = blockExtras.get(nextWrite)
       done.delete(nextWrite)
       blockLines.delete(nextWrite)
+      blockExtras.delete(nextWrite)
       nextWrite++
+      if (extras) {
+        // the failures' offsets move with the extra cells; rows after a stopping failure are not counted as written
+        const stopAt = o.onBadRow === 'stop' || r.failures.some((f) => f.internal) ? (r.failures[0]?.index ?? Infinity) : Infinity
+        const x = appendExtras(r, extras.slice(0, Math.min(extras.length, stopAt)), o.extra!.written)
+        r = { ...r, text: x.text, failures: r.failures.map((f, k) => ({ ...f, at: x.at[k] ?? x.text.length })) }
+      }
       for (let k = 0; k < r.failures.length; k++) {
         const f = r.failures[k]
         const line = lines[f.index]
@@ -247,8 +289,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
         for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
         bins = h.edges ? h.diameters.length - 1 : h.diameters.length
+        layoutForExtra = layout
       }
-      if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins) }
+      if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins), extras: o.extra ? [] : undefined }
+      current.extras?.push(o.extra!.cells(record.time, record.values, layoutForExtra!))
       current.values.set(record.values, current.times.length * bins)
       current.times.push(record.time)
       current.lines.push(record.line)
@@ -261,7 +305,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
 
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
-    await o.output.write(seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
+    const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
+    await o.output.write(comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n')
     const take = (line: string): void => {
       reader.push(line)
     }
@@ -434,7 +479,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       'on-bad-row': { type: 'string' },
       workers: { type: 'string' },
       tolerance: { type: 'string' },
-      ...sizerFlags
+      ...sizerFlags,
+      ...SERIES_OPTICAL_OPTIONS
     },
     true
   )
@@ -451,9 +497,13 @@ export async function runSeries(argv: string[]): Promise<number> {
 
   const { study } = await loadStudyFile(values.study)
   const { sample } = findSample(study, values.sample, 'series')
-  const wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
-  // Check the composition at every wavelength here, so a bad one is one clear message rather than one per row.
+  let wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
   const userMaterials = study.user_materials ?? []
+  // Measured optical instruments beside the sizer: read and averaged onto the sizer rows before the run; the
+  // figures are computed at their wavelengths too.
+  const optical = await prepareSeriesOptical(values, { sizerPath: file, sizer, sample, userMaterials, tolerance })
+  if (optical) wavelengthsNm = [...new Set([...wavelengthsNm, ...optical.wavelengthsNm])].sort((a, b) => a - b)
+  // Check the composition at every wavelength here, so a bad one is one clear message rather than one per row.
   const own = studyMaterials({ user_materials: userMaterials, wavelengths_nm: wavelengthsNm })
   const kind = resolveComposition(sample.composition, own, `sample "${sample.name}"`)
   for (const w of wavelengthsNm) dryIndicesAt(kind, w / 1000)
@@ -478,6 +528,7 @@ export async function runSeries(argv: string[]): Promise<number> {
       onBadRow: policy,
       workers,
       output: target ? target.output : stdoutOutput,
+      extra: optical?.extra,
       onProgress: bar ? (n) => bar.update(n) : undefined
     })
     await target?.commit()
@@ -488,6 +539,6 @@ export async function runSeries(argv: string[]): Promise<number> {
     bar?.clear()
     stream.destroy()
   }
-  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length))
+  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
   return summary.rowsSkippedByReader + summary.rowsSkippedByOptics > 0 ? EXIT_SKIPPED : EXIT_OK
 }
