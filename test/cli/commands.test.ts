@@ -113,11 +113,11 @@ describe('motebench population', () => {
   })
 
   it('tiny absorbing particles of constant index: absorption Ångström exponent 1 (Q_abs = 4x Im((m²−1)/(m²+2)), Bohren & Huffman eq. 5.11)', async () => {
-    const r = await runHere(runPopulation, ['--mode', '1000,10nm,1.2', '--m', '1.8+0.5i', '--density', '1.8', '--wavelengths', '400,550,700nm', '--json'])
+    const r = await runHere(runPopulation, ['--mode', '100000,10nm,1.2', '--m', '1.8+0.5i', '--density', '1.8', '--wavelengths', '400,550,700nm', '--json'])
     expect(r.code).toBe(0)
     const p = json(r.stdout)
     expect(Math.abs(p.angstrom_abs - 1)).toBeLessThan(0.03)
-    const volume = 1000 * (Math.PI / 6) * 0.01 ** 3 * Math.exp(4.5 * Math.log(1.2) ** 2)
+    const volume = 100000 * (Math.PI / 6) * 0.01 ** 3 * Math.exp(4.5 * Math.log(1.2) ** 2)
     expect(Math.abs(p.mass_ug_m3 / (1.8 * volume) - 1)).toBeLessThan(1e-3)
   })
 
