@@ -8,7 +8,8 @@ export const materialsHelp = `motebench materials: lists the built-in components
 
 export const materialHelp = `motebench material NAME: one component's refractive index and properties at one wavelength
   NAME                  a catalogue id (see "motebench materials"), e.g. ammonium-sulfate, or its name
-  --wavelength L        wavelength with a unit, e.g. 550nm or 0.55um (required)
+  --wavelength L        wavelength with a unit, e.g. 550nm, 0.55um or 10um (required); within the component's
+                        tabulated range (see "motebench materials"; 0.2 to 40 µm or more for the catalogue)
   --json                JSON output: {n, k, density (g cm⁻³), kappa, source (of the refractive index)}`
 
 /** Wavelength range of a component in nm (null at an open end). */
