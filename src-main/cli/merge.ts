@@ -54,10 +54,9 @@ export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --d
   --every T              averaging step, e.g. 10min, 1h (default: the coarsest instrument's interval)
   --bins-per-decade N    merged bins per decade of diameter (default 32)
   --gap-rows P           keep (default): a step where a sizer has no data is written, its uncovered bins empty
+                         and its last column, "instruments", naming the sizers that did contribute
                          (readers leave such a row out with the reason); omit: such steps are left out of the
                          table, so that the app imports the file whole (the summary and the file list them)
-  --instruments-column   add a last column naming the sizers that contributed to each row (the sizer reader
-                         takes no column after the bins yet: leave it out for series, check and the app)
   --out FILE             the merged sizer file (it appears only when complete)
 Conversions to the volume-equivalent diameter after DeCarlo et al. (2004, Aerosol Sci. Technol. 38:1185) with
 the Cunningham slip correction; each bin keeps its particles. Overlap rule: each sizer is trusted inside its own
@@ -217,7 +216,6 @@ export async function runMerge(argv: string[]): Promise<number> {
     'optical-range': { type: 'string' },
     every: { type: 'string' },
     'bins-per-decade': { type: 'string' },
-    'instruments-column': { type: 'boolean', default: false },
     'gap-rows': { type: 'string' },
     out: { type: 'string' }
   })
@@ -319,7 +317,7 @@ export async function runMerge(argv: string[]): Promise<number> {
       steps,
       gapSteps,
       gapRows,
-      instrumentsColumn: values['instruments-column'],
+      instrumentsColumn: true,
       madeBy: `motebench ${MOTEBENCH_VERSION} merge`
     })
     await target.write(head.join('\n') + '\n')
@@ -329,7 +327,7 @@ export async function runMerge(argv: string[]): Promise<number> {
       const present = reads.filter((_, i) => vals[i]).map((r) => r.kind)
       if (gapRows === 'keep' || present.length === reads.length) {
         mergeStep(plan, vals, merged)
-        chunk.push(mergedFileRow(formatTimeStamp(base.starts[k], zoned), merged, values['instruments-column'] ? present : undefined))
+        chunk.push(mergedFileRow(formatTimeStamp(base.starts[k], zoned), merged, present))
       }
       if (chunk.length === 500 || (k === steps - 1 && chunk.length > 0)) {
         await target.write(chunk.join('\n') + '\n')

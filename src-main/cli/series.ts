@@ -206,7 +206,14 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     pump()
   }
 
+  // The CSV header goes out with the first rows (or at the end of a file whose rows were all left out), so a
+  // file that cannot be read leaves no output at all.
+  let pendingHeader = ''
   const write = (chunk: string): void => {
+    if (pendingHeader) {
+      chunk = pendingHeader + chunk
+      pendingHeader = ''
+    }
     unwrittenChars += chunk.length
     writing = writing.then(async () => {
       await o.output.write(chunk)
@@ -306,7 +313,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
     const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
-    await o.output.write(comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n')
+    pendingHeader = comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n'
     const take = (line: string): void => {
       reader.push(line)
     }
@@ -328,7 +335,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     }
     while (!failure && nextWrite < nextId) await changed()
     if (failure) throw failure
-    if (text) write(text)
+    if (text || pendingHeader) write(text)
     text = ''
     o.onProgress?.(written)
     await writing

@@ -163,6 +163,15 @@ describe('motebench series', () => {
     expect(left.filter((f) => f.startsWith('stopped'))).toEqual([])
   })
 
+  it('a file that cannot be read at all: exit 2, one line on standard error, nothing on standard output', async () => {
+    const unreadable = join(dir, 'not a table.csv')
+    await writeFile(unreadable, 'field notes\nthe sizer was off all day\n')
+    const r = await runHere(runSeries, [unreadable, '--study', demo, '--sample', SAMPLE])
+    expect(r.code).toBe(2)
+    expect(r.stderr.trimEnd().split('\n')).toHaveLength(1)
+    expect(r.stdout).toBe('')
+  })
+
   it('bad arguments exit 2 with one line', async () => {
     const results = [
       await runHere(runSeries, [example, '--study', demo, '--sample', 'Volcano']),

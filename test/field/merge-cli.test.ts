@@ -76,7 +76,7 @@ describe('motebench merge on two clocks', () => {
 
   it('states a gap, never fills it: the rows without the aerodynamic sizer keep its bins empty and the column says who contributed', async () => {
     const out = path('gap.csv')
-    const r = await runHere(runMerge, ['--mobility', path('mobility.csv'), '--aerodynamic', path('aerodynamic-gap.csv'), '--density', '1.8', '--shape-factor', String(KNOWN_SHAPE_FACTOR), '--instruments-column', '--every', '5min', '--out', out])
+    const r = await runHere(runMerge, ['--mobility', path('mobility.csv'), '--aerodynamic', path('aerodynamic-gap.csv'), '--density', '1.8', '--shape-factor', String(KNOWN_SHAPE_FACTOR), '--every', '5min', '--out', out])
     expect(r.code, r.stderr).toBe(0)
     expect(r.stderr).toMatch(/2 steps with a sizer missing/)
     expect(r.stderr).toMatch(/gap 2026-06-01T10:10:00Z: only mobility had data/)
