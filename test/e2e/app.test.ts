@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
-import { appSession, isLocal, ROOT } from './harness.ts'
+import { appSession, isLocal, ROOT, shownNumber } from './harness.ts'
 import { findClipped } from './clipping.ts'
 
 let scratch: string
@@ -35,7 +35,7 @@ async function waitForResults(page: Page): Promise<void> {
 
 async function sigmaExt550(page: Page): Promise<number> {
   const cell = page.locator('[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]')
-  return Number(await cell.textContent())
+  return shownNumber(await cell.textContent())
 }
 
 async function chooseFile(page: Page, click: () => Promise<void>, path: string): Promise<void> {
@@ -298,7 +298,7 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     await page.locator('[data-path="samples[0].composition.components[2].volume_fraction"]').fill('0.66')
     await waitForResults(page)
     await expect.poll(() => verdict.getAttribute('data-verdict'), { timeout: 60_000 }).toBe('warms')
-    const [ssa, crit] = ((await page.getByTestId('ssa-vs-crit').textContent()) ?? '').split(/[<>=]/).map((t) => Number(t.trim()))
+    const [ssa, crit] = ((await page.getByTestId('ssa-vs-crit').textContent()) ?? '').split(/[<>=]/).map((t) => shownNumber(t))
     expect(ssa).toBeLessThan(crit)
   })
 
@@ -443,7 +443,7 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     await page.locator('.sample-item[data-sample="Winter wood smoke"] button.sample-name').click()
     await page.locator('[data-tab="climate"]').click()
     await waitForResults(page)
-    const flip = Number(await page.getByTestId('flip-albedo').textContent())
+    const flip = shownNumber(await page.getByTestId('flip-albedo').textContent())
     expect(flip).toBeGreaterThan(0.05)
     expect(flip).toBeLessThan(0.85)
     await page.getByTestId('surface').selectOption('custom')
@@ -452,7 +452,7 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
       await albedo.fill(value.toFixed(3))
       await expect.poll(() => page.getByTestId('verdict').getAttribute('data-verdict'), { timeout: 60_000 }).toBe(verdict)
       // the sign flips at the same albedo whatever the surface
-      expect(Math.abs(Number(await page.getByTestId('flip-albedo').textContent()) - flip)).toBeLessThan(0.002)
+      expect(Math.abs(shownNumber(await page.getByTestId('flip-albedo').textContent()) - flip)).toBeLessThan(0.002)
     }
     // the thin-layer and two-stream estimates side by side, one column for the sample
     const methods = page.getByTestId('methods-table')

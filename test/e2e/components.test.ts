@@ -1,7 +1,7 @@
 // End-to-end: the study's own components and modes with compositions of their own, in the web build of the app.
 import type { Page } from 'playwright-core'
 import { describe, expect, test } from 'vitest'
-import { appSession } from './harness.ts'
+import { appSession, shownNumber } from './harness.ts'
 
 const session = appSession()
 
@@ -17,7 +17,7 @@ async function waitForResults(page: Page): Promise<void> {
 
 async function sigmaAbs550(page: Page): Promise<number> {
   const cell = page.locator('[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σabs"]')
-  return Number(await cell.textContent())
+  return shownNumber(await cell.textContent())
 }
 
 /** Adds a blank sample (one mode of ammonium sulfate) after the demo's five, selects it and waits for its results. */

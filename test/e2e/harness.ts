@@ -130,3 +130,8 @@ export function appSession(): {
   }
   return { open, requests, url: () => served!.url }
 }
+
+/** A number as the page shows it (negative numbers and exponents with the minus sign U+2212), for comparisons. */
+export function shownNumber(text: string | null): number {
+  return Number((text ?? '').trim().replace(/\u2212/g, '-'))
+}

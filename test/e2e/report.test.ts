@@ -6,7 +6,7 @@ import { join } from 'node:path'
 import type { Locator, Page } from 'playwright-core'
 import { describe, expect, test } from 'vitest'
 import { demoStudy } from '../../src-core/index.ts'
-import { appSession, isLocal, ROOT } from './harness.ts'
+import { appSession, isLocal, ROOT, shownNumber } from './harness.ts'
 
 const session = appSession()
 
@@ -163,7 +163,7 @@ describe('the report', { timeout: 120_000 }, () => {
   test('each sample has its verdict, charts, optics table and methods table; the cautions and references are all there', async () => {
     const page = await openApp()
     await page.locator('[data-status="ok"]').waitFor({ timeout: 80_000 }) // every sample computed
-    const tableSigma = Number(await page.locator('[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]').textContent())
+    const tableSigma = shownNumber(await page.locator('[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]').textContent())
     const report = await openReport(page)
     const names = demoStudy().samples.map((x) => x.name)
     for (const name of names) {
@@ -176,7 +176,7 @@ describe('the report', { timeout: 120_000 }, () => {
     }
     // the selected sample's σext at 550 nm is the one the workbench showed
     const first = report.locator(`[data-report-sample="${names[0]}"] [data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]`)
-    expect(Number(await first.textContent())).toBe(tableSigma)
+    expect(shownNumber(await first.textContent())).toBe(tableSigma)
     const cautions = await text(report.locator('.report-cautions'))
     for (const word of [/fine particles/i, /soot/i, /crystalline silica/i, /respirat/i, /exposure limits/i, /not a climate projection/i]) expect(cautions).toMatch(word)
     const refs = await text(report.locator('.report-references'))

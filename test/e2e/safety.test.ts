@@ -6,7 +6,7 @@ import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { describe, expect, test } from 'vitest'
 import { getMaterial, indexSourceAt, listMaterials, refractiveIndexAt, demoStudy } from '../../src-core/index.ts'
-import { appSession, isLocal, ROOT } from './harness.ts'
+import { appSession, isLocal, ROOT, shownNumber } from './harness.ts'
 
 const session = appSession()
 const RECOVERY_KEY = 'motebench.recovery' // src-renderer/host/browser.ts
@@ -24,7 +24,7 @@ const recoveryCopy = (page: Page) => page.evaluate((key) => localStorage.getItem
 const pick = (page: Page, name: string) => page.locator(`.sample-item[data-sample="${name}"] button.sample-name`).click()
 
 async function sigma(page: Page, col: string, nm = 550): Promise<number> {
-  return Number(await page.locator(`[data-testid="optics-table"] tr[data-wavelength="${nm}"] td[data-col="${col}"]`).textContent())
+  return shownNumber(await page.locator(`[data-testid="optics-table"] tr[data-wavelength="${nm}"] td[data-col="${col}"]`).textContent())
 }
 
 describe('safety of work', { timeout: 120_000 }, () => {
@@ -166,8 +166,8 @@ describe('the components and their order', { timeout: 120_000 }, () => {
         const row = detail.locator(`[data-testid="catalogue-index"] tr[data-wavelength="${nm}"]`)
         const want = refractiveIndexAt(m, nm / 1000)
         // n shown to 4 significant digits, k to 3
-        const n = Number(await row.locator('[data-col="n"]').textContent())
-        const k = Number(await row.locator('[data-col="k"]').textContent())
+        const n = shownNumber(await row.locator('[data-col="n"]').textContent())
+        const k = shownNumber(await row.locator('[data-col="k"]').textContent())
         expect(Math.abs(n - want.n) / want.n, `${id} n at ${nm} nm`).toBeLessThan(5e-4)
         expect(Math.abs(k - want.k), `${id} k at ${nm} nm`).toBeLessThanOrEqual(want.k * 5e-3)
         expect(await row.locator('[data-col="source"]').getAttribute('title'), `${id} source at ${nm} nm`).toBe(indexSourceAt(m, nm / 1000))

@@ -3,7 +3,7 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, test } from 'vitest'
 import { getMaterial, mixRefractiveIndices, refractiveIndexAt } from '../../src-core/index.ts'
-import { appSession, isLocal } from './harness.ts'
+import { appSession, isLocal, shownNumber } from './harness.ts'
 
 const session = appSession()
 const requests = session.requests
@@ -16,7 +16,7 @@ const tab = (page: Page, id: string) => page.locator(`[data-tab="${id}"]`).click
 const inputPath = (j: number, rest: string) => `[data-path="uncertainty.samples.Winter wood smoke.inputs[${j}].${rest}"]`
 
 async function opticsAt550(page: Page, col: string): Promise<number> {
-  return Number(await page.locator(`[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="${col}"]`).textContent())
+  return shownNumber(await page.locator(`[data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="${col}"]`).textContent())
 }
 
 describe('the tool views', { timeout: 120_000 }, () => {
@@ -81,7 +81,7 @@ describe('the tool views', { timeout: 120_000 }, () => {
     expect(await page.getByTestId('forcing-histogram').getAttribute('data-zero')).toBe('inside')
     expect(await page.locator('[data-chart="forcing-histogram"] canvas').count()).toBeGreaterThan(0)
     // More absorption, warmer: k's rank correlation with the forcing is strongly positive.
-    const rho = Number((await page.locator('[data-testid="sensitivity-table"] td[data-col="rho"]').first().textContent())?.replace('+', '').replace('−', '-'))
+    const rho = shownNumber((await page.locator('[data-testid="sensitivity-table"] td[data-col="rho"]').first().textContent())?.replace('+', '').replace('−', '-'))
     expect(rho).toBeGreaterThan(0.8)
     expect(await page.getByTestId('sensitivity-table').textContent()).toMatch(/Spearman/)
 

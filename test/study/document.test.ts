@@ -88,12 +88,15 @@ describe('broken documents: every problem, with its JSON path', () => {
     { name: 'unknown mixing rule', edit: (d) => (d.samples[0].composition.mixing = 'stirred'), expect: [['samples[0].composition.mixing', 'not an accepted value']] },
     { name: 'core-shell with one component', edit: (d) => (d.samples[3].composition.components = [{ material: 'black-carbon', volume_fraction: 1 }]), expect: [['samples[3].composition.components', 'core and a shell']] },
     {
-      name: 'wavelengths beyond a catalogue table',
+      // every catalogue table now spans the study's whole wavelength range (0.2–40 µm); an own table may not
+      name: 'wavelengths beyond a component table',
       edit: (d) => {
         d.samples = [d.samples[1]]
-        d.wavelengths_nm = [250, 550]
+        d.user_materials = [{ id: 'lab-film', name: 'Lab film', index: { kind: 'table', rows: [[0.4, 1.5, 0.01], [0.8, 1.5, 0.01]] }, density_g_cm3: 1.5, kappa: 0 }]
+        d.samples[0].composition.components[0].material = 'lab-film'
+        d.wavelengths_nm = [350, 550]
       },
-      expect: [['samples[0].composition.components[0].material', 'index covers']]
+      expect: [['user_materials[0].index', 'outside its tabulated range 0.4 to 0.8 µm']]
     },
     { name: 'no samples', edit: (d) => (d.samples = []), expect: [['samples', 'at least 1']] },
     {
