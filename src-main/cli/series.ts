@@ -25,6 +25,7 @@ import {
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
@@ -42,6 +43,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
                         integrated once and every row is a weighted sum of them
   --diameter-unit U     nm or um, when the file does not say
   --quantity Q          ${BIN_QUANTITIES.join(', ')}, when the file does not say
+  --shard K/N           only the K-th of N contiguous parts of the file's lines (rows in one time per row
+                        files); the output starts with a shard line, and "motebench join" puts the parts together
 Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
@@ -78,6 +81,8 @@ export interface SeriesRunOptions extends SeriesSetup {
   onProgress?: (written: number) => void
   /** Called every few hundred milliseconds while the pipeline runs (e.g. to sample memory). */
   onTick?: () => void
+  /** A shard: only the rows on these lines (1-based, inclusive), after this line written first. */
+  shard?: { firstLine: number; lastLine: number; line: string }
 }
 
 export interface SkippedRow {
@@ -242,7 +247,9 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     onBadRow: o.onBadRow,
     maxKeptRejections: KEPT_REASONS,
     onRecord: (record) => {
+      if (o.shard && (record.line < o.shard.firstLine || record.line > o.shard.lastLine)) return
       if (bins === 0) {
+        if (o.shard && reader.header!.layout !== 'time-rows') throw new InputError(o.fileName, 'the file has one column per time, so it cannot be split by lines', 'Run it without --shard (or export one row per time).')
         const h = reader.header!
         const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
         for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
@@ -265,23 +272,27 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   let lineNo = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
-    await o.output.write(seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
+    await o.output.write((o.shard?.line ?? '') + seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
     const take = (line: string): void => {
       lineNo++
+      // a shard: lines before its part are blank once the header is known; after its part the reading stops
+      if (o.shard && lineNo < o.shard.firstLine && reader.header) line = ''
       if (line.trim() !== '') {
         nonBlank++
         if (earlyNonBlank.length < 5000) earlyNonBlank.push(lineNo)
       }
       reader.push(line)
     }
+    const last = o.shard?.lastLine ?? Infinity
     for await (const item of source) {
       if (typeof item === 'string') take(item)
-      else for (const line of item) take(line)
+      else for (const line of item) if (lineNo < last || !reader.header) take(line)
+      if (lineNo >= last && reader.header) break
       while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
       if (failure) throw failure
     }
     const end = reader.end()
-    if (end.recordCount === 0 && end.rejectedCount === 0) {
+    if (end.recordCount === 0 && end.rejectedCount === 0 && !o.shard) {
       throw new InputError(o.fileName, 'the file has a header but no distributions', 'Export at least one time step (one row per time, one column per bin).')
     }
     if (current) {
@@ -443,7 +454,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       workers: { type: 'string' },
       tolerance: { type: 'string' },
       'diameter-unit': { type: 'string' },
-      quantity: { type: 'string' }
+      quantity: { type: 'string' },
+      shard: { type: 'string' }
     },
     true
   )
@@ -476,6 +488,13 @@ export async function runSeries(argv: string[]): Promise<number> {
   for (const w of wavelengthsNm) dryIndicesAt(kind, w / 1000)
 
   const size = (await stat(file)).size
+  const shardOf = readShard(values.shard, 'series')
+  let shard: SeriesRunOptions['shard']
+  if (shardOf) {
+    const [from, to] = shardRange(await countLines(file), shardOf)
+    const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy }
+    shard = { firstLine: from + 1, lastLine: to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
+  }
   const target = values.out !== undefined ? await fileOutput(values.out) : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
   // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
@@ -495,7 +514,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       onBadRow: policy,
       workers,
       output: target ? target.output : stdoutOutput,
-      onProgress: bar ? (n) => bar.update(n) : undefined
+      onProgress: bar ? (n) => bar.update(n) : undefined,
+      shard
     })
     await target?.commit()
   } catch (e) {
