@@ -53,6 +53,9 @@ async function readHead(path: string): Promise<Part> {
 export function orderShards(parts: Part[]): Part[] {
   const first = parts[0]
   for (const p of parts.slice(1)) {
+    if (p.fingerprint === first.fingerprint && p.n !== first.n) {
+      throw new UsageError(`join: ${p.path} is shard ${p.k}/${p.n} but ${first.path} is shard ${first.k}/${first.n}; give the shards of one split (the same N)`)
+    }
     if (p.command !== first.command || p.fingerprint !== first.fingerprint || p.n !== first.n || p.headLines !== first.headLines || p.head !== first.head) {
       throw new UsageError(
         `join: ${p.path} (shard ${p.k}/${p.n} of ${p.command} run ${p.fingerprint}) is not of the same run as ${first.path} (shard ${first.k}/${first.n} of ${first.command} run ${first.fingerprint}); join the shards of one run only (same inputs and options)`
