@@ -248,6 +248,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     maxKeptRejections: KEPT_REASONS,
     onRecord: (record) => {
       if (o.shard && (record.line < o.shard.firstLine || record.line > o.shard.lastLine)) return
+      shardRecords++
       if (bins === 0) {
         if (o.shard && reader.header!.layout !== 'time-rows') throw new InputError(o.fileName, 'the file has one column per time, so it cannot be split by lines', 'Run it without --shard (or export one row per time).')
         const h = reader.header!
@@ -270,6 +271,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const earlyNonBlank: number[] = []
   let nonBlank = 0
   let lineNo = 0
+  let shardRecords = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
     await o.output.write((o.shard?.line ?? '') + seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
@@ -277,7 +279,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       lineNo++
       // a shard: lines before its part are blank once the header is known; after its part the reading stops
       if (o.shard && lineNo < o.shard.firstLine && reader.header) line = ''
-      if (line.trim() !== '') {
+      if (line.trim() !== '' && (!o.shard || (lineNo >= o.shard.firstLine && lineNo <= o.shard.lastLine))) {
         nonBlank++
         if (earlyNonBlank.length < 5000) earlyNonBlank.push(lineNo)
       }
@@ -313,11 +315,12 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     let readerSkipped: number
     if (h.layout === 'time-rows') {
       const beforeData = earlyNonBlank.filter((l) => l <= h.headerLine).length
-      readerSkipped = Math.max(0, nonBlank - beforeData - end.recordCount)
+      readerSkipped = Math.max(0, nonBlank - beforeData - (o.shard ? shardRecords : end.recordCount))
     } else {
       readerSkipped = new Set(end.rejected.map((r) => r.line)).size
     }
-    const skipped: SkippedRow[] = [...end.rejected.map((r: SizerRejection) => ({ ...r })), ...opticsSkips].sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0))
+    const mine = (r: { line: number }) => !o.shard || (r.line >= o.shard.firstLine && r.line <= o.shard.lastLine)
+    const skipped: SkippedRow[] = [...end.rejected.filter(mine).map((r: SizerRejection) => ({ ...r })), ...opticsSkips].sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0))
     const { recordCount: _r, rejected: _j, rejectedCount: _c, ...header } = end
     return {
       header,
