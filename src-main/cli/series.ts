@@ -324,7 +324,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     const { recordCount: _r, rejected: _j, rejectedCount: _c, ...header } = end
     return {
       header,
-      distributionsRead: end.recordCount + readerSkipped,
+      distributionsRead: (o.shard ? shardRecords : end.recordCount) + readerSkipped,
       rowsWritten: written,
       rowsSkippedByReader: readerSkipped,
       rowsSkippedByOptics: opticsSkipCount,

@@ -22,7 +22,15 @@ stop() {
   done
 }
 
-if [ "$cmd" = stop ]; then stop; exit 0; fi
+if [ "$cmd" = stop ]; then
+  # jobs of this cluster first (SLURM_CONF points at it), so no job step outlives the daemons
+  if [ -f "$dir/slurmctld.pid" ] && kill -0 "$(cat "$dir/slurmctld.pid")" 2>/dev/null; then
+    SLURM_CONF="$conf" scancel --quiet --full --user=root 2>/dev/null || true
+    for _ in $(seq 1 30); do [ -z "$(SLURM_CONF="$conf" squeue -h 2>/dev/null)" ] && break; sleep 0.2; done
+  fi
+  stop
+  exit 0
+fi
 [ "$cmd" = start ] || { echo "usage: $0 start|stop DIR" >&2; exit 2; }
 for tool in munged mungekey slurmctld slurmd sbatch sinfo; do
   command -v "$tool" >/dev/null 2>&1 || { echo "slurm-cluster: $tool is missing: apt-get install -y slurm-wlm munge" >&2; exit 3; }
