@@ -496,7 +496,8 @@ export async function runSeries(argv: string[]): Promise<number> {
   if (shardOf) {
     const [from, to] = shardRange(await countLines(file), shardOf)
     const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy }
-    shard = { firstLine: from + 1, lastLine: to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
+    // the last part takes every line after its first (whatever the count missed)
+    shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
   }
   const target = values.out !== undefined ? await fileOutput(values.out) : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):

@@ -62,18 +62,23 @@ export function parseShardLine(line: string): ShardInfo | undefined {
   return { k: Number(m[1]), n: Number(m[2]), command: m[3], fingerprint: m[4], headLines: Number(m[5]) }
 }
 
-/** Counts the lines of a file (line breaks, plus a last line without one), reading it as bytes. */
+/**
+ * Counts the lines of a file as node:readline splits them (a line ends at \n, \r\n or a lone \r; a last line
+ * without a break counts), reading it as bytes.
+ */
 export async function countLines(path: string): Promise<number> {
   let n = 0
   let last = 10
+  let pendingCr = false
   for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 })) {
     const b = chunk as Buffer
-    let i = b.indexOf(10)
-    while (i >= 0) {
-      n++
-      i = b.indexOf(10, i + 1)
-    }
-    if (b.length > 0) last = b[b.length - 1]
+    if (b.length === 0) continue
+    if (pendingCr && b[0] !== 10) n++ // a lone \r at the end of the previous chunk
+    for (let i = b.indexOf(10); i >= 0; i = b.indexOf(10, i + 1)) n++
+    for (let i = b.indexOf(13); i >= 0; i = b.indexOf(13, i + 1)) if (i + 1 < b.length && b[i + 1] !== 10) n++
+    pendingCr = b[b.length - 1] === 13
+    last = b[b.length - 1]
   }
+  if (pendingCr) return n + 1
   return last === 10 ? n : n + 1
 }

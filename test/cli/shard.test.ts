@@ -1,11 +1,13 @@
 // --shard K/N of series, merge and uncertainty, put together by `motebench join`: for N = 1, 2, 3 the joined file
 // is the single run's file byte for byte (the summaries on standard error may differ); join refuses a missing or
 // repeated shard and shards of different runs. The real CLI in child processes, on the small example files.
+import { createReadStream } from 'node:fs'
 import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { shardRange } from '../../src-main/cli/shard.ts'
+import { fileLines } from '../../src-main/cli/series.ts'
+import { countLines, shardRange } from '../../src-main/cli/shard.ts'
 import { expectOneLine, run } from './helpers.ts'
 import { MERGE, SERIES, shardedRun, uncertainStudy, uncertaintyArgs, wholeRun } from './shard-runs.ts'
 
@@ -32,6 +34,19 @@ describe('shardRange', () => {
         expect(next).toBe(total)
         expect(Math.max(...sizes) - Math.min(...sizes)).toBeLessThanOrEqual(1)
       }
+    }
+  })
+})
+
+describe('countLines', () => {
+  it('counts the lines series reads (fileLines: \\n, \\r\\n or a lone \\r; a last line without a break)', async () => {
+    const cases = ['a\nb\n', 'a\nb', 'a\r\nb\r\n', 'a\rb\rc', 'a\r', '', '\n\n', 'x\r\n\r\ny', 'a\n\rb']
+    for (const [i, text] of cases.entries()) {
+      const path = join(dir, `lines-${i}.txt`)
+      await writeFile(path, text)
+      let n = 0
+      for await (const batch of fileLines(createReadStream(path, { encoding: 'utf8', highWaterMark: 2 }))) n += batch.length
+      expect(await countLines(path), JSON.stringify(text)).toBe(n)
     }
   })
 })
