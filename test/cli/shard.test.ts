@@ -92,6 +92,9 @@ describe('shards joined equal the single run, byte for byte', () => {
     const fromDraws = await run([...args, '--json', '--from-draws', join(dir, 'draws-3.csv')])
     expect(fromDraws.code).toBe(0)
     expect(fromDraws.stdout).toBe(single.stdout)
+    const otherSeed = await run([...args.map((a) => (a === '3' ? '4' : a)), '--from-draws', join(dir, 'draws-3.csv')])
+    expect(otherSeed.code).toBe(2)
+    expect(otherSeed.stderr).toMatch(/the draws are not of this run/)
   })
 })
 
