@@ -22,8 +22,18 @@ function sh(cmd: string, args: string[], env: NodeJS.ProcessEnv = process.env, t
 
 let dir = ''
 let started = false
+/** Why the cluster is not there: the test fails with it (a failed test, not a skipped one). */
+let setupError: Error | undefined
 
 beforeAll(async () => {
+  try {
+    await startCluster()
+  } catch (e) {
+    setupError = e as Error
+  }
+}, 60_000)
+
+async function startCluster(): Promise<void> {
   const missing = TOOLS.filter((t) => !existsSync(t))
   if (missing.length > 0) throw new Error(`Slurm is not installed (missing ${missing.join(', ')}): apt-get install -y slurm-wlm munge (.ci/run does it)`)
   if (process.getuid?.() !== 0) throw new Error('the Slurm test runs as root (slurmd starts the jobs as their user)')
@@ -31,7 +41,7 @@ beforeAll(async () => {
   started = true // stop even a half-started cluster
   const r = await sh('bash', [cluster, 'start', join(dir, 'cluster')], process.env, 40_000)
   if (r.code !== 0) throw new Error(`the Slurm cluster did not start:\n${r.stderr}`)
-}, 60_000)
+}
 
 afterAll(async () => {
   if (started) await sh('bash', [cluster, 'stop', join(dir, 'cluster')])
@@ -39,6 +49,7 @@ afterAll(async () => {
 }, 30_000)
 
 it('a Slurm array job of three series shards, joined, equals the single run byte for byte', { timeout: 90_000 }, async () => {
+  if (setupError) throw setupError
   const sizer = join(repo, 'resources/sizer-series-semicolon.csv')
   const study = join(repo, 'resources/demo.mote')
   const sample = 'Coastal haze day'
