@@ -1,3 +1,5 @@
+import { readableBeside, readableNumber } from './numberText.ts'
+
 /**
  * The one error type src-core throws for bad input. It says what is wrong, where, and how to fix it,
  * so the app, the CLI and the tests can show it to a person without a stack trace.
@@ -20,6 +22,7 @@ export class InputError extends Error {
 export function requireInRange(where: string, value: number, lo: number, hi: number, unit = ''): void {
   if (!Number.isFinite(value) || value < lo || value > hi) {
     const u = unit ? ` ${unit}` : ''
-    throw new InputError(where, `${value}${u} is outside the valid range ${lo}${u} to ${hi}${u}`, `Give a value from ${lo} to ${hi}${u}.`)
+    const [l, h] = [readableNumber(lo), readableNumber(hi)]
+    throw new InputError(where, `${readableBeside(value, lo, hi)}${u} is outside the valid range ${l}${u} to ${h}${u}`, `Give a value from ${l} to ${h}${u}.`)
   }
 }

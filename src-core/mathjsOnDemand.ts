@@ -16,6 +16,11 @@ export function mathUnit(text: string): Unit {
   return forQuantities().unit(text)
 }
 
+/** mathjs's unit(value, name): a number in a named unit. */
+export function mathUnitOf(value: number, unitName: string): Unit {
+  return forQuantities().unit(value, unitName)
+}
+
 /** mathjs's complex(text): "1.53+0.01i". */
 export function mathComplex(text: string): { re: number; im: number } {
   return forQuantities().complex(text)

@@ -1,14 +1,15 @@
 /**
- * Reading numbers that people type: lengths with units ("120 nm", "0.12 um", "0.12 µm"), temperatures,
- * and complex refractive indices ("1.53+0.01i"). mathjs does the unit arithmetic; this is for input,
- * never for hot loops.
+ * Reading numbers that people type: plain numbers (with thousands separators and percent signs where they are
+ * unambiguous), lengths with units ("120 nm", "0.12 um", "0.12 µm"), temperatures, and complex refractive
+ * indices ("1.53+0.01i"). mathjs does the unit arithmetic; this is for input, never for hot loops.
  */
 import type { Unit } from 'mathjs'
-import { mathComplex, mathUnit } from './mathjsOnDemand.ts'
+import { mathComplex, mathUnit, mathUnitOf } from './mathjsOnDemand.ts'
 import { InputError } from './errors.ts'
+import { readableNumber } from './numberText.ts'
 
 function normaliseUnitText(text: string): string {
-  return text.trim().replace(/[µμ]/g, 'u').replace(/,/g, '.')
+  return text.trim().replace(/[µμ]/g, 'u')
 }
 
 function toUnit(text: string, where: string, example: string): Unit {
@@ -19,40 +20,138 @@ function toUnit(text: string, where: string, example: string): Unit {
   }
 }
 
+/** What a percent sign means in a typed number: refused, a fraction (80 % = 0.8), or the number itself (a field in %). */
+export type PercentSign = 'refuse' | 'fraction' | 'percent'
+
+/** Spaces people put between digit groups: the ordinary, no-break, thin and narrow no-break spaces. */
+const GROUP_SPACE = /[ \u00a0\u2009\u202f]/g
+const PLAIN = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i
+/** Groups of exactly three digits after the first one to three, then an optional decimal part and exponent. */
+const GROUPED = (sep: string) => new RegExp(`^[+-]?\\d{1,3}(${sep}\\d{3})+(\\.\\d*)?(e[+-]?\\d+)?$`, 'i')
+const GROUPED_COMMA = GROUPED(',')
+const GROUPED_SPACE = GROUPED(' ')
+
 /**
- * A length typed by a person, in µm. A bare number is taken in `defaultUnit` ('nm' or 'um');
- * without a default a unit is required.
+ * A number typed by a person. Read: "1500", "1.5e3", "−2" (the minus sign), thousands separators where they can
+ * mean nothing else: commas or spaces between groups of exactly three digits, with a point (if any) as the decimal
+ * mark ("9,000" and "12 500.5"). Refused, with the fix: a decimal comma ("1,5": write 1.5 or 15), other groupings,
+ * and words. A percent sign is refused unless `percent` says what it means: 'fraction' ("80%" is 0.8) or
+ * 'percent' (the field is in %, so "80%" is 80).
  */
-export function parseLength(text: string, where: string, defaultUnit?: 'nm' | 'um'): number {
+export function parseNumber(text: string, where: string, options: { percent?: PercentSign } = {}): number {
+  let t = text.trim().replace(/[\u2212\u2013]/g, '-')
+  if (t === '') throw new InputError(where, 'no value was given', 'Type a number.')
+  const hasPercent = /%\s*$/.test(t)
+  if (hasPercent) {
+    const percent = options.percent ?? 'refuse'
+    if (percent === 'refuse') throw new InputError(where, `"${text}" has a percent sign, but this value is not a percentage`, 'Type the number alone, without %.')
+    t = t.replace(/\s*%\s*$/, '')
+  }
+  let body = t.replace(GROUP_SPACE, ' ').replace(/\s+/g, ' ')
+  if (body.includes(',')) {
+    if (GROUPED_COMMA.test(body)) body = body.replace(/,/g, '')
+    else {
+      const m = /^([+-]?\d*),(\d+)$/.exec(body)
+      if (m) {
+        const point = `${m[1] || '0'}.${m[2]}`
+        const joined = `${m[1]}${m[2]}`.replace(/^([+-]?)0+(?=\d)/, '$1')
+        const zero = /^[+-]?0*$/.test(m[1])
+        const fix = zero ? `Write ${point}, with a point as the decimal mark.` : `Write ${point} or ${joined} (a point is the decimal mark).`
+        throw new InputError(where, `"${text.trim()}" is ambiguous: its comma could be a decimal mark or a thousands separator`, fix)
+      }
+      throw new InputError(where, `"${text.trim()}" is not a number`, 'Write a point as the decimal mark and commas only between groups of three digits, e.g. 12,500.5 or 12500.5.')
+    }
+  } else if (body.includes(' ')) {
+    if (GROUPED_SPACE.test(body)) body = body.replace(/ /g, '')
+    else throw new InputError(where, `"${text.trim()}" is not one number`, 'Type one number; spaces may only separate groups of three digits, e.g. 12 500.')
+  }
+  if (!PLAIN.test(body)) throw new InputError(where, `"${text.trim()}" is not a number`, 'Type a number such as 1.6 or 2.5e3.')
+  const v = Number(body)
+  if (!Number.isFinite(v)) throw new InputError(where, `"${text.trim()}" is too large a number`, 'Type a number below 1e300.')
+  return hasPercent && options.percent === 'fraction' ? v / 100 : v
+}
+
+/** The unit names a length may be typed in, as written back to the person (µm for um). */
+const LENGTH_UNIT_SHOWN: Record<string, string> = { nm: 'nm', um: 'µm', mm: 'mm', cm: 'cm', m: 'm', km: 'km' }
+
+export interface LengthOptions {
+  /** The unit of a bare number: the unit the field shows ('nm' or 'um'); without it a unit is required. */
+  defaultUnit?: 'nm' | 'um'
+  /** Largest accepted length, µm; a longer one is refused in the unit it was typed in. */
+  max_um?: number
+  /** Names the quantity in the message about `max_um`, e.g. "the median diameter". */
+  what?: string
+}
+
+/** A length as typed: its value in µm, the unit it was given in ('nm', 'um', 'mm'…) and whether the unit was written. */
+export interface TypedLength {
+  um: number
+  unit: string
+  written: boolean
+}
+
+/**
+ * A length typed by a person. A bare number is taken in `defaultUnit` (the unit the field shows); the number
+ * follows parseNumber's rules ("1,500 nm" is 1500 nm; "1,5 um" is refused). Refused with the reason, in the unit
+ * typed: no value, no unit where one is needed, a unit that is not a length, zero or less, above `max_um`.
+ */
+export function readLength(text: string, where: string, options: LengthOptions = {}): TypedLength {
   const t = normaliseUnitText(text)
   if (t === '') throw new InputError(where, 'no value was given', 'Type a length such as "120 nm" or "0.12 um".')
-  const bare = Number(t)
+  const split = /^(.*?\d\.?)\s*([a-z]+)$/i.exec(t)
   let value: number
-  if (Number.isFinite(bare)) {
-    if (!defaultUnit) throw new InputError(where, `"${text}" has no unit`, 'Add a unit, for example "550 nm" or "0.55 um".')
-    value = defaultUnit === 'nm' ? bare / 1000 : bare
+  let unitName: string
+  if (!split) {
+    const bare = parseNumber(t, where)
+    if (!options.defaultUnit) throw new InputError(where, `"${text}" has no unit`, 'Add a unit, for example "550 nm" or "0.55 um".')
+    unitName = options.defaultUnit
+    value = unitName === 'nm' ? bare / 1000 : bare
   } else {
-    const u = toUnit(t, where, '550 nm')
+    const n = split[1].trim() === '' ? NaN : parseNumber(split[1], where)
+    if (Number.isNaN(n)) throw new InputError(where, `"${text}" has no number`, 'Write a number and a unit, for example "550 nm".')
+    unitName = split[2].toLowerCase() === 'micron' ? 'um' : split[2]
+    let u: Unit
     try {
-      value = u.toNumber('um')
+      u = mathUnitOf(n, unitName)
+    } catch {
+      throw new InputError(where, `"${split[2]}" in "${text}" is not a unit`, 'Use a length unit such as nm, um (µm), mm or m.')
+    }
+    try {
+      // 12 significant digits: the unit factors' round-off (1 mm is 1000.0000000000001 µm) is no one's value
+      value = Number(u.toNumber('um').toPrecision(12))
     } catch {
       throw new InputError(where, `"${text}" is not a length`, 'Use a length unit such as nm, um (µm), mm or m.')
     }
   }
+  const shown = LENGTH_UNIT_SHOWN[unitName] ?? unitName
   if (!Number.isFinite(value) || value <= 0) {
-    throw new InputError(where, `"${text}" is not a positive length`, 'Give a length greater than zero.')
+    throw new InputError(where, `"${text.trim()}" is not a positive length`, 'Give a length greater than zero.')
   }
-  return value
+  if (options.max_um !== undefined && value > options.max_um) {
+    const inUnit = mathUnitOf(options.max_um, 'um').toNumber(unitName)
+    const what = options.what ?? 'the length'
+    throw new InputError(where, `${text.trim()} is larger than ${what} can be (at most ${readableNumber(inUnit)} ${shown})`, `Check the number and its unit: give ${what} of at most ${readableNumber(inUnit)} ${shown}.`)
+  }
+  return { um: value, unit: unitName, written: !!split }
 }
 
-/** A temperature typed by a person, in K. A bare number is taken in kelvin. */
+/**
+ * A length typed by a person, in µm. A bare number is taken in `defaultUnit` ('nm' or 'um', or the options of
+ * readLength); without a default a unit is required.
+ */
+export function parseLength(text: string, where: string, defaultUnit?: 'nm' | 'um' | LengthOptions): number {
+  return readLength(text, where, typeof defaultUnit === 'string' ? { defaultUnit } : (defaultUnit ?? {})).um
+}
+
+/** A temperature typed by a person, in K. A bare number is taken in kelvin; "25 degC", "25 °C" and "77 degF" are converted. */
 export function parseTemperature(text: string, where: string): number {
   const t = normaliseUnitText(text)
-  const bare = Number(t)
   let value: number
-  if (t !== '' && Number.isFinite(bare)) value = bare
+  const split = /^(.*?\d\.?)\s*(°\s*[CF]|[a-z]+)$/i.exec(t)
+  if (!split) value = parseNumber(t, where)
   else {
-    const u = toUnit(t.replace(/°\s*C$/, 'degC').replace(/°\s*F$/, 'degF'), where, '298 K')
+    const n = parseNumber(split[1], where)
+    const u = toUnit(`${n} ${split[2].replace(/°\s*C$/i, 'degC').replace(/°\s*F$/i, 'degF')}`, where, '298 K')
     try {
       value = u.toNumber('K')
     } catch {

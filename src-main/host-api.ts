@@ -20,6 +20,7 @@ export const MENU_COMMANDS = [
   'undo',
   'redo',
   'cautions',
+  'catalogue',
   'save-and-close'
 ] as const
 export type MenuCommand = (typeof MENU_COMMANDS)[number]

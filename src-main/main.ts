@@ -13,7 +13,7 @@ import { RecentStudies } from './recent-studies.ts'
 import { RecoveryStore } from './recovery-store.ts'
 import { firstWindows, quitsWhenAllWindowsClose, studyArgument } from './start-up.ts'
 import { overwriteChosen, overwriteQuestion, readChosenFile, StudyFiles } from './study-saving.ts'
-import { windowOptions, windowTitle } from './window-options.ts'
+import { windowIconPath, windowOptions, windowTitle } from './window-options.ts'
 import { WindowRegistry, type WindowRecord } from './window-registry.ts'
 
 const STUDY_FILTERS = [FILE_FILTERS.study, { name: 'JSON', extensions: ['json'] }, { name: 'All files', extensions: ['*'] }]
@@ -21,6 +21,7 @@ const SIZER_FILTERS = [{ name: 'Sizer export', extensions: ['csv', 'tsv', 'txt',
 
 const page = appPage(process.env['ELECTRON_RENDERER_URL'], join(import.meta.dirname, '../renderer/index.html'))
 const preloadPath = join(import.meta.dirname, '../preload/index.cjs')
+const iconPath = windowIconPath(import.meta.dirname)
 const windows = new WindowRegistry()
 const studies = new StudyFiles()
 const recent = new RecentStudies(join(app.getPath('userData'), 'recent.json'))
@@ -37,7 +38,7 @@ function sendTo<N extends 'command' | 'load'>(contents: WebContents, name: N, me
 }
 
 function openWindow(startUp: StartUp, recoverySlot = recovery.newSlot()): BrowserWindow {
-  const win = new BrowserWindow(windowOptions(preloadPath))
+  const win = new BrowserWindow(windowOptions(preloadPath, iconPath))
   const contents = win.webContents
   const id = contents.id
   windows.add(id, startUp, recoverySlot)

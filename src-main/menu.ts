@@ -67,6 +67,8 @@ export function menuTemplate(platform: NodeJS.Platform, recent: readonly string[
     { role: 'zoomIn', accelerator: 'CmdOrCtrl+Plus' },
     { role: 'zoomOut', accelerator: 'CmdOrCtrl+-' },
     separator,
+    command('Component catalogue…', 'CmdOrCtrl+Shift+M', 'catalogue'),
+    separator,
     { role: 'togglefullscreen', accelerator: isMac ? 'Ctrl+Cmd+F' : 'F11' }
   ]
   const help: MenuItemConstructorOptions[] = [command('Safety and limits of the estimate', 'F1', 'cautions')]

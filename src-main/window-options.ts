@@ -1,4 +1,5 @@
 // What a study window is made with: size, and web preferences that keep the page away from Node and the network.
+import { join } from 'node:path'
 import type { BrowserWindowConstructorOptions, WebPreferences } from 'electron'
 
 export const APP_NAME = 'Motebench'
@@ -21,9 +22,18 @@ export function webPreferences(preloadPath: string): WebPreferences {
   }
 }
 
+/**
+ * The window's icon: resources/icon.png (256 px, rendered from src-renderer/icon.svg, the page's icon), found from
+ * the folder of the built main process (out/main).
+ */
+export function windowIconPath(mainDir: string): string {
+  return join(mainDir, '../../resources/icon.png')
+}
+
 /** A study window: sized for a 1366 × 768 laptop screen, shown once its first paint is ready. */
-export function windowOptions(preloadPath: string): BrowserWindowConstructorOptions {
+export function windowOptions(preloadPath: string, iconPath?: string): BrowserWindowConstructorOptions {
   return {
+    ...(iconPath ? { icon: iconPath } : {}),
     width: 1366,
     height: 768,
     minWidth: 1024,

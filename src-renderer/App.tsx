@@ -4,9 +4,11 @@ import { onPendingSizer, openText, readSizer, run, type PendingSizer } from './c
 import { host } from './host/index.ts'
 import { showView } from './state/actions.ts'
 import { store, useApp } from './state/store.ts'
+import { CatalogueDialog } from './views/Catalogue.tsx'
 import { CautionsDialog } from './views/Cautions.tsx'
 import { Header } from './views/Header.tsx'
 import { Notice, Toast } from './views/Messages.tsx'
+import { RecoveryOfferBanner } from './views/RecoveryOffer.tsx'
 import { Report } from './views/Report.tsx'
 import { Results, VIEWS } from './views/Results.tsx'
 import { SampleEditor } from './views/SampleEditor.tsx'
@@ -36,6 +38,7 @@ function onKey(e: KeyboardEvent): void {
     i: 'import-sizer',
     e: e.shiftKey ? 'export-json' : 'export-csv',
     p: 'export-report',
+    m: e.shiftKey ? 'catalogue' : undefined,
     z: inTextField(e.target) ? undefined : e.shiftKey ? 'redo' : 'undo',
     y: inTextField(e.target) ? undefined : 'redo'
   }
@@ -61,9 +64,9 @@ export function App() {
     }
   }, [])
 
-  useEffect(() => {
-    document.documentElement.dataset['theme'] = s.theme
-  }, [s.theme])
+  // Set while rendering, not in an effect: the charts read the theme's colours in their own effects, which run
+  // before this component's, so an effect here left every drawn chart in the old theme's ink and grid.
+  if (document.documentElement.dataset['theme'] !== s.theme) document.documentElement.dataset['theme'] = s.theme
 
   const onDrop = (e: DragEvent) => {
     e.preventDefault()
@@ -95,6 +98,7 @@ export function App() {
       </a>
       <Header />
       <Notice />
+      <RecoveryOfferBanner />
       <main class="workspace">
         <SampleList />
         <SampleEditor />
@@ -104,6 +108,7 @@ export function App() {
       {dragging && <div class="drop-hint">Drop a sizer export to import its bins</div>}
       {pending && <SizerDialog pending={pending} onClose={() => setPending(null)} />}
       {s.cautionsOpen && <CautionsDialog />}
+      <CatalogueDialog />
     </div>
   )
 }

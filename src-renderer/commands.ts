@@ -1,5 +1,5 @@
 // What the menu, the buttons and the shortcuts do: files, exports, report, undo. The host does the platform part.
-import { demoStudy, InputError, parseSizerText, parseStudy, serializeStudy, type SizerTable } from '../src-core/index.ts'
+import { demoStudy, InputError, looksLikeDelimitedTable, parseSizerText, parseStudy, serializeStudy, SizerChoiceNeeded, type SizerTable } from '../src-core/index.ts'
 import type { MenuCommand, OpenedFile } from '../src-main/host-api.ts'
 import { cancel } from './compute/client.ts'
 import { resultsCsv, resultsJson, statusLines, type ExportedResult } from './exports.ts'
@@ -8,12 +8,19 @@ import { host } from './host/index.ts'
 import { blankStudy, load, redo, undo } from './state/actions.ts'
 import { store } from './state/store.ts'
 import { sampleState } from './shown.ts'
+import { openCatalogue } from './views/Catalogue.tsx'
 
 const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store().set({ notice: { kind, title, lines } })
 
 /** Loads study text; problems are listed and the current study stays. */
 export function openText(file: OpenedFile): boolean {
   const r = parseStudy(file.text, file.name)
+  if (!r.ok && looksLikeDelimitedTable(file.text)) {
+    notice('error', `“${file.name}” is a table of values (like a sizer export), not a study: it was not opened`, [
+      'Open… reads Motebench studies (.mote files). To read this file’s size bins into a sample, use “Import sizer file…” (Ctrl+I) or drop the file on the window.'
+    ])
+    return false
+  }
   if (!r.ok) {
     notice(
       'error',
@@ -62,10 +69,14 @@ export async function save(saveAs = false): Promise<boolean> {
 // ---------------------------------------------------------------------------------------------------------------
 // Sizer files.
 
-/** A sizer file read and waiting for the user to choose a record and where it goes. */
+/** A sizer file read and waiting for the user's choices (unit, dates, negatives, rows) and where it goes. */
 export interface PendingSizer {
   name: string
-  table: SizerTable
+  text: string
+  /** The table as read with the file's own statements, or undefined when a choice is needed first. */
+  table?: SizerTable
+  /** The choice the file needs before it can be read (unit, quantity, date order, year). */
+  needs?: SizerChoiceNeeded
 }
 
 let pendingListener: ((p: PendingSizer | null) => void) | null = null
@@ -73,28 +84,41 @@ export const onPendingSizer = (l: (p: PendingSizer | null) => void): void => {
   pendingListener = l
 }
 
-/** Reads a sizer export; a file with bad rows or no readable table is refused with the line numbers. */
+const messageOf = (e: unknown): string => (e instanceof Error ? e.message : String(e))
+
+/**
+ * Reads a sizer export and opens the import dialog on it. A file the dialog's choices cannot help (no table,
+ * a broken header, a single distribution with bad rows) is refused here with its line numbers.
+ */
 export function readSizer(file: OpenedFile): void {
-  let table: SizerTable
+  let table: SizerTable | undefined
+  let needs: SizerChoiceNeeded | undefined
   try {
     table = parseSizerText(file.text, { fileName: file.name })
   } catch (e) {
-    notice('error', `“${file.name}” was not imported`, [e instanceof InputError || e instanceof Error ? e.message : String(e)])
-    return
+    if (e instanceof SizerChoiceNeeded) needs = e
+    else {
+      notice('error', `“${file.name}” was not imported`, [e instanceof InputError ? e.message : messageOf(e)])
+      return
+    }
   }
-  if (table.rejected.length) {
-    notice(
-      'error',
-      `“${file.name}” was not imported: ${table.rejected.length} line${table.rejected.length === 1 ? '' : 's'} could not be read`,
-      table.rejected.slice(0, 10).map((r) => `line ${r.line}${r.column ? ` column ${r.column}` : ''}: ${r.reason}. ${r.fix}`)
-    )
-    return
+  if (table) {
+    // one distribution with a bad bin cannot be read in part; negative values the dialog can set to 0
+    const fatal = table.layout !== 'time-rows' ? table.rejected.filter((r) => !/negative/.test(r.reason)) : []
+    if (fatal.length) {
+      notice(
+        'error',
+        `“${file.name}” was not imported: ${fatal.length} line${fatal.length === 1 ? '' : 's'} could not be read`,
+        fatal.slice(0, 10).map((r) => `line ${r.line}${r.column ? ` column ${r.column}` : ''}: ${r.reason}. ${r.fix}`)
+      )
+      return
+    }
+    if (!table.records.length && !table.rejected.length) {
+      notice('error', `“${file.name}” was not imported`, ['The file has a table but no distribution in it.'])
+      return
+    }
   }
-  if (!table.records.length) {
-    notice('error', `“${file.name}” was not imported`, ['The file has a table but no distribution in it.'])
-    return
-  }
-  pendingListener?.({ name: file.name, table })
+  pendingListener?.({ name: file.name, text: file.text, table, needs })
 }
 
 export async function importSizer(): Promise<void> {
@@ -163,6 +187,8 @@ export function run(command: MenuCommand): void {
       return redo()
     case 'cautions':
       return store().set({ cautionsOpen: true })
+    case 'catalogue':
+      return openCatalogue()
     case 'save-and-close':
       void save(false).then((ok) => ok && host().closeWindow())
       return
@@ -172,9 +198,7 @@ export function run(command: MenuCommand): void {
 export { cancel }
 
 // ---------------------------------------------------------------------------------------------------------------
-// Recovery copy and the host's view of the window.
-
-const RECOVERY_EVERY_MS = 20_000
+// The host's view of the window (the recovery copy: recovery.ts).
 
 export function keepHostInformed(): void {
   let last = ''
@@ -185,11 +209,4 @@ export function keepHostInformed(): void {
     last = key
     host().setState({ title: s.file?.name ?? s.study.name, dirty: s.dirty, pristine: s.pristine })
   })
-  let copied: unknown = null
-  setInterval(() => {
-    const s = store().get()
-    if (!s.dirty || copied === s.study) return
-    copied = s.study
-    void host().keepRecovery({ text: serializeStudy(s.study), savedAt: new Date().toISOString(), name: s.study.name, path: s.file?.path })
-  }, RECOVERY_EVERY_MS)
 }

@@ -1,11 +1,11 @@
 // Results as CSV and JSON files (the numbers exactly as computed; no new physics).
-import type { SampleResult, Study } from '../src-core/index.ts'
+import { sampleWarnings, withheldText, type SampleResult, type Study } from '../src-core/index.ts'
 import { ESTIMATE_CAUTION, HEALTH_CAUTIONS } from './cautions.ts'
 import { PREVIEW_TOLERANCE } from './compute/messages.ts'
 
 export const APP_VERSION = typeof __APP_VERSION__ === 'string' ? __APP_VERSION__ : 'dev'
 
-const WAVELENGTH_COLUMNS: [string, (w: SampleResult['optics']['wavelengths'][number]) => number][] = [
+const WAVELENGTH_COLUMNS: [string, (w: SampleResult['optics']['wavelengths'][number]) => number | string][] = [
   ['wavelength_nm', (w) => w.wavelength_nm],
   ['ext_Mm-1', (w) => w.ext],
   ['sca_Mm-1', (w) => w.sca],
@@ -24,7 +24,8 @@ const WAVELENGTH_COLUMNS: [string, (w: SampleResult['optics']['wavelengths'][num
   ['angstrom_abs', (w) => w.angstrom_abs],
   ['optical_depth', (w) => w.optical_depth],
   ['visual_range_km', (w) => w.visual_range_km],
-  ['deciview', (w) => w.deciview]
+  ['deciview', (w) => w.deciview],
+  ['withheld', (w) => withheldText(w)]
 ]
 
 /**
@@ -85,6 +86,7 @@ export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]
     'angstrom_ext',
     'angstrom_sca',
     'angstrom_abs',
+    'angstrom_abs_withheld',
     'number_cm-3',
     'mass_ug_m-3',
     'pm2_5_ug_m-3'
@@ -114,6 +116,7 @@ export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]
       r.optics.angstrom_fit.ext,
       r.optics.angstrom_fit.sca,
       r.optics.angstrom_fit.abs,
+      r.optics.angstrom_fit.withheld?.abs ?? '',
       r.optics.number_cm3,
       r.optics.mass_ug_m3,
       r.optics.pm2_5_ug_m3
@@ -121,6 +124,10 @@ export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]
   })
   rows.push([])
   for (const line of statusLines(study, results)) rows.push([`# Not from the current inputs: ${line}`])
+  study.samples.forEach((s, i) => {
+    const x = results[i]
+    for (const w of x ? sampleWarnings(x.result) : []) rows.push([`# Warning, “${s.name}”: ${w}`])
+  })
   rows.push([`# ${ESTIMATE_CAUTION}`])
   rows.push([`# Motebench ${APP_VERSION}; study "${study.name}"`])
   return rows.map((r) => r.map(csvCell).join(',')).join('\n') + '\n'

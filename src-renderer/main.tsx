@@ -1,11 +1,12 @@
 // Start-up: choose the host, set up the store, offer a recovery copy, start the computing worker, render.
 import { render } from 'preact'
-import { demoStudy, parseStudy } from '../src-core/index.ts'
+import { demoStudy } from '../src-core/index.ts'
 import { App } from './App.tsx'
 import { FIRST_START_KEY } from './cautions.ts'
 import { keepHostInformed, openText } from './commands.ts'
 import { startComputing } from './compute/client.ts'
 import { host } from './host/index.ts'
+import { keepRecoveryCopy, offerRecovery } from './recovery.ts'
 import { blankStudy, load } from './state/actions.ts'
 import { createStore, setStore, store, type AppState } from './state/store.ts'
 import './styles.css'
@@ -56,15 +57,10 @@ async function start(): Promise<void> {
   } else if (up.blank) load(blankStudy(), null)
   else load(demo, null)
   store().set({ pristine: !up.file })
-  if (up.recovery) {
-    const r = parseStudy(up.recovery.text, 'recovery copy')
-    const when = new Date(up.recovery.savedAt).toLocaleString()
-    if (r.ok && window.confirm(`A recovery copy of “${up.recovery.name}” from ${when} was found (the app did not close normally). Restore it?`)) {
-      load(r.study, up.recovery.path ? { name: up.recovery.path.split(/[\\/]/).pop() ?? up.recovery.name, path: up.recovery.path } : null, true)
-    } else void h.keepRecovery(null)
-  }
+  if (up.recovery) offerRecovery(up.recovery)
   h.onLoad((f) => openText(f))
   keepHostInformed()
+  keepRecoveryCopy()
   startComputing()
   render(<App />, document.getElementById('app') as HTMLElement)
 }

@@ -34,6 +34,29 @@ export function sampleState(s: AppState, id: string, position = 0): ShownSample 
   return { id, index: i, sample: s.study.samples[i], result: r?.result, current, stale, error: r?.error, preview: current && !!r?.preview, style: lineStyle(position, s.theme) }
 }
 
+/**
+ * How the results of the whole study stand, told the same way by the header, the result views, the charts and the
+ * sample list: 'stale' as soon as an input needs attention or a sample's computation failed, or when no job runs
+ * and a sample's shown results are marked stale (sampleState); 'ok' only when every sample's results are from its
+ * current inputs and nothing is computing; else 'pending' (computing).
+ */
+export interface StudyStatus {
+  state: 'ok' | 'stale' | 'pending'
+  /** Fields that cannot be read and problems of the document (those that decide results). */
+  inputs: number
+  /** Names of the samples whose computation failed on their current inputs. */
+  failed: string[]
+}
+
+export function studyStatus(s: AppState): StudyStatus {
+  const inputs = Object.keys(s.drafts).filter(affectsOptics).length + s.problems.filter((p) => affectsOptics(p.path)).length
+  const states = s.ids.map((id) => sampleState(s, id)).filter((x): x is ShownSample => x !== null)
+  const failed = states.filter((x) => x.error && !x.current).map((x) => x.sample.name)
+  // while a job runs, samples still waiting for their figures are pending (the header shows the progress), not stale
+  const state = inputs > 0 || failed.length > 0 ? 'stale' : s.job.running ? 'pending' : states.every((x) => x.current) ? 'ok' : states.some((x) => x.stale) ? 'stale' : 'pending'
+  return { state, inputs, failed }
+}
+
 /** The compared samples when 2 or more are marked, else the selected one. */
 export function shownSamples(s: AppState): ShownSample[] {
   const ids = s.compare.length >= 2 ? s.compare : [s.selected]

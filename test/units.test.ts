@@ -1,6 +1,7 @@
-// Reading what people type: lengths, temperatures, complex indices and wavelength lists.
+// Reading what people type: numbers, lengths, temperatures, complex indices and wavelength lists; and numbers
+// written back to people in messages.
 import { describe, expect, it } from 'vitest'
-import { InputError, parseComplexIndex, parseLength, parseTemperature, parseWavelengthList } from '../src-core/index.ts'
+import { InputError, parseComplexIndex, parseLength, parseNumber, parseTemperature, parseWavelengthList, readableBeside, readableNumber, readLength } from '../src-core/index.ts'
 
 describe('typed quantities (SI prefixes and the kelvin–Celsius offset, common practice)', () => {
   it('reads lengths in µm with units or a default unit', () => {
@@ -41,5 +42,92 @@ describe('typed quantities (SI prefixes and the kelvin–Celsius offset, common 
     expect(parseWavelengthList(' 450, 550, ', 'w')).toEqual([450, 550])
     expect(() => parseWavelengthList('450,550,450nm', 'w', { distinct: true })).toThrow(/450 nm is given twice/)
     expect(() => parseWavelengthList('450, green', 'w')).toThrow(/green/)
+  })
+})
+
+describe('typed numbers: thousands separators, decimal commas and percent signs (common practice)', () => {
+  const why = (f: () => unknown): string => {
+    try {
+      f()
+    } catch (e) {
+      return (e as Error).message
+    }
+    return 'no error'
+  }
+
+  it('reads thousands separators only between groups of exactly three digits', () => {
+    expect(parseNumber('9,000', 'N')).toBe(9000)
+    expect(parseNumber('1,234,567.5', 'N')).toBe(1234567.5)
+    expect(parseNumber('12 500', 'N')).toBe(12500)
+    expect(parseNumber('12\u202f500', 'N')).toBe(12500)
+    expect(parseNumber('−2.5e3', 'N')).toBe(-2500)
+    expect(parseNumber('.5', 'N')).toBe(0.5)
+    // a group that is not three digits long is not a thousands group
+    expect(() => parseNumber('9,0000', 'N')).toThrow(InputError)
+    expect(() => parseNumber('1 5', 'N')).toThrow(/not one number/)
+  })
+
+  it('refuses a comma that could be a decimal mark, offering both readings', () => {
+    expect(why(() => parseNumber('1,5', 'N'))).toMatch(/^N: "1,5" is ambiguous: .*comma.*Write 1\.5 or 15/)
+    expect(why(() => parseNumber('12,50', 'N'))).toMatch(/Write 12\.50 or 1250/)
+    // a leading zero cannot be a thousands group: only the decimal reading is offered
+    expect(why(() => parseNumber('0,85', 'x'))).toMatch(/Write 0\.85, with a point/)
+    expect(() => parseNumber('1.500,5', 'N')).toThrow(InputError)
+  })
+
+  it('reads a percent sign only where the value is a fraction or a percentage', () => {
+    expect(parseNumber('80%', 'f', { percent: 'fraction' })).toBeCloseTo(0.8, 15)
+    expect(parseNumber('80 %', 'f', { percent: 'fraction' })).toBeCloseTo(0.8, 15)
+    expect(parseNumber('0.8', 'f', { percent: 'fraction' })).toBe(0.8)
+    expect(parseNumber('80%', 'rh', { percent: 'percent' })).toBe(80)
+    expect(() => parseNumber('80%', 'N')).toThrow(/percent sign/)
+  })
+
+  it('refuses words, hexadecimal and empty text', () => {
+    expect(() => parseNumber('twelve', 'N')).toThrow(/not a number/)
+    expect(() => parseNumber('0x10', 'N')).toThrow(/not a number/)
+    expect(() => parseNumber('  ', 'N')).toThrow(/no value/)
+  })
+
+  it('reads a bare length in the unit the field shows, and reports the unit typed', () => {
+    expect(readLength('60', 'D', { defaultUnit: 'nm' })).toEqual({ um: 0.06, unit: 'nm', written: false })
+    expect(readLength('60', 'D', { defaultUnit: 'um' }).um).toBe(60)
+    expect(readLength('2.5 µm', 'D', { defaultUnit: 'nm' })).toEqual({ um: 2.5, unit: 'um', written: true })
+    expect(readLength('1e3 nm', 'D', { defaultUnit: 'um' }).um).toBeCloseTo(1, 12)
+    expect(readLength('1,500 nm', 'D').um).toBeCloseTo(1.5, 12)
+    expect(() => readLength('1,5 um', 'D')).toThrow(/1\.5 or 15/)
+    expect(parseLength('60', 'D', { defaultUnit: 'nm' })).toBeCloseTo(0.06, 15)
+  })
+
+  it('refuses a length above the limit in the unit it was typed in', () => {
+    const o = { defaultUnit: 'nm' as const, max_um: 1000, what: 'a median diameter' }
+    const nm = why(() => readLength('1e9 nm', 'CMD', o))
+    expect(nm).toMatch(/1e9 nm is larger than a median diameter can be \(at most 1\u202f000\u202f000 nm\)/)
+    expect(nm).not.toMatch(/µm/)
+    expect(why(() => readLength('2 mm', 'CMD', o))).toMatch(/at most 1 mm/)
+    expect(readLength('1 mm', 'CMD', o).um).toBeCloseTo(1000, 9)
+  })
+
+  it('reads temperatures with the number rules', () => {
+    expect(parseTemperature('25 °C', 't')).toBeCloseTo(298.15, 10)
+    expect(() => parseTemperature('25,5 degC', 't')).toThrow(/25\.5 or 255/)
+  })
+})
+
+describe('numbers in messages, as a person reads them (SI digit grouping, common practice)', () => {
+  it('keeps about four significant digits, never fewer than the whole-number digits', () => {
+    expect(readableNumber(24753.820996152685)).toBe('24\u202f754')
+    expect(readableNumber(1234.5678)).toBe('1235')
+    expect(readableNumber(0.000123456)).toBe('0.0001235')
+    expect(readableNumber(0.1 + 0.2)).toBe('0.3')
+    expect(readableNumber(-3.5)).toBe('−3.5')
+    expect(readableNumber(1e12)).toBe('1e12')
+    expect(readableNumber(2.5e-7)).toBe('2.5e-7')
+  })
+
+  it('shows more digits where four would read as the limit broken', () => {
+    expect(readableBeside(0.99999, 1)).toBe('0.99999')
+    expect(readableBeside(1.00004, 1)).toBe('1.00004')
+    expect(readableBeside(24753.82, 0, 10)).toBe('24\u202f754')
   })
 })

@@ -52,3 +52,5 @@ export {
 } from './twoStream.ts'
 export type { ForcingVerdictWord, ForcingVerdictInput, ForcingVerdict, ForcingMapInput, ForcingMap } from './verdict.ts'
 export { FORCING_CAUTION, DEFAULT_VERDICT_MARGIN_WM2, forcingVerdict, forcingMap, effectiveEmissionTemperature } from './verdict.ts'
+export type { ThinLayerCheckInput, ThinLayerCheck } from './validity.ts'
+export { THIN_LAYER_TRUSTED_SHARE, asymmetryFromUpscatter, thinLayerDepartureWarning, thinLayerCheck } from './validity.ts'

@@ -21,6 +21,17 @@
  * The absorptance is computed independently of R and T from the flux divergence,
  *   A = (1 − ω') [ 2 ∫₀^τ₁ (F↑ + F↓) dτ + 1 − e^{−τ₁/μ₀} ],
  * so that R + T + A = 1 is a real check of the solution.
+ *
+ * Optional upscatter fraction β (the share of singly scattered sunlight the phase function sends into the upper
+ * hemisphere, e.g. a population's β̄): the source term then takes the phase function's own β instead of the
+ * Eddington phase function's, γ₃ = β/(1 − f) (delta-scaled: the forward peak f = g² carries no upscatter; capped
+ * at 1), as Coakley, J. A. & Chýlek, P. (1975), "The two-stream approximation in radiative transfer: including
+ * the angle of the incident radiation", J. Atmos. Sci. 32, 409–418, feed the direct beam its own upscatter
+ * fraction. γ₃ only splits the singly scattered beam between up and down (γ₃ + γ₄ = 1), so R + T + A = 1 holds
+ * for any β. To first order in τ, at μ₀ = 1/2 (where the beam's slant path 1/μ₀ equals the mean path 2 of
+ * diffuse light), the layer over a Lambertian surface then changes the reflectance by
+ *   ΔR = 2τ [ (1 − R_s)² β ω − 2 R_s (1 − ω) ],
+ * the thin-layer form of Chylek & Wong (1995): with the same β̄ both methods agree as τ → 0.
  */
 import { sunlitDayQuadrature } from './insolation.ts'
 import { gaussLegendreOn } from '../numeric/index.ts'
@@ -36,12 +47,20 @@ export interface TwoStreamLayerInput {
   omega: number
   /** Asymmetry parameter g, 0..0.99. */
   asymmetry: number
+  /**
+   * Upscatter fraction β of the single scattering, 0..1, used at every sun angle (give the population's β̄ to
+   * compare like with like with the thin-layer form). Omitted: the Eddington phase function's own,
+   * γ₃ = (2 − 3g′μ₀)/4, whose thin-limit equivalent is {@link twoStreamEquivalentUpscatter}.
+   */
+  upscatter?: number
 }
 
 export interface DeltaScaled {
   tau: number
   omega: number
   asymmetry: number
+  /** Delta-scaled upscatter fraction β/(1 − g²), capped at 1, when the layer was given β; else undefined. */
+  upscatter?: number
 }
 
 /**
@@ -57,12 +76,15 @@ function checkLayer(l: TwoStreamLayerInput): void {
   checkRange('tau', l.tau, 0, 1000)
   checkRange('omega', l.omega, 0, 1)
   checkRange('asymmetry', l.asymmetry, 0, G_MAX)
+  if (l.upscatter !== undefined) checkRange('upscatter', l.upscatter, 0, 1)
 }
 
 function scaleUnchecked(l: TwoStreamLayerInput): DeltaScaled {
   const f = l.asymmetry * l.asymmetry
   const d = 1 - l.omega * f
-  return { tau: d * l.tau, omega: ((1 - f) * l.omega) / d, asymmetry: l.asymmetry / (1 + l.asymmetry) }
+  const scaled: DeltaScaled = { tau: d * l.tau, omega: ((1 - f) * l.omega) / d, asymmetry: l.asymmetry / (1 + l.asymmetry) }
+  if (l.upscatter !== undefined) scaled.upscatter = Math.min(1, l.upscatter / (1 - f))
+  return scaled
 }
 
 /** Response of a layer over a black surface to a direct beam of unit flux on a horizontal surface. */
@@ -78,13 +100,13 @@ export interface DirectBeamResponse {
 }
 
 /** Solves the scaled Eddington layer for one μ₀ (no input checks). */
-function solveScaled(tau: number, w: number, g: number, mu0In: number): DirectBeamResponse {
+function solveScaled(tau: number, w: number, g: number, mu0In: number, beta?: number): DirectBeamResponse {
   const g1 = (7 - w * (4 + 3 * g)) / 4
   const g2 = -(1 - w * (4 - 3 * g)) / 4
   const k = Math.sqrt(Math.max(0, 3 * (1 - w) * (1 - w * g)))
   let mu0 = mu0In
   if (Math.abs(1 - k * k * mu0 * mu0) < 1e-6) mu0 *= (mu0 * 1.000002 <= 1) ? 1.000002 : 0.999998
-  const g3 = (2 - 3 * g * mu0) / 4
+  const g3 = beta ?? (2 - 3 * g * mu0) / 4
   const g4 = 1 - g3
   const a1 = g1 * g4 + g2 * g3
   const a2 = g1 * g3 + g2 * g4
@@ -147,7 +169,7 @@ export function deltaEddingtonDirectBeam(layer: TwoStreamLayerInput, cosZenith: 
   checkLayer(layer)
   checkRangeOpenLow('cosZenith', cosZenith, 0, 1)
   const s = scaleUnchecked(layer)
-  return solveScaled(s.tau, s.omega, s.asymmetry, cosZenith)
+  return solveScaled(s.tau, s.omega, s.asymmetry, cosZenith, s.upscatter)
 }
 
 /** Response of a layer to diffuse (isotropic-radiance) illumination from above (or, by symmetry, below). */
@@ -177,7 +199,7 @@ function diffuseUnchecked(s: DeltaScaled, nodes: number): DiffuseResponse {
   let T = 0
   let A = 0
   for (let i = 0; i < nodes; i++) {
-    const r = solveScaled(s.tau, s.omega, s.asymmetry, x[i])
+    const r = solveScaled(s.tau, s.omega, s.asymmetry, x[i], s.upscatter)
     const wt = 2 * w[i] * x[i]
     R += wt * r.reflectance
     T += wt * (r.diffuseTransmittance + r.directTransmittance)
@@ -211,7 +233,7 @@ export function layerOverLambertianSurface(layer: TwoStreamLayerInput, cosZenith
   checkRangeOpenLow('cosZenith', cosZenith, 0, 1)
   checkRange('surfaceAlbedo', surfaceAlbedo, 0, 1)
   const s = scaleUnchecked(layer)
-  return addSurface(solveScaled(s.tau, s.omega, s.asymmetry, cosZenith), diffuseUnchecked(s, 16), surfaceAlbedo)
+  return addSurface(solveScaled(s.tau, s.omega, s.asymmetry, cosZenith, s.upscatter), diffuseUnchecked(s, 16), surfaceAlbedo)
 }
 
 function addSurface(d: DirectBeamResponse, dif: DiffuseResponse, Rs: number): LayerOverSurface {
@@ -282,7 +304,7 @@ export function twoStreamForcing(input: TwoStreamForcingInput): TwoStreamForcing
   const inc = input.incidentFluxWm2 ?? S0 * input.cosZenith
   checkRange('incidentFluxWm2', inc, 0, 1e5, 'W m⁻²')
   const s = scaleUnchecked(input)
-  const withLayer = addSurface(solveScaled(s.tau, s.omega, s.asymmetry, input.cosZenith), diffuseUnchecked(s, 16), input.surfaceAlbedo)
+  const withLayer = addSurface(solveScaled(s.tau, s.omega, s.asymmetry, input.cosZenith, s.upscatter), diffuseUnchecked(s, 16), input.surfaceAlbedo)
   return forcingFromFractions(withLayer, input.surfaceAlbedo, inc * T * T * (1 - Ac))
 }
 
@@ -340,7 +362,7 @@ export function dailyMeanTwoStreamForcing(input: DailyTwoStreamInput): DailyTwoS
     const dif = diffuseUnchecked(s, 16)
     const Rs = input.surfaceAlbedo
     for (let i = 0; i < q.cosZenith.length; i++) {
-      const f = forcingFromFractions(addSurface(solveScaled(s.tau, s.omega, s.asymmetry, q.cosZenith[i]), dif, Rs), Rs, q.fluxWeightsWm2[i] * T * T * (1 - Ac))
+      const f = forcingFromFractions(addSurface(solveScaled(s.tau, s.omega, s.asymmetry, q.cosZenith[i], s.upscatter), dif, Rs), Rs, q.fluxWeightsWm2[i] * T * T * (1 - Ac))
       toa += f.toaWm2
       sfc += f.surfaceWm2
     }

@@ -1,5 +1,6 @@
 /** Input checks private to the climate module. Each throws InputError with a plain-words fix. */
 import { InputError } from '../errors.ts'
+import { readableBeside, readableNumber } from '../numberText.ts'
 import { DEFAULT_ATMOSPHERIC_TRANSMITTANCE, DEFAULT_CLOUD_FRACTION, SOLAR_CONSTANT_WM2 } from './constants.ts'
 
 export function checkFinite(where: string, value: number): void {
@@ -12,7 +13,8 @@ export function checkRange(where: string, value: number, lo: number, hi: number,
   checkFinite(where, value)
   if (value < lo || value > hi) {
     const u = unit ? ` ${unit}` : ''
-    throw new InputError(where, `${value}${u} is outside the valid range ${lo}${u} to ${hi}${u}`, `Give a value from ${lo} to ${hi}${u}.`)
+    const [l, h] = [readableNumber(lo), readableNumber(hi)]
+    throw new InputError(where, `${readableBeside(value, lo, hi)}${u} is outside the valid range ${l}${u} to ${h}${u}`, `Give a value from ${l} to ${h}${u}.`)
   }
 }
 
@@ -21,7 +23,7 @@ export function checkRangeOpenLow(where: string, value: number, lo: number, hi: 
   checkFinite(where, value)
   if (value <= lo || value > hi) {
     const u = unit ? ` ${unit}` : ''
-    throw new InputError(where, `${value}${u} must be greater than ${lo}${u} and at most ${hi}${u}`, `Give a value above ${lo} and up to ${hi}${u}.`)
+    throw new InputError(where, `${readableBeside(value, lo, hi)}${u} must be greater than ${readableNumber(lo)}${u} and at most ${readableNumber(hi)}${u}`, `Give a value above ${readableNumber(lo)} and up to ${readableNumber(hi)}${u}.`)
   }
 }
 

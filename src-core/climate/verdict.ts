@@ -11,7 +11,8 @@ import { atmosphereAbove, checkInteger, checkRange, checkRangeOpenLow } from './
 /** The caution every verdict carries. */
 export const FORCING_CAUTION =
   'First-order, screening estimate of the direct forcing of a uniform aerosol layer, not a climate projection; ' +
-  'decisions rest with local codes and licensed practice.'
+  'any decision taken on it rests with qualified review under the local occupational-health and environmental ' +
+  'rules and the organisation’s own procedures.'
 
 /** Default margin below which the sign of the forcing is not called, W m⁻². */
 export const DEFAULT_VERDICT_MARGIN_WM2 = 0.5
@@ -27,7 +28,10 @@ export interface ForcingVerdictInput {
   surfaceAlbedo: number
   /** 'thin-layer' (default; needs upscatter) or 'two-stream' (needs asymmetry). */
   method?: 'thin-layer' | 'two-stream'
-  /** Mean upscatter fraction β̄, 0..1 (thin-layer method). */
+  /**
+   * Mean upscatter fraction β̄, 0..1: needed by the thin-layer method; with the two-stream method optional, and
+   * then the layer's single scattering uses it too (see twoStream.ts), so both methods assume the same scattering.
+   */
   upscatter?: number
   /** Asymmetry parameter g, 0..0.99 (two-stream method). */
   asymmetry?: number
@@ -64,8 +68,9 @@ export interface ForcingVerdict {
   caution: string
 }
 
+/** A number for the explanation's words, with the minus sign U+2212 (typographic practice for written text). */
 function fmt(x: number, digits = 3): string {
-  return Number.isFinite(x) ? Number(x.toPrecision(digits)).toString() : String(x)
+  return Number.isFinite(x) ? Number(x.toPrecision(digits)).toString().replace(/-/g, '\u2212') : String(x)
 }
 
 /** Largest x in [0, 1] with pred(x) true, assuming pred is true below and false above a single switch. */
@@ -122,12 +127,13 @@ export function forcingVerdict(input: ForcingVerdictInput): ForcingVerdict {
     checkRangeOpenLow('cosZenith', mu0, 0, 1)
     const g = input.asymmetry
     const inc = common.solarConstant / 4
+    const up = input.upscatter
     const toa = (omega: number, Rs: number) =>
-      twoStreamForcing({ tau: input.tau, omega, asymmetry: g, cosZenith: mu0, surfaceAlbedo: Rs, incidentFluxWm2: inc, ...common }).toaWm2
+      twoStreamForcing({ tau: input.tau, omega, asymmetry: g, upscatter: up, cosZenith: mu0, surfaceAlbedo: Rs, incidentFluxWm2: inc, ...common }).toaWm2
     forcing = toa(input.omega, input.surfaceAlbedo)
     if (input.tau === 0) {
-      // no layer: show the thin-limit values with the two-stream equivalent upscatter at this μ₀
-      const beta = twoStreamEquivalentUpscatter(g, mu0)
+      // no layer: show the thin-limit values with the given upscatter, or the two-stream equivalent one at this μ₀
+      const beta = up ?? twoStreamEquivalentUpscatter(g, mu0)
       omegaCrit = criticalSingleScatteringAlbedo(input.surfaceAlbedo, beta)
       flip = signFlipSurfaceAlbedo(input.omega, beta)
       detail = `no layer (τ = 0); critical values are the thin limit with β̄ = ${fmt(beta)}`
@@ -135,7 +141,7 @@ export function forcingVerdict(input: ForcingVerdictInput): ForcingVerdict {
       // ω_crit: smallest ω that cools; flip albedo: largest R_s that still cools
       omegaCrit = 1 - bisectSwitch((x) => toa(1 - x, input.surfaceAlbedo) < 0)
       flip = bisectSwitch((x) => toa(input.omega, x) < 0)
-      detail = `delta-Eddington two-stream at μ₀ = ${fmt(mu0)} with g = ${fmt(g)}`
+      detail = `delta-Eddington two-stream at μ₀ = ${fmt(mu0)} with g = ${fmt(g)} and ${up === undefined ? `its own upscatter fraction (β = ${fmt(twoStreamEquivalentUpscatter(g, mu0))} at this μ₀)` : `β̄ = ${fmt(up)}`}`
     }
   } else {
     throw new InputError('method', `"${String(method)}" is not a known method`, "Use 'thin-layer' or 'two-stream'.")

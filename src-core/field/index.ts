@@ -1,7 +1,10 @@
 /**
  * Field data: several sizers merged into one size distribution in volume-equivalent diameter (DeCarlo et al.
  * 2004 conversions, a stated overlap rule, an optional density fit after Khlystov et al. 2004), and the time
- * base that averages instruments on their own clocks onto common steps.
+ * base that averages instruments on their own clocks onto common steps; reading instrument exports as they
+ * come (sizer tables with their time, units and extra columns); and the optical instruments beside the
+ * sizers (measured scattering, backscattering and absorption in our own file layout, averaged onto the sizer rows
+ * and compared with the computed coefficients, with the truncation correction and per-row closure).
  */
 export {
   type SizerKind,
@@ -39,3 +42,50 @@ export {
   fitDensity
 } from './merge.ts'
 export { type MergedFileInfo, mergedMidpointsNm, mergedFileHead, mergedFileRow } from './output.ts'
+export type {
+  SizerLayout,
+  SizerDelimiter,
+  SizerOptions,
+  SizerReaderOptions,
+  SizerRecord,
+  SizerRejection,
+  SizerColumn,
+  TimeRole,
+  SizerHeader,
+  SizerTable,
+  SizerSummary,
+  SizerReader
+} from './types.ts'
+export { MAX_KEPT_REJECTIONS, MAX_HELD_ROWS, createSizerReader, parseSizerText, sizerRecordToBins } from './reader.ts'
+export { SizerChoiceNeeded, type SizerChoice } from './text.ts'
+export { inferDiameterUnit } from './plan.ts'
+export { type DateOrder, type ParsedTime, DATE_ORDER_NAMES, readDateTime, readClock, readDayOfYear, readEpochSeconds, epochNamed, isoText } from './time.ts'
+export { readNumber, parseCellNumber } from './cells.ts'
+export { type AveragedRecords, averageRecords } from './average.ts'
+export {
+  type OpticalQuantity,
+  type OpticalChannel,
+  type OpticalHeader,
+  type OpticalRecord,
+  type OpticalReaderOptions,
+  type OpticalReader,
+  OPTICAL_QUANTITIES,
+  readInstrumentTime,
+  createOpticalReader,
+  parseOpticalText
+} from './optical-file.ts'
+export {
+  type MeasuredChannel,
+  type ComparisonPlan,
+  type InstrumentKernels,
+  DEFAULT_NEPHELOMETER_ANGLES,
+  ASSUMED_ABSORPTION_ANGSTROM,
+  MeasuredAlignment,
+  planWavelengths,
+  instrumentWavelengths,
+  instrumentKernels,
+  comparisonColumns,
+  absorptionAt,
+  RowComparer
+} from './optical.ts'
+export { type RatioSummary, percentileSorted, RatioCollector, comparisonNotes } from './optical-summary.ts'

@@ -4,5 +4,5 @@
  */
 export { truncationQuadrature, truncationFromPhase, truncationCorrectionForPhase, nephelometerTruncation } from './nephelometer.ts'
 export type { AngularResponse, NephelometerGeometry, TruncationQuadrature, TruncationCorrection, NephelometerOptions } from './nephelometer.ts'
-export { PSL_INDEX, OpcResponder, opcResponseCurve, rebinOpcEdges } from './opc.ts'
-export type { OpcGeometry, RebinnedEdge, RebinnedBin, RebinResult, RebinOptions } from './opc.ts'
+export { PSL_INDEX, OpcResponder, opcResponseCurve, rebinOpcEdges, CURVE_POINTS } from './opc.ts'
+export type { OpcGeometry, RebinnedEdge, RebinnedBin, RebinResult, RebinOptions, OpcResponseCurves } from './opc.ts'

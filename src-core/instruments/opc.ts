@@ -55,7 +55,7 @@ export class OpcResponder {
   response(diameterUm: number, n: number, k: number): number {
     const x = (Math.PI * diameterUm * 1000) / this.geometry.wavelengthNm
     if (!(x >= SPHERE_DOMAIN.sizeParameter.min && x <= SPHERE_DOMAIN.sizeParameter.max)) {
-      throw new InputError('opc: diameter', `${diameterUm} µm gives a size parameter ${x} outside Mie's valid range`, 'Use bin edges from about 0.01 µm to a few hundred µm.')
+      throw new InputError('optical particle counter: diameter', `${diameterUm} µm gives a size parameter ${x} outside Mie's valid range`, 'Use bin edges from about 0.01 µm to a few hundred µm.')
     }
     sphereEfficiencies(x, n, k, this.ws)
     this.acc.fill(0)
@@ -67,10 +67,10 @@ export class OpcResponder {
 }
 
 function checkOpcGeometry(g: OpcGeometry): void {
-  if (!(g.wavelengthNm >= 200 && g.wavelengthNm <= 40000)) throw new InputError('opc: wavelength', `${g.wavelengthNm} nm is outside 200 to 40000 nm`, 'Give the laser wavelength in nm, e.g. 633.')
-  if (!(g.lowDeg >= 0 && g.highDeg <= 180 && g.highDeg > g.lowDeg)) throw new InputError('opc: angles', `${g.lowDeg}° to ${g.highDeg}° is not a range inside 0° to 180°`, 'Give the collection angles, e.g. 35 to 120 degrees.')
+  if (!(g.wavelengthNm >= 200 && g.wavelengthNm <= 40000)) throw new InputError('optical particle counter: wavelength', `${g.wavelengthNm} nm is outside 200 to 40000 nm`, 'Give the laser wavelength in nm, e.g. 633.')
+  if (!(g.lowDeg >= 0 && g.highDeg <= 180 && g.highDeg > g.lowDeg)) throw new InputError('optical particle counter: angles', `${g.lowDeg}° to ${g.highDeg}° is not a range inside 0° to 180°`, 'Give the collection angles, e.g. 35 to 120 degrees.')
   const c = g.calibrationIndex
-  if (c && !(c.n > 0 && c.k >= 0)) throw new InputError('opc: calibration index', `${c.n}+${c.k}i is not a refractive index`, 'Give n > 0 and k ≥ 0, e.g. 1.59+0i for PSL.')
+  if (c && !(c.n > 0 && c.k >= 0)) throw new InputError('optical particle counter: calibration index', `${c.n}+${c.k}i is not a refractive index`, 'Give n > 0 and k ≥ 0, e.g. 1.59+0i for PSL.')
 }
 
 /** Response R(D, m) of a counter at each diameter (µm). */
@@ -82,6 +82,8 @@ export function opcResponseCurve(diametersUm: readonly number[], index: { n: num
 
 export interface RebinnedEdge {
   calibration_um: number
+  /** R at the edge: the calibration sphere's response, which the true diameter matches. */
+  response: number
   /** The true diameter (unique candidate, or the one nearest the calibration diameter in ln D). */
   true_um: number
   /** Every diameter whose response for the sample's index equals the PSL response at the edge. */
@@ -110,11 +112,25 @@ export interface RebinResult {
   edges: RebinnedEdge[]
   bins: RebinnedBin[]
   notes: string[]
+  /** With `curve: true`: the response R(D) of the calibration and the sample index over the searched range. */
+  response?: OpcResponseCurves
 }
+
+/** R(D) of both indices on one set of diameters (the search grid, thinned to at most CURVE_POINTS points). */
+export interface OpcResponseCurves {
+  diameter_um: number[]
+  calibration: number[]
+  sample: number[]
+}
+
+/** The most points a returned response curve keeps (enough to draw it; the search itself uses every grid point). */
+export const CURVE_POINTS = 1500
 
 export interface RebinOptions {
   /** True diameters are searched from min(edges)/f to max(edges)·f (default 4). */
   searchFactor?: number
+  /** Also return the response curves of both indices (`response`), for a chart. */
+  curve?: boolean
 }
 
 /** A response curve on a fine grid of diameters: Δx ≤ 0.05 and Δln D ≤ 0.01. */
@@ -188,13 +204,13 @@ function monotonicOver(grid: { d: Float64Array; v: Float64Array }, lo: number, h
  * Maps a counter's calibration bin edges (µm, ascending) to true diameters for particles of `sampleIndex`.
  */
 export function rebinOpcEdges(edgesUm: readonly number[], sampleIndex: { n: number; k: number }, geometry: OpcGeometry, options: RebinOptions = {}): RebinResult {
-  if (edgesUm.length < 2) throw new InputError('opc: edges', `${edgesUm.length} bin edges given`, 'Give at least two ascending bin edges in µm.')
+  if (edgesUm.length < 2) throw new InputError('optical particle counter: edges', `${edgesUm.length} bin edges given`, 'Give at least two ascending bin edges in µm.')
   edgesUm.forEach((e, i) => {
-    if (!(e > 0 && Number.isFinite(e)) || (i > 0 && !(e > edgesUm[i - 1]))) throw new InputError(`opc: edge ${i + 1}`, `${e} µm is not a positive diameter above the edge before it`, 'Give ascending bin edges in µm.')
+    if (!(e > 0 && Number.isFinite(e)) || (i > 0 && !(e > edgesUm[i - 1]))) throw new InputError(`optical particle counter: edge ${i + 1}`, `${e} µm is not a positive diameter above the edge before it`, 'Give ascending bin edges in µm.')
   })
-  if (!(sampleIndex.n > 0 && sampleIndex.k >= 0)) throw new InputError('opc: sample index', `${sampleIndex.n}+${sampleIndex.k}i is not a refractive index`, 'Give n > 0 and k ≥ 0.')
+  if (!(sampleIndex.n > 0 && sampleIndex.k >= 0)) throw new InputError('optical particle counter: sample index', `${sampleIndex.n}+${sampleIndex.k}i is not a refractive index`, 'Give n > 0 and k ≥ 0.')
   const f = options.searchFactor ?? 4
-  if (!(f > 1)) throw new InputError('opc: search factor', `${f} is not greater than 1`, 'Give a factor above 1, e.g. 4.')
+  if (!(f > 1)) throw new InputError('optical particle counter: search factor', `${f} is not greater than 1`, 'Give a factor above 1, e.g. 4.')
   const cal = geometry.calibrationIndex ?? PSL_INDEX
   const lo = edgesUm[0] / f
   const hi = edgesUm[edgesUm.length - 1] * f
@@ -208,10 +224,10 @@ export function rebinOpcEdges(edgesUm: readonly number[], sampleIndex: { n: numb
     if (!calCandidates.some((c) => Math.abs(c / dc - 1) < 1e-6)) calCandidates.push(dc)
     calCandidates.sort((a, b) => a - b)
     if (!candidates.length) {
-      throw new InputError('opc: edges', `no diameter from ${lo.toPrecision(3)} to ${hi.toPrecision(3)} µm of index ${sampleIndex.n}+${sampleIndex.k}i scatters as much as a ${dc} µm calibration sphere`, 'Give a larger search factor, or check the index and the angles.')
+      throw new InputError('optical particle counter: edges', `no diameter from ${lo.toPrecision(3)} to ${hi.toPrecision(3)} µm of index ${sampleIndex.n}+${sampleIndex.k}i scatters as much as a ${dc} µm calibration sphere`, 'Give a larger search factor, or check the index and the angles.')
     }
     const best = candidates.reduce((p, c) => (Math.abs(Math.log(c / dc)) < Math.abs(Math.log(p / dc)) ? c : p))
-    return { calibration_um: dc, true_um: best, candidates_um: candidates, calibration_candidates_um: calCandidates, ambiguous: candidates.length > 1 || calCandidates.length > 1 }
+    return { calibration_um: dc, response: target, true_um: best, candidates_um: candidates, calibration_candidates_um: calCandidates, ambiguous: candidates.length > 1 || calCandidates.length > 1 }
   })
   const bins: RebinnedBin[] = []
   for (let i = 0; i + 1 < edges.length; i++) {
@@ -224,7 +240,20 @@ export function rebinOpcEdges(edgesUm: readonly number[], sampleIndex: { n: numb
     if (!(b.true_um > a.true_um)) reasons.push('the true edges are not in increasing order')
     bins.push({ calibration_lo_um: a.calibration_um, calibration_hi_um: b.calibration_um, true_lo_um: a.true_um, true_hi_um: b.true_um, flagged: reasons.length > 0, reasons })
   }
+  let response: OpcResponseCurves | undefined
+  if (options.curve) {
+    // both grids step by the same rule from the same diameter, so they share their diameters
+    const n = Math.min(pslGrid.d.length, sampleGrid.d.length)
+    const step = Math.max(1, Math.ceil(n / CURVE_POINTS))
+    response = { diameter_um: [], calibration: [], sample: [] }
+    for (let i = 0; i < n; i += step) {
+      response.diameter_um.push(pslGrid.d[i])
+      response.calibration.push(pslGrid.v[i])
+      response.sample.push(sampleGrid.v[i])
+    }
+  }
   return {
+    ...(response ? { response } : {}),
     wavelength_nm: geometry.wavelengthNm,
     low_deg: geometry.lowDeg,
     high_deg: geometry.highDeg,

@@ -11,7 +11,7 @@ export type {
   ConstantIndex,
   ExpressionIndex
 } from './material.ts'
-export { refractiveIndexAt } from './material.ts'
+export { indexSourceAt, refractiveIndexAt } from './material.ts'
 export { listMaterials, getMaterial } from './catalogue.ts'
 export type { UserIndexSpec, UserMaterialDefinition } from './user.ts'
 export { defineUserMaterial } from './user.ts'
@@ -21,3 +21,4 @@ export type { WaterUptakeOptions } from './growth.ts'
 export { KELVIN_TERM_CONSTANTS, growthFactor, mixtureKappa, waterVolumeFraction, wetRefractiveIndex } from './growth.ts'
 export { parseIndexTableCsv } from './indexTable.ts'
 export type { IndexTableOptions } from './indexTable.ts'
+export { NEAR_SATURATION_RH, growthSensitivityPerPercent, nearSaturationWarning } from './saturation.ts'

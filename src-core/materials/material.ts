@@ -183,3 +183,18 @@ export function refractiveIndexAt(material: Material, wavelengthUm: number): Com
     }
   }
 }
+
+/**
+ * Where `material`'s refractive index at `wavelengthUm` comes from: for a table, the source of the tabulated row at
+ * that wavelength, or of the two rows it lies between (both named when they differ, joined by " / "); otherwise
+ * the material's index source.
+ */
+export function indexSourceAt(material: Material, wavelengthUm: number): string {
+  const idx = material.index
+  if (idx.kind !== 'table') return material.sources.index
+  const w = idx.wavelengthsUm
+  let hi = w.findIndex((x) => x >= wavelengthUm)
+  if (hi < 0) hi = w.length - 1
+  const lo = w[hi] === wavelengthUm || hi === 0 ? hi : hi - 1
+  return [...new Set([idx.sources[lo], idx.sources[hi]])].join(' / ')
+}

@@ -12,10 +12,12 @@ import {
   solarBandWeights,
   SOLAR_CONSTANT_WM2,
   surfaceTypeById,
+  thinLayerDepartureWarning,
   thinLayerForcing,
   twoStreamForcing
 } from '../climate/index.ts'
 import { InputError } from '../errors.ts'
+import { readableNumber, readableRange } from '../numberText.ts'
 import type { Site } from '../study/model.ts'
 import { UPSCATTER_COS_ZENITH } from './integrate.ts'
 import { valueAt } from './sample.ts'
@@ -47,11 +49,17 @@ export function upscatterFunction(row: WavelengthOptics): (mu0: number) => numbe
   }
 }
 
+/** The largest optical depth at 550 nm the forcing estimate takes (the range of forcingVerdict and forcingMap). */
+export const MAX_FORCING_TAU = 10
+
 /** The forcing estimate of a sample's layer at a site, with its verdict. */
 export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFAULT_VERDICT_MARGIN_WM2): SampleForcing {
   const rows = optics.wavelengths
   const at550 = (pick: (r: WavelengthOptics) => number) => valueAt(rows, 550, pick)
   const tau = at550((r) => r.optical_depth)
+  if (!(tau >= 0 && tau <= MAX_FORCING_TAU)) {
+    throw new InputError('Optical depth at 550 nm', `${readableNumber(tau)} is outside ${readableRange(0, MAX_FORCING_TAU)}, where the forcing estimate holds`, "Check the modes' amounts and median diameters (with their units) and the layer: a hazy layer's optical depth is about 0.1 to 1.")
+  }
   const omega = Math.min(1, Math.max(0, at550((r) => r.ssa)))
   const g = at550((r) => r.g)
   const upscatter = at550((r) => r.upscatter_fraction)
@@ -89,10 +97,12 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
     latitudeDeg: site.latitude_deg,
     dayOfYear: site.day_of_year
   })
+  // the same β̄ as the thin-layer form, so that the two compare like with like (twoStream.ts)
   const two = twoStreamForcing({
     tau,
     omega,
     asymmetry: Math.min(0.99, Math.max(0, g)),
+    upscatter,
     cosZenith: 0.5,
     surfaceAlbedo,
     incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4,
@@ -100,6 +110,8 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
   })
   const verdict = forcingVerdict({ tau, omega, surfaceAlbedo, upscatter, ...common, marginWm2 })
   const flip = thin.flipSurfaceAlbedo
+  const departure = thinLayerDepartureWarning(thin.forcingWm2, two.toaWm2, tau, verdict.marginWm2)
+  const warnings = departure ? [`${departure} The verdict, the spectral and daily figures and the map are thin-layer figures too.`] : []
   return {
     tau_550: tau,
     ssa_550: omega,
@@ -117,7 +129,8 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
     verdict: verdict.verdict,
     explanation: verdict.explanation,
     margin_w_m2: verdict.marginWm2,
-    caution: verdict.caution
+    caution: verdict.caution,
+    warnings
   }
 }
 

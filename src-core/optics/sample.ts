@@ -27,9 +27,10 @@ import {
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
 import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
-import { angstromFit, deciview, layerDepthM, localAngstromExponents, rayleighScatteringMm, visualRangeKm } from './metrics.ts'
+import { angstromFit, deciview, deciviewWithheld, layerDepthM, localAbsorptionExponents, localAngstromExponents, rayleighScatteringMm, visibilityWithheld, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
+import { opticsWarnings } from './warnings.ts'
 
 export interface SampleOpticsOptions {
   /** Relative accuracy of the size integration (default 1e-4). */
@@ -324,10 +325,16 @@ export function assembleSampleOptics(
       angstrom_abs: NaN,
       optical_depth: 0,
       rayleigh_sca: rayleigh,
-      visual_range_km: visualRangeKm(total),
-      deciview: deciview(total),
-      mie_evaluations: r.evaluations
+      visual_range_km: visibilityWithheld(wl) ? NaN : visualRangeKm(total),
+      deciview: deciviewWithheld(wl, total) ? NaN : deciview(total),
+      mie_evaluations: r.evaluations,
+      withheld: {}
     })
+    const row = rows[rows.length - 1]
+    const vis = visibilityWithheld(wl)
+    if (vis) row.withheld.visual_range_km = vis
+    const dv = deciviewWithheld(wl, total)
+    if (dv) row.withheld.deciview = dv
     if (r.angular) angular.push(r.angular)
   }
   // Optical depth: a uniform layer of the sample (Mm⁻¹ × m × 1e-6), or scaled to a given AOD at 550 nm.
@@ -339,10 +346,11 @@ export function assembleSampleOptics(
   for (const row of rows) row.optical_depth = row.ext * 1e-6 * layerDepth
   const wls = rows.map((r) => r.wavelength_nm)
   const aExt = localAngstromExponents(wls, rows.map((r) => r.ext))
-  const aAbs = localAngstromExponents(wls, rows.map((r) => r.abs))
+  const aAbs = localAbsorptionExponents(wls, rows.map((r) => r.abs), rows.map((r) => r.ext))
   rows.forEach((r, i) => {
     r.angstrom_ext = aExt[i]
-    r.angstrom_abs = aAbs[i]
+    r.angstrom_abs = aAbs[i].value
+    if (aAbs[i].withheld) r.withheld.angstrom_abs = aAbs[i].withheld!
   })
 
   const pm = pops.every((p) => p.mode)
@@ -357,9 +365,6 @@ export function assembleSampleOptics(
     `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀ over ${UPSCATTER_COS_ZENITH.length} sun angles.`
   ]
   if (pops.some((p) => p.bins)) notes.push(BIN_SHAPE)
-  if (unsettled.length) {
-    notes.push(`At ${unsettled.join(', ')} nm the size integration reached its finest grid before two successive refinements agreed to the tolerance (narrow resonances of weakly absorbing particles); those figures may be less accurate than the tolerance.`)
-  }
   return {
     name: sample.name,
     wavelengths: rows,
@@ -375,7 +380,8 @@ export function assembleSampleOptics(
     pm10_ug_m3: pm ? pm.pm10 : NaN,
     angstrom_fit: angstromFit(rows),
     layer_depth_m: layerDepth,
-    notes
+    notes,
+    warnings: opticsWarnings({ rhPercent: cond.rhPercent, kappa: Math.max(0, ...pops.map((p) => p.kind.kappa)), unsettledNm: unsettled })
   }
 }
 

@@ -41,7 +41,15 @@ export interface WavelengthOptics {
   deciview: number
   /** Mie evaluations this wavelength took (all populations, all refinement levels). */
   mie_evaluations: number
+  /**
+   * Figures left out (NaN) because they have no meaning here, each with its reason (optics/metrics.ts:
+   * absorptionWithheld, visibilityWithheld, deciviewWithheld).
+   */
+  withheld: Partial<Record<WithheldFigure, string>>
 }
+
+/** The row figures that can be withheld. */
+export type WithheldFigure = 'angstrom_abs' | 'visual_range_km' | 'deciview'
 
 /** Population phase function and polarisation at chosen angles, one wavelength. */
 export interface AngularOptics {
@@ -57,6 +65,8 @@ export interface AngstromExponents {
   ext: number
   sca: number
   abs: number
+  /** Why `abs` is NaN, where it is withheld (too little absorption at some wavelength). */
+  withheld?: { abs?: string }
 }
 
 /** Everything computed for one sample. */
@@ -82,6 +92,11 @@ export interface SampleOptics {
   layer_depth_m: number
   /** Statements the results must carry (bin shape, approximations used). */
   notes: string[]
+  /**
+   * Figures that come from a method outside its range of validity: each says which figure, why and what to use
+   * instead (optics/warnings.ts). Empty when there is nothing to say.
+   */
+  warnings: string[]
 }
 
 /** The verdict words. */
@@ -107,13 +122,15 @@ export interface SampleForcing {
   daily_mean_w_m2: number
   /** Daily-mean top-of-atmosphere insolation at the site, W m⁻². */
   insolation_w_m2: number
-  /** Delta-Eddington two-stream layer (global-mean equivalent: μ₀ = 0.5, incident S₀/4). */
+  /** Delta-Eddington two-stream layer (global-mean equivalent: μ₀ = 0.5, incident S₀/4), with the same β̄ as the thin-layer form. */
   two_stream: { toa_w_m2: number; surface_w_m2: number; atmosphere_w_m2: number }
   verdict: VerdictWord
   /** One or two sentences with the numbers that decide the verdict. */
   explanation: string
   margin_w_m2: number
   caution: string
+  /** The thin-layer figures' warning when they depart from the two-stream layer (climate/validity.ts); else empty. */
+  warnings: string[]
 }
 
 /** Forcing over surface albedo × single-scattering albedo for a sample (thin-layer form). */

@@ -1,5 +1,5 @@
 /**
- * Measured size distributions in bins (e.g. SMPS, OPC, APS output).
+ * Measured size distributions in bins (e.g. from a mobility sizer, an aerodynamic sizer or an optical particle counter).
  *
  * Canonical form: { edges (µm, strictly ascending, n+1 values), dNdlogD (cm⁻³, n values) }, where
  * dNdlogD[i] is dN/dlog₁₀D in bin i and — the one shape assumption — the number distribution is

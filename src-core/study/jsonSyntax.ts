@@ -174,3 +174,21 @@ export function findJsonSyntaxError(text: string): JsonSyntaxProblem | null {
     return { offset: e.offset, ...lineColumnAt(text, e.offset), message: e.message, fix: e.fix }
   }
 }
+
+/** The separators a delimited table (CSV, TSV, a sizer export) may use between its fields. */
+const TABLE_SEPARATORS = [',', ';', '\t'] as const
+
+/**
+ * True when `text` is not a JSON document but reads as a delimited table: it does not start with "{" or "[",
+ * and among its first 40 non-blank lines at least two hold two or more numbers separated by the same comma,
+ * semicolon or tab (a sizer export, a spreadsheet saved as CSV). Used to point the user to the sizer import
+ * rather than report a JSON syntax error at line 1.
+ */
+export function looksLikeDelimitedTable(text: string): boolean {
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text
+  const start = body.trimStart()[0]
+  if (start === undefined || start === '{' || start === '[') return false
+  const lines = body.split(/\r?\n/, 400).filter((l) => l.trim() !== '').slice(0, 40)
+  const isNumber = (field: string) => /^[+-]?(\d+([.,]\d*)?|[.,]\d+)([eE][+-]?\d+)?$/.test(field.trim().replace(/^"|"$/g, ''))
+  return TABLE_SEPARATORS.some((sep) => lines.filter((l) => l.split(sep).filter(isNumber).length >= 2).length >= 2)
+}

@@ -26,6 +26,8 @@ export interface BinsSpec {
   values: number[]
   /** Where the bins came from (file name, time stamp), for the record. */
   source?: string
+  /** When the values are the mean of several rows of a sizer time series: how many. */
+  rows_averaged?: number
 }
 
 /** One component of a particle, by volume fraction of the dry particle. */

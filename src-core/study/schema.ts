@@ -9,10 +9,11 @@
  */
 import { z } from 'zod'
 import { InputError } from '../errors.ts'
+import { readableBeside } from '../numberText.ts'
 import { defineUserMaterial, listMaterials } from '../materials/index.ts'
 import { BIN_QUANTITIES, MAX_GSD } from '../sizes/index.ts'
 import { SURFACE_TYPES } from '../climate/index.ts'
-import { findJsonSyntaxError } from './jsonSyntax.ts'
+import { findJsonSyntaxError, looksLikeDelimitedTable } from './jsonSyntax.ts'
 import { migrateStudy } from './migrate.ts'
 import { uncertaintySettingsSchema } from '../uncertainty/settings.ts'
 import { STUDY_FORMAT, STUDY_VERSION, type Study } from './model.ts'
@@ -38,7 +39,8 @@ export const STUDY_WAVELENGTH_RANGE_NM = [200, 40000] as const
 // ---------------------------------------------------------------------------------------------------------------
 // Value checks with their plain-language fixes.
 
-const fmt = (v: number): string => (Number.isInteger(v) || Math.abs(v) >= 1e-3 ? String(Number(v.toPrecision(10))) : v.toExponential(3))
+/** A value in a message: about four significant digits, more where fewer would read as a usual limit (0, 1, 100). */
+const fmt = (v: number): string => readableBeside(v, 0, 1, 100)
 
 /** A finite number that passes `ok`; otherwise a custom issue with `problem(v)` and `fix`. */
 function num(ok: (v: number) => boolean, problem: (v: number) => string, fix: string) {
@@ -67,7 +69,10 @@ const gsd = num(
   `A geometric standard deviation of 1 means every particle has the same size; use 1.05 or more (typical modes: 1.4 to 2.2), at most ${MAX_GSD}.`
 )
 
-const median = positive('the median diameter', ' µm', '0.15 (150 nm)', 1000)
+/** The largest median diameter a mode may have, µm (1 mm: beyond any aerosol). */
+export const MAX_MEDIAN_UM = 1000
+
+const median = positive('the median diameter', ' µm', '0.15 (150 nm)', MAX_MEDIAN_UM)
 
 const rhPercent = num(
   (v) => v >= 0 && v < 100,
@@ -103,7 +108,8 @@ const bins = z.strictObject({
   edges: z.boolean(),
   quantity: z.enum(BIN_QUANTITIES),
   values: z.array(num((v) => v >= 0, (v) => `a bin value cannot be negative (it is ${fmt(v)})`, 'Check the instrument export; replace negative values (noise after inversion) by 0 or remove the bin.')).min(1),
-  source: z.string().optional()
+  source: z.string().optional(),
+  rows_averaged: z.number().int().min(1).optional()
 })
 
 const size = z.discriminatedUnion('kind', [z.strictObject({ kind: z.literal('modes'), modes: z.array(mode).min(1) }), z.strictObject({ kind: z.literal('bins'), bins })])
@@ -584,6 +590,18 @@ export function parseStudy(text: string, fileName?: string): ParseStudyResult {
   } catch {
     const where = findJsonSyntaxError(text)
     const file = fileName ? `${fileName} ` : ''
+    if (looksLikeDelimitedTable(body)) {
+      return {
+        ok: false,
+        problems: [
+          {
+            path: `${file}document`.trim(),
+            message: 'this is a table of values (CSV or similar, such as a sizer export), not a Motebench study',
+            fix: 'Import it as a sizer file instead (in the app: Import sizer file…; on the command line: motebench series or motebench closure --sizer); studies are .mote files saved by Motebench.'
+          }
+        ]
+      }
+    }
     if (where) {
       return { ok: false, problems: [{ path: `${file}line ${where.line} column ${where.column}`, message: `not valid JSON: ${where.message}`, fix: where.fix, line: where.line, column: where.column }] }
     }

@@ -57,6 +57,7 @@ const KEY_ORDER = [
   'k',
   'rows',
   'source',
+  'rows_averaged',
   'uncertainty'
 ]
 /** Longest line (with its indent) for an object written on one line. */

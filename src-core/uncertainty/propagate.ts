@@ -18,7 +18,7 @@
  */
 import { InputError } from '../errors.ts'
 import { DEFAULT_VERDICT_MARGIN_WM2 } from '../climate/index.ts'
-import { refractiveIndexAt, type Material } from '../materials/index.ts'
+import { getMaterial, refractiveIndexAt, type Material } from '../materials/index.ts'
 import { computeSampleOptics, OpticsWorkspace, resolveComposition, resolveMaterial, sampleForcing, siteSurfaceAlbedo, studyMaterials } from '../optics/index.ts'
 import type { SampleForcing, SampleOptics } from '../optics/types.ts'
 import { MAX_GSD } from '../sizes/index.ts'
@@ -204,10 +204,20 @@ function checkValue(label: string, q: UncertainInput['quantity'], value: number,
   )
 }
 
+/** A catalogue component's display name (an own component keeps its id). */
+function componentName(id: string | undefined): string {
+  if (id === undefined) return 'a component'
+  try {
+    return getMaterial(id).name
+  } catch {
+    return id
+  }
+}
+
 function defaultLabel(s: UncertainInput): string {
   const what =
     s.quantity === 'n' || s.quantity === 'k'
-      ? `${s.quantity} of ${s.material}`
+      ? `${s.quantity} of ${componentName(s.material)}`
       : s.quantity === 'median' || s.quantity === 'gsd' || s.quantity === 'amount'
         ? `${s.quantity === 'median' ? 'median diameter' : s.quantity} of ${s.mode === undefined ? 'every mode' : typeof s.mode === 'number' ? `mode ${s.mode}` : `mode "${s.mode}"`}`
         : s.quantity === 'rh'

@@ -3,25 +3,17 @@ import { createReadStream } from 'node:fs'
 import { readFile } from 'node:fs/promises'
 import { basename, extname } from 'node:path'
 import { createInterface } from 'node:readline'
-import {
-  BIN_QUANTITIES,
-  createSizerReader,
-  InputError,
-  parseStudy,
-  type BinQuantityName,
-  type SizerLayout,
-  type SizerOptions,
-  type SizerRecord
-} from '../../src-core/index.ts'
+import { createSizerReader, InputError, parseStudy, type SizerOptions } from '../../src-core/index.ts'
 import { EXIT_BAD_INPUT, EXIT_OK, printJson, readArgs, UsageError } from './common.ts'
+import { readingLines, readSizerFlags, sizerFlags, sizerHelp, type SizerFlagValues } from './sizer-options.ts'
 
 export const checkHelp = `motebench check FILE: checks a study or a sizer file and lists every problem
   FILE                  a study (.mote or .json) or a sizer export (.csv, .tsv or .txt)
-  --diameter-unit U     sizer files: nm or um, when the file does not say
-  --quantity Q          sizer files: ${BIN_QUANTITIES.join(', ')}, when the file does not say
-  --layout L            sizer files: single, time-rows or time-columns, when the guess is wrong
+${sizerHelp('sizer files: ')}
   --stop                sizer files: stop at the first bad row instead of listing them all
   --json                JSON output
+A sizer file's summary says how the table was read: bins, time columns and format, the columns ignored,
+what was inferred (e.g. the diameter unit), and every row left out with its line, column and fix.
 Exit status 0 when the file is fine, 2 when it has problems.`
 
 const SIZER_EXTENSIONS = new Set(['.csv', '.tsv', '.txt'])
@@ -32,9 +24,7 @@ export async function runCheck(argv: string[]): Promise<number> {
     'check',
     argv,
     {
-      'diameter-unit': { type: 'string' },
-      quantity: { type: 'string' },
-      layout: { type: 'string' },
+      ...sizerFlags,
       stop: { type: 'boolean', default: false },
       json: { type: 'boolean', default: false }
     },
@@ -70,37 +60,14 @@ async function checkStudy(file: string, json: boolean): Promise<number> {
   return EXIT_BAD_INPUT
 }
 
-function sizerOptions(file: string, values: { 'diameter-unit'?: string; quantity?: string; layout?: string; stop?: boolean }): SizerOptions {
-  const o: SizerOptions = { fileName: basename(file), onBadRow: values.stop ? 'stop' : 'skip' }
-  const unit = values['diameter-unit']
-  if (unit !== undefined) {
-    const u = unit === 'µm' || unit === 'μm' ? 'um' : unit
-    if (u !== 'nm' && u !== 'um') throw new UsageError(`check: --diameter-unit "${unit}" is not nm or um`)
-    o.diameterUnit = u
-  }
-  if (values.quantity !== undefined) {
-    if (!(BIN_QUANTITIES as readonly string[]).includes(values.quantity)) throw new UsageError(`check: --quantity "${values.quantity}" is not one of ${BIN_QUANTITIES.join(', ')}`)
-    o.quantity = values.quantity as BinQuantityName
-  }
-  if (values.layout !== undefined) {
-    if (!['single', 'time-rows', 'time-columns'].includes(values.layout)) throw new UsageError(`check: --layout "${values.layout}" is not single, time-rows or time-columns`)
-    o.layout = values.layout as SizerLayout
-  }
-  return o
+function sizerOptions(file: string, values: SizerFlagValues & { stop?: boolean }): SizerOptions {
+  return { ...readSizerFlags('check', values), fileName: basename(file), onBadRow: values.stop ? 'stop' : 'skip' }
 }
 
 /** Streams the file line by line: memory stays flat however many rows a time series has. */
-async function checkSizer(file: string, values: { 'diameter-unit'?: string; quantity?: string; layout?: string; stop?: boolean; json?: boolean }): Promise<number> {
+async function checkSizer(file: string, values: SizerFlagValues & { stop?: boolean; json?: boolean }): Promise<number> {
   const options = sizerOptions(file, values)
-  let first: SizerRecord | undefined
-  let last: SizerRecord | undefined
-  const reader = createSizerReader({
-    ...options,
-    onRecord: (r) => {
-      if (!first) first = { ...r, values: [] }
-      last = { ...r, values: [] }
-    }
-  })
+  const reader = createSizerReader({ ...options, reuseBuffer: true })
   const stream = createReadStream(file, { encoding: 'utf8' })
   const lines = createInterface({ input: stream, crlfDelay: Infinity })
   let summary
@@ -109,7 +76,7 @@ async function checkSizer(file: string, values: { 'diameter-unit'?: string; quan
     summary = reader.end()
   } catch (e) {
     if (!(e instanceof InputError) || !values.json) throw e
-    printJson({ file, kind: 'sizer', ok: false, problems: [{ where: e.where, message: e.message, fix: e.fix }] })
+    printJson({ file, kind: 'sizer', ok: false, problems: [{ where: e.where, message: e.message, fix: e.fix, ...('choice' in e ? { choice: e.choice } : {}) }] })
     return EXIT_BAD_INPUT
   } finally {
     lines.close()
@@ -128,8 +95,17 @@ async function checkSizer(file: string, values: { 'diameter-unit'?: string; quan
       bins: summary.edges ? summary.diameters.length - 1 : summary.diameters.length,
       diameters: summary.diameters,
       records: summary.recordCount,
-      first_time: first?.time,
-      last_time: last?.time,
+      first_time: summary.firstTime,
+      last_time: summary.lastTime,
+      time_columns: summary.timeColumns,
+      time_format: summary.timeFormat,
+      ...(summary.dateOrder ? { date_order: summary.dateOrder } : {}),
+      ignored_columns: summary.ignoredColumns,
+      units_line: summary.unitsLine,
+      diameter_unit_from: summary.unitSource,
+      notes: summary.notes,
+      negatives_zeroed: summary.negativesZeroed,
+      rows_left_out: summary.rowsLeftOut,
       rejected_count: summary.rejectedCount,
       rejected: summary.rejected
     })
@@ -140,10 +116,11 @@ async function checkSizer(file: string, values: { 'diameter-unit'?: string; quan
   const d = summary.diameters
   const bins = summary.edges ? d.length - 1 : d.length
   out.write(`${file}: sizer table, layout ${summary.layout}, ${summary.quantity}, ${bins} bins${d.length > 0 ? ` from ${d[0]} to ${d[d.length - 1]} ${unit} (${summary.edges ? 'edges' : 'midpoints'})` : ''}\n`)
-  out.write(`  ${summary.recordCount} distribution${summary.recordCount === 1 ? '' : 's'} read${first && first.time ? ` (${first.time}${last && last !== first && last.time !== first.time ? ` to ${last.time}` : ''})` : ''}\n`)
+  out.write(`  ${summary.recordCount} distribution${summary.recordCount === 1 ? '' : 's'} read${summary.firstTime ? ` (${summary.firstTime}${summary.lastTime !== summary.firstTime ? ` to ${summary.lastTime}` : ''})` : ''}\n`)
+  for (const l of readingLines(summary)) out.write(`  ${l}\n`)
   if (summary.recordCount === 0) out.write('  no distribution could be read\n')
   if (summary.rejectedCount > 0) {
-    out.write(`  ${summary.rejectedCount} bad row${summary.rejectedCount === 1 ? '' : 's'} or cell${summary.rejectedCount === 1 ? '' : 's'} left out:\n`)
+    out.write(`  ${summary.rowsLeftOut} row${summary.rowsLeftOut === 1 ? '' : 's'} left out (${summary.rejectedCount} bad cell${summary.rejectedCount === 1 ? '' : 's'}):\n`)
     for (const r of summary.rejected) out.write(`  line ${r.line}${r.column !== undefined ? ` column ${r.column}` : ''}: ${r.reason}\n    fix: ${r.fix}\n`)
     if (summary.rejectedCount > summary.rejected.length) out.write(`  ... and ${summary.rejectedCount - summary.rejected.length} more\n`)
   }

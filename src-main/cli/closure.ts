@@ -2,8 +2,9 @@
 // scattering and absorption coefficients.
 import { readFile } from 'node:fs/promises'
 import { basename } from 'node:path'
-import { parseSizerText, retrieveRefractiveIndex, sizerRecordToBins, type BinQuantityName, type ClosureMeasurement, type ClosureResult } from '../../src-core/index.ts'
+import { parseSizerText, retrieveRefractiveIndex, sizerRecordToBins, type ClosureMeasurement, type ClosureResult } from '../../src-core/index.ts'
 import { formatNumber, printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 
 export const closureHelp = `motebench closure: effective refractive index n + ik from a size distribution and optical measurements
   --sizer FILE          a sizer export with one distribution (.csv, .tsv or .txt; see "motebench check")
@@ -13,8 +14,7 @@ export const closureHelp = `motebench closure: effective refractive index n + ik
   --bsf LIST            hemispheric backscatter fractions, e.g. 550:0.12±0.01 (optional)
   --n-range LO:HI       real index searched (default 1.3:1.8)
   --k-range LO:HI       imaginary index searched (default 0:1)
-  --diameter-unit U     sizer file: nm or um, when the file does not say
-  --quantity Q          sizer file: what the values are (e.g. dN/dlogDp), when the file does not say
+${sizerHelp('sizer file: ')}
   --json                JSON output (includes the χ² grid)
 The particles are taken as measured (dry, homogeneous spheres) with one index at every wavelength. The fit is
 weighted least squares: a grid scan over n and log k, then Levenberg–Marquardt; uncertainties (1 sd) come
@@ -44,20 +44,12 @@ export async function runClosure(argv: string[]): Promise<number> {
     bsf: { type: 'string' },
     'n-range': { type: 'string' },
     'k-range': { type: 'string' },
-    'diameter-unit': { type: 'string' },
-    quantity: { type: 'string' },
+    ...sizerFlags,
     json: { type: 'boolean', default: false }
   })
   if (values.sizer === undefined) throw new UsageError('closure: --sizer is required, for example --sizer resources/sizer-single-comma.csv')
   if (values.sca === undefined && values.abs === undefined) throw new UsageError('closure: give --sca and/or --abs, for example --sca 550:15.2±0.8 --abs 530:3.1±0.4')
-  const unit = values['diameter-unit']
-  if (unit !== undefined && unit !== 'nm' && unit !== 'um') throw new UsageError(`closure: --diameter-unit "${unit}" is not nm or um`)
-  const table = parseSizerText(await readFile(values.sizer, 'utf8'), {
-    fileName: basename(values.sizer),
-    onBadRow: 'stop',
-    diameterUnit: unit as 'nm' | 'um' | undefined,
-    quantity: values.quantity as BinQuantityName | undefined
-  })
+  const table = parseSizerText(await readFile(values.sizer, 'utf8'), { ...readSizerFlags('closure', values), fileName: basename(values.sizer), onBadRow: 'stop' })
   if (table.records.length !== 1) throw new UsageError(`closure: ${basename(values.sizer)} holds ${table.records.length} distributions; give a file with one (e.g. cut one row out of a time series)`)
   const result = retrieveRefractiveIndex(
     {

@@ -13,10 +13,36 @@ export const EXIT_BAD_INPUT = 2
 
 type Options = NonNullable<ParseArgsConfig['options']>
 
-/** node:util parseArgs with our error wording. */
+/** A value that starts with a minus sign and then a digit or a point: "-1", "-0.5", "-.5", "-2e3", "-120nm". */
+const NEGATIVE_VALUE = /^-\.?\d/
+
+/**
+ * "--x -1" as "--x=-1": node:util parseArgs refuses a value that starts with a dash after a separate option
+ * ("argument is ambiguous"), so a negative number typed with a space would never reach the option's own range
+ * check. Joining it to a value-taking long option makes both spellings give the same message.
+ */
+export function joinNegativeValues(argv: string[], options: Options): string[] {
+  const out: string[] = []
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]
+    if (a === '--') {
+      out.push(...argv.slice(i))
+      break
+    }
+    const name = a.startsWith('--') && !a.includes('=') ? a.slice(2) : undefined
+    const next = argv[i + 1]
+    if (name !== undefined && options[name]?.type === 'string' && next !== undefined && NEGATIVE_VALUE.test(next)) {
+      out.push(`${a}=${next}`)
+      i++
+    } else out.push(a)
+  }
+  return out
+}
+
+/** node:util parseArgs with our error wording; a negative value after a separate option is read as its value. */
 export function readArgs<O extends Options>(command: string, argv: string[], options: O, allowPositionals = false) {
   try {
-    return parseArgs({ args: argv, options, allowPositionals, strict: true })
+    return parseArgs({ args: joinNegativeValues(argv, options), options, allowPositionals, strict: true })
   } catch (e) {
     throw new UsageError(`${command}: ${(e as Error).message.split('\n')[0]} (see "motebench help ${command}")`)
   }

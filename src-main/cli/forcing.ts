@@ -1,21 +1,26 @@
 // motebench forcing: direct-forcing estimate of a uniform aerosol layer from its optical figures.
-import { forcingVerdict, InputError, SOLAR_CONSTANT_WM2, thinLayerForcing, twoStreamForcing } from '../../src-core/index.ts'
+import { asymmetryFromUpscatter, forcingVerdict, InputError, SOLAR_CONSTANT_WM2, thinLayerCheck, thinLayerForcing, twoStreamEquivalentUpscatter, twoStreamForcing } from '../../src-core/index.ts'
 import { need, printJson, readArgs, readNumber, UsageError } from './common.ts'
 
 export const forcingHelp = `motebench forcing: global-mean direct forcing of a uniform aerosol layer, and whether it cools or warms
   --tau T               optical depth of the layer (at 550 nm), 0 to 10
   --ssa W               single-scattering albedo ω, 0 to 1
-  --upscatter B         mean upscatter fraction β̄, 0 to 1 (thin-layer estimate, Chylek & Wong 1995)
+  --upscatter B         mean upscatter fraction β̄, 0 to 1 (thin-layer estimate, Chylek & Wong 1995); with
+                        --two-stream optional: the layer then scatters that share upward too, so that both
+                        methods assume the same scattering (without it, the delta-Eddington phase function's own)
   --surface-albedo R    surface albedo, 0 to 1
   --cloud C             cloud fraction (the cloudy part is taken as unforced), default 0.6
   --transmittance T     one-way transmittance of the air above the layer, default 0.76
   --two-stream          use the delta-Eddington two-stream layer instead (needs --g; incident flux S₀/4)
-  --g G                 asymmetry parameter, 0 to 0.99 (with --two-stream)
+  --g G                 asymmetry parameter, 0 to 0.99 (needed with --two-stream; for the thin-layer estimate it only
+                        sets the two-stream layer it is checked against, default the g that implies β̄)
   --cos-zenith M        cosine of the sun's zenith angle for --two-stream, default 0.5
   --margin M            |forcing| below M W m⁻² is "too close to call", default 0.5
-  --json                JSON output: forcing_w_m2, efficiency_w_m2_per_tau, critical_ssa, verdict, caution
-                        (and toa_w_m2, surface_w_m2, atmosphere_w_m2 with --two-stream)
-A negative forcing cools. This is a first-order screening estimate, not a climate projection.`
+  --json                JSON output: method, forcing_w_m2, efficiency_w_m2_per_tau, critical_ssa, verdict, upscatter
+                        and upscatter_source (the scattering the method assumed), warnings, caution (and toa_w_m2,
+                        surface_w_m2, atmosphere_w_m2 with --two-stream; two_stream_w_m2 without)
+A negative forcing cools. The thin-layer estimate is checked against the two-stream layer with the same β̄: where
+they differ by more than 10 % it carries a warning. This is a first-order screening estimate, not a climate projection.`
 
 /** The core's parameter names as the options a person typed. */
 const FLAG_OF: Record<string, string> = {
@@ -69,8 +74,10 @@ function forcing(argv: string[]): number {
   let result: Record<string, unknown>
   if (!twoStream) {
     const upscatter = readNumber(need(values.upscatter, 'forcing', '--upscatter', '--upscatter 0.24 (or --two-stream with --g)'), '--upscatter')
+    const asymmetry = values.g === undefined ? undefined : readNumber(values.g, '--g')
     const thin = thinLayerForcing({ tau, omega, upscatter, surfaceAlbedo, ...common })
     const v = forcingVerdict({ tau, omega, upscatter, surfaceAlbedo, ...common, marginWm2, method: 'thin-layer' })
+    const check = thinLayerCheck({ tau, omega, upscatter, surfaceAlbedo, asymmetry, ...common, marginWm2 })
     result = {
       method: 'thin-layer',
       forcing_w_m2: thin.forcingWm2,
@@ -79,16 +86,23 @@ function forcing(argv: string[]): number {
       flip_surface_albedo: thin.flipSurfaceAlbedo,
       verdict: v.verdict,
       margin_w_m2: v.marginWm2,
+      upscatter,
+      upscatter_source: 'given (--upscatter)',
+      two_stream_w_m2: check.twoStreamWm2,
       explanation: v.explanation,
+      warnings: check.warning ? [`${check.warning} For it: motebench forcing --two-stream --g G --upscatter ${upscatter} (g = ${Number(check.asymmetry.toPrecision(3))} implies this β̄; give the layer's own).`] : [],
       caution: v.caution
     }
   } else {
     const asymmetry = readNumber(need(values.g, 'forcing', '--g', '--g 0.65 (the asymmetry parameter, with --two-stream)'), '--g')
     const cosZenith = readNumber(values['cos-zenith'], '--cos-zenith', 0.5)
-    const two = twoStreamForcing({ tau, omega, asymmetry, cosZenith, surfaceAlbedo, incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4, ...common })
-    const v = forcingVerdict({ tau, omega, asymmetry, cosZenith, surfaceAlbedo, ...common, marginWm2, method: 'two-stream' })
+    const upscatter = values.upscatter === undefined ? undefined : readNumber(values.upscatter, '--upscatter')
+    const two = twoStreamForcing({ tau, omega, asymmetry, upscatter, cosZenith, surfaceAlbedo, incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4, ...common })
+    const v = forcingVerdict({ tau, omega, asymmetry, upscatter, cosZenith, surfaceAlbedo, ...common, marginWm2, method: 'two-stream' })
     result = {
       method: 'two-stream',
+      upscatter: upscatter ?? twoStreamEquivalentUpscatter(asymmetry, cosZenith),
+      upscatter_source: upscatter === undefined ? `delta-Eddington phase function with g = ${asymmetry} at μ₀ = ${cosZenith} (thin limit)` : 'given (--upscatter)',
       forcing_w_m2: two.toaWm2,
       efficiency_w_m2_per_tau: tau > 0 ? two.toaWm2 / tau : null,
       critical_ssa: v.omegaCritical,
@@ -99,6 +113,7 @@ function forcing(argv: string[]): number {
       verdict: v.verdict,
       margin_w_m2: v.marginWm2,
       explanation: v.explanation,
+      warnings: [],
       caution: v.caution
     }
   }
@@ -112,6 +127,10 @@ function forcing(argv: string[]): number {
   out.write(`forcing ${f(result.forcing_w_m2)} W/m² (${result.method === 'two-stream' ? 'delta-Eddington two-stream, top of atmosphere' : 'thin-layer estimate, Chylek & Wong 1995'}), efficiency ${f(result.efficiency_w_m2_per_tau)} W/m² per unit τ\n`)
   if (twoStream) out.write(`surface ${f(result.surface_w_m2)} W/m², absorbed in the layer ${f(result.atmosphere_w_m2)} W/m²\n`)
   out.write(`critical single-scattering albedo ${f(result.critical_ssa)} (the layer cools above it)\n`)
-  out.write(`${result.explanation}\n${result.caution}\n`)
+  out.write(`upscatter fraction ${f(result.upscatter)}: ${result.upscatter_source}\n`)
+  if (!twoStream) out.write(`two-stream layer with the same upscatter: ${f(result.two_stream_w_m2)} W/m²\n`)
+  out.write(`${result.explanation}\n`)
+  for (const w of result.warnings as string[]) out.write(`warning: ${w}\n`)
+  out.write(`${result.caution}\n`)
   return 0
 }

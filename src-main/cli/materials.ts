@@ -1,5 +1,5 @@
 // motebench materials and motebench material NAME: the component catalogue, and one component at one wavelength.
-import { listMaterials, parseLength, refractiveIndexAt, type Material } from '../../src-core/index.ts'
+import { indexSourceAt, listMaterials, parseLength, refractiveIndexAt, type Material } from '../../src-core/index.ts'
 import { printJson, printTable, readArgs, UsageError } from './common.ts'
 
 export const materialsHelp = `motebench materials: lists the built-in components
@@ -8,7 +8,8 @@ export const materialsHelp = `motebench materials: lists the built-in components
 
 export const materialHelp = `motebench material NAME: one component's refractive index and properties at one wavelength
   NAME                  a catalogue id (see "motebench materials"), e.g. ammonium-sulfate, or its name
-  --wavelength L        wavelength with a unit, e.g. 550nm or 0.55um (required)
+  --wavelength L        wavelength with a unit, e.g. 550nm, 0.55um or 10um (required); within the component's
+                        tabulated range (see "motebench materials"; 0.2 to 40 µm or more for the catalogue)
   --json                JSON output: {n, k, density (g cm⁻³), kappa, source (of the refractive index)}`
 
 /** Wavelength range of a component in nm (null at an open end). */
@@ -45,18 +46,6 @@ export function findMaterial(name: string): Material {
   const m = all.find((c) => c.id === lower) ?? all.find((c) => c.name.toLowerCase() === lower)
   if (!m) throw new UsageError(`material: "${name}" is not in the catalogue; known: ${all.map((c) => c.id).join(', ')}`)
   return m
-}
-
-/** Where the refractive index at this wavelength comes from: the table rows around it, or the entry's source. */
-function indexSourceAt(m: Material, wavelengthUm: number): string {
-  const idx = m.index
-  if (idx.kind !== 'table') return m.sources.index
-  const w = idx.wavelengthsUm
-  let hi = w.findIndex((x) => x >= wavelengthUm)
-  if (hi < 0) hi = w.length - 1
-  const lo = w[hi] === wavelengthUm || hi === 0 ? hi : hi - 1
-  const list = [...new Set([idx.sources[lo], idx.sources[hi]])]
-  return list.join(' / ')
 }
 
 export function runMaterial(argv: string[]): number {

@@ -16,7 +16,8 @@ export const populationHelp = `motebench population: bulk optics of a particle p
   --tolerance T         relative accuracy of the size integration (default 1e-4)
   --json                JSON output: number_cm3, volume_um3_cm3 (dry), mass_ug_m3 (dry), angstrom_ext, angstrom_sca,
                         angstrom_abs and wavelengths: [{wavelength_nm, ext, sca, abs (Mm⁻¹), ssa, g,
-                        backscatter_fraction, upscatter_fraction}]`
+                        backscatter_fraction, upscatter_fraction}], warnings (figures outside their method's range;
+                        empty when there is nothing to say)`
 
 /** "1000,0.12um,1.8" as a mode by number. */
 function readMode(text: string): ModeSpec {
@@ -102,7 +103,8 @@ export function runPopulation(argv: string[]): number {
       angstrom_ext: a.ext,
       angstrom_sca: a.sca,
       angstrom_abs: a.abs,
-      wavelengths: rows
+      wavelengths: rows,
+      warnings: optics.warnings
     })
     return 0
   }
@@ -115,5 +117,6 @@ export function runPopulation(argv: string[]): number {
   ])
   const ang = (v: number) => (Number.isFinite(v) ? formatNumber(v) : '—')
   out.write(`\nÅngström exponents (fit over all wavelengths): extinction ${ang(a.ext)}, scattering ${ang(a.sca)}, absorption ${ang(a.abs)}\n`)
+  for (const w of optics.warnings) out.write(`warning: ${w}\n`)
   return 0
 }

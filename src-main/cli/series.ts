@@ -12,13 +12,11 @@ import { basename } from 'node:path'
 import type { Readable } from 'node:stream'
 import type { Worker } from 'node:worker_threads'
 import {
-  BIN_QUANTITIES,
   createSizerReader,
   dryIndicesAt,
   InputError,
   resolveComposition,
   studyMaterials,
-  type BinQuantityName,
   type SizerHeader,
   type SizerOptions,
   type SizerRejection
@@ -26,9 +24,11 @@ import {
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
+import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
+import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp, type SeriesExtra } from './series-optical.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
   SIZER                 sizer export with one row per time and one column per bin (.csv, .tsv or .txt)
@@ -41,12 +41,13 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
                         one fewer than the processors, at least 1: ${Math.max(1, availableParallelism() - 1)} here)
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are
                         integrated once and every row is a weighted sum of them
-  --diameter-unit U     nm or um, when the file does not say
-  --quantity Q          ${BIN_QUANTITIES.join(', ')}, when the file does not say
+${sizerHelp()}
+${seriesOpticalHelp}
   --shard K/N           only the K-th of N contiguous parts of the file's lines (rows in one time per row
                         files); the output starts with a shard line, and "motebench join" puts the parts together
-Output: CSV with time, then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
-(µm³ cm⁻³) and mass (µg m⁻³). A summary goes to standard error; a progress bar too when it is a terminal.
+Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
+(µm³ cm⁻³) and mass (µg m⁻³); with measured files, their columns after these (the "#" lines that open the
+file say how they were made comparable). A summary goes to standard error; a progress bar too when it is a terminal.
 Exit status 0, 1 when rows were skipped, 2 for bad input.`
 
 /**
@@ -73,7 +74,7 @@ export interface SeriesRunOptions extends SeriesSetup {
    */
   lines: AsyncIterable<string | readonly string[]>
   fileName: string
-  sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout'>
+  sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout' | 'negatives' | 'dateOrder' | 'year'>
   onBadRow: 'skip' | 'stop'
   workers: number
   output: SeriesOutput
@@ -83,6 +84,8 @@ export interface SeriesRunOptions extends SeriesSetup {
   onTick?: () => void
   /** A shard: only the rows on these lines (1-based, inclusive), after this line written first. */
   shard?: { firstLine: number; lastLine: number; line: string }
+  /** Extra cells after each row's figures (measured optical instruments beside the sizer; series-optical.ts). */
+  extra?: SeriesExtra
 }
 
 export interface SkippedRow {
@@ -101,6 +104,8 @@ export interface SeriesSummary {
   rowsSkippedByOptics: number
   /** First KEPT_REASONS reasons, by line. */
   skipped: SkippedRow[]
+  /** With --negatives zero: the cells set to 0 and the rows that had any. */
+  negativesZeroed: { cells: number; rows: number }
   workers: number
   tolerance: number
   seconds: number
@@ -120,6 +125,32 @@ interface Block {
   times: string[]
   lines: number[]
   values: Float64Array
+  /** With `extra`: each row's extra cells, computed on the main thread when the row is read. */
+  extras?: Float64Array[]
+}
+
+/**
+ * A block's CSV text with each written row's extra cells appended (rows are one line each, in order, without the
+ * failed ones); the failures' offsets are moved to match. Calls `written` for every row of the text.
+ */
+function appendExtras(r: { text: string; failures: { index: number; at: number }[] }, extras: Float64Array[], written: (cells: Float64Array) => void): { text: string; at: number[] } {
+  const rows = r.text.split('\n')
+  rows.pop() // after the last line break
+  const failed = new Set(r.failures.map((f) => f.index))
+  let out = ''
+  let row = 0
+  const at: number[] = []
+  let f = 0
+  for (let i = 0; i < extras.length; i++) {
+    if (failed.has(i)) {
+      at[f++] = out.length
+      continue
+    }
+    if (row >= rows.length) break
+    out += rows[row++] + ',' + Array.from(extras[i], csvCell).join(',') + '\n'
+    written(extras[i])
+  }
+  return { text: out, at }
 }
 
 /** Runs the series machinery: reads `lines`, computes in worker threads, writes CSV rows in input order. */
@@ -134,8 +165,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const queue: Block[] = []
   /** Line numbers of the blocks sent and not yet written, by block. */
   const blockLines = new Map<number, number[]>()
+  const blockExtras = new Map<number, Float64Array[]>()
   const done = new Map<number, Extract<FromWorker, { type: 'block' }>>()
   let bins = 0
+  let layoutForExtra: BinLayout | undefined
   let current: Block | undefined
   let nextId = 0
   let nextWrite = 0
@@ -168,6 +201,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       const b = queue.shift()!
       best.inFlight++
       blockLines.set(b.id, b.lines)
+      if (b.extras) blockExtras.set(b.id, b.extras)
       best.worker.postMessage({ type: 'block', id: b.id, times: b.times, values: b.values, bins } satisfies ToWorker, [b.values.buffer as ArrayBuffer])
     }
   }
@@ -190,11 +224,19 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   /** Takes every finished block that is next in input order; writes once a megabyte of text is gathered. */
   const flush = (): void => {
     while (done.has(nextWrite) && !failure) {
-      const r = done.get(nextWrite)!
+      let r = done.get(nextWrite)!
       const lines = blockLines.get(nextWrite)!
+      const extras = blockExtras.get(nextWrite)
       done.delete(nextWrite)
       blockLines.delete(nextWrite)
+      blockExtras.delete(nextWrite)
       nextWrite++
+      if (extras) {
+        // the failures' offsets move with the extra cells; rows after a stopping failure are not counted as written
+        const stopAt = o.onBadRow === 'stop' || r.failures.some((f) => f.internal) ? (r.failures[0]?.index ?? Infinity) : Infinity
+        const x = appendExtras(r, extras.slice(0, Math.min(extras.length, stopAt)), o.extra!.written)
+        r = { ...r, text: x.text, failures: r.failures.map((f, k) => ({ ...f, at: x.at[k] ?? x.text.length })) }
+      }
       for (let k = 0; k < r.failures.length; k++) {
         const f = r.failures[k]
         const line = lines[f.index]
@@ -255,8 +297,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
         for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
         bins = h.edges ? h.diameters.length - 1 : h.diameters.length
+        layoutForExtra = layout
       }
-      if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins) }
+      if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins), extras: o.extra ? [] : undefined }
+      current.extras?.push(o.extra!.cells(record.time, record.values, layoutForExtra!))
       current.values.set(record.values, current.times.length * bins)
       current.times.push(record.time)
       current.lines.push(record.line)
@@ -267,22 +311,16 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     }
   })
 
-  // Non-blank line numbers seen early, to count the data rows after the header once it is known.
-  const earlyNonBlank: number[] = []
-  let nonBlank = 0
   let lineNo = 0
   let shardRecords = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
-    await o.output.write((o.shard?.line ?? '') + seriesColumns(o.wavelengthsNm).map(csvCell).join(',') + '\n')
+    const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
+    await o.output.write((o.shard?.line ?? '') + comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n')
     const take = (line: string): void => {
       lineNo++
       // a shard: lines before its part are blank once the header is known; after its part the reading stops
       if (o.shard && lineNo < o.shard.firstLine && reader.header) line = ''
-      if (line.trim() !== '' && (!o.shard || (lineNo >= o.shard.firstLine && lineNo <= o.shard.lastLine))) {
-        nonBlank++
-        if (earlyNonBlank.length < 5000) earlyNonBlank.push(lineNo)
-      }
       reader.push(line)
     }
     const last = o.shard?.lastLine ?? Infinity
@@ -314,8 +352,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     const h = end
     let readerSkipped: number
     if (h.layout === 'time-rows') {
-      const beforeData = earlyNonBlank.filter((l) => l <= h.headerLine).length
-      readerSkipped = Math.max(0, nonBlank - beforeData - (o.shard ? shardRecords : end.recordCount))
+      // a shard: the rows left out on its own lines (of those the reader kept the reasons for)
+      readerSkipped = o.shard ? new Set(end.rejected.filter((r) => r.line >= o.shard!.firstLine && r.line <= o.shard!.lastLine).map((r) => r.line)).size : end.rowsLeftOut
     } else {
       readerSkipped = new Set(end.rejected.map((r) => r.line)).size
     }
@@ -329,6 +367,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       rowsSkippedByReader: readerSkipped,
       rowsSkippedByOptics: opticsSkipCount,
       skipped: skipped.slice(0, KEPT_REASONS),
+      negativesZeroed: end.negativesZeroed,
       workers: o.workers,
       tolerance: o.tolerance,
       seconds: (performance.now() - started) / 1000
@@ -419,6 +458,7 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
       (skipped > 0 ? ` (${s.rowsSkippedByReader} with bad cells, ${s.rowsSkippedByOptics} whose distribution the optics could not use)` : ''),
     `  ${s.header.diameters.length - (s.header.edges ? 1 : 0)} bins (${s.header.quantity}), ${wavelengths} wavelength${wavelengths === 1 ? '' : 's'}; size-integration tolerance ${s.tolerance} (relative); ${s.workers} worker${s.workers === 1 ? '' : 's'}; ${s.seconds.toFixed(1)} s`
   ]
+  for (const l of readingLines({ ...s.header, negativesZeroed: s.negativesZeroed })) lines.push(`  ${l}`)
   const show = s.skipped.slice(0, 20)
   for (const r of show) lines.push(`  line ${r.line}${r.column !== undefined ? ` column ${r.column}` : ''}: ${r.reason}${r.fix ? `\n    fix: ${r.fix}` : ''}`)
   if (s.skipped.length > show.length) lines.push(`  ... and ${s.skipped.length - show.length} more reasons not shown`)
@@ -456,8 +496,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       'on-bad-row': { type: 'string' },
       workers: { type: 'string' },
       tolerance: { type: 'string' },
-      'diameter-unit': { type: 'string' },
-      quantity: { type: 'string' },
+      ...sizerFlags,
+      ...SERIES_OPTICAL_OPTIONS,
       shard: { type: 'string' }
     },
     true
@@ -470,22 +510,18 @@ export async function runSeries(argv: string[]): Promise<number> {
   if (policy !== 'skip' && policy !== 'stop') throw new UsageError(`series: --on-bad-row "${policy}" is not skip or stop`)
   const workers = readInteger(values.workers, '--workers', 1, 64, Math.max(1, availableParallelism() - 1))
   const tolerance = readTolerance(values.tolerance, 1e-4)
-  const sizer: SeriesRunOptions['sizer'] = {}
-  if (values['diameter-unit'] !== undefined) {
-    const u = values['diameter-unit'].replace(/[µμ]m/, 'um')
-    if (u !== 'nm' && u !== 'um') throw new UsageError(`series: --diameter-unit "${values['diameter-unit']}" is not nm or um`)
-    sizer.diameterUnit = u
-  }
-  if (values.quantity !== undefined) {
-    if (!(BIN_QUANTITIES as readonly string[]).includes(values.quantity)) throw new UsageError(`series: --quantity "${values.quantity}" is not one of ${BIN_QUANTITIES.join(', ')}`)
-    sizer.quantity = values.quantity as BinQuantityName
-  }
+  const sizer: SeriesRunOptions['sizer'] = readSizerFlags('series', values)
+
 
   const { study } = await loadStudyFile(values.study)
   const { sample } = findSample(study, values.sample, 'series')
-  const wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
-  // Check the composition at every wavelength here, so a bad one is one clear message rather than one per row.
+  let wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
   const userMaterials = study.user_materials ?? []
+  // Measured optical instruments beside the sizer: read and averaged onto the sizer rows before the run; the
+  // figures are computed at their wavelengths too.
+  const optical = await prepareSeriesOptical(values, { sizerPath: file, sizer, sample, userMaterials, tolerance })
+  if (optical) wavelengthsNm = [...new Set([...wavelengthsNm, ...optical.wavelengthsNm])].sort((a, b) => a - b)
+  // Check the composition at every wavelength here, so a bad one is one clear message rather than one per row.
   const own = studyMaterials({ user_materials: userMaterials, wavelengths_nm: wavelengthsNm })
   const kind = resolveComposition(sample.composition, own, `sample "${sample.name}"`)
   for (const w of wavelengthsNm) dryIndicesAt(kind, w / 1000)
@@ -494,6 +530,7 @@ export async function runSeries(argv: string[]): Promise<number> {
   const shardOf = readShard(values.shard, 'series')
   let shard: SeriesRunOptions['shard']
   if (shardOf) {
+    if (optical) throw new UsageError('series: --shard does not take the measured instruments (--scattering, --absorption) yet; run the comparison whole')
     const [from, to] = shardRange(await countLines(file), shardOf)
     const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy }
     // the last part takes every line after its first (whatever the count missed)
@@ -518,6 +555,7 @@ export async function runSeries(argv: string[]): Promise<number> {
       onBadRow: policy,
       workers,
       output: target ? target.output : stdoutOutput,
+      extra: optical?.extra,
       onProgress: bar ? (n) => bar.update(n) : undefined,
       shard
     })
@@ -529,6 +567,6 @@ export async function runSeries(argv: string[]): Promise<number> {
     bar?.clear()
     stream.destroy()
   }
-  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length))
+  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
   return summary.rowsSkippedByReader + summary.rowsSkippedByOptics > 0 ? EXIT_SKIPPED : EXIT_OK
 }

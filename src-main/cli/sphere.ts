@@ -39,6 +39,7 @@ export function runSphere(argv: string[]): number {
   if (values.m === undefined) throw new UsageError('sphere: --m is required, for example --m 1.5+1i')
   const m = parseComplexIndex(values.m, '--m')
   const medium = readNumber(values.medium, '--medium', 1)
+  if (!(medium > 0 && medium <= 10)) throw new UsageError(`--medium: ${medium} is not the real index of a medium; give a value from above 0 to 10, e.g. 1.33 for water`)
   let x: number
   if (values.x !== undefined) {
     if (values.diameter !== undefined || values.wavelength !== undefined) throw new UsageError('sphere: give either --x or --diameter with --wavelength, not both')

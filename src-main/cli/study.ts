@@ -1,15 +1,20 @@
 // motebench study FILE.mote: every sample's bulk optics, derived figures, forcing and verdict.
-import { evaluateStudy, FORCING_CAUTION, type SampleResult, type Study } from '../../src-core/index.ts'
+import { evaluateStudy, FORCING_CAUTION, sampleWarnings, withheldText, type SampleResult, type Study } from '../../src-core/index.ts'
 import { loadStudyFile, saveTextAtomically } from '../files.ts'
 import { csvLine, findSample, formatNumber, readArgs, readTolerance, UsageError } from './common.ts'
 
 export const studyHelp = `motebench study FILE.mote: evaluates a study: every sample's optics at every wavelength, its figures and forcing
   FILE                  a study file (.mote); "motebench demo" writes an example
-  --format F            text (default), json or csv (one row per sample and wavelength, units in the column names)
+  --format F            text (default), json or csv (one row per sample and wavelength, units in the column names);
+                        a figure with no meaning (absorption Ångström exponent of too little absorption, visual range
+                        and haze index outside 400–700 nm or below the haze scale's zero) is — in text, empty in
+                        CSV and null in JSON, its reason in the withheld column / field
   --json                the same as --format json
   --out FILE            write to FILE (complete or not at all) instead of standard output
   --sample NAME         only this sample (repeat for more)
   --tolerance T         relative accuracy of the size integration (default 1e-4)
+Each sample's warnings (figures outside their method's range) are printed under it, listed as "warnings" in the
+JSON (per sample) and joined by " | " in the CSV's last column, "warnings" (empty when there is nothing to say).
 Exit status 0, or 2 when the study has problems (each is listed with its place and fix).`
 
 /** CSV columns: per-wavelength figures, then the sample's figures, then its forcing (repeated on each of its rows). */
@@ -33,7 +38,8 @@ const WAVELENGTH_COLUMNS = [
   'optical_depth',
   'rayleigh_sca_sea_level_Mm-1',
   'visual_range_km',
-  'haze_index_dv'
+  'haze_index_dv',
+  'withheld'
 ]
 const SAMPLE_COLUMNS = [
   'number_cm-3',
@@ -48,7 +54,8 @@ const SAMPLE_COLUMNS = [
   'angstrom_ext',
   'angstrom_sca',
   'angstrom_abs',
-  'layer_depth_m'
+  'layer_depth_m',
+  'angstrom_abs_withheld'
 ]
 const FORCING_COLUMNS = [
   'tau_550',
@@ -69,10 +76,14 @@ const FORCING_COLUMNS = [
   'verdict',
   'verdict_margin_W_m-2'
 ]
+/** The last column: the sample's warnings (figures outside their method's range), joined by " | "; empty when none. */
+const WARNINGS_COLUMN = 'warnings'
 
 export function studyCsv(results: SampleResult[]): string {
-  let text = csvLine(['sample', ...WAVELENGTH_COLUMNS, ...SAMPLE_COLUMNS, ...FORCING_COLUMNS])
-  for (const { optics: o, forcing: f } of results) {
+  let text = csvLine(['sample', ...WAVELENGTH_COLUMNS, ...SAMPLE_COLUMNS, ...FORCING_COLUMNS, WARNINGS_COLUMN])
+  for (const r of results) {
+    const { optics: o, forcing: f } = r
+    const warnings = sampleWarnings(r).join(' | ')
     const sampleCells = [
       o.number_cm3,
       o.surface_um2_cm3,
@@ -86,7 +97,8 @@ export function studyCsv(results: SampleResult[]): string {
       o.angstrom_fit.ext,
       o.angstrom_fit.sca,
       o.angstrom_fit.abs,
-      o.layer_depth_m
+      o.layer_depth_m,
+      o.angstrom_fit.withheld?.abs ?? ''
     ]
     const t = f.two_stream
     const forcingCells = [
@@ -129,9 +141,10 @@ export function studyCsv(results: SampleResult[]): string {
         w.optical_depth,
         w.rayleigh_sca,
         w.visual_range_km,
-        w.deciview
+        w.deciview,
+        withheldText(w)
       ]
-      text += csvLine([o.name, ...cells, ...sampleCells, ...forcingCells])
+      text += csvLine([o.name, ...cells, ...sampleCells, ...forcingCells, warnings])
     }
   }
   return text
@@ -145,7 +158,7 @@ function studyJson(file: string, study: Study, results: SampleResult[], version:
     wavelengths_nm: study.wavelengths_nm,
     site: study.site,
     warnings,
-    samples: results.map((r) => ({ name: r.optics.name, optics: r.optics, forcing: r.forcing, humidity_growth: r.humidity })),
+    samples: results.map((r) => ({ name: r.optics.name, warnings: sampleWarnings(r), optics: r.optics, forcing: r.forcing, humidity_growth: r.humidity })),
     caution: FORCING_CAUTION
   }
   return JSON.stringify(body, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2) + '\n'
@@ -153,18 +166,22 @@ function studyJson(file: string, study: Study, results: SampleResult[], version:
 
 function studyText(study: Study, results: SampleResult[]): string {
   const lines: string[] = []
-  const f = (v: number) => formatNumber(v)
+  const f = (v: number) => (Number.isNaN(v) ? '—' : formatNumber(v))
   lines.push(`${study.name}: ${results.length} sample${results.length === 1 ? '' : 's'}, site ${study.site.name ?? 'unnamed'}`)
-  for (const { optics: o, forcing: fc } of results) {
+  for (const r of results) {
+    const { optics: o, forcing: fc } = r
     lines.push('', `${o.name}`)
     const rows: (string | number)[][] = [['λ nm', 'ext Mm⁻¹', 'sca Mm⁻¹', 'abs Mm⁻¹', 'ssa', 'g', 'upscatter', 'optical depth', 'visual range km']]
     for (const w of o.wavelengths) rows.push([w.wavelength_nm, w.ext, w.sca, w.abs, w.ssa, w.g, w.upscatter_fraction, w.optical_depth, w.visual_range_km])
     const cells = rows.map((r) => r.map((c) => (typeof c === 'number' ? f(c) : c)))
     const widths = cells[0].map((_, j) => Math.max(...cells.map((r) => r[j].length)))
     for (const r of cells) lines.push('  ' + r.map((c, j) => c.padEnd(widths[j])).join('  ').trimEnd())
+    for (const w of o.wavelengths) if (withheldText(w)) lines.push(`  not given at ${w.wavelength_nm} nm (no meaning there): ${withheldText(w)}`)
+    if (o.angstrom_fit.withheld?.abs) lines.push(`  absorption Ångström exponent not given: ${o.angstrom_fit.withheld.abs}`)
     lines.push(`  dry number ${f(o.number_cm3)} cm⁻³, dry mass ${f(o.mass_ug_m3)} µg/m³, PM2.5 ${f(o.pm2_5_ug_m3)} µg/m³; Ångström exponents ext ${f(o.angstrom_fit.ext)}, sca ${f(o.angstrom_fit.sca)}, abs ${f(o.angstrom_fit.abs)}`)
     lines.push(`  forcing: ${fc.verdict}; thin-layer ${f(fc.thin_layer_w_m2)} W/m², spectral ${f(fc.spectral_w_m2)} W/m², site daily mean ${f(fc.daily_mean_w_m2)} W/m², two-stream ${f(fc.two_stream.toa_w_m2)} W/m²`)
     lines.push(`  ${fc.explanation}`)
+    for (const w of sampleWarnings(r)) lines.push(`  warning: ${w}`)
   }
   lines.push('', FORCING_CAUTION)
   return lines.join('\n') + '\n'

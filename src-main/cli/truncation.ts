@@ -14,12 +14,14 @@ import {
   type Study
 } from '../../src-core/index.ts'
 import { printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 
 export const truncationHelp = `motebench truncation: nephelometer truncation correction C = σ_true/σ_measured
   --study FILE.mote     the particles: a sample of a study (with --sample NAME), at its composition
   --sample NAME
   --sizer FILE          or a sizer export with one distribution (dry homogeneous spheres of index --m)
   --m N+Ki              refractive index of the sizer's particles, e.g. 1.53+0.01i
+${sizerHelp('sizer file: ')}
   --wavelength L        nephelometer channel, e.g. 550nm (a bare number is in nm)
   --angles A:B          angles the instrument sees, degrees (default 7:170)
   --response LIST       non-ideal angular sensitivity relative to sin θ, ANGLE:WEIGHT pairs covering the
@@ -39,6 +41,7 @@ export async function runTruncation(argv: string[]): Promise<number> {
     angles: { type: 'string' },
     response: { type: 'string' },
     rh: { type: 'string' },
+    ...sizerFlags,
     json: { type: 'boolean', default: false }
   })
   if (values.wavelength === undefined) throw new UsageError('truncation: --wavelength is required, for example --wavelength 550nm')
@@ -68,7 +71,7 @@ export async function runTruncation(argv: string[]): Promise<number> {
   } else {
     if (values.sizer === undefined || values.m === undefined) throw new UsageError('truncation: give --study FILE.mote --sample NAME, or --sizer FILE --m N+Ki')
     const m = parseComplexIndex(values.m, '--m')
-    const table = parseSizerText(await readFile(values.sizer, 'utf8'), { fileName: basename(values.sizer), onBadRow: 'stop' })
+    const table = parseSizerText(await readFile(values.sizer, 'utf8'), { ...readSizerFlags('truncation', values), fileName: basename(values.sizer), onBadRow: 'stop' })
     if (table.records.length !== 1) throw new UsageError(`truncation: ${basename(values.sizer)} holds ${table.records.length} distributions; give a file with one`)
     study = { user_materials: [{ id: 'sizer-particles', name: 'particles of the sizer file', index: { kind: 'constant', n: m.n, k: m.k }, density_g_cm3: 1, kappa: 0 }] }
     sample = {

@@ -5,7 +5,7 @@ import { useEffect, useRef } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
 import { host } from '../host/index.ts'
-import { fileStem } from '../format.ts'
+import { fileStem, minus } from '../format.ts'
 import { DashSwatch } from './DashSwatch.tsx'
 import type { Theme } from './palette.ts'
 
@@ -61,9 +61,9 @@ function tick(v: number | null): string {
   if (v === null || !Number.isFinite(v)) return ''
   const a = Math.abs(v)
   if (a === 0) return '0'
-  if (a >= 1e5 || a < 1e-3) return v.toExponential(0).replace('e+', 'e')
-  if (a >= 1e4) return `${Number((v / 1000).toPrecision(3))}k`
-  return String(Number(v.toPrecision(4)))
+  if (a >= 1e5 || a < 1e-3) return minus(v.toExponential(0).replace('e+', 'e'))
+  if (a >= 1e4) return minus(`${Number((v / 1000).toPrecision(3))}k`)
+  return minus(String(Number(v.toPrecision(4))))
 }
 
 const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'

@@ -171,7 +171,7 @@ self.onmessage = (e: MessageEvent<ToTools>) => {
     else if (m.type === 'closure') closure(m)
     else if (m.type === 'truncation') truncation(m)
     else if (m.type === 'sample-index') post({ type: 'sample-index', run: m.run, indices: sampleIndices(m.sample, m.userMaterials, m.wavelengths) })
-    else if (m.type === 'rebin') post({ type: 'rebin', run: m.run, result: rebinOpcEdges(m.edges, m.index, { wavelengthNm: m.wavelengthNm, lowDeg: m.lowDeg, highDeg: m.highDeg, calibrationIndex: m.calibration }) })
+    else if (m.type === 'rebin') post({ type: 'rebin', run: m.run, result: rebinOpcEdges(m.edges, m.index, { wavelengthNm: m.wavelengthNm, lowDeg: m.lowDeg, highDeg: m.highDeg, calibrationIndex: m.calibration }, { curve: true }) })
   } catch (err) {
     post({ type: 'failed', run: m.run, problem: problemOf(err) })
   }

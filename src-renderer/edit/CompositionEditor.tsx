@@ -3,7 +3,7 @@
 import { listMaterials, type Composition, type MixingName, type Sample, type UserMaterialSpec } from '../../src-core/index.ts'
 import { num } from '../format.ts'
 import { editSample } from '../state/actions.ts'
-import { ErrorRow, Field, problemAt, readNumber, readOptional } from './Field.tsx'
+import { ErrorRow, Field, problemAt, readFraction, readOptional } from './Field.tsx'
 import { Fragment } from 'preact'
 
 const MIXING: { id: MixingName; label: string; help: string }[] = [
@@ -32,6 +32,19 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
       if (cc) f(cc)
     }, key && `${base}.${key}`)
   const mixing = MIXING.find((m) => m.id === c.mixing)
+  /** Swaps component j with its neighbour; the focus follows the moved component's button. */
+  const move = (j: number, by: -1 | 1) => {
+    const to = j + by
+    if (to < 0 || to >= c.components.length) return
+    change((cc) => void ([cc.components[j], cc.components[to]] = [cc.components[to], cc.components[j]]))
+    const dir = by < 0 ? 'up' : 'down'
+    requestAnimationFrame(() => {
+      const next = document.querySelector<HTMLButtonElement>(`[data-move="${base}.components[${to}]:${dir}"]`)
+      ;(next && !next.disabled ? next : document.querySelector<HTMLButtonElement>(`[data-move="${base}.components[${to}]:${dir === 'up' ? 'down' : 'up'}"]`))?.focus()
+    })
+  }
+  /** What the rule makes of component j: the core and the shell, the host and the inclusions. */
+  const role = (j: number) => (c.mixing === 'core-shell' ? (j === 0 ? 'core' : 'shell') : c.mixing === 'maxwell-garnett' && c.components.length > 1 ? (j === 0 ? 'host' : 'inclusion') : null)
   return (
     <div class="composition">
       <table class="grid-table comp-table">
@@ -39,9 +52,9 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
         <thead>
           <tr>
             <th scope="col">Component{c.mixing === 'core-shell' ? ' (first = core)' : c.mixing === 'maxwell-garnett' ? ' (first = host)' : ''}</th>
-            <th scope="col" title="Volume fraction of the dry particle (0–1); the fractions add up to 1">Volume fraction</th>
+            <th scope="col" title="Volume fraction of the dry particle: 0–1, or in % (80 % = 0.8); the fractions add up to 1">Volume fraction</th>
             <th scope="col">
-              <span class="sr-only">Remove</span>
+              <span class="sr-only">Move or remove</span>
             </th>
           </tr>
         </thead>
@@ -65,6 +78,11 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
                     </option>
                   ))}
                 </select>
+                {role(j) && (
+                  <span class="role-tag" data-role={role(j)}>
+                    {role(j)}
+                  </span>
+                )}
               </td>
               <td>
                 <Field
@@ -72,13 +90,35 @@ export function CompositionEditor(p: { id: string; index: number; composition: C
                   path={`${base}.components[${j}].volume_fraction`}
                   label={`Volume fraction of component ${j + 1}${of}`}
                   value={k.volume_fraction}
-                  read={readNumber('volume fraction')}
+                  read={readFraction('volume fraction')}
                   write={(v) => num(v, 4)}
                   width="5em"
                   commit={(v) => change((cc) => (cc.components[j].volume_fraction = v), `f${j}`)}
                 />
               </td>
-              <td>
+              <td class="comp-actions">
+                <button
+                  type="button"
+                  class="small ghost"
+                  aria-label={`Move component ${j + 1}${of} up`}
+                  title={c.mixing === 'core-shell' && j === 1 ? 'Move up (makes it the core)' : 'Move up'}
+                  disabled={j === 0}
+                  onClick={() => move(j, -1)}
+                  data-move={`${base}.components[${j}]:up`}
+                >
+                  ↑
+                </button>
+                <button
+                  type="button"
+                  class="small ghost"
+                  aria-label={`Move component ${j + 1}${of} down`}
+                  title="Move down"
+                  disabled={j === c.components.length - 1}
+                  onClick={() => move(j, 1)}
+                  data-move={`${base}.components[${j}]:down`}
+                >
+                  ↓
+                </button>
                 <button
                   type="button"
                   class="small ghost"

@@ -12,10 +12,10 @@ const LAYER: Record<LayerSpec['kind'], { label: string; key: string; hint: strin
 
 const layerValue = (l: LayerSpec): number => (l.kind === 'depth' ? l.depth_m : l.kind === 'scale-height' ? l.scale_height_m : l.aod_550)
 
-/** Metres from "1500", "1500 m" or "1.5 km". */
+/** Metres from "1500", "1,500", "1500 m" or "1.5 km" (a number alone is in m, the unit shown). */
 const readMetres = (what: string) => (t: string) => {
   const s = t.trim()
-  if (/^[\d.,eE+-]+$/.test(s)) return readNumber(what)(s)
+  if (!/[a-df-zµμ]/i.test(s)) return readNumber(what)(s) // digits, separators and an exponent only
   return parseLength(s, what) / 1e6
 }
 
@@ -33,6 +33,7 @@ export function Conditions(p: { id: string; index: number; sample: Sample }) {
           read={readPercent('relative humidity')}
           write={(v) => num(v, 4)}
           hint="%"
+          title="Relative humidity in percent: 85 or 85 %"
           width="4em"
           commit={(v) => editSample(p.id, (x) => (x.rh_percent = v), 'rh')}
         />

@@ -1,8 +1,9 @@
 // An input for one value of the document. The text is read as it is typed; a value that cannot be read, or that
 // the study's schema rejects, is marked at the field with the reason (and the results are marked stale).
 import { useEffect, useRef, useState } from 'preact/hooks'
-import { InputError } from '../../src-core/index.ts'
+import { InputError, parseNumber } from '../../src-core/index.ts'
 import { setDraft } from '../state/actions.ts'
+import { fieldLabel } from './fieldNames.ts'
 import { store, useApp } from '../state/store.ts'
 
 export interface FieldProps<T> {
@@ -115,21 +116,22 @@ export function Field<T>(p: FieldProps<T>) {
 // ---------------------------------------------------------------------------------------------------------------
 // Readers for typed numbers.
 
-/** A plain number (decimal comma accepted); `what` names it in the message. */
+/**
+ * A plain number; `what` names it in the message. Thousands separators are read where they can mean nothing else
+ * ("9,000" is 9000); a comma that could be a decimal mark ("1,5") is refused with the fix (src-core parseNumber).
+ */
 export function readNumber(what: string): (t: string) => number {
-  return (t) => {
-    const s = t.trim().replace(',', '.').replace(/\s+/g, '').replace(/−/g, '-')
-    if (s === '') throw new InputError(what, 'no value was given', 'Type a number.')
-    const v = Number(s)
-    if (!Number.isFinite(v)) throw new InputError(what, `"${t}" is not a number`, 'Type a number such as 1.6 or 2.5e3.')
-    return v
-  }
+  return (t) => parseNumber(t, what)
 }
 
-/** A percentage: "85", "85 %" or "0.85" written as a fraction is not guessed. */
+/** A value of a field in %: "85" or "85 %" is 85 (a fraction like 0.85 is not guessed to mean 85). */
 export function readPercent(what: string): (t: string) => number {
-  const n = readNumber(what)
-  return (t) => n(t.replace('%', ''))
+  return (t) => parseNumber(t, what, { percent: 'percent' })
+}
+
+/** A fraction from 0 to 1: "0.8", or "80 %" for 0.8. */
+export function readFraction(what: string): (t: string) => number {
+  return (t) => parseNumber(t, what, { percent: 'fraction' })
 }
 
 /** A number or nothing (optional fields). */
@@ -142,12 +144,15 @@ export function readOptional(what: string): (t: string) => number | undefined {
 export function ErrorRow(p: { paths: string[]; span: number }) {
   const s = useApp()
   const messages = p.paths.map((path) => ({ path, text: s.drafts[path] ?? problemAt(path) })).filter((m) => m.text)
+  // several fields share the row: each reason says whose it is, as the column heads name them
+  const whose = (path: string) => (/\]$/.test(path) ? '' : `${fieldLabel(path)}: `)
   if (!messages.length) return null
   return (
     <tr class="error-row">
       <td colSpan={p.span}>
         {messages.map((m) => (
           <span class="field-error block" role="alert" id={`err-${m.path}`} data-error-for={m.path} key={m.path}>
+            {whose(m.path)}
             {m.text}
           </span>
         ))}

@@ -1,8 +1,9 @@
 // The lognormal modes of a sample: amount (by number, volume or mass), median diameter and GSD, and what each is
 // made of: the sample's composition, or one of its own (modes of different compositions form an external mixture).
-import { parseLength, type ModeSpec, type UserMaterialSpec } from '../../src-core/index.ts'
+import { MAX_MEDIAN_UM, type ModeSpec, type UserMaterialSpec } from '../../src-core/index.ts'
 import { CompositionEditor } from './CompositionEditor.tsx'
-import { diameter, num } from '../format.ts'
+import { num } from '../format.ts'
+import { LengthField } from './LengthField.tsx'
 import { editSample } from '../state/actions.ts'
 import { ErrorRow, Field, readNumber } from './Field.tsx'
 import { Fragment } from 'preact'
@@ -27,7 +28,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
             <th scope="col">Mode</th>
             <th scope="col" title="How the mode's amount is given">Given by</th>
             <th scope="col" title="Number (cm⁻³), volume (µm³ cm⁻³) or mass (µg m⁻³) concentration">Amount</th>
-            <th scope="col" title="Median diameter: count (CMD), volume (VMD) or mass (MMD) median; type a unit (nm, µm), a bare number is µm">
+            <th scope="col" title="Median diameter: count (CMD), volume (VMD) or mass (MMD) median; a number alone is in the unit the cell shows (nm or µm), or type a unit (150 nm, 2.5 µm)">
               Median D
             </th>
             <th scope="col" title="Geometric standard deviation σg (> 1)">σg</th>
@@ -89,7 +90,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
                     path={`${path}.${by.key}`}
                     label={`Mode ${j + 1} ${by.amount} in ${by.unit}`}
                     value={amountOf(m)}
-                    read={readNumber(`${by.amount}`)}
+                    read={readNumber(`${by.label} concentration`)}
                     write={(v) => num(v, 6)}
                     hint={by.unit}
                     commit={(v) =>
@@ -102,14 +103,14 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
                   />
                 </td>
                 <td>
-                  <Field
+                  <LengthField
                     bare
                     path={`${path}.median_um`}
                     label={`Mode ${j + 1} ${by.median}`}
                     value={m.median_um}
-                    read={(t) => parseLength(t, `${by.median}`, 'um')}
-                    write={diameter}
-                    hint={by.median}
+                    where={`${by.median}`}
+                    options={{ max_um: MAX_MEDIAN_UM, what: 'a median diameter' }}
+                    kind={by.median}
                     commit={(v) =>
                       editSample(p.id, (s) => {
                         if (s.size.kind === 'modes') s.size.modes[j].median_um = v

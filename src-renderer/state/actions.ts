@@ -154,7 +154,7 @@ export function deleteSample(id: string): void {
     study.samples.splice(i, 1)
     ids.splice(i, 1)
   })
-  store().set({ selected: store().get().ids[Math.min(i, store().get().ids.length - 1)], toast: { text: `Deleted “${name}”.`, undo: true } })
+  store().set({ selected: store().get().ids[Math.min(i, store().get().ids.length - 1)], toast: { text: `Deleted sample “${name}”.`, undo: true } })
 }
 
 export function moveSample(id: string, by: -1 | 1): void {

@@ -56,7 +56,7 @@ export function AnglesView() {
       </div>
       {charts ? (
         <div class="chart-grid two">
-          <Chart name="phase-function" title={`Phase function at ${nm} nm`} data={charts.phase} lines={charts.lines} xLabel="Scattering angle (°)" yLabel="P(θ) (log)" yLog xRange={[0, 180]} theme={s.theme} stale={stale} height={300} />
+          <Chart name="phase-function" title={`Phase function at ${nm} nm`} data={charts.phase} lines={charts.lines} xLabel="Scattering angle (°)" yLabel="P(θ)" yLog xRange={[0, 180]} theme={s.theme} stale={stale} height={300} />
           <Chart name="polarisation" title={`Degree of linear polarisation at ${nm} nm`} data={charts.pol} lines={charts.lines} xLabel="Scattering angle (°)" yLabel="−S₁₂/S₁₁ (%)" xRange={[0, 180]} theme={s.theme} stale={stale} height={300} />
         </div>
       ) : (

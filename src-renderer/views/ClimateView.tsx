@@ -1,17 +1,15 @@
 // Warming or cooling: the site, the verdict in plain words with its numbers, the forcing map over surface
 // albedo and ω, and the thin-layer and two-stream estimates side by side.
-import { useMemo } from 'preact/hooks'
 import { DEFAULT_VERDICT_MARGIN_WM2, SURFACE_TYPES, type SampleForcing, type Site } from '../../src-core/index.ts'
 import { ESTIMATE_CAUTION } from '../cautions.ts'
-import { Chart, type Line } from '../charts/Chart.tsx'
-import { drawHeat, drawOverlays } from '../charts/forcingMap.ts'
-import { forcingColour } from '../charts/palette.ts'
-import { Field, readNumber } from '../edit/Field.tsx'
+import { ForcingMapChart } from './ForcingMapChart.tsx'
+import { Field, readFraction, readNumber } from '../edit/Field.tsx'
 import { fixed, num, signed } from '../format.ts'
 import { edit } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { sampleState, shownSamples, type ShownSample } from '../shown.ts'
 import { StaleNote, Swatch, withResults } from './common.tsx'
+import { Warnings } from './Warnings.tsx'
 
 const siteEdit = (f: (s: Site) => void, key?: string) => edit((st) => f(st.site), key && `site.${key}`)
 
@@ -47,13 +45,13 @@ function SiteForm() {
         </select>
       </label>
       {site.surface === 'custom' && (
-        <Field path="site.surface_albedo" label="Surface albedo" value={site.surface_albedo ?? 0.2} read={readNumber('surface albedo')} write={(v) => num(v, 3)} hint="0–1" width="4em" commit={(v) => siteEdit((x) => (x.surface_albedo = v), 'albedo')} />
+        <Field path="site.surface_albedo" label="Surface albedo" value={site.surface_albedo ?? 0.2} read={readFraction('surface albedo')} write={(v) => num(v, 3)} hint="0–1" width="4em" commit={(v) => siteEdit((x) => (x.surface_albedo = v), 'albedo')} />
       )}
       <div class="row wrap">
         <Field path="site.latitude_deg" label="Latitude" value={site.latitude_deg} read={readNumber('latitude')} write={(v) => num(v, 5)} hint="° N (south < 0)" width="4em" commit={(v) => siteEdit((x) => (x.latitude_deg = v), 'lat')} />
         <Field path="site.day_of_year" label="Day of year" value={site.day_of_year} read={readNumber('day of year')} write={(v) => String(v)} hint="1–366" width="3.5em" commit={(v) => siteEdit((x) => (x.day_of_year = v), 'day')} />
-        <Field path="site.cloud_fraction" label="Cloud fraction" value={site.cloud_fraction} read={readNumber('cloud fraction')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.cloud_fraction = v), 'cloud')} />
-        <Field path="site.transmittance" label="Transmittance above" value={site.transmittance} read={readNumber('transmittance')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.transmittance = v), 'trans')} />
+        <Field path="site.cloud_fraction" label="Cloud fraction" value={site.cloud_fraction} read={readFraction('cloud fraction')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.cloud_fraction = v), 'cloud')} />
+        <Field path="site.transmittance" label="Transmittance above" value={site.transmittance} read={readFraction('transmittance')} write={(v) => num(v, 3)} hint="0–1" width="3.5em" commit={(v) => siteEdit((x) => (x.transmittance = v), 'trans')} />
         <Field
           path="verdict_margin_w_m2"
           label="Too close to call within"
@@ -86,6 +84,8 @@ export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample[
         {p.x.stale && <span class="stale-tag">stale</span>}
       </h3>
       <p class="explanation">{f.explanation}</p>
+      <Warnings items={f.warnings} name="forcing" />
+      <VerdictBasis f={f} />
       <dl class="facts">
         <div>
           <dt>{p.compact ? 'ΔF' : 'Forcing, thin layer (S₀/4)'}</dt>
@@ -116,9 +116,25 @@ export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample[
   )
 }
 
+/**
+ * Which figure the verdict rests on, beside the others that can differ in sign: the verdict (and the sample list's
+ * word) is the thin-layer global mean; the site's daily mean is the same layer under one day's sun at one latitude.
+ */
+export function VerdictBasis(p: { f: SampleForcing }) {
+  const f = p.f
+  const differs = Math.sign(f.daily_mean_w_m2) !== Math.sign(f.thin_layer_w_m2) && Math.abs(f.daily_mean_w_m2) > f.margin_w_m2
+  return (
+    <p class="verdict-basis" data-testid="verdict-basis">
+      The verdict (also in the sample list) rests on the thin-layer forcing with global-mean sunlight, {signed(f.thin_layer_w_m2)} W m⁻²
+      {f.verdict === 'too close to call' ? `, within the ±${num(f.margin_w_m2, 3)} W m⁻² margin` : ''}. The daily mean at the site, {signed(f.daily_mean_w_m2)} W m⁻², is the same layer under
+      this latitude’s and day’s sun{differs ? ': here it has the other sign, so read it for this site and season, the verdict for the layer in general' : ''}.
+    </p>
+  )
+}
+
 export function MethodsTable(p: { ok: (ShownSample & { result: NonNullable<ShownSample['result']> })[] }) {
   const rows: [string, string, (f: SampleForcing) => number][] = [
-    ['Thin layer, global mean (Chylek & Wong)', 'S₀/4, top of atmosphere', (f) => f.thin_layer_w_m2],
+    ['Thin layer, global mean (Chylek & Wong): the verdict’s figure', 'S₀/4, top of atmosphere', (f) => f.thin_layer_w_m2],
     ['Thin layer, solar-spectrum weighted', 'S₀/4, top of atmosphere', (f) => f.spectral_w_m2],
     ['Thin layer, daily mean at the site', 'site latitude and day', (f) => f.daily_mean_w_m2],
     ['Two-stream (δ-Eddington), top of atmosphere', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.toa_w_m2],
@@ -127,7 +143,10 @@ export function MethodsTable(p: { ok: (ShownSample & { result: NonNullable<Shown
   ]
   return (
     <table class="grid-table numbers methods" data-testid="methods-table">
-      <caption>Thin-layer and two-stream estimates (W m⁻²; negative = cooling at the top of the atmosphere)</caption>
+      <caption>
+        Thin-layer and two-stream estimates (W m⁻²; negative = cooling at the top of the atmosphere). Both methods take the sample’s upscatter fraction β̄ at 550 nm
+        {p.ok.length === 1 ? ` (${fixed(p.ok[0].result.forcing.upscatter_550, 3)})` : ''}, the two-stream layer also its g, so they differ only by what the thin form leaves out.
+      </caption>
       <thead>
         <tr>
           <th scope="col">Method</th>
@@ -154,51 +173,7 @@ export function MethodsTable(p: { ok: (ShownSample & { result: NonNullable<Shown
   )
 }
 
-export function ForcingMapChart(p: { ok: (ShownSample & { result: NonNullable<ShownSample['result']> })[]; theme: 'light' | 'dark'; stale: boolean; height?: number }) {
-  const main = p.ok[0]
-  const chart = useMemo(() => {
-    if (!main) return null
-    const map = main.result.map
-    const ink = p.theme === 'light' ? '#14171a' : '#eef1f4'
-    const overlays = p.ok.map((x) => ({ zero: x.result.map.zero_line, sample: x.result.map.sample, stroke: p.ok.length > 1 ? x.style.stroke : ink, dash: x.style.dash }))
-    const lines: Line[] = [
-      ...p.ok.map((x): Line => ({ label: p.ok.length > 1 ? `${x.sample.name}: zero line and position` : 'zero line (ω = ω_crit) and this sample ●', stroke: p.ok.length > 1 ? x.style.stroke : ink, dash: x.style.dash }))
-    ]
-    const lo = Math.min(...map.ssa)
-    return {
-      data: [map.surface_albedo, ...lines.map(() => map.surface_albedo.map(() => null))],
-      lines,
-      under: drawHeat(map, p.theme),
-      over: drawOverlays(overlays, ink),
-      yRange: [lo, Math.max(...map.ssa)] as [number, number]
-    }
-  }, [...p.ok.map((x) => x.result), p.theme])
-  if (!chart || !main) return null
-  return (
-    <div class="map-wrap">
-      <Chart
-        name="forcing-map"
-        title={`Forcing over surface albedo and ω${p.ok.length > 1 ? ` (colours: ${main.sample.name})` : ''}`}
-        data={chart.data}
-        lines={chart.lines}
-        xLabel="Surface albedo Rs"
-        yLabel="Single-scattering albedo ω"
-        xRange={[0, 1]}
-        yRange={chart.yRange}
-        theme={p.theme}
-        stale={p.stale}
-        height={p.height ?? 250}
-        drawUnder={chart.under}
-        drawOver={chart.over}
-      />
-      <div class="map-key" aria-label="Colour key">
-        <span class="key-swatch" style={{ background: forcingColour(-1, p.theme) }} /> cooling
-        <span class="key-swatch" style={{ background: forcingColour(0, p.theme) }} /> ≈ 0
-        <span class="key-swatch" style={{ background: forcingColour(1, p.theme) }} /> warming (thin-layer forcing of this layer)
-      </div>
-    </div>
-  )
-}
+export { ForcingMapChart } from './ForcingMapChart.tsx'
 
 export function ClimateView() {
   const s = useApp()

@@ -153,7 +153,7 @@ function ChiMap(p: { fit: ClosureResult; theme: Theme; stale: boolean }) {
         data={chart.data}
         lines={chart.lines}
         xLabel="Real index n"
-        yLabel={`k + ${K_FLOOR} (log)`}
+        yLabel={`k + ${K_FLOOR}`}
         yLog
         yTicks={chart.yTicks}
         xRange={chart.xRange}

@@ -1,13 +1,22 @@
 // The top bar: the study's name, file actions, exports, the computing status and the cautions.
-import { affectsOptics } from '../compute/client.ts'
+import { studyStatus } from '../shown.ts'
 import { cancel, exportCsv, exportJson, importSizer, newStudy, openDemo, openReport, openStudy, save } from '../commands.ts'
 import { host } from '../host/index.ts'
 import { edit } from '../state/actions.ts'
 import { store, useApp } from '../state/store.ts'
+import { UndoButtons } from './UndoButtons.tsx'
 
 function Status() {
   const s = useApp()
-  const stale = Object.keys(s.drafts).some(affectsOptics) || s.problems.some((p) => affectsOptics(p.path))
+  const status = studyStatus(s)
+  const stale = status.state === 'stale'
+  const why = status.inputs > 0 ? 'Inputs need attention' : status.failed.length > 0 ? 'Not computed' : 'Not all computed'
+  const detail =
+    status.inputs > 0
+      ? `${status.inputs} input${status.inputs === 1 ? '' : 's'} cannot be used as they stand (marked at the fields)`
+      : status.failed.length > 0
+        ? `${status.failed.map((n) => `“${n}”`).join(', ')} could not be computed from the current inputs (the reason is beside the results)`
+        : 'Some results are from earlier inputs'
   return (
     <span class="status-group" role="status">
       {s.job.running && (
@@ -20,11 +29,11 @@ function Status() {
         </span>
       )}
       {stale && (
-        <span class="status warn" data-status="stale">
-          Inputs need attention · results stale
+        <span class="status warn" data-status="stale" title={`${detail}; the results marked stale are from earlier inputs and update when the inputs are complete and valid.`}>
+          {why} · results stale
         </span>
       )}
-      {!stale && !s.job.running && (
+      {status.state === 'ok' && (
         <span class="status ok" data-status="ok">
           Results up to date
         </span>
@@ -93,6 +102,7 @@ export function Header() {
           </button>
         )}
       </nav>
+      <UndoButtons />
       <Status />
       <span class="spacer" />
       <button type="button" class="caution-button" onClick={() => store().set({ cautionsOpen: true })} title="Safety and limits of the estimate (F1)" data-testid="cautions">

@@ -11,6 +11,7 @@ import { readNumber } from '../edit/Field.tsx'
 import { reasonOf, TextField } from '../edit/ToolField.tsx'
 import { diameter as diameterText, fixed, num } from '../format.ts'
 import { sampleState, type ShownSample } from '../shown.ts'
+import { ResponseChart } from './ResponseChart.tsx'
 import { useApp, type AppState } from '../state/store.ts'
 import { toolStore, useTools, type CounterForm, type NephelometerForm, type Run } from '../state/tools.ts'
 
@@ -125,6 +126,9 @@ function Nephelometer(p: { sel: ShownSample }) {
     <fieldset class="instrument" data-testid="nephelometer">
       <legend>Nephelometer truncation</legend>
       <p class="help">An integrating nephelometer sees only part of the scattering angles; C = σ_true/σ_measured corrects its reading, from the sample’s own phase function (Mie theory).</p>
+      <p class="help example-note" data-testid="neph-example-note">
+        <strong>Example values:</strong> the angles filled in (7–170°) and the wavelengths are those of a typical instrument, not yours. Replace them with your own nephelometer’s figures, from its manual or calibration record.
+      </p>
       <div class="row wrap">
         <TextField name="neph-low" label="Lowest angle" value={f.low} onText={(v) => setNeph({ low: v })} error={reasonOf(readAngle('lowest angle'), f.low) ?? angleProblem} hint="°" width="3.5em" />
         <TextField name="neph-high" label="Highest angle" value={f.high} onText={(v) => setNeph({ high: v })} error={reasonOf(readAngle('highest angle'), f.high)} hint="°" width="3.5em" />
@@ -248,15 +252,18 @@ function Counter(p: { sel: ShownSample }) {
     if (m && problem) shown.add(problem.where)
     return m
   }
-  const edgeProblem = err(/opc: edge/)
-  const wlProblem = err(/opc: wavelength/)
-  const angleProblem = err(/opc: angles/)
-  const indexProblem = err(/opc: sample index/)
-  const calProblem = err(/opc: calibration/)
+  const edgeProblem = err(/optical particle counter: edge/)
+  const wlProblem = err(/optical particle counter: wavelength/)
+  const angleProblem = err(/optical particle counter: angles/)
+  const indexProblem = err(/optical particle counter: sample index/)
+  const calProblem = err(/optical particle counter: calibration/)
   return (
     <fieldset class="instrument" data-testid="counter">
       <legend>Optical particle counter re-binning</legend>
       <p class="help">A counter sizes particles by the light they scatter into its optics, calibrated with polystyrene latex (PSL) spheres. Particles of another index scatter differently: each calibration edge maps to the true diameter that scatters as much (Mie theory).</p>
+      <p class="help example-note" data-testid="opc-example-note">
+        <strong>Example values:</strong> the bin edges, the 633 nm laser and the collection angles filled in are those of a typical counter, not yours. Replace them with your own counter’s figures, from its manual or calibration certificate.
+      </p>
       <TextField name="opc-edges" label="Bin edges as calibrated (µm)" value={f.edges} onText={(v) => setCounter({ edges: v })} error={reasonOf(readEdges, f.edges) ?? edgeProblem} hint="ascending; bare numbers in µm" width="22em" />
       <div class="row wrap">
         <TextField name="opc-wavelength" label="Laser wavelength" value={f.wavelength} onText={(v) => setCounter({ wavelength: v })} error={reasonOf(readWl, f.wavelength) ?? wlProblem} hint="nm" width="4em" />
@@ -304,6 +311,7 @@ function RebinTables(p: { r: RebinResult; stale: boolean }) {
   const flagged = r.bins.filter((b) => b.flagged).length
   return (
     <div class={p.stale ? 'is-stale' : ''}>
+      <ResponseChart r={r} stale={p.stale} />
       <table class="grid-table numbers rebin-table" data-testid="rebin-edges">
         <caption>
           Edges: calibration ({fixed(r.calibration_index.n, 3)} + {num(r.calibration_index.k, 3)}i) → sample ({fixed(r.sample_index.n, 3)} + {num(r.sample_index.k, 3)}i) at {num(r.wavelength_nm, 5)} nm, {num(r.low_deg, 4)}°–{num(r.high_deg, 4)}°

@@ -7,7 +7,7 @@ import { Chart, type Line } from '../charts/Chart.tsx'
 import { lineStyle } from '../charts/palette.ts'
 import { printReport } from '../commands.ts'
 import { APP_VERSION } from '../exports.ts'
-import { num } from '../format.ts'
+import { isoDateTime, num } from '../format.ts'
 import { host } from '../host/index.ts'
 import { store, useApp } from '../state/store.ts'
 import { sampleState } from '../shown.ts'
@@ -15,6 +15,7 @@ import { CautionText } from './Cautions.tsx'
 import { ForcingMapChart, MethodsTable, Verdict } from './ClimateView.tsx'
 import { BinsSummary, CompositionText, mainCompositionUse, ModesList, OwnComponentsReport, ownComponentStates, type OwnComponentState } from './ReportInputs.tsx'
 import { wavelengthAxis, WavelengthTable } from './OpticsView.tsx'
+import { Warnings } from './Warnings.tsx'
 
 export const REFERENCES = [
   'Bohren, C. F. and Huffman, D. R. (1983): Absorption and Scattering of Light by Small Particles. Wiley. (Mie theory, coated spheres.)',
@@ -24,6 +25,7 @@ export const REFERENCES = [
   'Chylek, P. and Wong, J. (1995): Effect of absorbing aerosols on global radiation budget. Geophys. Res. Lett. 22, 929–931.',
   'Wiscombe, W. J. and Grams, G. W. (1976): The backscattered fraction in two-stream approximations. J. Atmos. Sci. 33, 2440–2451.',
   'Joseph, J. H., Wiscombe, W. J. and Weinman, J. A. (1976): The delta-Eddington approximation for radiative flux transfer. J. Atmos. Sci. 33, 2452–2459.',
+  'Coakley, J. A. and Chýlek, P. (1975): The two-stream approximation in radiative transfer: including the angle of the incident radiation. J. Atmos. Sci. 32, 409–418. (The two-stream layer takes the population’s own upscatter fraction.)',
   'Seinfeld, J. H. and Pandis, S. N. (2016): Atmospheric Chemistry and Physics, 3rd ed. Wiley. (Size distributions, visibility.)'
 ]
 
@@ -97,14 +99,36 @@ function SampleSection(p: { id: string; own: OwnComponentState[] }) {
           <Verdict x={{ ...x, result: r }} />
           <div class="report-charts">
             <Chart name={`report-ext-${x.index}`} title="Extinction, scattering, absorption" data={[wl, r.optics.wavelengths.map((w) => w.ext), r.optics.wavelengths.map((w) => w.sca), r.optics.wavelengths.map((w) => w.abs)]} lines={specLines} xLabel="Wavelength (nm)" yLabel="Mm⁻¹" xLog yLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
-            <Chart name={`report-ssa-${x.index}`} title="ω and g" data={[wl, r.optics.wavelengths.map((w) => w.ssa), r.optics.wavelengths.map((w) => w.g)]} lines={[{ label: 'ω', ...lineStyle(0, s.theme) }, { label: 'g', ...lineStyle(1, s.theme) }]} xLabel="Wavelength (nm)" yLabel="" xLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
+            <Chart name={`report-ssa-${x.index}`} title="ω and g" data={[wl, r.optics.wavelengths.map((w) => w.ssa), r.optics.wavelengths.map((w) => w.g)]} lines={[{ label: 'ω', ...lineStyle(0, s.theme) }, { label: 'g', ...lineStyle(1, s.theme) }]} xLabel="Wavelength (nm)" yLabel="ω and g (no unit)" xLog {...wavelengthAxis(wl.length ? wl : [550])} theme={s.theme} height={190} />
             <ForcingMapChart ok={ok} theme={s.theme} stale={!x.current} height={190} />
+            <ReportSizeChart id={p.id} index={x.index} />
           </div>
+          <Warnings items={r.optics.warnings} name="optics" />
           <WavelengthTable rows={r.optics.wavelengths} caption="Optics at each wavelength" />
           <MethodsTable ok={ok} />
         </>
       )}
     </section>
+  )
+}
+
+/** The sample's dry number size distribution (as in the workbench's size plot; measured bins drawn as steps). */
+function ReportSizeChart(p: { id: string; index: number }) {
+  const c = useApp().sizes[p.id]
+  if (!c || 'error' in c) return <p class="empty">No size distribution to draw{c ? `: ${c.error}` : ''}.</p>
+  return (
+    <Chart
+      name={`report-size-${p.index}`}
+      title="Size distribution (dry)"
+      data={[c.diameter_um, c.number]}
+      lines={[{ label: 'dN/dlogDp', ...lineStyle(0, 'light'), steps: c.measured }]}
+      xLabel="Dry diameter Dp (µm)"
+      yLabel="dN/dlogDp (cm⁻³)"
+      xLog
+      xRange={[0.001, 100]}
+      theme="light"
+      height={190}
+    />
   )
 }
 
@@ -131,7 +155,7 @@ export function Report() {
         <header>
           <h1>{st.name}</h1>
           <p class="meta">
-            Motebench {APP_VERSION} · report made {new Date().toLocaleString()} · {st.samples.length} sample{st.samples.length === 1 ? '' : 's'}
+            Motebench {APP_VERSION} · report made <time data-testid="report-date" dateTime={new Date().toISOString()}>{isoDateTime(new Date())}</time> · {st.samples.length} sample{st.samples.length === 1 ? '' : 's'}
             {s.file ? ` · file ${s.file.name}` : ''}
           </p>
           {st.notes && <p class="notes-text">{st.notes}</p>}

@@ -5,10 +5,13 @@ import { CompositionEditor } from '../edit/CompositionEditor.tsx'
 import { Conditions } from '../edit/Conditions.tsx'
 import { ModesTable } from '../edit/ModesTable.tsx'
 import { OwnComponents } from '../edit/OwnComponents.tsx'
+import { openCatalogue } from './Catalogue.tsx'
 import { diameter, num } from '../format.ts'
 import { editSample, renameSample } from '../state/actions.ts'
 import { useApp } from '../state/store.ts'
 import { SizePlot } from './SizePlot.tsx'
+import { screenName } from '../edit/fieldNames.ts'
+import { sampleState } from '../shown.ts'
 import type { BinsSpec } from '../../src-core/index.ts'
 
 function BinsPanel(p: { id: string; bins: BinsSpec }) {
@@ -20,6 +23,7 @@ function BinsPanel(p: { id: string; bins: BinsSpec }) {
     <div class="bins" data-testid="bins-panel">
       <p>
         <strong>{b.values.length} measured bins</strong> ({b.edges ? 'edges' : 'midpoints'} {diameter(lo)} – {diameter(hi)}), values as {b.quantity}
+        {b.rows_averaged ? `, the mean of ${b.rows_averaged} rows` : ''}
         {b.source ? `, from ${b.source}` : ''}.
       </p>
       <details>
@@ -65,6 +69,9 @@ export function SampleEditor() {
   const sample = s.study.samples[i]
   const id = s.selected
   const own = problemsOf(s.problems, i)
+  const st = sampleState(s, id)
+  // the computation's refusal of inputs that each passed (an optical depth beyond the forcing estimate's range)
+  const failed = !own.length && st?.error ? st.error : null
   return (
     <section class="editor" aria-label={`Inputs of ${sample.name}`}>
       <div class="editor-head">
@@ -80,11 +87,17 @@ export function SampleEditor() {
           </strong>
           <ul>
             {own.slice(0, 5).map((p, k) => (
-              <li key={k}>
-                <code>{p.path}</code>: {p.message}.
+              <li key={k} data-problem-for={p.path}>
+                <span class="where">{screenName(s.study, p.path)}</span>: {p.message}.
               </li>
             ))}
           </ul>
+        </div>
+      )}
+      {failed && (
+        <div class="problems" role="alert" data-testid="problems">
+          <strong>These inputs could not be computed; the results shown are from the last good inputs.</strong>
+          <p>{failed}</p>
         </div>
       )}
       <fieldset>
@@ -99,6 +112,9 @@ export function SampleEditor() {
         )}
         <CompositionEditor id={id} index={i} composition={sample.composition} userMaterials={s.study.user_materials ?? []} />
         <OwnComponents />
+        <button type="button" class="small ghost" onClick={openCatalogue} title="Every component’s refractive index at the study’s wavelengths, density, κ and sources (Ctrl+Shift+M)" data-testid="open-catalogue">
+          Component catalogue…
+        </button>
       </fieldset>
       <fieldset>
         <legend>Humidity and layer</legend>

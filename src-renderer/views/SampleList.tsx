@@ -4,8 +4,9 @@ import { useApp } from '../state/store.ts'
 import { sampleState } from '../shown.ts'
 import { lineStyle } from '../charts/palette.ts'
 import { DashSwatch } from '../charts/DashSwatch.tsx'
+import { signed } from '../format.ts'
 
-const VERDICT_MARK: Record<string, string> = { cools: '▼ cools', warms: '▲ warms', 'too close to call': '◆ close' }
+const VERDICT_MARK: Record<string, string> = { cools: '▼ cools', warms: '▲ warms', 'too close to call': '◆ too close to call' }
 
 export function SampleList() {
   const s = useApp()
@@ -48,7 +49,27 @@ export function SampleList() {
               >
                 {style && comparing && <DashSwatch stroke={style.stroke} dash={style.dash} />}
                 <span class="name-text">{s.study.samples[i].name}</span>
-                {verdict && <span class={`verdict-mini v-${verdict.replace(/ /g, '-')}`}>{VERDICT_MARK[verdict]}</span>}
+                {verdict && (
+                  <span
+                    class={`verdict-mini v-${verdict.replace(/ /g, '-')}${st?.stale ? ' is-stale' : ''}`}
+                    data-stale={st?.stale ? 'true' : 'false'}
+                    title={
+                      st?.stale
+                        ? 'Stale: this verdict is from earlier inputs'
+                        : st?.result
+                          ? `Verdict from the thin-layer forcing with global-mean sunlight, ${signed(st.result.forcing.thin_layer_w_m2)} W m⁻² (the Climate view gives the site’s daily mean beside it)`
+                          : undefined
+                    }
+                  >
+                    {VERDICT_MARK[verdict]}
+                    {st?.stale && <span class="stale-tag">stale</span>}
+                  </span>
+                )}
+                {!verdict && st?.stale && !s.job.running && (
+                  <span class="verdict-mini is-stale" data-stale="true">
+                    <span class="stale-tag">no results</span>
+                  </span>
+                )}
               </button>
             </li>
           )

@@ -3,6 +3,7 @@ import { useMemo } from 'preact/hooks'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { store, useApp, type SizeCurves } from '../state/store.ts'
 import { shownSamples } from '../shown.ts'
+import { problemsOf } from '../compute/client.ts'
 
 const MOMENTS = {
   number: { label: 'dN/dlogDp (cm⁻³)', key: 'number' },
@@ -33,7 +34,11 @@ export function SizePlot() {
     () => curves.map((e) => ({ label: e.x.sample.name, stroke: e.x.style.stroke, dash: e.x.style.dash, steps: e.c.measured })),
     [curves.map((e) => `${e.x.sample.name}${e.x.style.stroke}${e.c.measured}`).join('|')]
   )
-  const stale = entries.some((e) => !e.c) || shown.some((x) => Object.keys(s.drafts).some((p) => p.startsWith(`samples[${x.index}]`)))
+  // the curves are not from the current inputs where the sample's inputs need attention (they are then not made
+  // again: see compute/client.ts), or where none came yet
+  const stale =
+    entries.some((e) => !e.c) ||
+    shown.some((x) => Object.keys(s.drafts).some((p) => p.startsWith(`samples[${x.index}]`)) || problemsOf(s.problems, x.index).some((p) => p.path.startsWith(`samples[${x.index}]`)))
   return (
     <div class="size-plot">
       <div class="row" role="radiogroup" aria-label="Distribution shown">

@@ -4,6 +4,7 @@
 import { Fragment } from 'preact'
 import { useMemo } from 'preact/hooks'
 import {
+  getMaterial,
   formatJsonPath,
   SITE_QUANTITIES,
   UNCERTAIN_QUANTITIES,
@@ -24,6 +25,7 @@ import { affectsOptics, problemsOf, sampleKey } from '../compute/client.ts'
 import type { ToolProblem } from '../compute/toolMessages.ts'
 import { runUncertaintyFor, stopRun } from '../compute/tools.ts'
 import { Field, problemAt, readNumber, readOptional } from '../edit/Field.tsx'
+import { screenName } from '../edit/fieldNames.ts'
 import { fixed, num, signed } from '../format.ts'
 import { sampleState } from '../shown.ts'
 import { edit } from '../state/actions.ts'
@@ -56,6 +58,17 @@ const DIST: Record<UncertainDistribution['kind'], { label: string; a: string; b:
 const SAMPLE_QUANTITIES = UNCERTAIN_QUANTITIES.filter((q) => !SITE_QUANTITIES.includes(q))
 
 type ListName = 'sample' | 'site'
+
+/** A component's name as the editor shows it, not its id ("black-carbon" → "Black carbon"). */
+function displayName(id: string, own: Study['user_materials']): string {
+  const u = own?.find((o) => o.id === id)
+  if (u) return `${u.name || id} (own)`
+  try {
+    return getMaterial(id).name
+  } catch {
+    return id
+  }
+}
 
 function settingsOf(study: Study): UncertaintySettings {
   return (study.uncertainty ?? {}) as UncertaintySettings
@@ -164,7 +177,7 @@ function InputRow(p: { list: ListName; sample: Sample; j: number; input: Uncerta
             <select value={x.material ?? ''} data-path={`${base}.material`} onChange={(e) => change((i) => (i.material = (e.target as HTMLSelectElement).value))}>
               {components.map((c) => (
                 <option key={c} value={c}>
-                  {c}
+                  {displayName(c, s.study.user_materials)}
                 </option>
               ))}
               {x.material && !components.includes(x.material) && <option value={x.material}>{x.material} (not in this sample)</option>}
@@ -601,7 +614,7 @@ export function UncertaintyView() {
               <ul class="problems">
                 {otherProblems.map((q, k) => (
                   <li key={k}>
-                    <code>{q.path}</code>: {q.message}. {q.fix}
+                    <span class="where">{screenName(s.study, q.path)}</span>: {q.message}. {q.fix}
                   </li>
                 ))}
               </ul>

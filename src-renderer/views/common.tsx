@@ -26,8 +26,8 @@ export function StaleNote(p: { shown: ShownSample[] }) {
     <div class="stale-note" role="status" data-testid="stale-note">
       {stale.length > 0 && (
         <p>
-          <strong>Stale:</strong> the results of {stale.map((x) => `“${x.sample.name}”`).join(', ')} are from earlier inputs
-          {stale.some((x) => x.error) ? ` (${stale.find((x) => x.error)?.error})` : ''}; they update when the inputs are complete and valid.
+          <strong>Stale:</strong> the results of {stale.map((x) => `“${x.sample.name}”`).join(', ')} are from earlier inputs; they update when the inputs are complete and valid.
+          {stale.some((x) => x.error) ? ` ${stale.find((x) => x.error)?.error}` : ''}
         </p>
       )}
       {missing.map((x) => (

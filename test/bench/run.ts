@@ -6,6 +6,7 @@ import { benchAngularTable, benchCoatedGrid, benchSphereAngles, benchSphereGrid,
 import { benchUncertaintyDemo } from './uncertainty.bench.ts'
 import { benchSeries } from './series.bench.ts'
 import { benchCliStart } from './cli-start.bench.ts'
+import { benchSizerRead } from './reader.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
@@ -18,6 +19,7 @@ const cases: Record<string, () => void | Promise<void>> = {
   'ui-edits': benchUiEdits,
   series: benchSeries,
   'cli-start': benchCliStart,
+  'sizer-read': benchSizerRead,
   'uncertainty-demo': benchUncertaintyDemo
 }
 

@@ -18,16 +18,50 @@ describe('motebench materials / material', () => {
     expect(list.map((m) => m.id)).toEqual(expect.arrayContaining(['water', 'ammonium-sulfate']))
   })
 
-  it('material water --wavelength 550nm gives n ≈ 1.333 (Hale & Querry 1973, from memory) with exactly the documented keys', async () => {
+  it('material water --wavelength 550nm gives n ≈ 1.333 (Hale & Querry 1973, Appl. Opt. 12:555, Table I: 1.333, read via the database copy) with exactly the documented keys', async () => {
     const r = await runHere(runMaterial, ['water', '--wavelength', '550nm', '--json'])
     expect(r.code).toBe(0)
     const m = json(r.stdout)
     expect(Object.keys(m).sort()).toEqual(['density', 'k', 'kappa', 'n', 'source'])
     expect(m.n).toBeCloseTo(1.333, 2)
-    expect(m.k).toBeLessThan(1e-6) // water is nearly transparent in the visible (Hale & Querry 1973, from memory)
+    expect(m.k).toBeLessThan(1e-6) // water is nearly transparent in the visible (Hale & Querry 1973, Table I: 1.96e-9)
     expect(m.kappa).toBe(0)
     expect(m.density).toBeCloseTo(0.997, 2) // water near 25 °C (CRC Handbook, from memory)
     expect(m.source).toMatch(/Hale/)
+  })
+
+  it('material NAME --wavelength 10um --json works for every catalogue component, with a finite index and a named source (issue 22)', async () => {
+    const list = json((await runHere(runMaterials, ['--json'])).stdout) as { id: string; wavelength_min_nm: number; wavelength_max_nm: number }[]
+    expect(list.length).toBe(9)
+    for (const c of list) {
+      expect(c.wavelength_min_nm, c.id).toBeLessThanOrEqual(200)
+      expect(c.wavelength_max_nm, c.id).toBeGreaterThanOrEqual(40000)
+      const r = await runHere(runMaterial, [c.id, '--wavelength', '10um', '--json'])
+      expect(r.code, `${c.id}: ${r.stderr}`).toBe(0)
+      const m = json(r.stdout)
+      expect(Object.keys(m).sort()).toEqual(['density', 'k', 'kappa', 'n', 'source'])
+      expect(m.n, c.id).toBeGreaterThan(0)
+      expect(m.k, c.id).toBeGreaterThanOrEqual(0)
+      expect(m.source, c.id).toMatch(/(19|20)\d\d|common practice|assumption/)
+    }
+    // water at 10 µm: 1.218 + 0.0508i (Hale & Querry 1973, Appl. Opt. 12:555, Table I, read via the refractiveindex.info database copy)
+    const w = json((await runHere(runMaterial, ['water', '--wavelength', '10um', '--json'])).stdout)
+    expect(w.n).toBeCloseTo(1.218, 6)
+    expect(w.k).toBeCloseTo(0.0508, 6)
+    expect(w.source).toContain('database/data-nk/main/H2O/Hale.yml')
+  })
+
+  it('a wavelength outside a component\'s table is refused with its range (exit 2, one line), never extrapolated', async () => {
+    const list = json((await runHere(runMaterials, ['--json'])).stdout) as { id: string; wavelength_min_nm: number; wavelength_max_nm: number }[]
+    for (const c of list) {
+      for (const wl of [`${c.wavelength_max_nm * 1.5}nm`, `${c.wavelength_min_nm / 2}nm`]) {
+        const r = await runHere(runMaterial, [c.id, '--wavelength', wl, '--json'])
+        expect(r.code, `${c.id} at ${wl}`).toBe(2)
+        expect(r.stdout).toBe('')
+        expectOneLine(r.stderr)
+        expect(r.stderr).toContain(`${c.wavelength_min_nm / 1000} to ${c.wavelength_max_nm / 1000} µm`)
+      }
+    }
   })
 
   it('an unknown component exits 2 with one line listing the known names', async () => {
@@ -58,7 +92,7 @@ describe('motebench growth', () => {
       const r = await runHere(runGrowth, ['--kappa', String(kappa), '--rh', String(rh), '--diameter', '100nm', '--no-kelvin', '--json'])
       expect(r.code).toBe(0)
       const g = json(r.stdout)
-      expect(Object.keys(g).sort()).toEqual(['growth_factor', 'wet_diameter_nm'])
+      expect(Object.keys(g).sort()).toEqual(['growth_factor', 'warnings', 'wet_diameter_nm'])
       const closed = Math.cbrt(1 + (kappa * rh) / (100 - rh))
       expect(g.growth_factor).toBeCloseTo(closed, 10)
       expect(g.wet_diameter_nm).toBeCloseTo(100 * closed, 8)
@@ -91,7 +125,7 @@ describe('motebench population', () => {
     const r = await runHere(runPopulation, ['--mode', '1000,10nm,1.2', '--m', '1.5+0i', '--wavelengths', '400,550,700nm', '--json'])
     expect(r.code).toBe(0)
     const p = json(r.stdout)
-    expect(Object.keys(p).sort()).toEqual(['angstrom_abs', 'angstrom_ext', 'angstrom_sca', 'mass_ug_m3', 'number_cm3', 'volume_um3_cm3', 'wavelengths'])
+    expect(Object.keys(p).sort()).toEqual(['angstrom_abs', 'angstrom_ext', 'angstrom_sca', 'mass_ug_m3', 'number_cm3', 'volume_um3_cm3', 'warnings', 'wavelengths'])
     for (const w of p.wavelengths) {
       expect(Object.keys(w).sort()).toEqual(['abs', 'backscatter_fraction', 'ext', 'g', 'sca', 'ssa', 'upscatter_fraction', 'wavelength_nm'])
       expect(w.abs).toBe(0) // k = 0: no absorption
@@ -113,11 +147,11 @@ describe('motebench population', () => {
   })
 
   it('tiny absorbing particles of constant index: absorption Ångström exponent 1 (Q_abs = 4x Im((m²−1)/(m²+2)), Bohren & Huffman eq. 5.11)', async () => {
-    const r = await runHere(runPopulation, ['--mode', '1000,10nm,1.2', '--m', '1.8+0.5i', '--density', '1.8', '--wavelengths', '400,550,700nm', '--json'])
+    const r = await runHere(runPopulation, ['--mode', '100000,10nm,1.2', '--m', '1.8+0.5i', '--density', '1.8', '--wavelengths', '400,550,700nm', '--json'])
     expect(r.code).toBe(0)
     const p = json(r.stdout)
     expect(Math.abs(p.angstrom_abs - 1)).toBeLessThan(0.03)
-    const volume = 1000 * (Math.PI / 6) * 0.01 ** 3 * Math.exp(4.5 * Math.log(1.2) ** 2)
+    const volume = 100000 * (Math.PI / 6) * 0.01 ** 3 * Math.exp(4.5 * Math.log(1.2) ** 2)
     expect(Math.abs(p.mass_ug_m3 / (1.8 * volume) - 1)).toBeLessThan(1e-3)
   })
 

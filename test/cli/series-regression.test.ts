@@ -8,6 +8,8 @@
 // code at commit e54ed4b with:
 //   node bin/motebench.mjs series test/cli/fixtures/series-regression.csv --study resources/demo.mote \
 //     --sample 'Winter wood smoke' --wavelengths 450,550,700 --workers 2 > test/cli/fixtures/series-regression.expected.csv
+// One change since, by design: times are now written in canonical ISO 8601 ("2025-11-03T00:00:00Z", no ".000"),
+// so the time column was rewritten with sed 's/\.000Z,/Z,/'; every figure is still the pre-change code's.
 import { readFile } from 'node:fs/promises'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'

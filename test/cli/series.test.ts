@@ -110,7 +110,8 @@ describe('motebench series', () => {
     for (const w of [450, 550, 700]) for (const q of ['ext', 'sca', 'abs']) expect(header).toContain(`${q}_${w}nm_Mm-1`)
     expect(header).toEqual(expect.arrayContaining(['ssa_550nm', 'g_550nm', 'dry_number_cm-3', 'dry_volume_um3_cm-3', 'dry_mass_ug_m-3']))
     const fileTimes = (await readFile(example, 'utf8')).split('\n').filter((l) => /^\d{4}-/.test(l)).map((l) => l.split(';')[0])
-    expect(rows.map((r) => r.time)).toEqual(fileTimes)
+    // carried as ISO 8601 ("2024-01-24 06:00" → "2024-01-24T06:00:00")
+    expect(rows.map((r) => r.time)).toEqual(fileTimes.map((t) => `${t.replace(' ', 'T')}:00`))
     for (const r of rows) {
       for (const w of [450, 550, 700]) {
         const ext = Number(r[`ext_${w}nm_Mm-1`])

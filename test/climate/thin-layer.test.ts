@@ -86,7 +86,7 @@ describe('verdict', () => {
     expect(cool.caution).toBe(FORCING_CAUTION)
     expect(cool.caution).toMatch(/screening estimate/)
     expect(cool.caution).toMatch(/not a climate projection/)
-    expect(cool.caution).toMatch(/licensed practice/)
+    expect(cool.caution).toMatch(/qualified review under the local occupational-health and environmental rules/)
     const wc = criticalSingleScatteringAlbedo(0.15, 0.25)
     const close = forcingVerdict({ tau: 0.1, omega: wc + 0.001, upscatter: 0.25, surfaceAlbedo: 0.15 })
     expect(close.verdict).toBe('too close to call')

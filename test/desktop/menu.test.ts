@@ -66,6 +66,20 @@ describe.each(PLATFORMS)('menu on %s', (platform) => {
     }
   })
 
+  it('puts Undo and Redo first in the Edit menu, and the component catalogue in the View menu', () => {
+    const top = menuTemplate(platform, [], { send: () => {}, openRecent: () => {} })
+    const submenu = (label: string) => top.find((i) => String(i.label ?? '').replace('&', '') === label)?.submenu as MenuItemConstructorOptions[]
+    const { byCommand } = clickEverything(platform)
+    const edit = submenu('Edit')
+    expect(edit.slice(0, 2).map((i) => i.label)).toEqual(['Undo', 'Redo'])
+    expect(byCommand.get('undo')?.label).toBe('Undo')
+    expect(byCommand.get('redo')?.label).toBe('Redo')
+    // (common practice: Shift with the undo key redoes)
+    expect(normalised(String(byCommand.get('redo')?.accelerator))).toBe(normalised('CmdOrCtrl+Shift+Z'))
+    expect(byCommand.get('catalogue')?.label).toBe('Component catalogue…')
+    expect(submenu('View').map((i) => i.label)).toContain('Component catalogue…')
+  })
+
   it('leaves Alt+1…8 free for the result views', () => {
     const { items } = clickEverything(platform)
     for (const item of items) expect(String(item.accelerator ?? '')).not.toMatch(/alt\+[1-8]$/i)

@@ -1,6 +1,6 @@
 // Window options: the page is sandboxed, isolated and without Node; the title shows unsaved changes.
 import { describe, expect, it } from 'vitest'
-import { APP_NAME, webPreferences, windowOptions, windowTitle } from '../../src-main/window-options.ts'
+import { APP_NAME, webPreferences, windowIconPath, windowOptions, windowTitle } from '../../src-main/window-options.ts'
 
 describe('web preferences', () => {
   const prefs = webPreferences('/app/out/preload/index.cjs')
@@ -56,5 +56,21 @@ describe('windowTitle', () => {
 
   it('names an untitled study rather than showing nothing', () => {
     expect(windowTitle('  ', false)).toMatch(/^Untitled study/)
+  })
+})
+
+describe('the window icon', () => {
+  it('is resources/icon.png beside the built main process (out/main), a PNG of at least 256 × 256 px (PNG signature and IHDR, ISO/IEC 15948)', async () => {
+    const { readFileSync } = await import('node:fs')
+    const { join } = await import('node:path')
+    const repo = join(import.meta.dirname, '../..')
+    const path = windowIconPath(join(repo, 'out/main'))
+    expect(path).toBe(join(repo, 'resources/icon.png'))
+    const png = readFileSync(path)
+    expect([...png.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10])
+    expect(png.subarray(12, 16).toString('latin1')).toBe('IHDR')
+    expect(png.readUInt32BE(16)).toBeGreaterThanOrEqual(256)
+    expect(png.readUInt32BE(20)).toBeGreaterThanOrEqual(256)
+    expect(windowOptions('/p.cjs', path).icon).toBe(path)
   })
 })

@@ -7,6 +7,7 @@ import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { appSession, isLocal, ROOT } from './harness.ts'
+import { findClipped } from './clipping.ts'
 
 let scratch: string
 const session = appSession()
@@ -147,18 +148,15 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
   test('after an unclean close, the recovery copy is offered and restores the unsaved edit', async () => {
     const page = await openApp({ wait: false })
     await page.getByTestId('sample-name').fill('Edited before a crash')
-    // the copy is written periodically while there are unsaved changes
+    // the copy is written shortly after each edit while there are unsaved changes
     await expect.poll(() => page.evaluate(() => localStorage.getItem('motebench.recovery') ?? ''), { timeout: 40_000 }).toContain('Edited before a crash')
-    // reopen the page as after a crash (no save, no clean close): the app asks, and restores on yes
-    const asked: string[] = []
-    page.on('dialog', (d) => {
-      asked.push(d.message())
-      void d.accept()
-    })
+    // reopen the page as after a crash (no save, no clean close): the app offers the copy, and restores it on request
     await page.evaluate(() => (window.onbeforeunload = null))
     await page.reload()
+    await page.getByTestId('recovery-offer').waitFor({ timeout: 30_000 })
+    expect(await page.getByTestId('recovery-offer').textContent()).toMatch(/Unsaved work was found/)
+    await page.getByTestId('recovery-restore').click()
     await page.locator('.sample-item[data-sample="Edited before a crash"]').waitFor({ timeout: 30_000 })
-    expect(asked.some((m) => /recovery copy/i.test(m))).toBe(true)
   })
 
   test('saving and reopening gives the same study', async () => {
@@ -398,7 +396,7 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     const page = await openApp()
     const axes = (chart: string) => page.locator(`[data-chart="${chart}"] [data-chart-axes]`).textContent()
 
-    // on a 1366 × 768 screen every view fits the width: the page never scrolls sideways, and the samples, the
+    // on a 1366 × 768 screen every view fits the width (all eight views fit 1366 px): the page never scrolls sideways, and the samples, the
     // inputs and the results sit side by side within the window
     for (let k = 1; k <= 8; k++) {
       await page.keyboard.press(`Alt+${k}`)
@@ -411,6 +409,9 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
       expect(fit.window).toBe(1366)
       expect(fit.page, `view ${k}`).toBeLessThanOrEqual(fit.window)
       for (const right of fit.columns) expect(right, `view ${k}`).toBeLessThanOrEqual(fit.window)
+      // and inside the window every table and control lies within its box: no button, field text or column cut
+      // off, and a table wider than its box scrolls with its cue shown (test/e2e/clipping.ts)
+      expect(await findClipped(page), `view ${k}`).toEqual([])
     }
     await page.keyboard.press('Alt+1')
 

@@ -90,7 +90,7 @@ export function isLocal(url: string): boolean {
  * here), a fresh browser context per `open()` closed after each test, and every request URL recorded.
  */
 export function appSession(): {
-  open: (o?: { keepCautions?: boolean; wait?: boolean }) => Promise<{ page: Page; errors: string[] }>
+  open: (o?: { keepCautions?: boolean; wait?: boolean }) => Promise<{ page: Page; errors: string[]; consoleErrors: string[] }>
   requests: string[]
   url: () => string
 } {
@@ -101,7 +101,7 @@ export function appSession(): {
   beforeAll(async () => {
     browser = await launchChromium()
     served = await buildAndServe()
-  }, 180_000)
+  }, Number(process.env['MOTEBENCH_E2E_SETUP_MS'] ?? 420_000)) // the build takes minutes on a busy machine
   // Close each test's pages, so that their workers stop computing and leave the CPU to the next test.
   afterEach(async () => {
     for (const c of contexts.splice(0)) await c.close().catch(() => {})
@@ -118,10 +118,15 @@ export function appSession(): {
     const page = await context.newPage()
     const errors: string[] = []
     page.on('pageerror', (e) => errors.push(e.message))
+    // what the browser logs as an error from the first request on (a missing file, a refused policy…)
+    const consoleErrors: string[] = []
+    page.on('console', (m) => {
+      if (m.type() === 'error') consoleErrors.push(`${m.text()} ${m.location().url ?? ''}`.trim())
+    })
     await page.goto(served!.url)
     if (!o.keepCautions) await page.getByTestId('cautions-ok').click()
     if (o.wait !== false && !o.keepCautions) await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 60_000 })
-    return { page, errors }
+    return { page, errors, consoleErrors }
   }
   return { open, requests, url: () => served!.url }
 }

@@ -184,6 +184,29 @@ describe('the report', { timeout: 120_000 }, () => {
     expect(refs).toMatch(/Produced with Motebench \S+/)
   })
 
+  test('the report is dated in ISO 8601, labels the ω and g axis, and charts each size distribution', async () => {
+    const page = await openApp()
+    await page.locator('[data-status="ok"]').waitFor({ timeout: 80_000 }) // every sample computed
+    const report = await openReport(page)
+    // ISO 8601 date and time (2026-12-03 17:40), the page's local date
+    const made = await text(report.getByTestId('report-date'))
+    expect(made).toMatch(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2}$/)
+    const today = await page.evaluate(() => {
+      const d = new Date()
+      return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`
+    })
+    expect(made.startsWith(today)).toBe(true)
+    expect(await text(report.locator('.meta').first())).not.toMatch(/\d+\/\d+\/\d{4}/)
+    const samples = demoStudy().samples
+    for (let i = 0; i < samples.length; i++) {
+      const sec = report.locator(`[data-report-sample="${samples[i].name}"]`)
+      expect(await text(sec.locator(`[data-chart="report-ssa-${i}"] [data-chart-axes]`))).toMatch(/^ω and g \(no unit\) against Wavelength/)
+      const size = sec.locator(`[data-chart="report-size-${i}"]`)
+      expect(await text(size.locator('[data-chart-axes]'))).toMatch(/^dN\/dlogDp \(cm⁻³\) against Dry diameter Dp \(µm\)/)
+      expect(await size.locator('canvas').count(), samples[i].name).toBeGreaterThan(0)
+    }
+  })
+
   test('no request leaves the machine', () => {
     expect(session.requests.length).toBeGreaterThan(0)
     expect(session.requests.filter((u) => !isLocal(u))).toEqual([])

@@ -143,6 +143,22 @@ async function main(): Promise<void> {
       await page.getByTestId('report').click()
       await page.waitForTimeout(800)
       await page.screenshot({ path: join(OUT, `report-${theme}.png`) })
+      await page.getByTestId('close-report').click()
+      // the component view, on a component whose k changes with wavelength
+      await page.getByTestId('open-catalogue').click()
+      await page.locator('[data-component="brown-carbon"] [data-testid="catalogue-pick"]').click()
+      await page.locator('[data-chart="catalogue-k"] canvas').first().waitFor()
+      await page.waitForTimeout(300)
+      await page.screenshot({ path: join(OUT, `catalogue-${theme}.png`) })
+      await page.getByTestId('catalogue-close').click()
+      // the recovery copy offered after a reload without saving
+      await page.getByTestId('study-name').fill('Harrowmere, edited before a reload')
+      await page.waitForFunction(() => (localStorage.getItem('motebench.recovery') ?? '').includes('edited before a reload'))
+      await page.evaluate(() => (window.onbeforeunload = null))
+      await page.reload()
+      await page.getByTestId('recovery-offer').waitFor()
+      await page.waitForTimeout(300)
+      await page.screenshot({ path: join(OUT, `recovery-${theme}.png`) })
       await context.close()
     }
   } finally {

@@ -5,7 +5,7 @@ import { opcResponseCurve, PSL_INDEX, rebinOpcEdges } from '../../src-core/index
 
 const geometry = { wavelengthNm: 633, lowDeg: 35, highDeg: 120 }
 
-describe('OPC re-binning', () => {
+describe('optical particle counter re-binning', () => {
   it('is the identity when the sample index is the calibration index', () => {
     const edges = [0.1, 0.2, 0.3, 0.5, 0.8, 1.2, 2]
     const r = rebinOpcEdges(edges, PSL_INDEX, geometry)

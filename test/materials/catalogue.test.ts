@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { InputError, getMaterial, listMaterials, refractiveIndexAt, type Material } from '../../src-core/index.ts'
+import { InputError, defineUserMaterial, getMaterial, indexSourceAt, listMaterials, refractiveIndexAt, type Material, type TableIndex } from '../../src-core/index.ts'
 import { c, div, eps, sub, add } from './helpers.ts'
 
 const IDS = ['water', 'ammonium-sulfate', 'ammonium-nitrate', 'sea-salt', 'black-carbon', 'organic-matter', 'brown-carbon', 'mineral-dust', 'sulfuric-acid']
@@ -47,28 +47,45 @@ describe('catalogue contents', () => {
     }
   })
 
-  it('covers 0.3 µm to at least 2.5 µm for every component (project brief)', () => {
+  it('covers 0.2 µm to at least 40 µm for every component (issue 22: through the thermal infrared)', () => {
     for (const m of listMaterials()) {
-      expect(m.rangeUm[0]).toBeLessThanOrEqual(0.3)
-      expect(m.rangeUm[1]).toBeGreaterThanOrEqual(2.5)
-      for (const wl of [0.3, 0.55, 1.0, 2.5]) {
+      expect(m.rangeUm[0]).toBeLessThanOrEqual(0.2)
+      expect(m.rangeUm[1]).toBeGreaterThanOrEqual(40)
+      for (const wl of [0.2, 0.3, 0.55, 1.0, 2.5]) {
         const { n, k } = refractiveIndexAt(m, wl)
         expect(n).toBeGreaterThan(1)
         expect(k).toBeGreaterThanOrEqual(0)
       }
+      // in the infrared n may fall below 1 across a strong band (anomalous dispersion), but stays positive
+      for (const wl of [3, 5, 8, 9.6, 10, 12, 15, 20, 30, 40]) {
+        const { n, k } = refractiveIndexAt(m, wl)
+        expect(n, `${m.id} at ${wl} µm`).toBeGreaterThan(0)
+        expect(k, `${m.id} at ${wl} µm`).toBeGreaterThanOrEqual(0)
+      }
+    }
+  })
+
+  it('every index row in the thermal infrared (> 2.5 µm) names its source: a read database file or "(from memory)" or an assumption (issue 22)', () => {
+    for (const m of listMaterials()) {
+      if (m.index.kind !== 'table') continue
+      m.index.wavelengthsUm.forEach((w, i) => {
+        if (w <= 2.5) return
+        const s = (m.index as TableIndex).sources[i]
+        expect(s, `${m.id} at ${w} µm`).toMatch(/via refractiveindex\.info database \(CC0\), file database\/|\(from memory|assumption/)
+      })
     }
   })
 })
 
 describe('catalogue values against the literature', () => {
-  it('water: n ≈ 1.333 and k ≈ 2e-9 at 0.55 µm (Hale & Querry 1973, Appl. Opt. 12:555, from memory)', () => {
+  it('water: n ≈ 1.333 and k ≈ 2e-9 at 0.55 µm (Hale & Querry 1973, Appl. Opt. 12:555, Table I: 1.333, 1.96e-9, read via the refractiveindex.info database copy)', () => {
     const m = refractiveIndexAt(getMaterial('water'), 0.55)
     expect(Math.abs(m.n - 1.333)).toBeLessThan(0.001)
     expect(m.k).toBeGreaterThan(1e-9)
     expect(m.k).toBeLessThan(5e-9)
   })
 
-  it('water: k rises strongly into the near infrared, ~1e-4 near 1.5 µm, ~1e-3 at 2 µm (Hale & Querry 1973, from memory)', () => {
+  it('water: k rises strongly into the near infrared, ~1e-4 near 1.5 µm, ~1e-3 at 2 µm (Hale & Querry 1973, Appl. Opt. 12:555, read via the database copy)', () => {
     const w = getMaterial('water')
     const k055 = refractiveIndexAt(w, 0.55).k
     const k10 = refractiveIndexAt(w, 1.0).k
@@ -79,8 +96,37 @@ describe('catalogue values against the literature', () => {
     expect(k15).toBeLessThan(5e-4)
     expect(k20).toBeGreaterThan(5e-4)
     expect(k20).toBeLessThan(3e-3)
-    // the 3 µm O–H band: k of order 0.3 near 2.95 µm (Hale & Querry 1973, from memory)
+    // the 3 µm O–H band: k = 0.298 at 2.95 µm (Hale & Querry 1973, Table I)
     expect(refractiveIndexAt(w, 2.95).k).toBeGreaterThan(0.2)
+  })
+
+  it('water in the thermal infrared: the 6.1 µm bend band, the 8–12 µm window and the strong absorption beyond 15 µm (Hale & Querry 1973, Table I: k 0.131 at 6.1 µm, 0.0508 at 10 µm, 0.402 at 15 µm)', () => {
+    const w = getMaterial('water')
+    expect(refractiveIndexAt(w, 6.1).k).toBeCloseTo(0.131, 3)
+    expect(refractiveIndexAt(w, 10).k).toBeCloseTo(0.0508, 4)
+    expect(refractiveIndexAt(w, 15).k).toBeCloseTo(0.402, 3)
+    // the window is the least absorbing stretch between the bands
+    expect(refractiveIndexAt(w, 10).k).toBeLessThan(refractiveIndexAt(w, 6.1).k / 2)
+  })
+
+  it('mineral dust: the silicate bands near 9.6 and 19–21 µm are far stronger than the window edges (illite, Querry 1987, CRDEC-CR-88009: k 1.52 at 9.615 µm, 1.57 at 21.28 µm; read via the database copy)', () => {
+    const d = getMaterial('mineral-dust')
+    expect(refractiveIndexAt(d, 9.6154).k).toBeGreaterThan(1.3)
+    expect(refractiveIndexAt(d, 21.2766).k).toBeGreaterThan(1.3)
+    expect(refractiveIndexAt(d, 8.0).k).toBeLessThan(0.15)
+    expect(refractiveIndexAt(d, 12.0).k).toBeLessThan(0.2)
+  })
+
+  it('sea salt beyond 2.25 µm (NaCl, Querry 1987): transparent through the window, n ≈ 1.50 at 10 µm (Querry 1987 table: 1.500, 0.000)', () => {
+    const m = refractiveIndexAt(getMaterial('sea-salt'), 10)
+    expect(m.n).toBeCloseTo(1.5, 3)
+    expect(m.k).toBeLessThan(1e-3)
+  })
+
+  it('ammonium sulfate: the sulfate band near 9 µm absorbs strongly, the window near 11–12 µm weakly (Toon, Pollack & Khare 1976, from memory)', () => {
+    const a = getMaterial('ammonium-sulfate')
+    expect(refractiveIndexAt(a, 9.0).k).toBeGreaterThan(0.3)
+    expect(refractiveIndexAt(a, 11.5).k).toBeLessThan(0.1)
   })
 
   it('ammonium sulfate: n ≈ 1.52–1.53 in the visible, nearly non-absorbing (Toon, Pollack & Khare 1976, J. Geophys. Res. 81:5733, from memory)', () => {
@@ -201,13 +247,13 @@ describe('interpolation (documented scheme: n linear in ln λ; ln k linear in ln
 
 describe('errors', () => {
   it('a wavelength outside the table throws InputError naming the component, the wavelength and the range', () => {
-    const e = thrown(() => refractiveIndexAt(getMaterial('black-carbon'), 3.0))
+    const e = thrown(() => refractiveIndexAt(getMaterial('black-carbon'), 50))
     expect(e).toBeInstanceOf(InputError)
     const msg = (e as Error).message
     expect(msg).toContain('black-carbon')
-    expect(msg).toContain('3 µm')
-    expect(msg).toContain('0.3 to 2.5 µm')
-    expect(thrown(() => refractiveIndexAt(getMaterial('ammonium-sulfate'), 0.25))).toBeInstanceOf(InputError)
+    expect(msg).toContain('50 µm')
+    expect(msg).toContain('0.2 to 40 µm')
+    expect(thrown(() => refractiveIndexAt(getMaterial('ammonium-sulfate'), 0.15))).toBeInstanceOf(InputError)
   })
 
   it('a non-positive or non-finite wavelength throws InputError', () => {
@@ -227,5 +273,27 @@ describe('errors', () => {
     expect(() => {
       m.densityGcm3 = 2
     }).toThrow()
+  })
+})
+
+describe('indexSourceAt: the source of the index at a wavelength', () => {
+  it('names the tabulated row at its own wavelength, both neighbours between rows, and the whole index otherwise', () => {
+    // a table whose rows have different sources, built through the public user-component path
+    const m = defineUserMaterial(
+      { id: 'two-sources', name: 'Two sources', densityGcm3: 1.5, source: 'A', index: { kind: 'table', rows: [[0.4, 1.5, 0.01], [0.6, 1.5, 0.01]] } },
+      [0.5]
+    )
+    expect(indexSourceAt(m, 0.4)).toBe('A')
+    const mixed: Material = { ...m, index: { ...(m.index as TableIndex), sources: ['A', 'B'] } }
+    expect(indexSourceAt(mixed, 0.4)).toBe('A')
+    expect(indexSourceAt(mixed, 0.6)).toBe('B')
+    expect(indexSourceAt(mixed, 0.5)).toBe('A / B')
+    const constant = defineUserMaterial({ id: 'flat', name: 'Flat', densityGcm3: 1, source: 'typed by hand', index: { kind: 'constant', n: 1.5, k: 0 } }, [0.55])
+    expect(indexSourceAt(constant, 0.55)).toBe('typed by hand')
+    // every catalogue component names a source at every tabulated wavelength
+    for (const c of listMaterials()) {
+      if (c.index.kind !== 'table') continue
+      for (const w of c.index.wavelengthsUm) expect(indexSourceAt(c, w).length, `${c.id} at ${w} µm`).toBeGreaterThan(0)
+    }
   })
 })

@@ -100,3 +100,31 @@ describe('the forcing map', () => {
     }
   })
 })
+
+describe('warnings where a figure leaves its method’s range', () => {
+  const one = { ...study, wavelengths_nm: [550] }
+  const opticsAt550 = (s: Sample) => computeSampleOptics(s, one, { tolerance: 1e-3, angularWavelengthsNm: [] })
+
+  it('the demo’s humid sulfate–nitrate layer (τ ≈ 2) carries the thin-layer warning naming its two-stream figure; a thin layer of the same particles none', () => {
+    const humid = study.samples.find((s) => s.name.startsWith('Humid sulfate'))!
+    const f = sampleForcing(opticsAt550(humid), study.site)
+    expect(f.tau_550).toBeGreaterThan(1)
+    expect(f.warnings).toHaveLength(1)
+    expect(f.warnings[0]).toContain(`${Number(f.two_stream.toa_w_m2.toPrecision(3))} W m⁻²`)
+    expect(f.warnings[0]).toMatch(/Use the two-stream figure/)
+    const thin = sampleForcing(opticsAt550(withLayer({ kind: 'optical-depth', aod_550: 0.01 }, humid)), study.site)
+    expect(thin.warnings).toEqual([])
+  })
+
+  it('the sample’s two-stream layer uses its β̄, so in the thin limit it meets the thin-layer figure (within 10τ of the forcing scale; Chylek & Wong 1995 as the τ → 0 limit, see twoStream.ts)', () => {
+    const f = sampleForcing(opticsAt550(withLayer({ kind: 'optical-depth', aod_550: 1e-3 })), study.site)
+    const scale = (1361 / 4) * study.site.transmittance ** 2 * (1 - study.site.cloud_fraction) * f.tau_550
+    expect(Math.abs(f.two_stream.toa_w_m2 - f.thin_layer_w_m2)).toBeLessThan(10 * f.tau_550 * scale)
+  })
+
+  it('a sample at 97 % RH carries the near-saturation warning on its optics; at 80 % it does not (κ-Köhler, Petters & Kreidenweis 2007)', () => {
+    const humid = study.samples.find((s) => s.name.startsWith('Humid sulfate'))!
+    expect(opticsAt550({ ...humid, rh_percent: 97 }).warnings.join(' ')).toMatch(/97 % RH.*κ-Köhler/)
+    expect(opticsAt550({ ...humid, rh_percent: 80 }).warnings).toEqual([])
+  })
+})

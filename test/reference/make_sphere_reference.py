@@ -42,6 +42,8 @@ METHOD
 
 RUN
     python3 test/reference/make_sphere_reference.py        (about 9 min of CPU time; 18 min wall-clock on a busy 2-core machine)
+    python3 test/reference/make_sphere_reference.py --small-g   (g and Qsca of
+        small spheres, x 1e-6 to 0.1, into sphere-small-g.json; under a minute)
     Options: --only SUBSTR (cases whose id contains SUBSTR, nothing written),
              --no-write, --no-resonance.
     Needs only python3 and mpmath (pip "mpmath" or Debian "python3-mpmath").
@@ -892,12 +894,40 @@ def crosschecks(hres, cres):
     return worst, lines
 
 
+def small_g_cases():
+    """Small spheres, where g ~ x^2 comes from the cancelling leading terms of b_1 and a_2."""
+    C = []
+    for m in ([1.53, 0.008], [1.33, 0.0], [1.5, 1.0], [1.9, 0.6], [10.0, 10.0], [0.75, 0.0]):
+        for x in (1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 0.1):
+            C.append({'id': 'm=%s%+gi,x=%s' % (repr(m[0]), m[1], repr(x)), 'x': x, 'm': m})
+    return C
+
+
+def run_small_g_cases():
+    out = []
+    for c in small_g_cases():
+        res = evaluate(c)
+        out.append({'x': c['x'], 'm': c['m'], 'g': Num(res['Q']['g']), 'qsca': Num(res['Q']['qsca'])})
+        log('  ', c['id'], 'g =', mp.nstr(res['Q']['g'], 17))
+    obj = {
+        'description': 'Asymmetry parameter g and Qsca of small homogeneous spheres, 40-digit mpmath '
+                       '(test/reference/make_sphere_reference.py --small-g), rounded to doubles.',
+        'cases': out,
+    }
+    path = os.path.join(os.path.dirname(os.path.abspath(__file__)), 'sphere-small-g.json')
+    with open(path, 'w') as f:
+        f.write(jdump(obj) + '\n')
+    log('wrote', path)
+
+
 def main():
     ap = argparse.ArgumentParser()
     ap.add_argument('--only', default=None)
     ap.add_argument('--no-write', action='store_true')
     ap.add_argument('--no-resonance', action='store_true')
     ap.add_argument('--skip-coated', action='store_true')
+    ap.add_argument('--small-g', action='store_true',
+                    help='only g and Qsca of small spheres (x 1e-6 to 0.1), written to sphere-small-g.json (seconds)')
     ap.add_argument('--large', action='store_true',
                     help='only the cases beyond x = 1000 (slow: minutes each), written to sphere-reference-large.json')
     args = ap.parse_args()
@@ -913,6 +943,9 @@ def main():
 
     if args.large:
         run_large_cases()
+        return
+    if args.small_g:
+        run_small_g_cases()
         return
     H = homog_cases()
     Wt = water_cases()

@@ -64,7 +64,7 @@ describe('the sample list', () => {
     deleteSample('s2')
     expect(get().ids).not.toContain('s2')
     expect(names()).toEqual(before.samples.filter((_, i) => i !== 2).map((s) => s.name))
-    expect(get().toast).toEqual({ text: `Deleted “${before.samples[2].name}”.`, undo: true })
+    expect(get().toast).toEqual({ text: `Deleted sample “${before.samples[2].name}”.`, undo: true })
     expect(get().selected).toBe('s3')
     undo()
     expect(get().study).toEqual(before)

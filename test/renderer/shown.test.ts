@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest'
 import { demoStudy } from '../../src-core/index.ts'
 import { sampleKey } from '../../src-renderer/compute/client.ts'
-import { sampleState } from '../../src-renderer/shown.ts'
+import { sampleState, studyStatus } from '../../src-renderer/shown.ts'
 import type { AppState } from '../../src-renderer/state/store.ts'
 
 const study = demoStudy()
@@ -56,5 +56,29 @@ describe('stale marking', () => {
     const p = sampleState(state({ results: { s0: { key: sampleKey(study, 0), result, preview: true } } }), 's0')!
     expect(p.current && p.preview && !p.stale).toBe(true)
     expect(sampleState(state({ results: {} }), 's0')!.stale).toBe(true)
+  })
+})
+
+describe('the study’s status, one for the header and every view', () => {
+  const all = Object.fromEntries(ids.map((id, i) => [id, { key: sampleKey(study, i), result }]))
+
+  it('is up to date only when every sample’s results are from its current inputs and nothing runs', () => {
+    expect(studyStatus(state({ results: all })).state).toBe('ok')
+    expect(studyStatus(state({ results: all, job: { running: true, done: 1, total: 2 } })).state).toBe('pending')
+    // samples waiting for their first figures while the job runs are pending, not stale; once it is over, stale
+    expect(studyStatus(state({ resultsLate: true, job: { running: true, done: 1, total: 10 } })).state).toBe('pending')
+    expect(studyStatus(state({ resultsLate: true })).state).toBe('stale')
+    // one sample without results (the others current): not "up to date"
+    expect(studyStatus(state({})).state).not.toBe('ok')
+  })
+
+  it('is stale as soon as any sample is: a bad field, a problem, or a computation that failed, with its name', () => {
+    expect(studyStatus(state({ results: all, drafts: { 'samples[3].gsd': 'x' } }))).toMatchObject({ state: 'stale', inputs: 1 })
+    const failed = studyStatus(state({ results: { ...all, s2: { key: sampleKey(study, 2), result, error: 'Optical depth at 550 nm: 24 754 is outside 0–10' } } }))
+    expect(failed).toMatchObject({ state: 'stale', inputs: 0, failed: [study.samples[2].name] })
+  })
+
+  it('leaves the uncertainty settings out (they change no sample’s results)', () => {
+    expect(studyStatus(state({ results: all, drafts: { 'uncertainty.draws': 'x' } })).state).toBe('ok')
   })
 })

@@ -110,7 +110,7 @@ describe('measured bins', () => {
     expect(e[2]).toBeCloseTo(Math.sqrt(0.08), 14)
     expect(e[0]).toBeCloseTo(0.01 / Math.sqrt(0.02), 14) // log e0 = 2 log m0 − log e1
     expect(e[3]).toBeCloseTo(0.16 / Math.sqrt(0.08), 14)
-    // Log-spaced midpoints (64 per decade, as an SMPS): every bin has the same log width and is centred on its midpoint
+    // Log-spaced midpoints (64 per decade, as a mobility sizer gives them): every bin has the same log width and is centred on its midpoint
     const mids = Array.from({ length: 20 }, (_, i) => 0.01 * 10 ** (i / 64))
     const edges = edgesFromMidpoints(mids)
     for (let i = 0; i < 20; i++) {

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest'
 import {
   demoStudy,
   listMaterials,
+  looksLikeDelimitedTable,
   migrateStudy,
   parseStudy,
   serializeStudy,
@@ -215,6 +216,27 @@ describe('format, version and syntax', () => {
       expect(p.message + ' ' + p.fix).toContain(fragment)
     })
   }
+
+  it('says a sizer export or other CSV table is not a study, and points to the sizer import', () => {
+    for (const file of ['resources/sizer-single-comma.csv', 'resources/sizer-series-semicolon.csv']) {
+      const text = read(file)
+      expect(looksLikeDelimitedTable(text), file).toBe(true)
+      const r = parseStudy(text, 'export.csv')
+      expect(r.ok).toBe(false)
+      if (r.ok) return
+      expect(r.problems).toHaveLength(1)
+      expect(r.problems[0].path).toBe('export.csv document')
+      expect(r.problems[0].message).toMatch(/table of values.*not a Motebench study/)
+      expect(r.problems[0].fix).toMatch(/Import sizer file/)
+    }
+    // a tab-separated table of numbers, with a byte-order mark
+    expect(looksLikeDelimitedTable('\uFEFFdiameter_um\tdN\n0.1\t1200\n0.2\t800\n')).toBe(true)
+    // broken JSON stays a syntax error with its line and column, even with numbers and commas in it
+    expect(looksLikeDelimitedTable('{\n  "wavelengths_nm": [350, 550,]\n}')).toBe(false)
+    expect(looksLikeDelimitedTable('[1, 2]\n[3, 4]\n')).toBe(false)
+    // plain prose is not a table
+    expect(looksLikeDelimitedTable('Notes from the field, day 2\nThe inlet was wet.\n')).toBe(false)
+  })
 
   it('accepts a byte-order mark before the JSON', () => {
     expect(parseStudy('\uFEFF' + serializeStudy(demoStudy())).ok).toBe(true)

@@ -1,0 +1,192 @@
+/**
+ * Motebench's own file layout for optical instruments beside a sizer (scattering, hemispheric backscattering
+ * and absorption coefficients over time). It is ours, not any instrument's export:
+ *
+ *   # Any comment line starts with "#"; "# key: value" lines are kept as metadata.
+ *   # units: Mm-1
+ *   time,scattering 450 nm,scattering 550 nm,backscattering 450 nm,backscattering 550 nm
+ *   2026-06-01T08:00:30Z,41.2,30.5,5.1,4.2
+ *
+ * - Comment lines (#) and blank lines may stand anywhere; the first other line is the header.
+ * - Cells are separated by commas, semicolons or tabs (the one the header uses); "." is the decimal point;
+ *   cells may be quoted (papaparse splits them).
+ * - The first column is the time stamp (its header starts with "time"); every other header cell is
+ *   "QUANTITY WAVELENGTH nm", QUANTITY one of scattering, backscattering (hemispheric, 90°–180°), absorption,
+ *   optionally followed by the unit in brackets: "scattering 450 nm [Mm-1]".
+ * - The unit, Mm⁻¹ (written Mm-1, Mm^-1, Mm⁻¹ or 1/Mm), is stated in each header cell or once in a
+ *   "# units: Mm-1" line; a file that states none, or another unit, is refused (convert it first).
+ * - An empty cell, NaN or NA means no data for that quantity at that time (never counted as 0). Small
+ *   negative values (instrument noise in clean air) are kept as they are, so that averages stay unbiased.
+ * - Time stamps go through one call (`readInstrumentTime`); all of a file's stamps have a zone or none has.
+ */
+import Papa from 'papaparse/papaparse.js'
+import { InputError } from '../errors.ts'
+import { parseTimeStamp, type TimeStamp } from './timebase.ts'
+
+export type OpticalQuantity = 'scattering' | 'backscattering' | 'absorption'
+export const OPTICAL_QUANTITIES: readonly OpticalQuantity[] = ['scattering', 'backscattering', 'absorption']
+
+/** One measured quantity at one wavelength: a column of the file (1-based). */
+export interface OpticalChannel {
+  quantity: OpticalQuantity
+  wavelengthNm: number
+  column: number
+}
+
+export interface OpticalHeader {
+  fileName: string
+  channels: OpticalChannel[]
+  headerLine: number
+  delimiter: string
+  /** "# key: value" lines (keys in lower case). */
+  metadata: Record<string, string>
+}
+
+/** One row: its time (ms, and whether it had a zone) and one value per channel (NaN: no data). */
+export interface OpticalRecord {
+  line: number
+  time: string
+  ms: number
+  zoned: boolean
+  values: Float64Array
+}
+
+/** The one place an optical file's time cell is parsed (ISO 8601 for now). */
+export function readInstrumentTime(cell: string): TimeStamp | undefined {
+  return parseTimeStamp(cell)
+}
+
+const HEADER_CELL = /^(scattering|backscattering|absorption)\s+(\d+(?:\.\d+)?)\s*nm\s*(?:[[(]\s*([^\])]*?)\s*[\])])?$/i
+const UNIT = /^(mm-1|mm\^-1|mm⁻¹|1\/mm|mm\^\(-1\))$/i
+const MISSING = /^(|nan|na|n\/a)$/i
+const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/
+
+function splitCells(text: string, delimiter: string): string[] {
+  const r = Papa.parse(text, { delimiter, newline: '\n', quoteChar: '"' })
+  const cells = (r.data[0] ?? []).map((c) => c.trim())
+  while (cells.length > 1 && cells[cells.length - 1] === '') cells.pop()
+  return cells
+}
+
+export interface OpticalReaderOptions {
+  fileName: string
+  /** The quantities this file may hold (e.g. scattering and backscattering for a nephelometer's file). */
+  allowed: readonly OpticalQuantity[]
+  /** What the file is called in messages about a quantity it should not hold, e.g. "--absorption". */
+  allowedWhere?: string
+  onRecord: (record: OpticalRecord) => void
+}
+
+export interface OpticalReader {
+  push(line: string): void
+  /** The header and the number of rows read; throws when the file had no header or no row. */
+  end(): OpticalHeader & { recordCount: number }
+  readonly header: OpticalHeader | undefined
+}
+
+/** A line-by-line reader of the layout above: memory does not grow with the number of rows. */
+export function createOpticalReader(options: OpticalReaderOptions): OpticalReader {
+  const file = options.fileName
+  const metadata: Record<string, string> = {}
+  let header: OpticalHeader | undefined
+  let lineNo = 0
+  let count = 0
+  let zoned: boolean | undefined
+  let lastMs = -Infinity
+
+  const at = (line: number, column?: number) => `${file} line ${line}${column !== undefined ? ` column ${column}` : ''}`
+
+  const readHeader = (text: string, line: number) => {
+    const delimiter = text.includes('\t') ? '\t' : text.includes(';') ? ';' : ','
+    const cells = splitCells(text, delimiter)
+    if (!/^time\b/i.test(cells[0] ?? '')) {
+      throw new InputError(at(line, 1), `the header's first cell is "${cells[0] ?? ''}", not the time column`, 'Start the header with "time", then one column per quantity and wavelength, e.g. time,scattering 550 nm,absorption 660 nm.')
+    }
+    let unitMissing = false
+    const fileUnit = metadata.units ?? metadata.unit
+    if (fileUnit !== undefined && !UNIT.test(fileUnit.replace(/\s+/g, ''))) {
+      throw new InputError(`${file}: units`, `the coefficients are in "${fileUnit}", not Mm⁻¹`, 'Convert the coefficients to Mm⁻¹ (1 Mm⁻¹ = 10⁻⁶ m⁻¹) and write "# units: Mm-1".')
+    }
+    const channels: OpticalChannel[] = []
+    for (let c = 1; c < cells.length; c++) {
+      const m = HEADER_CELL.exec(cells[c])
+      if (!m) {
+        throw new InputError(at(line, c + 1), `the header cell "${cells[c]}" is not a quantity and a wavelength`, 'Write each column as QUANTITY WAVELENGTH nm with QUANTITY scattering, backscattering or absorption, e.g. "scattering 550 nm".')
+      }
+      const quantity = m[1].toLowerCase() as OpticalQuantity
+      const wavelengthNm = Number(m[2])
+      if (!options.allowed.includes(quantity)) {
+        throw new InputError(at(line, c + 1), `the column "${cells[c]}" holds ${quantity}, which this file (${options.allowedWhere ?? 'this option'}) does not take`, `Give ${options.allowed.join(' or ')} columns here, and ${quantity} in its own file.`)
+      }
+      if (!(wavelengthNm >= 200 && wavelengthNm <= 40000)) throw new InputError(at(line, c + 1), `the wavelength ${wavelengthNm} nm is outside 200 to 40000 nm`, 'Give the wavelength in nm, e.g. "scattering 550 nm".')
+      if (m[3] !== undefined) {
+        if (!UNIT.test(m[3].replace(/\s+/g, ''))) throw new InputError(at(line, c + 1), `the unit "${m[3]}" is not Mm⁻¹`, 'Convert the column to Mm⁻¹ (1 Mm⁻¹ = 10⁻⁶ m⁻¹) and write [Mm-1].')
+      } else if (fileUnit === undefined) unitMissing = true
+      if (channels.some((x) => x.quantity === quantity && x.wavelengthNm === wavelengthNm)) {
+        throw new InputError(at(line, c + 1), `${quantity} at ${wavelengthNm} nm has a second column`, 'Keep one column per quantity and wavelength.')
+      }
+      channels.push({ quantity, wavelengthNm, column: c + 1 })
+    }
+    if (channels.length === 0) throw new InputError(at(line), 'the header names no quantity', 'Add columns such as "scattering 550 nm" after the time column.')
+    if (unitMissing) throw new InputError(at(line), 'the unit of the coefficients is not stated', 'Add a line "# units: Mm-1" above the header, or write the unit in each header cell: "scattering 550 nm [Mm-1]".')
+    header = { fileName: file, channels, headerLine: line, delimiter, metadata }
+  }
+
+  const readRow = (text: string, line: number) => {
+    const h = header!
+    const cells = splitCells(text, h.delimiter)
+    if (cells.length > h.channels.length + 1) {
+      throw new InputError(at(line, h.channels.length + 2), `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
+    }
+    const t = readInstrumentTime(cells[0])
+    if (!t) throw new InputError(at(line, 1), `"${cells[0]}" is not a time stamp`, 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05 (ISO 8601, with or without a zone).')
+    if (zoned === undefined) zoned = t.zoned
+    else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
+    if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
+    lastMs = t.ms
+    const values = new Float64Array(h.channels.length)
+    for (let j = 0; j < h.channels.length; j++) {
+      const cell = cells[j + 1] ?? ''
+      if (MISSING.test(cell)) values[j] = NaN
+      else if (NUMBER.test(cell)) values[j] = Number(cell)
+      else {
+        const ch = h.channels[j]
+        throw new InputError(at(line, j + 2), `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
+      }
+    }
+    count++
+    options.onRecord({ line, time: cells[0], ms: t.ms, zoned: t.zoned, values })
+  }
+
+  return {
+    get header() {
+      return header
+    },
+    push(text: string) {
+      lineNo++
+      const trimmed = text.replace(/^\uFEFF/, '').trim()
+      if (trimmed === '') return
+      if (trimmed.startsWith('#')) {
+        const m = /^#\s*([^:]+?)\s*:\s*(.*)$/.exec(trimmed)
+        if (m && !header) metadata[m[1].toLowerCase()] = m[2].trim()
+        return
+      }
+      if (!header) readHeader(trimmed, lineNo)
+      else readRow(trimmed, lineNo)
+    },
+    end() {
+      if (!header) throw new InputError(file, 'no header line was found', 'Start the table with a header such as: time,scattering 550 nm (comment lines start with #).')
+      if (count === 0) throw new InputError(`${file} line ${header.headerLine}`, 'the file has a header but no rows', 'Give one row per time after the header.')
+      return { ...header, recordCount: count }
+    }
+  }
+}
+
+/** Reads a whole text (tests, the app). */
+export function parseOpticalText(text: string, options: Omit<OpticalReaderOptions, 'onRecord'>): { header: OpticalHeader; records: OpticalRecord[] } {
+  const records: OpticalRecord[] = []
+  const reader = createOpticalReader({ ...options, onRecord: (r) => records.push(r) })
+  for (const line of text.split(/\r?\n/)) reader.push(line)
+  const { recordCount: _n, ...header } = reader.end()
+  return { header, records }
+}
