@@ -22,6 +22,7 @@ const commands: Record<string, Command> = {
   uncertainty: { summary: "Monte Carlo uncertainty of a sample's 550 nm optics and forcing", load: async () => { const m = await import('./uncertainty.ts'); return { help: m.uncertaintyHelp, run: m.runUncertaintyCommand } } },
   closure: { summary: 'effective refractive index from a size distribution and optical measurements', load: async () => { const m = await import('./closure.ts'); return { help: m.closureHelp, run: m.runClosure } } },
   truncation: { summary: "nephelometer angular-truncation correction from the particles' phase function", load: async () => { const m = await import('./truncation.ts'); return { help: m.truncationHelp, run: m.runTruncation } } },
+  join: { summary: "the outputs of a run's shards (--shard K/N) as the run's one output", load: async () => { const m = await import('./join.ts'); return { help: m.joinHelp, run: m.runJoin } } },
   rebin: { summary: 'optical particle counter bin edges from PSL calibration to true diameters', load: async () => { const m = await import('./rebin.ts'); return { help: m.rebinHelp, run: m.runRebin } } }
 }
 

@@ -36,6 +36,7 @@ import {
   type SizerKind
 } from '../../src-core/index.ts'
 import { EXIT_OK, EXIT_SKIPPED, readArgs, readInteger, readNumber, UsageError } from './common.ts'
+import { readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 
 export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --density RHO --out FILE: several sizers as one distribution
   --mobility FILE        mobility sizer export (electrical-mobility diameter), one row per time, one column per bin
@@ -58,6 +59,8 @@ export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --d
                          (readers leave such a row out with the reason); omit: such steps are left out of the
                          table, so that the app imports the file whole (the summary and the file list them)
   --out FILE             the merged sizer file (it appears only when complete)
+  --shard K/N            write only the K-th of N contiguous parts of the time steps (after the same head and a
+                         shard line); "motebench join" puts the parts together into the whole file
 Conversions to the volume-equivalent diameter after DeCarlo et al. (2004, Aerosol Sci. Technol. 38:1185) with
 the Cunningham slip correction; each bin keeps its particles. Overlap rule: each sizer is trusted inside its own
 range; where two ranges overlap, the weights hand over linearly in log d_ve across the overlap (the lower sizer
@@ -217,7 +220,8 @@ export async function runMerge(argv: string[]): Promise<number> {
     every: { type: 'string' },
     'bins-per-decade': { type: 'string' },
     'gap-rows': { type: 'string' },
-    out: { type: 'string' }
+    out: { type: 'string' },
+    shard: { type: 'string' }
   })
   const files: [SizerKind, string][] = []
   if (values.mobility !== undefined) files.push(['mobility', values.mobility])
@@ -254,6 +258,7 @@ export async function runMerge(argv: string[]): Promise<number> {
   const gapRows = values['gap-rows'] ?? 'keep'
   if (gapRows !== 'keep' && gapRows !== 'omit') throw new UsageError(`merge: --gap-rows "${gapRows}" is not keep or omit`)
   const everyGiven = values.every === undefined ? undefined : parseDuration(values.every, '--every')
+  const shard = readShard(values.shard, 'merge')
 
   // pass 1: headers, times, intervals
   const reads: FileRead[] = []
@@ -320,16 +325,24 @@ export async function runMerge(argv: string[]): Promise<number> {
       instrumentsColumn: true,
       madeBy: `motebench ${MOTEBENCH_VERSION} merge`
     })
-    await target.write(head.join('\n') + '\n')
+    let preamble = ''
+    let [from, to] = [0, steps]
+    if (shard) {
+      // a shard writes the same head and its contiguous part of the time steps
+      ;[from, to] = shardRange(steps, shard)
+      const { out: _o, shard: _s, ...options } = values
+      preamble = shardLine('merge', shard, await runFingerprint('merge', files.map((f) => f[1]), options), head.length)
+    }
+    await target.write(preamble + head.join('\n') + '\n')
     let chunk: string[] = []
-    for (let k = 0; k < steps; k++) {
+    for (let k = from; k < to; k++) {
       const vals = reads.map((_, i) => means[i][k])
       const present = reads.filter((_, i) => vals[i]).map((r) => r.kind)
       if (gapRows === 'keep' || present.length === reads.length) {
         mergeStep(plan, vals, merged)
         chunk.push(mergedFileRow(formatTimeStamp(base.starts[k], zoned), merged, present))
       }
-      if (chunk.length === 500 || (k === steps - 1 && chunk.length > 0)) {
+      if (chunk.length === 500 || (k === to - 1 && chunk.length > 0)) {
         await target.write(chunk.join('\n') + '\n')
         chunk = []
       }

@@ -23,6 +23,7 @@ import {
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
@@ -42,6 +43,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
                         integrated once and every row is a weighted sum of them
 ${sizerHelp()}
 ${seriesOpticalHelp}
+  --shard K/N           only the K-th of N contiguous parts of the file's lines (rows in one time per row
+                        files); the output starts with a shard line, and "motebench join" puts the parts together
 Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³); with measured files, their columns after these (the "#" lines that open the
 file say how they were made comparable). A summary goes to standard error; a progress bar too when it is a terminal.
@@ -79,6 +82,8 @@ export interface SeriesRunOptions extends SeriesSetup {
   onProgress?: (written: number) => void
   /** Called every few hundred milliseconds while the pipeline runs (e.g. to sample memory). */
   onTick?: () => void
+  /** A shard: only the rows on these lines (1-based, inclusive), after this line written first. */
+  shard?: { firstLine: number; lastLine: number; line: string }
   /** Extra cells after each row's figures (measured optical instruments beside the sizer; series-optical.ts). */
   extra?: SeriesExtra
 }
@@ -291,7 +296,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     onBadRow: o.onBadRow,
     maxKeptRejections: KEPT_REASONS,
     onRecord: (record) => {
+      if (o.shard && (record.line < o.shard.firstLine || record.line > o.shard.lastLine)) return
+      shardRecords++
       if (bins === 0) {
+        if (o.shard && reader.header!.layout !== 'time-rows') throw new InputError(o.fileName, 'the file has one column per time, so it cannot be split by lines', 'Run it without --shard (or export one row per time).')
         const h = reader.header!
         const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
         for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
@@ -310,21 +318,28 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     }
   })
 
+  let lineNo = 0
+  let shardRecords = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
     const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
-    pendingHeader = comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n'
+    pendingHeader = (o.shard?.line ?? '') + comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n'
     const take = (line: string): void => {
+      lineNo++
+      // a shard: lines before its part are blank once the header is known; after its part the reading stops
+      if (o.shard && lineNo < o.shard.firstLine && reader.header) line = ''
       reader.push(line)
     }
+    const last = o.shard?.lastLine ?? Infinity
     for await (const item of source) {
       if (typeof item === 'string') take(item)
-      else for (const line of item) take(line)
+      else for (const line of item) if (lineNo < last || !reader.header) take(line)
+      if (lineNo >= last && reader.header) break
       while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
       if (failure) throw failure
     }
     const end = reader.end()
-    if (end.recordCount === 0 && end.rejectedCount === 0) {
+    if (end.recordCount === 0 && end.rejectedCount === 0 && !o.shard) {
       throw new InputError(o.fileName, 'the file has a header but no distributions', 'Export at least one time step (one row per time, one column per bin).')
     }
     if (current) {
@@ -344,15 +359,17 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     const h = end
     let readerSkipped: number
     if (h.layout === 'time-rows') {
-      readerSkipped = end.rowsLeftOut
+      // a shard: the rows left out on its own lines (of those the reader kept the reasons for)
+      readerSkipped = o.shard ? new Set(end.rejected.filter((r) => r.line >= o.shard!.firstLine && r.line <= o.shard!.lastLine).map((r) => r.line)).size : end.rowsLeftOut
     } else {
       readerSkipped = new Set(end.rejected.map((r) => r.line)).size
     }
-    const skipped: SkippedRow[] = [...end.rejected.map((r: SizerRejection) => ({ ...r })), ...opticsSkips].sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0))
+    const mine = (r: { line: number }) => !o.shard || (r.line >= o.shard.firstLine && r.line <= o.shard.lastLine)
+    const skipped: SkippedRow[] = [...end.rejected.filter(mine).map((r: SizerRejection) => ({ ...r })), ...opticsSkips].sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0))
     const { recordCount: _r, rejected: _j, rejectedCount: _c, ...header } = end
     return {
       header,
-      distributionsRead: end.recordCount + readerSkipped,
+      distributionsRead: (o.shard ? shardRecords : end.recordCount) + readerSkipped,
       rowsWritten: written,
       rowsSkippedByReader: readerSkipped,
       rowsSkippedByOptics: opticsSkipCount,
@@ -487,7 +504,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       workers: { type: 'string' },
       tolerance: { type: 'string' },
       ...sizerFlags,
-      ...SERIES_OPTICAL_OPTIONS
+      ...SERIES_OPTICAL_OPTIONS,
+      shard: { type: 'string' }
     },
     true
   )
@@ -516,6 +534,15 @@ export async function runSeries(argv: string[]): Promise<number> {
   for (const w of wavelengthsNm) dryIndicesAt(kind, w / 1000)
 
   const size = (await stat(file)).size
+  const shardOf = readShard(values.shard, 'series')
+  let shard: SeriesRunOptions['shard']
+  if (shardOf) {
+    if (optical) throw new UsageError('series: --shard does not take the measured instruments (--scattering, --absorption) yet; run the comparison whole')
+    const [from, to] = shardRange(await countLines(file), shardOf)
+    const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy }
+    // the last part takes every line after its first (whatever the count missed)
+    shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
+  }
   const target = values.out !== undefined ? await fileOutput(values.out) : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
   // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
@@ -536,7 +563,8 @@ export async function runSeries(argv: string[]): Promise<number> {
       workers,
       output: target ? target.output : stdoutOutput,
       extra: optical?.extra,
-      onProgress: bar ? (n) => bar.update(n) : undefined
+      onProgress: bar ? (n) => bar.update(n) : undefined,
+      shard
     })
     await target?.commit()
   } catch (e) {

@@ -1,6 +1,6 @@
 // motebench uncertainty: Monte Carlo propagation of a sample's input uncertainties to its 550 nm optics and forcing,
 // split over worker threads.
-import { readFile } from 'node:fs/promises'
+import { readFile, rename, unlink, writeFile } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
 import type { Worker } from 'node:worker_threads'
@@ -22,9 +22,12 @@ import {
   type Study,
   type UncertaintyResult,
   type UncertaintyRunOptions,
+  type UncertaintyPlan,
   type UncertaintyStatus
 } from '../../src-core/index.ts'
 import { formatNumber, printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
+import { drawsHead, drawsRows, readDraws } from './uncertainty-draws.ts'
 import { startCliWorker } from './workers/start.ts'
 
 export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: Monte Carlo uncertainty of a sample's 550 nm optics and forcing
@@ -44,6 +47,13 @@ export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: M
   --workers N           worker threads besides the main thread, which computes too (default: cores − 1, at
                         most 7; 0: main thread only). Results do not depend on N.
   --json                JSON output (every figure's histogram included)
+  --save-draws FILE     also write every draw (its input variates and figures, CSV in full precision) to FILE
+  --from-draws FILE     report from a draws file (--save-draws, or the shards put together by "motebench join")
+                        instead of drawing; give the same study and options as the run that drew them
+  --shard K/N           draw only the K-th of N contiguous parts of the draws (the same draws as in the whole
+                        run) and write them as a draws file (--out FILE, else standard output) after a shard
+                        line; needs --precision 0 or --lhs (no early stop)
+  --out FILE            with --shard: the part's draws file (it appears only when complete)
 Reports, for extinction, scattering, absorption, ω, g, β̄, τ and the forcing at 550 nm: the plain value, median,
 5–95 % range, mean and sd; P(warm) = P(forcing > 0) with its binomial standard error; and the inputs ranked by
 |Spearman rank correlation| with the thin-layer forcing. Progress goes to standard error on a terminal; Ctrl-C
@@ -65,11 +75,11 @@ export function startUncertaintyWorker(workerData: unknown): Worker {
   return startCliWorker('uncertainty-worker', workerData)
 }
 
-/** Contiguous draws from 0 among the received blocks. */
-function prefixOf(blocks: DrawBlock[], nIn: number): DrawBlock {
+/** Contiguous draws from `from` among the received blocks. */
+function prefixOf(blocks: DrawBlock[], nIn: number, from = 0): DrawBlock {
   const sorted = [...blocks].sort((a, b) => a.start - b.start)
   const take: DrawBlock[] = []
-  let next = 0
+  let next = from
   for (const b of sorted) {
     if (b.start !== next) break
     take.push(b)
@@ -89,9 +99,19 @@ const BLOCK_DRAWS = 25
  */
 export async function runUncertaintyInWorkers(study: Study, sampleName: string, options: UncertaintyRunOptions, parallel: ParallelOptions): Promise<UncertaintyResult> {
   const plan = planUncertainty(study, sampleName, options)
+  const { block, status } = await drawInWorkers(plan, study, sampleName, options, parallel)
+  return summarizeDraws(plan, block, status, centralFigures(plan))
+}
+
+/**
+ * The draws [from, to) of a plan (default: all, with the early stop), made by this thread and the workers; draw i
+ * is the same whatever the range and the number of workers (each draw's random numbers come from the seed and i).
+ */
+export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleName: string, options: UncertaintyRunOptions, parallel: ParallelOptions, range: [number, number] = [0, plan.draws]): Promise<{ block: DrawBlock; status: UncertaintyStatus }> {
   const nIn = plan.inputs.length
+  const [from, to] = range
   const chunks: [number, number][] = []
-  for (let s = 0; s < plan.draws; s += BLOCK_DRAWS) chunks.push([s, Math.min(plan.draws, s + BLOCK_DRAWS)])
+  for (let s = from; s < to; s += BLOCK_DRAWS) chunks.push([s, Math.min(to, s + BLOCK_DRAWS)])
   const nWorkers = Math.max(0, Math.min(parallel.workers, chunks.length - 1))
   const blocks: DrawBlock[] = []
   let status: UncertaintyStatus = 'completed'
@@ -105,7 +125,7 @@ export async function runUncertaintyInWorkers(study: Study, sampleName: string, 
   }
   /** After a block arrives: true when the run has what it needs. */
   const judge = (): boolean => {
-    const prefix = prefixOf(blocks, nIn)
+    const prefix = prefixOf(blocks, nIn, from)
     progress(prefix)
     const stop = earlyStopPoint(plan, prefix)
     if (stop !== null) {
@@ -113,7 +133,7 @@ export async function runUncertaintyInWorkers(study: Study, sampleName: string, 
       status = 'precision reached'
       return true
     }
-    return prefix.count >= plan.draws
+    return prefix.count >= to - from
   }
 
   await new Promise<void>((resolve, reject) => {
@@ -166,15 +186,15 @@ export async function runUncertaintyInWorkers(study: Study, sampleName: string, 
         await new Promise((r) => setImmediate(r))
       }
       // Out of blocks to start: the workers finish theirs (judge() ends the run with the last one).
-      if (!finished && blocks.reduce((n, b) => n + b.count, 0) >= plan.draws) finish()
+      if (!finished && blocks.reduce((n, b) => n + b.count, 0) >= to - from) finish()
     }
     own().catch(finish)
   })
-  let prefix = prefixOf(blocks, nIn)
+  let prefix = prefixOf(blocks, nIn, from)
   if (stopAt !== null) prefix = truncateBlock(prefix, stopAt, nIn)
-  else if (prefix.count < plan.draws) status = 'cancelled'
-  if (prefix.count === 0) throw new InputError('uncertainty', 'the run was stopped before any draw was made', 'Run it again and let it make at least one draw.')
-  return summarizeDraws(plan, prefix, status, centralFigures(plan))
+  else if (prefix.count < to - from) status = 'cancelled'
+  if (prefix.count === 0 && to > from) throw new InputError('uncertainty', 'the run was stopped before any draw was made', 'Run it again and let it make at least one draw.')
+  return { block: prefix, status }
 }
 
 export async function runUncertaintyCommand(argv: string[]): Promise<number> {
@@ -189,7 +209,11 @@ export async function runUncertaintyCommand(argv: string[]): Promise<number> {
       precision: { type: 'string' },
       'min-draws': { type: 'string' },
       workers: { type: 'string' },
-      json: { type: 'boolean', default: false }
+      json: { type: 'boolean', default: false },
+      shard: { type: 'string' },
+      out: { type: 'string' },
+      'save-draws': { type: 'string' },
+      'from-draws': { type: 'string' }
     },
     true
   )
@@ -215,6 +239,24 @@ export async function runUncertaintyCommand(argv: string[]): Promise<number> {
     minDraws: whole(values['min-draws'], '--min-draws', 1)
   }
   const workers = whole(values.workers, '--workers', 0) ?? Math.min(7, availableParallelism() - 1)
+  const shard = readShard(values.shard, 'uncertainty')
+  if (values.out !== undefined && !shard) throw new UsageError('uncertainty: --out is for the draws of a --shard K/N; the report goes to standard output (--save-draws FILE keeps every draw)')
+  const sharded = shard !== undefined || values['save-draws'] !== undefined || values['from-draws'] !== undefined
+  const plan = planUncertainty(parsed.study, values.sample, options)
+  // the run's fingerprint: the study's contents and every option that changes a draw or the report
+  const fingerprint = sharded ? await runFingerprint('uncertainty', [file], { sample: values.sample, ...options }) : ''
+  if (values['from-draws'] !== undefined) {
+    if (shard) throw new UsageError('uncertainty: give --from-draws or --shard, not both')
+    const block = await readDraws(values['from-draws'], plan, values.sample, fingerprint)
+    const status: UncertaintyStatus = block.count === plan.draws ? 'completed' : earlyStopPoint(plan, block) === block.count ? 'precision reached' : 'cancelled'
+    const result = summarizeDraws(plan, block, status, centralFigures(plan))
+    if (values.json) printJson(result)
+    else printUncertainty(result)
+    return 0
+  }
+  if (shard && plan.sampling === 'random' && plan.precision > 0) {
+    throw new UsageError('uncertainty: --shard needs --precision 0 (or --lhs): the early stop judges the draws in order from the first, which one part of them cannot')
+  }
   const tty = process.stderr.isTTY
   let interrupted = false
   let onInterrupt: () => void = () => {}
@@ -225,22 +267,47 @@ export async function runUncertaintyCommand(argv: string[]): Promise<number> {
     }
   })
   process.once('SIGINT', onInterrupt)
-  let result: UncertaintyResult
+  let drawn: Awaited<ReturnType<typeof drawInWorkers>>
+  const range = shard ? shardRange(plan.draws, shard) : undefined
   try {
-    result = await runUncertaintyInWorkers(parsed.study, values.sample, options, {
+    const parallel: ParallelOptions = {
       workers,
       cancel,
       onProgress: tty
-        ? (p) => process.stderr.write(`\r  ${p.done}/${p.total} draws, P(warm) ${formatNumber(p.warm)} ± ${formatNumber(p.standardError)}   `)
+        ? (p) => process.stderr.write(`\r  ${p.done}/${range ? range[1] - range[0] : p.total} draws, P(warm) ${formatNumber(p.warm)} ± ${formatNumber(p.standardError)}   `)
         : undefined
-    })
+    }
+    drawn = await drawInWorkers(plan, parsed.study, values.sample, options, parallel, range)
   } finally {
     process.removeListener('SIGINT', onInterrupt)
     if (tty) process.stderr.write('\r\x1b[K')
   }
+  const head = sharded ? drawsHead(plan, values.sample, fingerprint) : ''
+  if (shard) {
+    if (interrupted) return 130 // a part of a shard is no shard: nothing written
+    const text = shardLine('uncertainty', shard, fingerprint, 2) + head + drawsRows(drawn.block, plan.inputs.length)
+    if (values.out !== undefined) await writeWhole(values.out, text)
+    else process.stdout.write(text)
+    process.stderr.write(`uncertainty: draws ${range![0]} to ${range![1] - 1} of ${plan.draws} (shard ${shard.k}/${shard.n})${values.out !== undefined ? ` written to ${values.out}` : ''}\n`)
+    return 0
+  }
+  if (values['save-draws'] !== undefined) await writeWhole(values['save-draws'], head + drawsRows(drawn.block, plan.inputs.length))
+  const result = summarizeDraws(plan, drawn.block, drawn.status, centralFigures(plan))
   if (values.json) printJson(result)
   else printUncertainty(result)
   return interrupted ? 130 : 0
+}
+
+/** Writes a file whole: to FILE.tmp-PID, then renamed. */
+async function writeWhole(path: string, text: string): Promise<void> {
+  const tmp = `${path}.tmp-${process.pid}`
+  try {
+    await writeFile(tmp, text)
+    await rename(tmp, path)
+  } catch (e) {
+    await unlink(tmp).catch(() => {})
+    throw new UsageError(`uncertainty: cannot write ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'its folder does not exist' : (e as Error).message}`)
+  }
 }
 
 function printUncertainty(r: UncertaintyResult): void {

@@ -1,0 +1,87 @@
+// The Slurm array job of resources/batch/series-array.sh on a real single-node Slurm cluster started by
+// test/batch/slurm-cluster.sh (Debian's slurm-wlm and munge; a munge key made here, a minimal slurm.conf, no
+// cgroups). The array's three parts, put together by `motebench join`, must equal the single run byte for byte.
+// Needs root and the packages (.ci/run installs them); like the e2e tests with Chromium, it fails when they are
+// missing rather than skipping. The cluster's daemons and files go away in afterAll, even when the test fails.
+import { execFile } from 'node:child_process'
+import { existsSync } from 'node:fs'
+import { mkdir, mkdtemp, readdir, readFile, rm } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, expect, it } from 'vitest'
+import { repo, run } from '../cli/helpers.ts'
+
+const cluster = join(repo, 'test/batch/slurm-cluster.sh')
+const TOOLS = ['/usr/sbin/slurmctld', '/usr/sbin/slurmd', '/usr/bin/sbatch', '/usr/sbin/munged']
+
+function sh(cmd: string, args: string[], env: NodeJS.ProcessEnv = process.env, timeout = 60_000): Promise<{ code: number; stdout: string; stderr: string }> {
+  return new Promise((resolve) => {
+    execFile(cmd, args, { env, timeout }, (err, stdout, stderr) => resolve({ code: err ? ((err as { code?: number }).code ?? 1) : 0, stdout, stderr }))
+  })
+}
+
+let dir = ''
+let started = false
+/** Why the cluster is not there: the test fails with it (a failed test, not a skipped one). */
+let setupError: Error | undefined
+
+beforeAll(async () => {
+  try {
+    await startCluster()
+  } catch (e) {
+    setupError = e as Error
+  }
+}, 60_000)
+
+async function startCluster(): Promise<void> {
+  const missing = TOOLS.filter((t) => !existsSync(t))
+  if (missing.length > 0) throw new Error(`Slurm is not installed (missing ${missing.join(', ')}): apt-get install -y slurm-wlm munge (.ci/run does it)`)
+  if (process.getuid?.() !== 0) throw new Error('the Slurm test runs as root (slurmd starts the jobs as their user)')
+  dir = await mkdtemp(join(tmpdir(), 'motebench-slurm-'))
+  started = true // stop even a half-started cluster
+  const r = await sh('bash', [cluster, 'start', join(dir, 'cluster')], process.env, 40_000)
+  if (r.code !== 0) throw new Error(`the Slurm cluster did not start:\n${r.stderr}`)
+}
+
+afterAll(async () => {
+  if (started) await sh('bash', [cluster, 'stop', join(dir, 'cluster')])
+  if (dir) await rm(dir, { recursive: true, force: true })
+}, 30_000)
+
+it('a Slurm array job of three series shards, joined, equals the single run byte for byte', { timeout: 90_000 }, async () => {
+  if (setupError) throw setupError
+  const sizer = join(repo, 'resources/sizer-series-semicolon.csv')
+  const study = join(repo, 'resources/demo.mote')
+  const sample = 'Coastal haze day'
+  const parts = join(dir, 'parts')
+  await mkdir(parts)
+  const env = {
+    ...process.env,
+    SLURM_CONF: join(dir, 'cluster/slurm.conf'),
+    SIZER: sizer,
+    STUDY: study,
+    SAMPLE: sample,
+    WAVELENGTHS: '450,550,700nm',
+    OUTDIR: parts,
+    MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}`
+  }
+  // one processor a task, so two tasks run at once on the two-processor node
+  const job = await sh('sbatch', ['--wait', '--array=1-3', '--cpus-per-task=1', `--chdir=${dir}`, `--output=${join(dir, 'task-%a.log')}`, join(repo, 'resources/batch/series-array.sh')], env, 80_000)
+  const logs = (await readdir(dir)).filter((f) => f.startsWith('task-'))
+  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
+  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
+  expect(job.stdout).toMatch(/Submitted batch job \d+/)
+
+  const files = (await readdir(parts)).sort()
+  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
+  const joined = join(dir, 'record.csv')
+  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
+  expect(j.code, j.stderr).toBe(0)
+
+  const single = join(dir, 'single.csv')
+  const s = await run(['series', sizer, '--study', study, '--sample', sample, '--wavelengths', '450,550,700nm', '--out', single])
+  expect(s.code, s.stderr).toBe(0)
+  const [a, b] = await Promise.all([readFile(joined, 'utf8'), readFile(single, 'utf8')])
+  expect(a.trimEnd().split('\n').length).toBe(13)
+  expect(a).toBe(b)
+})
