@@ -132,6 +132,6 @@ export function appSession(): {
 }
 
 /** A number as the page shows it (negative numbers and exponents with the minus sign U+2212), for comparisons. */
-export function shownNumber(text: string | null): number {
+export function shownNumber(text: string | null | undefined): number {
   return Number((text ?? '').trim().replace(/\u2212/g, '-'))
 }
