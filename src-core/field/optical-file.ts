@@ -17,7 +17,11 @@
  *   "# units: Mm-1" line; a file that states none, or another unit, is refused (convert it first).
  * - An empty cell, NaN or NA means no data for that quantity at that time (never counted as 0). Small
  *   negative values (instrument noise in clean air) are kept as they are, so that averages stay unbiased.
- * - Time stamps go through one call (`readInstrumentTime`); all of a file's stamps have a zone or none has.
+ * - Time stamps go through one call (`readInstrumentTime`): ISO 8601 only (2026-06-01T10:05:00Z or
+ *   2026-06-01 10:05); all of a file's stamps have a zone or none has, and they ascend.
+ * - A data row whose time cannot be read, or with a cell that is not a number, or with more cells than the
+ *   header, is left out and reported (file, line, column, reason, fix; the first MAX_KEPT_OPTICAL_REJECTIONS
+ *   kept, all counted). Header problems, a change of zone form and times out of order stop the reading.
  */
 import Papa from 'papaparse/papaparse.js'
 import { InputError } from '../errors.ts'
@@ -51,7 +55,17 @@ export interface OpticalRecord {
   values: Float64Array
 }
 
-/** The one place an optical file's time cell is parsed (ISO 8601 for now). */
+/** A data row left out of the reading: where, why and how to fix it. */
+export interface OpticalRejection {
+  line: number
+  column: number
+  reason: string
+  fix: string
+}
+
+export const MAX_KEPT_OPTICAL_REJECTIONS = 1000
+
+/** The one place an optical file's time cell is parsed (ISO 8601 only). */
 export function readInstrumentTime(cell: string): TimeStamp | undefined {
   return parseTimeStamp(cell)
 }
@@ -79,8 +93,11 @@ export interface OpticalReaderOptions {
 
 export interface OpticalReader {
   push(line: string): void
-  /** The header and the number of rows read; throws when the file had no header or no row. */
-  end(): OpticalHeader & { recordCount: number }
+  /**
+   * The header, the number of rows read and the rows left out (the first MAX_KEPT_OPTICAL_REJECTIONS, and their
+   * count); throws when the file had no header or no row that could be read.
+   */
+  end(): OpticalHeader & { recordCount: number; rejected: OpticalRejection[]; rejectedCount: number }
   readonly header: OpticalHeader | undefined
 }
 
@@ -93,6 +110,12 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
   let count = 0
   let zoned: boolean | undefined
   let lastMs = -Infinity
+  const rejected: OpticalRejection[] = []
+  let rejectedCount = 0
+  const reject = (line: number, column: number, reason: string, fix: string): void => {
+    rejectedCount++
+    if (rejected.length < MAX_KEPT_OPTICAL_REJECTIONS) rejected.push({ line, column, reason: `${reason}; the row is left out`, fix })
+  }
 
   const at = (line: number, column?: number) => `${file} line ${line}${column !== undefined ? ` column ${column}` : ''}`
 
@@ -136,14 +159,10 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     const h = header!
     const cells = splitCells(text, h.delimiter)
     if (cells.length > h.channels.length + 1) {
-      throw new InputError(at(line, h.channels.length + 2), `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
+      return reject(line, h.channels.length + 2, `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
     }
     const t = readInstrumentTime(cells[0])
-    if (!t) throw new InputError(at(line, 1), `"${cells[0]}" is not a time stamp`, 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05 (ISO 8601, with or without a zone).')
-    if (zoned === undefined) zoned = t.zoned
-    else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
-    if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
-    lastMs = t.ms
+    if (!t) return reject(line, 1, cells[0] === '' ? 'the time is missing' : `"${cells[0]}" is not a time stamp`, 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05 (ISO 8601, with or without a zone).')
     const values = new Float64Array(h.channels.length)
     for (let j = 0; j < h.channels.length; j++) {
       const cell = cells[j + 1] ?? ''
@@ -151,9 +170,13 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
       else if (NUMBER.test(cell)) values[j] = Number(cell)
       else {
         const ch = h.channels[j]
-        throw new InputError(at(line, j + 2), `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
+        return reject(line, j + 2, `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
       }
     }
+    if (zoned === undefined) zoned = t.zoned
+    else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
+    if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
+    lastMs = t.ms
     count++
     options.onRecord({ line, time: cells[0], ms: t.ms, zoned: t.zoned, values })
   }
@@ -176,17 +199,24 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     },
     end() {
       if (!header) throw new InputError(file, 'no header line was found', 'Start the table with a header such as: time,scattering 550 nm (comment lines start with #).')
+      if (count === 0 && rejectedCount > 0) {
+        const r = rejected[0]
+        throw new InputError(at(r.line, r.column), `no row could be read (${rejectedCount} left out; the first: ${r.reason})`, r.fix)
+      }
       if (count === 0) throw new InputError(`${file} line ${header.headerLine}`, 'the file has a header but no rows', 'Give one row per time after the header.')
-      return { ...header, recordCount: count }
+      return { ...header, recordCount: count, rejected: rejected.slice(), rejectedCount }
     }
   }
 }
 
 /** Reads a whole text (tests, the app). */
-export function parseOpticalText(text: string, options: Omit<OpticalReaderOptions, 'onRecord'>): { header: OpticalHeader; records: OpticalRecord[] } {
+export function parseOpticalText(
+  text: string,
+  options: Omit<OpticalReaderOptions, 'onRecord'>
+): { header: OpticalHeader; records: OpticalRecord[]; rejected: OpticalRejection[]; rejectedCount: number } {
   const records: OpticalRecord[] = []
   const reader = createOpticalReader({ ...options, onRecord: (r) => records.push(r) })
   for (const line of text.split(/\r?\n/)) reader.push(line)
-  const { recordCount: _n, ...header } = reader.end()
-  return { header, records }
+  const { recordCount: _n, rejected, rejectedCount, ...header } = reader.end()
+  return { header, records, rejected, rejectedCount }
 }
