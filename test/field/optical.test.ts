@@ -266,6 +266,21 @@ describe('bad measured files', () => {
     expect(messy.rejected[2].fix).toMatch(/one value per header column/)
     expect(clean.rejectedCount).toBe(0)
   })
+  it('reads day/month/year and month/day/year times as their ISO 8601 twin, with the order stated or detected, and refuses an order the dates do not settle', () => {
+    const iso = read(`${head}\n2026-06-03T10:00:00Z,1,2\n2026-06-13T10:05:30Z,3,4\n2026-07-01T00:00:00Z,5,6`)()
+    const same = (r: ReturnType<ReturnType<typeof read>>) => expect(r.records.map((x) => [x.time, x.ms, x.zoned, ...x.values])).toEqual(iso.records.map((x) => [x.time, x.ms, x.zoned, ...x.values]))
+    // detected: the second row's day 13 settles day/month/year; the first row waits for it
+    same(read(`${head}\n03/06/2026 10:00Z,1,2\n13/06/2026 10:05:30Z,3,4\n01/07/2026 00:00Z,5,6`)())
+    same(read(`${head}\n06/03/2026 10:00 UTC,1,2\n06/13/2026 10:05:30 UTC,3,4\n07/01/2026 00:00 UTC,5,6`)())
+    // stated: no date has a part above 12, the "# date format" line says which is the day
+    same(read(`# date format: dd/mm/yyyy\n${head}\n03.06.2026 10:00Z,1,2\n2026-06-13T10:05:30Z,3,4\n01.07.2026 00:00Z,5,6`)())
+    // never guessed: refused at the first row with the fix
+    fails(read(`${head}\n03/06/2026 10:00Z,1,2\n04/06/2026 10:00Z,3,4`), 'neph.csv line 3 column 1', /# date format: dd\/mm\/yyyy/)
+    // a date impossible in the detected order is a bad time: its row is left out, located
+    const r = read(`${head}\n13/06/2026 10:00Z,1,2\n06/14/2026 10:05Z,3,4\n15/06/2026 10:00Z,5,6`)()
+    expect(r.records.map((x) => x.line)).toEqual([3, 5])
+    expect(r.rejected.map((x) => [x.line, x.column, x.reason])).toEqual([[4, 1, '"06/14/2026 10:05Z" is not a date and time in day/month/year order (detected from line 3: 13/06/2026 10:00Z); the row is left out']])
+  })
   it('reads empty cells and NaN as no data, keeps small negative values, and takes the unit from the header cells', () => {
     const { header, records } = read('# station: invented\ntime\tscattering 450 nm [Mm-1]\tbackscattering 450 nm (Mm^-1)\n\n2026-06-01 10:00\t-0.4\t\n# a comment\n2026-06-01 10:01\tNaN\t0.2')()
     expect(header.delimiter).toBe('\t')
