@@ -198,14 +198,17 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
       const p = dateParts(cells[0] ?? '')
       if (p && p.aDigits !== 4) {
         const e = orderEvidence(p)
-        if (e !== 'dmy' && e !== 'mdy') {
+        if (e === undefined) {
           held.push({ text, line })
           if (held.length > MAX_HELD_ROWS) throw orderUnknown()
           return
         }
-        order = e
-        orderFrom = `detected from line ${line}: ${cells[0]}`
-        for (const r of held.splice(0)) readRow(r.text, r.line)
+        // only a real date settles the order (13/13/2026 or 31/02/2026 is a bad time, left out below)
+        if (e !== 'conflict' && readDateTime(cells[0], undefined, e, undefined)) {
+          order = e
+          orderFrom = `detected from line ${line}: ${cells[0]}`
+          for (const r of held.splice(0)) readRow(r.text, r.line)
+        }
       }
     }
     if (cells.length > h.channels.length + 1) {
@@ -258,7 +261,7 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
         throw new InputError(at(r.line, r.column), `no row could be read (${rejectedCount} left out; the first: ${r.reason})`, r.fix)
       }
       if (count === 0) throw new InputError(`${file} line ${header.headerLine}`, 'the file has a header but no rows', 'Give one row per time after the header.')
-      return { ...header, recordCount: count, rejected: rejected.slice(), rejectedCount }
+      return { ...header, recordCount: count, rejected: rejected.slice().sort((a, b) => a.line - b.line), rejectedCount }
     }
   }
 }

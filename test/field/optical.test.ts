@@ -276,6 +276,10 @@ describe('bad measured files', () => {
     same(read(`# date format: dd/mm/yyyy\n${head}\n03.06.2026 10:00Z,1,2\n2026-06-13T10:05:30Z,3,4\n01.07.2026 00:00Z,5,6`)())
     // never guessed: refused at the first row with the fix
     fails(read(`${head}\n03/06/2026 10:00Z,1,2\n04/06/2026 10:00Z,3,4`), 'neph.csv line 3 column 1', /# date format: dd\/mm\/yyyy/)
+    // a date that is no date in either order settles nothing: its row is left out, the next one decides
+    const odd = read(`${head}\n03/06/2026 10:00Z,1,2\n13/13/2026 10:00Z,9,9\n13/06/2026 10:05:30Z,3,4\n01/07/2026 00:00Z,5,6`)()
+    expect(odd.records.map((x) => x.line)).toEqual([3, 5, 6])
+    expect(odd.rejected.map((x) => [x.line, x.column])).toEqual([[4, 1]])
     // a date impossible in the detected order is a bad time: its row is left out, located
     const r = read(`${head}\n13/06/2026 10:00Z,1,2\n06/14/2026 10:05Z,3,4\n15/06/2026 10:00Z,5,6`)()
     expect(r.records.map((x) => x.line)).toEqual([3, 5])
