@@ -67,6 +67,8 @@ export {
   type OpticalChannel,
   type OpticalHeader,
   type OpticalRecord,
+  type OpticalRejection,
+  MAX_KEPT_OPTICAL_REJECTIONS,
   type OpticalReaderOptions,
   type OpticalReader,
   OPTICAL_QUANTITIES,

@@ -17,10 +17,20 @@
  *   "# units: Mm-1" line; a file that states none, or another unit, is refused (convert it first).
  * - An empty cell, NaN or NA means no data for that quantity at that time (never counted as 0). Small
  *   negative values (instrument noise in clean air) are kept as they are, so that averages stay unbiased.
- * - Time stamps go through one call (`readInstrumentTime`); all of a file's stamps have a zone or none has.
+ * - Time stamps: ISO 8601 (2026-06-01T10:05:00Z or 2026-06-01 10:05, read by `readInstrumentTime`), or a
+ *   day/month/year or month/day/year date with a time of day (01/06/2026 10:05, read by the sizer reader's
+ *   readDateTime). The order is the one a "# date format: dd/mm/yyyy" line (or the time header cell) states, or
+ *   the one the first date with a part above 12 shows; rows wait (at most MAX_HELD_ROWS) until one does, and a
+ *   file whose dates never settle it is refused, never guessed. All of a file's stamps have a zone or none
+ *   has, and they ascend.
+ * - A data row whose time cannot be read, or with a cell that is not a number, or with more cells than the
+ *   header, is left out and reported (file, line, column, reason, fix; the first MAX_KEPT_OPTICAL_REJECTIONS
+ *   kept, all counted). Header problems, a change of zone form and times out of order stop the reading.
  */
 import Papa from 'papaparse/papaparse.js'
 import { InputError } from '../errors.ts'
+import { MAX_HELD_ROWS } from './reader.ts'
+import { DATE_ORDER_NAMES, dateParts, orderEvidence, readClock, readDateTime, statedOrder, type DateOrder } from './time.ts'
 import { parseTimeStamp, type TimeStamp } from './timebase.ts'
 
 export type OpticalQuantity = 'scattering' | 'backscattering' | 'absorption'
@@ -51,7 +61,17 @@ export interface OpticalRecord {
   values: Float64Array
 }
 
-/** The one place an optical file's time cell is parsed (ISO 8601 for now). */
+/** A data row left out of the reading: where, why and how to fix it. */
+export interface OpticalRejection {
+  line: number
+  column: number
+  reason: string
+  fix: string
+}
+
+export const MAX_KEPT_OPTICAL_REJECTIONS = 1000
+
+/** The one place an optical file's time cell is parsed (ISO 8601 only). */
 export function readInstrumentTime(cell: string): TimeStamp | undefined {
   return parseTimeStamp(cell)
 }
@@ -79,8 +99,11 @@ export interface OpticalReaderOptions {
 
 export interface OpticalReader {
   push(line: string): void
-  /** The header and the number of rows read; throws when the file had no header or no row. */
-  end(): OpticalHeader & { recordCount: number }
+  /**
+   * The header, the number of rows read and the rows left out (the first MAX_KEPT_OPTICAL_REJECTIONS, and their
+   * count); throws when the file had no header or no row that could be read.
+   */
+  end(): OpticalHeader & { recordCount: number; rejected: OpticalRejection[]; rejectedCount: number }
   readonly header: OpticalHeader | undefined
 }
 
@@ -93,6 +116,16 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
   let count = 0
   let zoned: boolean | undefined
   let lastMs = -Infinity
+  /** The order of day/month/year dates: stated, or detected (orderFrom says where); rows wait while unknown. */
+  let order: DateOrder | undefined
+  let orderFrom = ''
+  const held: { text: string; line: number }[] = []
+  const rejected: OpticalRejection[] = []
+  let rejectedCount = 0
+  const reject = (line: number, column: number, reason: string, fix: string): void => {
+    rejectedCount++
+    if (rejected.length < MAX_KEPT_OPTICAL_REJECTIONS) rejected.push({ line, column, reason: `${reason}; the row is left out`, fix })
+  }
 
   const at = (line: number, column?: number) => `${file} line ${line}${column !== undefined ? ` column ${column}` : ''}`
 
@@ -130,20 +163,62 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     if (channels.length === 0) throw new InputError(at(line), 'the header names no quantity', 'Add columns such as "scattering 550 nm" after the time column.')
     if (unitMissing) throw new InputError(at(line), 'the unit of the coefficients is not stated', 'Add a line "# units: Mm-1" above the header, or write the unit in each header cell: "scattering 550 nm [Mm-1]".')
     header = { fileName: file, channels, headerLine: line, delimiter, metadata }
+    const stated = Object.entries(metadata).map(([k, v]) => (/date|format|order/.test(k) ? statedOrder(v) : undefined)).find((o) => o) ?? statedOrder(cells[0])
+    if (stated) {
+      order = stated
+      orderFrom = 'as the file states'
+    }
+  }
+
+  /** A row's time: ISO 8601, or a date in the file's order; undefined when it cannot be read. */
+  const rowTime = (cell: string): (TimeStamp & { iso: string }) | undefined => {
+    if (/^\d{4}/.test(cell)) {
+      const t = parseTimeStamp(cell)
+      return t && { ...t, iso: cell }
+    }
+    const p = dateParts(cell)
+    if (!p || !order) return undefined
+    const t = readDateTime(cell, undefined, order, undefined)
+    return t && { ms: t.ms, zoned: p.rest !== '' && readClock(p.rest).zone !== undefined, iso: t.iso }
+  }
+
+  const orderUnknown = () => {
+    const first = held[0]
+    return new InputError(
+      at(first.line, 1),
+      `the dates ("${splitCells(first.text, header!.delimiter)[0]}", ...) could be day/month/year or month/day/year: no date in the ${held.length} rows read${held.length > MAX_HELD_ROWS ? ' so far' : ''} has a part above 12`,
+      'State the order in a line above the header, "# date format: dd/mm/yyyy" (or mm/dd/yyyy), or write the times in ISO 8601 (2026-06-01T10:05:00Z).'
+    )
   }
 
   const readRow = (text: string, line: number) => {
     const h = header!
     const cells = splitCells(text, h.delimiter)
-    if (cells.length > h.channels.length + 1) {
-      throw new InputError(at(line, h.channels.length + 2), `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
+    if (order === undefined) {
+      const p = dateParts(cells[0] ?? '')
+      if (p && p.aDigits !== 4) {
+        const e = orderEvidence(p)
+        if (e === undefined) {
+          held.push({ text, line })
+          if (held.length > MAX_HELD_ROWS) throw orderUnknown()
+          return
+        }
+        // only a real date settles the order (13/13/2026 or 31/02/2026 is a bad time, left out below)
+        if (e !== 'conflict' && readDateTime(cells[0], undefined, e, undefined)) {
+          order = e
+          orderFrom = `detected from line ${line}: ${cells[0]}`
+          for (const r of held.splice(0)) readRow(r.text, r.line)
+        }
+      }
     }
-    const t = readInstrumentTime(cells[0])
-    if (!t) throw new InputError(at(line, 1), `"${cells[0]}" is not a time stamp`, 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05 (ISO 8601, with or without a zone).')
-    if (zoned === undefined) zoned = t.zoned
-    else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
-    if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
-    lastMs = t.ms
+    if (cells.length > h.channels.length + 1) {
+      return reject(line, h.channels.length + 2, `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
+    }
+    const t = rowTime(cells[0])
+    if (!t) {
+      const what = order && order !== 'ymd' && !/^\d{4}/.test(cells[0]) ? `a date and time in ${DATE_ORDER_NAMES[order]} order (${orderFrom})` : 'a time stamp'
+      return reject(line, 1, cells[0] === '' ? 'the time is missing' : `"${cells[0]}" is not ${what}`, 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05 (ISO 8601, with or without a zone), or as 01/06/2026 10:05 in the file\'s date order.')
+    }
     const values = new Float64Array(h.channels.length)
     for (let j = 0; j < h.channels.length; j++) {
       const cell = cells[j + 1] ?? ''
@@ -151,11 +226,15 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
       else if (NUMBER.test(cell)) values[j] = Number(cell)
       else {
         const ch = h.channels[j]
-        throw new InputError(at(line, j + 2), `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
+        return reject(line, j + 2, `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
       }
     }
+    if (zoned === undefined) zoned = t.zoned
+    else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
+    if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
+    lastMs = t.ms
     count++
-    options.onRecord({ line, time: cells[0], ms: t.ms, zoned: t.zoned, values })
+    options.onRecord({ line, time: t.iso, ms: t.ms, zoned: t.zoned, values })
   }
 
   return {
@@ -175,18 +254,26 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
       else readRow(trimmed, lineNo)
     },
     end() {
+      if (held.length > 0) throw orderUnknown()
       if (!header) throw new InputError(file, 'no header line was found', 'Start the table with a header such as: time,scattering 550 nm (comment lines start with #).')
+      if (count === 0 && rejectedCount > 0) {
+        const r = rejected[0]
+        throw new InputError(at(r.line, r.column), `no row could be read (${rejectedCount} left out; the first: ${r.reason})`, r.fix)
+      }
       if (count === 0) throw new InputError(`${file} line ${header.headerLine}`, 'the file has a header but no rows', 'Give one row per time after the header.')
-      return { ...header, recordCount: count }
+      return { ...header, recordCount: count, rejected: rejected.slice().sort((a, b) => a.line - b.line), rejectedCount }
     }
   }
 }
 
 /** Reads a whole text (tests, the app). */
-export function parseOpticalText(text: string, options: Omit<OpticalReaderOptions, 'onRecord'>): { header: OpticalHeader; records: OpticalRecord[] } {
+export function parseOpticalText(
+  text: string,
+  options: Omit<OpticalReaderOptions, 'onRecord'>
+): { header: OpticalHeader; records: OpticalRecord[]; rejected: OpticalRejection[]; rejectedCount: number } {
   const records: OpticalRecord[] = []
   const reader = createOpticalReader({ ...options, onRecord: (r) => records.push(r) })
   for (const line of text.split(/\r?\n/)) reader.push(line)
-  const { recordCount: _n, ...header } = reader.end()
-  return { header, records }
+  const { recordCount: _n, rejected, rejectedCount, ...header } = reader.end()
+  return { header, records, rejected, rejectedCount }
 }

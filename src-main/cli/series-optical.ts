@@ -30,7 +30,8 @@ import {
   type OpticalQuantity,
   type Sample,
   type SizerOptions,
-  type UserMaterialSpec
+  type UserMaterialSpec,
+  type OpticalRejection
 } from '../../src-core/index.ts'
 import { readNumber, UsageError } from './common.ts'
 
@@ -96,6 +97,8 @@ export interface SeriesExtra {
   /** Called for each row written, with its extra cells. */
   written(cells: Float64Array): void
   summary(): string[]
+  /** Rows of the instrument files left out by their reader (bad time or cell); series exits 1 when any. */
+  rowsLeftOut: number
 }
 
 /** Reads the instrument files and prepares the comparison; undefined when no instrument file is given. */
@@ -172,6 +175,7 @@ export async function prepareSeriesOptical(
   }
   const alignment = new MeasuredAlignment(times, channels, interval)
   const noneInside: string[] = []
+  const leftOut: { name: string; rejected: OpticalRejection[]; count: number }[] = []
   for (let i = 0; i < files.length; i++) {
     const f = files[i]
     const p = pending[i]
@@ -187,7 +191,8 @@ export async function prepareSeriesOptical(
       }
     })
     for await (const line of fileLines(f.path)) r.push(line)
-    r.end()
+    const end = r.end()
+    if (end.rejectedCount > 0) leftOut.push({ name: p.name, rejected: end.rejected, count: end.rejectedCount })
     if (!alignment.used.get(p.name)) noneInside.push(p.name)
   }
 
@@ -235,6 +240,12 @@ export async function prepareSeriesOptical(
     summary() {
       const lines = [`  measured: ${pending.map((p) => `${p.name} (${alignment.used.get(p.name) ?? 0} records in sizer rows, ${alignment.outside.get(p.name) ?? 0} outside them)`).join(', ')}; ${rowsWithData} of ${rowsWritten} rows written have measured data; each row's interval ${intervalText}`]
       if (unstamped > 0) lines.push(`  ${unstamped} sizer row${unstamped === 1 ? '' : 's'} without a usable ISO 8601 time: no measured data aligned to ${unstamped === 1 ? 'it' : 'them'}`)
+      for (const f of leftOut) {
+        lines.push(`  ${f.name}: ${f.count} row${f.count === 1 ? '' : 's'} left out (bad time or cells)`)
+        const show = f.rejected.slice(0, 20)
+        for (const r of show) lines.push(`  ${f.name} line ${r.line} column ${r.column}: ${r.reason}\n    fix: ${r.fix}`)
+        if (f.count > show.length) lines.push(`  ... and ${f.count - show.length} more not shown`)
+      }
       for (const n of noneInside) lines.push(`  warning: no record of ${n} falls inside a sizer row: check the two clocks (times, zone)`)
       lines.push(`  ratio computed/measured${plan.truncation ? ` (scattering corrected for truncation, ${angles[0]}–${angles[1]}°)` : ' (no truncation correction)'}: median [5 %, 95 %] over the rows (percentiles: Hyndman & Fan type 7)`)
       for (const s of collector.summary()) {
@@ -242,6 +253,9 @@ export async function prepareSeriesOptical(
       }
       if (plan.closure) lines.push('  closure: per row in the closure_ columns (dry homogeneous spheres; see the file\'s header comments)')
       return lines
+    },
+    get rowsLeftOut() {
+      return leftOut.reduce((n, f) => n + f.count, 0)
     }
   }
   return { extra, wavelengthsNm: instrumentWavelengths(plan) }

@@ -48,7 +48,7 @@ ${seriesOpticalHelp}
 Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³); with measured files, their columns after these (the "#" lines that open the
 file say how they were made comparable). A summary goes to standard error; a progress bar too when it is a terminal.
-Exit status 0, 1 when rows were skipped, 2 for bad input.`
+Exit status 0, 1 when rows were skipped (of the sizer file or of an instrument file), 2 for bad input.`
 
 /**
  * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; about
@@ -575,5 +575,5 @@ export async function runSeries(argv: string[]): Promise<number> {
     stream.destroy()
   }
   process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
-  return summary.rowsSkippedByReader + summary.rowsSkippedByOptics > 0 ? EXIT_SKIPPED : EXIT_OK
+  return summary.rowsSkippedByReader + summary.rowsSkippedByOptics + (optical?.extra.rowsLeftOut ?? 0) > 0 ? EXIT_SKIPPED : EXIT_OK
 }

@@ -1,7 +1,8 @@
 // motebench series --scattering/--absorption end to end on the invented valley demo files (resources/field): three
-// instrument files to a campaign record (merge, then series), and bad measured files refused with no output.
+// instrument files to a campaign record (merge, then series); bad rows of a measured file left out and listed,
+// a bad header refused with no output.
 import { existsSync } from 'node:fs'
-import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
+import { mkdir, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -77,14 +78,43 @@ describe('series with the valley nephelometer and absorption photometer', () => 
 })
 
 describe('bad measured files', () => {
-  it('a bad cell stops the run with its file, line and column, and no output file', async () => {
+  // the valley nephelometer's 550 nm scattering beside the mobility sizer alone (whose rows all read)
+  const neph550 = async () => {
+    const lines = (await readFile(demo('valley-nephelometer.csv'), 'utf8')).trimEnd().split('\n').filter((l) => !l.startsWith('#'))
+    return lines.slice(1).map((l) => l.split(',').filter((_c, i) => i === 0 || i === 2).join(','))
+  }
+  const seriesWith = (neph: string, out: string) =>
+    runHere(runSeries, [demo('valley-mobility.csv'), '--study', study, '--sample', 'Quarry dust event', '--wavelengths', '550nm', '--scattering', neph, '--workers', '1', '--out', out])
+  const dataRows = async (file: string) => (await readFile(file, 'utf8')).split('\n').filter((l) => l !== '' && !l.startsWith('#'))
+
+  it('rows with a bad cell or a bad time are left out, listed with line and column, counted, exit 1; the other rows\' figures unchanged', async () => {
+    const rows = await neph550()
+    await mkdir(path('clean'), { recursive: true })
+    await mkdir(path('messy'), { recursive: true })
+    await writeFile(path('clean/neph.csv'), ['# units: Mm-1', 'time,scattering 550 nm', ...rows].join('\n') + '\n')
+    // a bad cell (between two good times) at line 4 and a time with an hour 25 at line 6
+    await writeFile(path('messy/neph.csv'), ['# units: Mm-1', 'time,scattering 550 nm', rows[0], '2026-06-01T08:00:45Z,2l.6', rows[1], '2026-06-01T25:01:00Z,21.6', ...rows.slice(2)].join('\n') + '\n')
+    const clean = await seriesWith(path('clean/neph.csv'), path('clean/out.csv'))
+    expect(clean.code, clean.stderr).toBe(0)
+    const messy = await seriesWith(path('messy/neph.csv'), path('messy/out.csv'))
+    expect(messy.code, messy.stderr).toBe(1)
+    expect(messy.stderr).toMatch(/neph\.csv: 2 rows left out \(bad time or cells\)/)
+    expect(messy.stderr).toMatch(/neph\.csv line 4 column 2: "2l\.6" \(scattering 550 nm\) is not a number; the row is left out\n {4}fix: Give the coefficient in Mm⁻¹/)
+    expect(messy.stderr).toMatch(/neph\.csv line 6 column 1: "2026-06-01T25:01:00Z" is not a time stamp; the row is left out\n {4}fix: .*ISO 8601/)
+    // the rows left out held no data: every row written, computed and measured, is the clean run's
+    const a = await dataRows(path('clean/out.csv'))
+    expect(a.length).toBeGreaterThan(10)
+    expect(await dataRows(path('messy/out.csv'))).toEqual(a)
+  }, 120_000)
+
+  it('a header problem still stops the run with its file, line and column, and no output file', async () => {
     const bad = path('bad-neph.csv')
-    await writeFile(bad, '# units: Mm-1\ntime,scattering 550 nm\n2026-06-01T08:00:30Z,21.5\n2026-06-01T08:01:30Z,2l.6\n')
+    await writeFile(bad, '# units: Mm-1\ntime,scattering 550 nm,extinction 550 nm\n2026-06-01T08:00:30Z,21.5,25\n')
     const out = path('never.csv')
     const r = await runHere(runSeries, [path('merged.csv'), '--study', study, '--sample', 'Quarry dust event', '--scattering', bad, '--workers', '1', '--out', out])
     expect(r.code).toBe(2)
     expectOneLine(r.stderr)
-    expect(r.stderr).toMatch(/bad-neph\.csv line 4 column 2: "2l\.6" \(scattering 550 nm\) is not a number\. Give the coefficient in Mm⁻¹/)
+    expect(r.stderr).toMatch(/bad-neph\.csv line 2 column 3: the header cell "extinction 550 nm" is not a quantity and a wavelength\. Write each column as QUANTITY WAVELENGTH nm/)
     expect(existsSync(out)).toBe(false)
   }, 120_000)
 

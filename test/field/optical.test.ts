@@ -236,7 +236,7 @@ describe('bad measured files', () => {
   }
   const head = '# units: Mm-1\ntime,scattering 450 nm,scattering 550 nm'
   it('locates each problem by file, line and column with a fix', () => {
-    fails(read(`${head}\n2026-06-01T10:00:00Z,12.5,9.1\n2026-06-01T10:01:00Z,12.5,9,1`), 'neph.csv line 4 column 4', /one value per header column/)
+    // a file none of whose rows can be read stops at the first one
     fails(read(`${head}\n2026-06-01T10:00:00Z,12.5,abc`), 'neph.csv line 3 column 3', /decimal point/)
     fails(read(`${head}\n01/06/2026 10:00,12.5,9.1`), 'neph.csv line 3 column 1', /ISO 8601/)
     fails(read(`${head}\n2026-06-01T10:01:00Z,1,2\n2026-06-01T10:00:00Z,1,2`), 'neph.csv line 4 column 1', /Sort the rows/)
@@ -247,6 +247,43 @@ describe('bad measured files', () => {
     fails(read('# units: m-1\ntime,scattering 450 nm\n2026-06-01T10:00:00Z,1'), 'neph.csv: units', /Convert/)
     fails(read('time,scattering 450 nm [1/m]\n2026-06-01T10:00:00Z,1'), 'neph.csv line 1 column 2', /Convert/)
     fails(read(`${head}`), 'neph.csv line 2', /one row per time/)
+  })
+  it('leaves out rows with a bad time, a bad cell or too many cells, lists them located with a fix, and reads the others as the clean file', () => {
+    const good = ['2026-06-01T10:00:00Z,12.5,9.1', '2026-06-01T10:02:00Z,13.0,9.4', '2026-06-01T10:04:00Z,,9.8']
+    const clean = read(`${head}\n${good.join('\n')}`)()
+    const messy = read(`${head}\n${good[0]}\n2026-06-01T10:01:00Z,12.5,9..1\n${good[1]}\n2026-06-01T25:03:00Z,13.1,9.5\n\n${good[2]}\n2026-06-01T10:05:00Z,1,2,3`)()
+    expect(messy.records.map((r) => r.line)).toEqual([3, 5, 8])
+    expect(messy.records.map((r) => [r.time, ...r.values])).toEqual(clean.records.map((r) => [r.time, ...r.values]))
+    expect(messy.rejectedCount).toBe(3)
+    expect(messy.rejected.map((r) => [r.line, r.column])).toEqual([
+      [4, 3],
+      [6, 1],
+      [9, 4]
+    ])
+    expect(messy.rejected[0].reason).toBe('"9..1" (scattering 550 nm) is not a number; the row is left out')
+    expect(messy.rejected[1].reason).toMatch(/^"2026-06-01T25:03:00Z" is not a time stamp; the row is left out$/)
+    expect(messy.rejected[1].fix).toMatch(/ISO 8601/)
+    expect(messy.rejected[2].fix).toMatch(/one value per header column/)
+    expect(clean.rejectedCount).toBe(0)
+  })
+  it('reads day/month/year and month/day/year times as their ISO 8601 twin, with the order stated or detected, and refuses an order the dates do not settle', () => {
+    const iso = read(`${head}\n2026-06-03T10:00:00Z,1,2\n2026-06-13T10:05:30Z,3,4\n2026-07-01T00:00:00Z,5,6`)()
+    const same = (r: ReturnType<ReturnType<typeof read>>) => expect(r.records.map((x) => [x.time, x.ms, x.zoned, ...x.values])).toEqual(iso.records.map((x) => [x.time, x.ms, x.zoned, ...x.values]))
+    // detected: the second row's day 13 settles day/month/year; the first row waits for it
+    same(read(`${head}\n03/06/2026 10:00Z,1,2\n13/06/2026 10:05:30Z,3,4\n01/07/2026 00:00Z,5,6`)())
+    same(read(`${head}\n06/03/2026 10:00 UTC,1,2\n06/13/2026 10:05:30 UTC,3,4\n07/01/2026 00:00 UTC,5,6`)())
+    // stated: no date has a part above 12, the "# date format" line says which is the day
+    same(read(`# date format: dd/mm/yyyy\n${head}\n03.06.2026 10:00Z,1,2\n2026-06-13T10:05:30Z,3,4\n01.07.2026 00:00Z,5,6`)())
+    // never guessed: refused at the first row with the fix
+    fails(read(`${head}\n03/06/2026 10:00Z,1,2\n04/06/2026 10:00Z,3,4`), 'neph.csv line 3 column 1', /# date format: dd\/mm\/yyyy/)
+    // a date that is no date in either order settles nothing: its row is left out, the next one decides
+    const odd = read(`${head}\n03/06/2026 10:00Z,1,2\n13/13/2026 10:00Z,9,9\n13/06/2026 10:05:30Z,3,4\n01/07/2026 00:00Z,5,6`)()
+    expect(odd.records.map((x) => x.line)).toEqual([3, 5, 6])
+    expect(odd.rejected.map((x) => [x.line, x.column])).toEqual([[4, 1]])
+    // a date impossible in the detected order is a bad time: its row is left out, located
+    const r = read(`${head}\n13/06/2026 10:00Z,1,2\n06/14/2026 10:05Z,3,4\n15/06/2026 10:00Z,5,6`)()
+    expect(r.records.map((x) => x.line)).toEqual([3, 5])
+    expect(r.rejected.map((x) => [x.line, x.column, x.reason])).toEqual([[4, 1, '"06/14/2026 10:05Z" is not a date and time in day/month/year order (detected from line 3: 13/06/2026 10:00Z); the row is left out']])
   })
   it('reads empty cells and NaN as no data, keeps small negative values, and takes the unit from the header cells', () => {
     const { header, records } = read('# station: invented\ntime\tscattering 450 nm [Mm-1]\tbackscattering 450 nm (Mm^-1)\n\n2026-06-01 10:00\t-0.4\t\n# a comment\n2026-06-01 10:01\tNaN\t0.2')()
