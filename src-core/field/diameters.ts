@@ -13,6 +13,7 @@
  * Diameters in µm, density g cm⁻³.
  */
 import { InputError } from '../errors.ts'
+import { solveIncreasing } from '../numeric/index.ts'
 import { aerodynamicDiameter, aerodynamicOptionsChecked, cunninghamSlipCorrection, volumeDiameterFromAerodynamic, type AerodynamicOptions } from '../sizes/aerodynamic.ts'
 import { rebinOpcEdges, type OpcGeometry } from '../instruments/opc.ts'
 
@@ -21,19 +22,9 @@ function mobilityTerm(d: number, lambda: number): number {
   return d / cunninghamSlipCorrection(d, lambda)
 }
 
-/** Solves d / C_c(d) = target for d > 0 by bisection in ln d (unique root), to ~1e-15 relative. */
+/** Solves d / C_c(d) = target for d > 0 (unique root; ~1e-15 relative). */
 function solveMobilityTerm(target: number, lambda: number, guess: number): number {
-  let lo = guess
-  let hi = guess
-  while (mobilityTerm(lo, lambda) > target) lo /= 2
-  while (mobilityTerm(hi, lambda) < target) hi *= 2
-  for (let i = 0; i < 200; i++) {
-    const mid = Math.sqrt(lo * hi)
-    if (mobilityTerm(mid, lambda) < target) lo = mid
-    else hi = mid
-    if (hi / lo - 1 < 1e-15) break
-  }
-  return Math.sqrt(lo * hi)
+  return solveIncreasing((d) => mobilityTerm(d, lambda), target, guess)
 }
 
 function positive(where: string, v: number, what: string): void {

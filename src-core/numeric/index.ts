@@ -1,2 +1,3 @@
 export { gaussLegendre, gaussLegendreOn } from './gauss.ts'
 export type { QuadratureRule } from './gauss.ts'
+export { solveIncreasing } from './bisect.ts'

@@ -5,6 +5,7 @@
  * of air, aerodynamic diameter in the Stokes regime); Hinds, Aerosol Technology, ch. 3 (from memory).
  */
 import { InputError } from '../errors.ts'
+import { solveIncreasing } from '../numeric/index.ts'
 import { fmt, requirePositive } from './format.ts'
 
 /**
@@ -52,22 +53,9 @@ function squareTimesSlip(d: number, lambda: number): number {
   return d * d * (1 + kn * (1.257 + 0.4 * Math.exp(-1.1 / kn)))
 }
 
-/**
- * Solves d² C_c(d) = target for d > 0 by bisection in ln d (the left side is monotone, so the root is
- * unique). Converges to ~1e-15 relative.
- */
+/** Solves d² C_c(d) = target for d > 0 (the left side is monotone, so the root is unique; ~1e-15 relative). */
 function solveSquareTimesSlip(target: number, lambda: number, guess: number): number {
-  let lo = guess
-  let hi = guess
-  while (squareTimesSlip(lo, lambda) > target) lo /= 2
-  while (squareTimesSlip(hi, lambda) < target) hi *= 2
-  for (let i = 0; i < 200; i++) {
-    const mid = Math.sqrt(lo * hi)
-    if (squareTimesSlip(mid, lambda) < target) lo = mid
-    else hi = mid
-    if (hi / lo - 1 < 1e-15) break
-  }
-  return Math.sqrt(lo * hi)
+  return solveIncreasing((d) => squareTimesSlip(d, lambda), target, guess)
 }
 
 /**

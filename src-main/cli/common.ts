@@ -1,5 +1,6 @@
 // Shared pieces of the command line: argument errors, output, exit codes.
 import { parseArgs, type ParseArgsConfig } from 'node:util'
+import { open, rename, unlink, type FileHandle } from 'node:fs/promises'
 import { InputError, parseWavelengthList, type Sample, type Study } from '../../src-core/index.ts'
 import { StudyFileError } from '../studyFileError.ts'
 import { sevenDigits } from './number-text.ts'
@@ -174,3 +175,45 @@ process.stdout.on('error', (e: NodeJS.ErrnoException) => {
   if (e.code === 'EPIPE') process.exit(0)
   throw e
 })
+
+/**
+ * A file written as a stream and seen only when complete: the text goes to FILE.tmp-PID, which `commit` renames
+ * to FILE and `discard` (or Ctrl+C, a termination signal) removes, so no half-written output is ever left.
+ */
+export async function atomicFileOutput(path: string, command: string) {
+  const tmp = `${path}.tmp-${process.pid}`
+  let handle: FileHandle
+  try {
+    handle = await open(tmp, 'w')
+  } catch (e) {
+    throw new UsageError(`${command}: cannot write ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'its folder does not exist' : (e as Error).message}`)
+  }
+  let closed = false
+  const close = async () => {
+    if (!closed) {
+      closed = true
+      await handle.close()
+    }
+  }
+  const onSignal = () => void unlink(tmp).finally(() => process.exit(130))
+  process.once('SIGINT', onSignal)
+  process.once('SIGTERM', onSignal)
+  const detach = () => {
+    process.off('SIGINT', onSignal)
+    process.off('SIGTERM', onSignal)
+  }
+  return {
+    write: async (text: string): Promise<void> => void (await handle.write(text)),
+    async commit(): Promise<void> {
+      await handle.sync()
+      await close()
+      await rename(tmp, path)
+      detach()
+    },
+    async discard(): Promise<void> {
+      await close().catch(() => {})
+      await unlink(tmp).catch(() => {})
+      detach()
+    }
+  }
+}

@@ -6,7 +6,6 @@
 // instrument's interval and the time base), then the values, which go straight into per-step sums. Memory follows
 // the number of time steps, not of records.
 import { createReadStream } from 'node:fs'
-import { open, rename, unlink, type FileHandle } from 'node:fs/promises'
 import { basename } from 'node:path'
 import { createInterface } from 'node:readline'
 import {
@@ -35,7 +34,7 @@ import {
   type SizerInput,
   type SizerKind
 } from '../../src-core/index.ts'
-import { EXIT_OK, EXIT_SKIPPED, readArgs, readInteger, readNumber, UsageError } from './common.ts'
+import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, readArgs, readInteger, readNumber, UsageError } from './common.ts'
 import { readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 
 export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --density RHO --out FILE: several sizers as one distribution
@@ -171,38 +170,6 @@ function readRange(text: string | undefined, flag: string, unit: 'nm' | 'um'): [
   return [lo, hi]
 }
 
-/** Output to FILE.tmp-PID, renamed to FILE when complete, removed otherwise (also on Ctrl+C). */
-async function atomicOutput(path: string) {
-  const tmp = `${path}.tmp-${process.pid}`
-  let handle: FileHandle
-  try {
-    handle = await open(tmp, 'w')
-  } catch (e) {
-    throw new UsageError(`merge: cannot write ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'its folder does not exist' : (e as Error).message}`)
-  }
-  const onSignal = () => void unlink(tmp).finally(() => process.exit(130))
-  process.once('SIGINT', onSignal)
-  process.once('SIGTERM', onSignal)
-  const detach = () => {
-    process.off('SIGINT', onSignal)
-    process.off('SIGTERM', onSignal)
-  }
-  return {
-    write: async (text: string) => void (await handle.write(text)),
-    async commit() {
-      await handle.sync()
-      await handle.close()
-      await rename(tmp, path)
-      detach()
-    },
-    async discard() {
-      await handle.close().catch(() => {})
-      await unlink(tmp).catch(() => {})
-      detach()
-    }
-  }
-}
-
 export async function runMerge(argv: string[]): Promise<number> {
   const { values } = readArgs('merge', argv, {
     mobility: { type: 'string' },
@@ -309,7 +276,7 @@ export async function runMerge(argv: string[]): Promise<number> {
     gapSteps++
     if (gapList.length < 20) gapList.push(`${formatTimeStamp(base.starts[k], zoned)}: ${present.length > 0 ? `only ${present.join(' and ')}` : 'no sizer'} had data`)
   }
-  const target = await atomicOutput(values.out)
+  const target = await atomicFileOutput(values.out, 'merge')
   const merged = new Float64Array(plan.edges.length - 1)
   try {
     const head = mergedFileHead({

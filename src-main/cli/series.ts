@@ -6,7 +6,7 @@
 // (series-row.ts). Blocks come back out of order and are written in input order, in chunks of about a megabyte.
 // At most a few blocks per worker are read ahead of the last block written: then reading waits (backpressure).
 import { createReadStream } from 'node:fs'
-import { open, rename, stat, unlink, type FileHandle } from 'node:fs/promises'
+import { stat } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
 import type { Readable } from 'node:stream'
@@ -22,7 +22,7 @@ import {
   type SizerRejection
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
-import { csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { atomicFileOutput, csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
@@ -385,48 +385,6 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   }
 }
 
-/** Output to a file: written to FILE.tmp-PID, renamed to FILE when complete, removed otherwise. */
-async function fileOutput(path: string) {
-  const tmp = `${path}.tmp-${process.pid}`
-  let handle: FileHandle
-  try {
-    handle = await open(tmp, 'w')
-  } catch (e) {
-    throw new UsageError(`series: cannot write ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'its folder does not exist' : (e as Error).message}`)
-  }
-  let closed = false
-  const close = async () => {
-    if (!closed) {
-      closed = true
-      await handle.close()
-    }
-  }
-  const onSignal = () => {
-    // interrupted: leave no partial file behind
-    void unlink(tmp).finally(() => process.exit(130))
-  }
-  process.once('SIGINT', onSignal)
-  process.once('SIGTERM', onSignal)
-  const detach = () => {
-    process.off('SIGINT', onSignal)
-    process.off('SIGTERM', onSignal)
-  }
-  return {
-    output: { write: async (text: string) => void (await handle.write(text)) } satisfies SeriesOutput,
-    async commit() {
-      await handle.sync()
-      await close()
-      await rename(tmp, path)
-      detach()
-    },
-    async discard() {
-      await close().catch(() => {})
-      await unlink(tmp).catch(() => {})
-      detach()
-    }
-  }
-}
-
 const stdoutOutput: SeriesOutput = {
   write: (text) =>
     new Promise((resolve, reject) => {
@@ -543,7 +501,7 @@ export async function runSeries(argv: string[]): Promise<number> {
     // the last part takes every line after its first (whatever the count missed)
     shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
   }
-  const target = values.out !== undefined ? await fileOutput(values.out) : undefined
+  const target = values.out !== undefined ? await atomicFileOutput(values.out, 'series') : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
   // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
   const stream = createReadStream(file, { encoding: 'utf8', highWaterMark: 1 << 18 })
@@ -561,7 +519,7 @@ export async function runSeries(argv: string[]): Promise<number> {
       sizer,
       onBadRow: policy,
       workers,
-      output: target ? target.output : stdoutOutput,
+      output: target ?? stdoutOutput,
       extra: optical?.extra,
       onProgress: bar ? (n) => bar.update(n) : undefined,
       shard
