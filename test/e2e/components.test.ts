@@ -22,8 +22,9 @@ async function sigmaAbs550(page: Page): Promise<number> {
 
 /** Adds a blank sample (one mode of ammonium sulfate) after the demo's five, selects it and waits for its results. */
 async function addBlankSample(page: Page): Promise<number> {
+  await expect.poll(() => page.locator('.sample-item').count()).toBe(5)
   await page.getByTestId('add-sample').click()
-  await page.locator('.sample-item').nth(5).waitFor()
+  await expect.poll(() => page.locator('.sample-item').count(), { timeout: 60_000 }).toBe(6)
   await page.locator('[data-path="samples[5].composition.components[0].material"]').waitFor()
   await waitForResults(page)
   return 5

@@ -116,6 +116,8 @@ export function appSession(): {
     contexts.push(context)
     context.on('request', (r) => requests.push(r.url()))
     const page = await context.newPage()
+    // CI runs these beside CPU-heavy test files on two cores: a render can wait its turn for many seconds
+    page.setDefaultTimeout(60_000)
     const errors: string[] = []
     page.on('pageerror', (e) => errors.push(e.message))
     // what the browser logs as an error from the first request on (a missing file, a refused policy…)
