@@ -21,19 +21,17 @@
  * before add up to less than it: where narrow resonances are not resolved, single changes are erratic and
  * understate the error (the tests compare with much finer integrations, at many nearby wavelengths).
  *
- * Upscatter. The population phase function is accumulated at Gauss–Legendre cosines on each hemisphere.
- * For sun at cos-zenith μ₀, the fraction of light scattered at cos Θ = μ that goes upward is
- * F(μ, μ₀) = arccos(μ₀ μ / (√(1−μ₀²) √(1−μ²)))/π (clamped), so β(μ₀) = ½ ∫ P(μ) F(μ, μ₀) dμ with P
- * normalised to ∫ P dμ = 2; b = β(1) is the backscattered fraction. β̄ = ∫₀¹ β(μ₀) dμ₀ (Wiscombe & Grams 1976,
- * J. Atmos. Sci. 33:2440). Where the cosine grid does not resolve a large particle's diffraction peak, the
- * missing part of the normalisation lies in the forward direction, where F = 0, and it is counted there.
- * The angular sums are refined over the first ANGULAR_LEVELS + 1 levels only; their ratios use σsca from the
- * same nodes, so the grid's sampling error largely cancels (the tests measure it against fine integrations).
+ * Upscatter. The population's S11 is summed at fixed scattering angles (upscatter.ts: 32 Gauss nodes in Θ on
+ * each hemisphere), from which b, β(μ₀) and β̄ follow. Those sums converge more slowly in size than the
+ * cross-sections (the S11 of one angle oscillates in x with a period near 1, against about 6 for σsca): they are
+ * refined from level 0 until b and β̄ changed by less than the tolerance (absolute) on two levels in a row, and
+ * at least to level ANGULAR_LEVELS; stopping at level 2 on every population, as before, left b off by 6e-4 on a
+ * lossless coarse mode. Their ratios use σsca from the same nodes.
  */
 import { InputError } from '../errors.ts'
 import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, SPHERE_DOMAIN, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
-import { gaussLegendreOn } from '../numeric/index.ts'
 import { NODE_ABS, NODE_DUDT, NODE_EXT, NODE_FIELDS, NODE_GSCA, NODE_SCA, NODE_U, NodeCache } from './nodeCache.ts'
+import { UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, upscatterFrom } from './upscatter.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
 
 /** A stretch of the size distribution: ln D from lo to hi (D in µm), with dN/dlnD (cm⁻³) there. */
@@ -82,46 +80,11 @@ export interface IntegrationOptions {
 /** The relative accuracy aimed at unless another is asked for. */
 export const DEFAULT_TOLERANCE = 1e-4
 
-/** Cos-zenith nodes where β(μ₀) is reported (Gauss–Legendre on [0, 1], 16 nodes), and their weights. */
-export const UPSCATTER_NODES = gaussLegendreOn(16, 0, 1)
-export const UPSCATTER_COS_ZENITH: readonly number[] = Array.from(UPSCATTER_NODES.nodes)
-
-/** Refinement levels that accumulate the angular sums (see the module comment). */
+/** Refinement levels that accumulate the angular sums at least (see the module comment). */
 const ANGULAR_LEVELS = 2
 /** Beyond this size parameter the node step grows in proportion to x (see the module comment). */
 const X_STRETCH = 100
-const HALF_GRID = 32
-const backwardRule = gaussLegendreOn(HALF_GRID, -1, 0)
-const forwardRule = gaussLegendreOn(HALF_GRID, 0, 1)
-/** Cosines of the scattering angle for the upscatter integrals: 32 Gauss nodes on each hemisphere. */
-const upMu = new Float64Array(2 * HALF_GRID)
-const upW = new Float64Array(2 * HALF_GRID)
-upMu.set(backwardRule.nodes, 0)
-upMu.set(forwardRule.nodes, HALF_GRID)
-upW.set(backwardRule.weights, 0)
-upW.set(forwardRule.weights, HALF_GRID)
-/** The scattering-angle cosines and weights of the upscatter integrals (read-only; for tests and tools). */
-export const UPSCATTER_SCATTERING_COSINES: { readonly nodes: Float64Array; readonly weights: Float64Array } = { nodes: upMu, weights: upW }
-
-/** F(μ_j, μ₀_i), row i. */
-const upKernel = (() => {
-  const k = new Float64Array(UPSCATTER_COS_ZENITH.length * upMu.length)
-  UPSCATTER_COS_ZENITH.forEach((m0, i) => {
-    const s0 = Math.sqrt(1 - m0 * m0)
-    for (let j = 0; j < upMu.length; j++) k[i * upMu.length + j] = upwardFraction(upMu[j], m0, s0)
-  })
-  return k
-})()
-
-/** Fraction of the azimuth circle at scattering cosine μ that points upward, for sun at cos-zenith μ₀. */
-export function upwardFraction(mu: number, mu0: number, s0 = Math.sqrt(1 - mu0 * mu0)): number {
-  const s = Math.sqrt(Math.max(0, 1 - mu * mu))
-  const num = mu0 * mu
-  const den = s0 * s
-  if (den === 0) return num < 0 ? 1 : 0
-  const c = num / den
-  return c >= 1 ? 0 : c <= -1 ? 1 : Math.acos(c) / Math.PI
-}
+const upMu = UPSCATTER_SCATTERING_COSINES.nodes
 
 /** Bulk optics of one or more populations at one wavelength. */
 export interface BulkOptics {
@@ -154,7 +117,7 @@ class Sums {
   user11: Float64Array | null
   user12: Float64Array | null
   constructor(userAngles: number) {
-    this.up = new Float64Array(2 * HALF_GRID)
+    this.up = new Float64Array(upMu.length)
     this.user11 = userAngles ? new Float64Array(userAngles) : null
     this.user12 = userAngles ? new Float64Array(userAngles) : null
   }
@@ -185,36 +148,6 @@ function figuresOf(s: Sums, lambda2: number): Figures {
   return { ext: s.ext, sca: s.sca, abs: s.abs, g: s.sca > 0 ? s.gsca / s.sca : 0, b: up.b, bbar: up.mean }
 }
 
-const upScratch = new Float64Array(UPSCATTER_COS_ZENITH.length)
-
-/** β(μ₀), b and β̄ from accumulated S11 at the hemispheric cosines. */
-function upscatterFrom(acc: Float64Array, sca: number, lambda2: number, out: Float64Array = upScratch): { b: number; mean: number; beta: Float64Array } {
-  if (!(sca > 0)) {
-    out.fill(0)
-    return { b: 0, mean: 0, beta: out }
-  }
-  // P(μ) = (λ²/π) acc / σsca; ½∫P dμ should be 1: if the grid overshoots it, renormalise; if it falls
-  // short, the shortfall is forward scattering (F = 0).
-  let norm = 0
-  let back = 0
-  for (let j = 0; j < acc.length; j++) {
-    norm += upW[j] * acc[j]
-    if (upMu[j] < 0) back += upW[j] * acc[j]
-  }
-  const scale = Math.max((lambda2 / Math.PI / sca) * 0.5, 0)
-  const z = norm * scale
-  const s = z > 1 ? scale / z : scale
-  let mean = 0
-  for (let i = 0; i < UPSCATTER_COS_ZENITH.length; i++) {
-    let v = 0
-    const row = i * acc.length
-    for (let j = 0; j < acc.length; j++) v += upW[j] * acc[j] * upKernel[row + j]
-    out[i] = v * s
-    mean += UPSCATTER_NODES.weights[i] * out[i]
-  }
-  return { b: back * s, mean, beta: out }
-}
-
 function converged(a: Figures, b: Figures, tol: number, withAngles: boolean): boolean {
   const close = (p: number, q: number, scale: number) => Math.abs(p - q) <= tol * Math.abs(scale)
   return (
@@ -222,14 +155,15 @@ function converged(a: Figures, b: Figures, tol: number, withAngles: boolean): bo
     close(a.sca, b.sca, b.sca) &&
     close(a.abs, b.abs, b.ext) &&
     close(a.g, b.g, 1) &&
-    (!withAngles || (close(a.b, b.b, Math.max(b.b, 1e-3)) && close(a.bbar, b.bbar, Math.max(b.bbar, 1e-3))))
+    (!withAngles || (close(a.b, b.b, 1) && close(a.bbar, b.bbar, 1)))
   )
 }
 
-/** The largest relative change of σext, σsca, σabs (relative to σext) and g between two levels. */
-function largestChange(a: Figures, b: Figures): number {
+/** The largest relative change of σext, σsca, σabs (relative to σext), and change of g (and b, β̄), between two levels. */
+function largestChange(a: Figures, b: Figures, withAngles: boolean): number {
   const r = (p: number, q: number, scale: number) => (scale > 0 ? Math.abs(p - q) / scale : 0)
-  return Math.max(r(a.ext, b.ext, b.ext), r(a.sca, b.sca, b.sca), r(a.abs, b.abs, b.ext), Math.abs(a.g - b.g))
+  const c = Math.max(r(a.ext, b.ext, b.ext), r(a.sca, b.sca, b.sca), r(a.abs, b.abs, b.ext), Math.abs(a.g - b.g))
+  return withAngles ? Math.max(c, Math.abs(a.b - b.b), Math.abs(a.bbar - b.bbar)) : c
 }
 
 /** Workspace shared by all integrations of a computation: Mie buffers, angular tables and the node cache. */
@@ -313,6 +247,8 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   const prevResult = new Sums(nUser)
   const flatPrev = new Sums(nUser)
   let anglesFrozen = !opts.upscatter
+  const angularLevels = ANGULAR_LEVELS
+  let lastAngChange = Infinity
   const frozenAngles = new Sums(nUser)
 
   /** u at t: Newton from the last node's u, safeguarded by the segment's bracket (t is increasing in u). */
@@ -493,16 +429,18 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       // on a 1e-4 tolerance, for lossless narrow modes at a dozen nearby wavelengths); two changes that together
       // stay under the tolerance did not.
       if (lastFigures) {
-        const change = largestChange(lastFigures, figures)
+        const change = largestChange(lastFigures, figures, !anglesFrozen)
         if (converged(lastFigures, figures, opts.tolerance, !anglesFrozen) && change + lastChange < opts.tolerance) break
         lastChange = change
       }
-      // The angular sums (b, β̄, the phase function) are ratios over the same nodes, far less sensitive to the
-      // grid than the cross-sections: they stop at level ANGULAR_LEVELS (or earlier, with everything else).
-      if (!anglesFrozen && lv >= ANGULAR_LEVELS) {
+      // The angular sums (b, β̄, the phase function) stop once b and β̄ settled on two levels in a row, from level
+      // ANGULAR_LEVELS on (or earlier, with everything else).
+      const angChange = lastFigures ? Math.max(Math.abs(lastFigures.b - figures.b), Math.abs(lastFigures.bbar - figures.bbar)) : Infinity
+      if (!anglesFrozen && lv >= angularLevels && angChange + lastAngChange < opts.tolerance) {
         anglesFrozen = true
         frozenAngles.copyFrom(result)
       }
+      lastAngChange = angChange
       lastFigures = figures
       negligibleExt = 1e-10 * figures.ext
       negligibleSca = 1e-8 * figures.sca
