@@ -24,7 +24,7 @@
  * Upscatter. The population's S11 is summed at fixed scattering angles (upscatter.ts: 32 Gauss nodes in Θ on
  * each hemisphere), from which b, β(μ₀) and β̄ follow. Those sums converge more slowly in size than the
  * cross-sections (the S11 of one angle oscillates in x with a period near 1, against about 6 for σsca): they are
- * refined from level 0 until b and β̄ changed by less than the tolerance (absolute) on two levels in a row, and
+ * refined from level 0 until b and β̄ changed by less than the tolerance (relative) on two levels in a row, and
  * at least to level ANGULAR_LEVELS; stopping at level 2 on every population, as before, left b off by 6e-4 on a
  * lossless coarse mode. Their ratios use σsca from the same nodes.
  */
@@ -155,15 +155,20 @@ function converged(a: Figures, b: Figures, tol: number, withAngles: boolean): bo
     close(a.sca, b.sca, b.sca) &&
     close(a.abs, b.abs, b.ext) &&
     close(a.g, b.g, 1) &&
-    (!withAngles || (close(a.b, b.b, 1) && close(a.bbar, b.bbar, 1)))
+    (!withAngles || (close(a.b, b.b, Math.max(b.b, 1e-3)) && close(a.bbar, b.bbar, Math.max(b.bbar, 1e-3))))
   )
+}
+
+/** The change of b and β̄ between two levels, relative to each (or to 1e-3 where smaller). */
+function angularChange(a: Figures, b: Figures): number {
+  return Math.max(Math.abs(a.b - b.b) / Math.max(b.b, 1e-3), Math.abs(a.bbar - b.bbar) / Math.max(b.bbar, 1e-3))
 }
 
 /** The largest relative change of σext, σsca, σabs (relative to σext), and change of g (and b, β̄), between two levels. */
 function largestChange(a: Figures, b: Figures, withAngles: boolean): number {
   const r = (p: number, q: number, scale: number) => (scale > 0 ? Math.abs(p - q) / scale : 0)
   const c = Math.max(r(a.ext, b.ext, b.ext), r(a.sca, b.sca, b.sca), r(a.abs, b.abs, b.ext), Math.abs(a.g - b.g))
-  return withAngles ? Math.max(c, Math.abs(a.b - b.b), Math.abs(a.bbar - b.bbar)) : c
+  return withAngles ? Math.max(c, angularChange(a, b)) : c
 }
 
 /** Workspace shared by all integrations of a computation: Mie buffers, angular tables and the node cache. */
@@ -435,7 +440,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       }
       // The angular sums (b, β̄, the phase function) stop once b and β̄ settled on two levels in a row, from level
       // ANGULAR_LEVELS on (or earlier, with everything else).
-      const angChange = lastFigures ? Math.max(Math.abs(lastFigures.b - figures.b), Math.abs(lastFigures.bbar - figures.bbar)) : Infinity
+      const angChange = lastFigures ? angularChange(lastFigures, figures) : Infinity
       if (!anglesFrozen && lv >= angularLevels && angChange + lastAngChange < opts.tolerance) {
         anglesFrozen = true
         frozenAngles.copyFrom(result)
