@@ -7,7 +7,9 @@
 //   F(μ, μ₀) = ½ − Σ_{l odd} h_l P_l(μ) P_l(μ₀),  h_l = (l+½) ∫₀¹ P_l = (P_{l−1}(0) − P_{l+1}(0))/2,
 // β(μ₀) = ½ − Σ h_l P_l(μ₀) χ_l, b = β(1) and β̄ = ∫₀¹ β dμ₀ = ½ − Σ h_l² χ_l/(l+½). The series is finite, so
 // the reference has no angular error; its size grid was checked by halving it (changes below 1e-6).
-// Errors are absolute (b, β and β̄ are fractions, like g); the claim is 1e-4.
+// Errors are absolute (b, β and β̄ are fractions, like g). Asked for a tolerance of 1e-5, every figure reaches
+// 1e-4; at the default tolerance the angular sums stop early (integrate.ts) and the README states the bounds
+// checked in the second block.
 import { describe, expect, it } from 'vitest'
 import { AngularTable, bulkOpticsAt, gaussLegendre, gaussLegendreOn, MieWorkspace, sphereEfficiencies, UPSCATTER_COS_ZENITH } from '../../src-core/index.ts'
 import { DRY, modePopulation } from './helpers.ts'
@@ -22,7 +24,15 @@ function legendreAtZero(l: number): number {
   return a
 }
 
+const references = new Map<string, ReturnType<typeof computeReference>>()
+/** The reference of a mode, computed once for the file (the weakly absorbing coarse mode takes seconds). */
 function reference(median: number, gsd: number, n: number, k: number, wl: number, tail: number) {
+  const key = [median, gsd, n, k, wl, tail].join()
+  if (!references.has(key)) references.set(key, computeReference(median, gsd, n, k, wl, tail))
+  return references.get(key)!
+}
+
+function computeReference(median: number, gsd: number, n: number, k: number, wl: number, tail: number) {
   const { pop, lo, hi } = modePopulation(median, gsd, n, k, 1, tail)
   const density = pop.segments[0].density
   const ws = new MieWorkspace()
@@ -96,16 +106,32 @@ const cases: [string, number, number, number, number, number][] = [
   ['very coarse, absorbing', 5, 1.5, 1.53, 0.01, 1e-3]
 ]
 
-describe('b, β(μ₀) and β̄ of a population reach 1e-4 (absolute) against a Legendre-series reference', () => {
+describe('b, β(μ₀) and β̄ of a population reach 1e-4 (absolute) at tolerance 1e-5, against a Legendre-series reference', () => {
   for (const [label, median, gsd, n, k, tail] of cases) {
     it(`${label}: D_g = ${median} µm, σ_g = ${gsd}, m = ${n}+${k}i`, () => {
       const wl = 0.55
       const ref = reference(median, gsd, n, k, wl, tail)
       expect(Math.abs(ref.norm - 1)).toBeLessThan(1e-12)
-      const r = bulkOpticsAt([ref.pop], wl, DRY)
+      const r = bulkOpticsAt([ref.pop], wl, DRY, { tolerance: 1e-5 })
       expect(Math.abs(r.backscatter - ref.b), 'b').toBeLessThan(1e-4)
       expect(Math.abs(r.upscatterMean - ref.bbar), 'β̄').toBeLessThan(1e-4)
       UPSCATTER_COS_ZENITH.forEach((mu0, i) => expect(Math.abs(r.upscatter[i] - ref.beta(mu0)), `β at μ₀ = ${mu0.toFixed(3)}`).toBeLessThan(1e-4))
+    }, 120_000)
+  }
+})
+
+describe('at the default tolerance, b and β̄ stay within the bounds the README states', () => {
+  // README: within 1e-4 on fine, absorbing and weakly absorbing modes; within 1e-3 on lossless coarse modes,
+  // β(μ₀) within 1e-3 at every sun angle. A tighter tolerance must move them toward the reference.
+  for (const [label, median, gsd, n, k, tail] of cases) {
+    it(`${label}`, () => {
+      const wl = 0.55
+      const ref = reference(median, gsd, n, k, wl, tail)
+      const r = bulkOpticsAt([ref.pop], wl, DRY)
+      const bound = k === 0 && median >= 1 ? 1e-3 : 1e-4
+      expect(Math.abs(r.backscatter - ref.b), 'b').toBeLessThan(bound)
+      expect(Math.abs(r.upscatterMean - ref.bbar), 'β̄').toBeLessThan(bound)
+      UPSCATTER_COS_ZENITH.forEach((mu0, i) => expect(Math.abs(r.upscatter[i] - ref.beta(mu0)), `β at μ₀ = ${mu0.toFixed(3)}`).toBeLessThan(1e-3))
     }, 120_000)
   }
 })
