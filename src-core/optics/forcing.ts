@@ -19,7 +19,7 @@ import {
 import { InputError } from '../errors.ts'
 import { readableNumber, readableRange } from '../numberText.ts'
 import type { Site } from '../study/model.ts'
-import { UPSCATTER_COS_ZENITH } from './integrate.ts'
+import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
 import { valueAt } from './sample.ts'
 import type { ForcingMapData, SampleForcing, SampleOptics, WavelengthOptics } from './types.ts'
 

@@ -26,7 +26,8 @@ import {
   type SizeBins
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
-import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, UPSCATTER_COS_ZENITH, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
+import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, type Conditions, type Population, type SizeSegment } from './integrate.ts'
 import { angstromFit, deciview, deciviewWithheld, layerDepthM, localAbsorptionExponents, localAngstromExponents, rayleighScatteringMm, visibilityWithheld, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
 import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
@@ -362,7 +363,7 @@ export function assembleSampleOptics(
     'Mass efficiencies per gram of dry particle matter (dry) and per gram including particle water at the sample humidity (wet).',
     `Visual range and haze index include the air's Rayleigh scattering at sea level (${rows.length ? rows[0].rayleigh_sca.toFixed(1) : '—'} Mm⁻¹ at ${rows[0]?.wavelength_nm} nm).`,
     'PM fractions by geometric (volume-equivalent) dry diameter.',
-    `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀ over ${UPSCATTER_COS_ZENITH.length} sun angles.`
+    `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀, taken as the mean scattering angle over π (the same integral); β(μ₀) at ${UPSCATTER_COS_ZENITH.length} sun angles.`
   ]
   if (pops.some((p) => p.bins)) notes.push(BIN_SHAPE)
   return {
