@@ -36,9 +36,10 @@ export function SizePlot() {
   )
   // the curves are not from the current inputs where the sample's inputs need attention (they are then not made
   // again: see compute/client.ts), or where none came yet
-  const stale =
-    entries.some((e) => !e.c) ||
+  const needsFix =
+    entries.some((e) => e.c && 'error' in e.c) ||
     shown.some((x) => Object.keys(s.drafts).some((p) => p.startsWith(`samples[${x.index}]`)) || problemsOf(s.problems, x.index).some((p) => p.path.startsWith(`samples[${x.index}]`)))
+  const stale = entries.some((e) => !e.c) || needsFix
   return (
     <div class="size-plot">
       <div class="row" role="radiogroup" aria-label="Distribution shown">
@@ -64,7 +65,9 @@ export function SizePlot() {
           stale={stale}
         />
       ) : (
-        <p class="empty">No distribution to draw: fix the inputs marked above.</p>
+        <p class="empty" data-testid="size-plot-empty">
+          {needsFix ? 'No distribution to draw: fix the inputs marked above.' : 'Drawing the size distribution…'}
+        </p>
       )}
     </div>
   )
