@@ -8,6 +8,7 @@ import {
   formatJsonPath,
   SITE_QUANTITIES,
   UNCERTAIN_QUANTITIES,
+  UNCERTAINTY_VERDICT_FIGURE,
   UNCERTAINTY_WAVELENGTH_NM,
   type Sample,
   type Study,
@@ -44,7 +45,11 @@ const QUANTITY: Record<UncertainQuantity, string> = {
   layer: 'layer: depth, scale height or AOD',
   surface_albedo: 'surface albedo',
   cloud_fraction: 'cloud fraction',
-  transmittance: 'transmittance above the layer'
+  transmittance: 'transmittance above the layer',
+  surface_temperature: 'surface temperature (K)',
+  surface_emissivity: 'surface infrared emissivity',
+  layer_height: "height of the layer's middle (km)",
+  water_column: 'water-vapour column (cm)'
 }
 
 const APPLY: Record<UncertainInput['apply'], string> = { factor: '× factor', add: '+ offset', set: '= value' }
@@ -390,7 +395,7 @@ const pct = (p: number) => `${num(p * 100, 3)} %`
 
 function Probability(p: { r: UncertaintyResult; verdict?: string; stale: boolean }) {
   const w = p.r.warming
-  const forcing = p.r.figures.find((f) => f.key === 'forcing')
+  const forcing = p.r.figures.find((f) => f.key === UNCERTAINTY_VERDICT_FIGURE)
   const word = w.probability >= 0.95 ? 'warms' : w.probability <= 0.05 ? 'cools' : 'undecided'
   const head =
     w.positives === 0
@@ -413,7 +418,7 @@ function Probability(p: { r: UncertaintyResult; verdict?: string; stale: boolean
         {p.stale && <span class="stale-tag">stale</span>}
       </h3>
       <p class="explanation">
-        P(warm), the probability that this layer warms (thin-layer forcing above 0), is <strong data-testid="p-warm-value">{fixed(w.probability, 3)}</strong> ± {fixed(w.standard_error, 3)} (binomial standard error): {w.positives} of {w.count} draws warm.
+        P(warm), the probability that this layer warms (net forcing, sunlight + infrared, above 0), is <strong data-testid="p-warm-value">{fixed(w.probability, 3)}</strong> ± {fixed(w.standard_error, 3)} (binomial standard error): {w.positives} of {w.count} draws warm.
         {w.positives === 0 || w.positives === w.count ? ' With every draw on one side the standard error is 0; it only shows that the other outcome is rare, not impossible.' : ''}
       </p>
       <p class="explanation">
@@ -426,7 +431,7 @@ function Probability(p: { r: UncertaintyResult; verdict?: string; stale: boolean
 
 function Histogram(p: { r: UncertaintyResult; theme: Theme; stale: boolean }) {
   const chart = useMemo(() => {
-    const f = p.r.figures.find((x) => x.key === 'forcing')
+    const f = p.r.figures.find((x) => x.key === UNCERTAINTY_VERDICT_FIGURE)
     if (!f) return null
     let { edges, counts } = f.histogram
     if (counts.length === 1) {
@@ -491,7 +496,7 @@ const FIGURE_NAMES: Record<string, string> = {
 }
 
 function FiguresTable(p: { r: UncertaintyResult }) {
-  const f = (x: number, key: string) => (key.startsWith('forcing') ? signed(x) : key === 'ssa' || key === 'g' || key === 'upscatter' ? fixed(x, 3) : num(x, 4))
+  const f = (x: number, key: string) => (key.startsWith('forcing') || key.endsWith('_toa') ? signed(x) : key === 'ssa' || key === 'g' || key === 'upscatter' ? fixed(x, 3) : num(x, 4))
   return (
     <table class="grid-table numbers u-figures" data-testid="uncertainty-table">
       <caption>Each figure at {p.r.wavelength_nm} nm over the draws</caption>
