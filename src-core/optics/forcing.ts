@@ -19,6 +19,7 @@ import {
   solarBandWeights,
   SOLAR_CONSTANT_WM2,
   surfaceTypeById,
+  SURFACE_TYPES,
   thinLayerDepartureWarning,
   thinLayerForcing,
   twoStreamForcing
@@ -45,12 +46,21 @@ export function siteSurfaceAlbedo(site: Site): number {
 /** The surface emissivity of a custom surface unless one is given (common practice: most natural surfaces, 0.9–0.99). */
 export const CUSTOM_SURFACE_EMISSIVITY = 0.95
 
+/** The site's infrared inputs with their defaults filled in, unchecked (what a form shows before a value is given). */
+export function siteLongwaveDefaults(site: Site): { surfaceTemperatureK: number; surfaceEmissivity: number; layerHeightKm: number; waterColumnCm: number } {
+  const type = SURFACE_TYPES.find((t) => t.id === site.surface)
+  return {
+    surfaceTemperatureK: site.surface_temperature_k ?? DEFAULT_SURFACE_TEMPERATURE_K,
+    surfaceEmissivity: site.surface_emissivity ?? type?.emissivity ?? CUSTOM_SURFACE_EMISSIVITY,
+    layerHeightKm: site.layer_height_km ?? DEFAULT_LAYER_HEIGHT_KM,
+    waterColumnCm: site.water_column_cm ?? DEFAULT_WATER_COLUMN_CM
+  }
+}
+
 /** The site's infrared inputs with their defaults filled in, each checked at its field with its range and reason. */
 export function siteLongwaveInputs(site: Site): { surfaceTemperatureK: number; surfaceEmissivity: number; layerHeightKm: number; waterColumnCm: number } {
-  const surfaceTemperatureK = site.surface_temperature_k ?? DEFAULT_SURFACE_TEMPERATURE_K
-  const surfaceEmissivity = site.surface_emissivity ?? (site.surface === 'custom' ? CUSTOM_SURFACE_EMISSIVITY : surfaceTypeById(site.surface).emissivity)
-  const layerHeightKm = site.layer_height_km ?? DEFAULT_LAYER_HEIGHT_KM
-  const waterColumnCm = site.water_column_cm ?? DEFAULT_WATER_COLUMN_CM
+  if (site.surface !== 'custom' && site.surface_emissivity === undefined) surfaceTypeById(site.surface)
+  const { surfaceTemperatureK, surfaceEmissivity, layerHeightKm, waterColumnCm } = siteLongwaveDefaults(site)
   checkLongwaveInput('surface_temperature_k', surfaceTemperatureK, 'site: surface_temperature_k')
   checkLongwaveInput('surface_emissivity', surfaceEmissivity, 'site: surface_emissivity')
   checkLongwaveInput('layer_height_km', layerHeightKm, 'site: layer_height_km')
@@ -207,7 +217,8 @@ export function sampleForcingMap(forcing: SampleForcing, site: Site, nSurface = 
     tau: forcing.tau_550,
     upscatter: Math.max(forcing.upscatter_550, 1e-6),
     transmittance: site.transmittance,
-    cloudFraction: site.cloud_fraction
+    cloudFraction: site.cloud_fraction,
+    offsetWm2: forcing.longwave_toa_w_m2 ?? 0
   })
   const rows: number[][] = []
   for (let j = 0; j < nOmega; j++) rows.push(Array.from(map.forcingWm2.subarray(j * nSurface, (j + 1) * nSurface)))
@@ -216,6 +227,7 @@ export function sampleForcingMap(forcing: SampleForcing, site: Site, nSurface = 
     ssa: Array.from(map.omega),
     forcing: rows,
     zero_line: Array.from(map.zeroLine.surfaceAlbedo, (r, i) => [r, map.zeroLine.omegaCritical[i]] as [number, number]),
+    net_zero_line: Array.from(map.netZeroLine.surfaceAlbedo, (r, i) => [r, map.netZeroLine.omega[i]] as [number, number]),
     sample: [forcing.surface_albedo, forcing.ssa_550]
   }
 }

@@ -192,6 +192,8 @@ export interface ForcingMapData {
   forcing: number[][]
   /** The ω_crit(R_s) line as [R_s, ω] points. */
   zero_line: [number, number][]
+  /** Where the net forcing (this map's sunlight part plus the sample's infrared part, the same everywhere) is zero, as [R_s, ω] points. */
+  net_zero_line: [number, number][]
   /** Where this sample sits: [R_s, ω at 550 nm]. */
   sample: [number, number]
 }

@@ -6,6 +6,8 @@ import {
   STEFAN_BOLTZMANN_WM2K4,
   airTemperatureK,
   blackbodyFractionBelow,
+  forcingMap,
+  thinLayerForcing,
   longwaveForcing,
   netVerdict,
   planckBandFlux,
@@ -170,6 +172,22 @@ describe('infrared forcing of a layer (longwaveForcing)', () => {
       expect((err as InputError).where).toBe(field)
       expect((err as InputError).message).toMatch(/outside .* to .*\(/)
     }
+  })
+})
+
+describe('the forcing map with an infrared offset', () => {
+  it('on the net zero line the thin-layer forcing (Chylek & Wong 1995, by thinLayerForcing) plus the offset is zero', () => {
+    const m = forcingMap({ nSurfaceAlbedo: 41, nOmega: 11, omegaMin: 0.5, tau: 0.3, upscatter: 0.2, offsetWm2: 0.8 })
+    expect(m.netZeroLine.surfaceAlbedo.length).toBeGreaterThan(5)
+    m.netZeroLine.surfaceAlbedo.forEach((R, i) => {
+      const f = thinLayerForcing({ tau: 0.3, omega: m.netZeroLine.omega[i], upscatter: 0.2, surfaceAlbedo: R }).forcingWm2
+      expect(Math.abs(f + 0.8)).toBeLessThan(1e-9)
+    })
+    // a warming offset moves the zero line to higher ω (more scattering needed to cool)
+    const i = m.netZeroLine.surfaceAlbedo.findIndex((r) => r === 0.25)
+    const j = m.zeroLine.surfaceAlbedo.findIndex((r) => r === 0.25)
+    expect(m.netZeroLine.omega[i]).toBeGreaterThan(m.zeroLine.omegaCritical[j])
+    expect(forcingMap({ nSurfaceAlbedo: 5, nOmega: 5, tau: 0.3, upscatter: 0.2 }).netZeroLine.surfaceAlbedo.length).toBe(0)
   })
 })
 
