@@ -454,10 +454,10 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
       // the sign flips at the same albedo whatever the surface
       expect(Math.abs(shownNumber(await page.getByTestId('flip-albedo').textContent()) - flip)).toBeLessThan(0.002)
     }
-    // the thin-layer and two-stream estimates side by side, one column for the sample
+    // the thin-layer and two-stream estimates side by side, then the infrared and the net, one column for the sample
     const methods = page.getByTestId('methods-table')
-    expect(await methods.locator('tbody tr').count()).toBe(6)
-    expect(await methods.textContent()).toMatch(/Chylek & Wong.*Two-stream/s)
+    expect(await methods.locator('tbody tr').count()).toBe(9)
+    expect(await methods.textContent()).toMatch(/Chylek & Wong.*Two-stream.*Infrared.*Net/s)
     expect(await axes('forcing-map')).toMatch(/Single-scattering albedo ω against Surface albedo Rs.*zero line/)
   })
 

@@ -1,0 +1,24 @@
+// Bench case for the infrared part: each demo sample's whole computation (optics at the study's wavelengths with a
+// fresh workspace, then its forcing) with and without the thermal-infrared bands; the goal is at most 20 %
+// added to a sample's computation.
+import { computeSampleOptics, demoStudy, OpticsWorkspace, sampleForcing } from '../../src-core/index.ts'
+import { msPerRun, report } from './timing.ts'
+
+export function benchLongwaveDemo(): void {
+  const study = demoStudy()
+  for (const sample of study.samples) {
+    const run = (longwave: boolean) => () => {
+      const optics = computeSampleOptics(sample, study, { workspace: new OpticsWorkspace(), longwave })
+      sampleForcing(optics, study.site, study.verdict_margin_w_m2)
+    }
+    const without = msPerRun(run(false), 5)
+    const withIr = msPerRun(run(true), 5)
+    report('longwave-demo', {
+      sample: sample.name,
+      ms_without_infrared: Math.round(without * 10) / 10,
+      ms_with_infrared: Math.round(withIr * 10) / 10,
+      added_percent: Math.round((withIr / without - 1) * 1000) / 10,
+      goal_added_percent: 20
+    })
+  }
+}
