@@ -35,7 +35,8 @@ export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: M
   FILE.mote             a study whose "uncertainty" settings list the sample's uncertain inputs:
                           "uncertainty": { "samples": { "NAME": { "inputs": [ ... ] } }, "site": { "inputs": [ ... ] } }
                         each input: { "quantity": n | k | median | gsd | amount | density | kappa | rh | layer |
-                          surface_albedo | cloud_fraction | transmittance, "material": id (n, k), "mode": 0-based index or
+                          surface_albedo | cloud_fraction | transmittance | surface_temperature (K) |
+                          surface_emissivity | layer_height (km) | water_column (cm), "material": id (n, k), "mode": 0-based index or
                           name (median, gsd, amount), "apply": factor | add | set,
                           "distribution": { "kind": "normal", "mean", "sd" } | { "kind": "lognormal", "median", "gsd" } |
                           { "kind": "uniform", "lo", "hi" }, "bounds": { "lo", "hi", "method": resample | clamp } }
