@@ -3,6 +3,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { LONGWAVE_BANDS, longwaveForcing } from '../../src-core/index.ts'
 import { runForcing } from '../../src-main/cli/forcing.ts'
+import { runPopulation } from '../../src-main/cli/population.ts'
 import { runStudy } from '../../src-main/cli/study.ts'
 import { repo, runHere } from './helpers.ts'
 
@@ -52,5 +53,19 @@ describe('motebench study: infrared and net figures', () => {
     const cells = first.split(',')
     for (const k of ['longwave_toa_W_m-2', 'longwave_surface_W_m-2', 'net_toa_W_m-2']) expect(cols).toContain(k)
     expect(Number(cells[cols.indexOf('net_toa_W_m-2')])).toBeCloseTo(f.net_toa_w_m2, 6)
+  })
+})
+
+describe('motebench population --infrared', () => {
+  it('adds the band optics over 4–40 µm, one entry per band, absorption = extinction − scattering; the silicate band of dust absorbs more than the window beside it', async () => {
+    const r = await runHere(runPopulation, ['--mode', '10,3um,1.8', '--material', 'mineral-dust', '--rh', '0', '--infrared', '--json', '--tolerance', '1e-3'])
+    expect(r.code).toBe(0)
+    const j = JSON.parse(r.stdout)
+    expect(j.longwave_withheld).toBeNull()
+    expect(j.longwave_bands.map((b: { lo_um: number }) => b.lo_um)).toEqual(LONGWAVE_BANDS.map((b) => b.loUm))
+    for (const b of j.longwave_bands) expect(b.abs).toBeCloseTo(b.ext - b.sca, 9)
+    // illite's Si–O stretching band at 9–10 µm (Querry 1987, the catalogue's dust) against the 11.5–12.5 µm window
+    const at = (lo: number) => j.longwave_bands.find((b: { lo_um: number }) => b.lo_um === lo)
+    expect(at(9.5).abs).toBeGreaterThan(at(11.5).abs)
   })
 })
