@@ -466,7 +466,7 @@ function Histogram(p: { r: UncertaintyResult; theme: Theme; stale: boolean }) {
     <div data-testid="forcing-histogram" data-bins={chart.bins} data-zero={chart.xRange[0] <= 0 && chart.xRange[1] >= 0 ? 'inside' : 'outside'}>
     <Chart
       name="forcing-histogram"
-      title={`Thin-layer forcing over ${p.r.draws} draws`}
+      title={`Net forcing (sunlight + infrared) over ${p.r.draws} draws`}
       data={chart.data}
       lines={chart.lines}
       xLabel="Forcing (W m⁻²)"
@@ -490,9 +490,11 @@ const FIGURE_NAMES: Record<string, string> = {
   g: 'g, asymmetry parameter',
   upscatter: 'β̄, upscatter fraction',
   tau: 'τ, optical depth of the layer',
-  forcing: 'Forcing, thin layer (the verdict’s)',
+  forcing: 'Forcing, thin layer (the verdict’s sunlight part)',
   forcing_daily_mean: 'Forcing, thin layer through the site’s day',
-  forcing_two_stream_toa: 'Forcing, two-stream at the top of the atmosphere'
+  forcing_two_stream_toa: 'Forcing, two-stream at the top of the atmosphere',
+  longwave_toa: 'Forcing, thermal infrared at the top of the atmosphere',
+  net_toa: 'Net forcing, sunlight + infrared (the verdict’s)'
 }
 
 function FiguresTable(p: { r: UncertaintyResult }) {
@@ -537,7 +539,7 @@ function SensitivityTable(p: { r: UncertaintyResult }) {
     rho === null ? 'did not vary' : Math.abs(rho) < 0.1 ? 'little monotonic effect' : rho > 0 ? `higher → warmer${Math.abs(rho) > 0.7 ? ' (dominant)' : ''}` : `higher → cooler${Math.abs(rho) > 0.7 ? ' (dominant)' : ''}`
   return (
     <table class="grid-table numbers u-sensitivity" data-testid="sensitivity-table">
-      <caption>Which inputs matter: Spearman rank correlation ρ of each drawn input with the thin-layer forcing, strongest first (±1: it alone orders the forcing; 0: no monotonic effect)</caption>
+      <caption>Which inputs matter: Spearman rank correlation ρ of each drawn input with the net forcing (sunlight + infrared), strongest first (±1: it alone orders the forcing; 0: no monotonic effect)</caption>
       <thead>
         <tr>
           <th scope="col">Input</th>
@@ -606,7 +608,7 @@ export function UncertaintyView() {
   return (
     <div class="view tool-view uncertainty-view" data-view="uncertainty">
       <p class="help intro">
-        Monte Carlo: each draw perturbs the inputs below, computes “{sample.name}” at {UNCERTAINTY_WAVELENGTH_NM} nm and its forcing at the site. The share of draws whose thin-layer forcing is above zero is P(warm). The inputs are saved with the study.
+        Monte Carlo: each draw perturbs the inputs below, computes “{sample.name}” at {UNCERTAINTY_WAVELENGTH_NM} nm and its forcing at the site. The share of draws whose net forcing (the thin-layer sunlight figure plus the infrared one) is above zero is P(warm). The inputs are saved with the study.
       </p>
       <div class="u-columns">
         <div class="u-editor">
