@@ -73,6 +73,22 @@ describe('thermal two-stream (hemispheric mean, Toon et al. 1989)', () => {
       expect(r.down[0]).toBe(0)
     }
   })
+  it('a scattering layer that does not emit reflects and transmits diffuse light as the closed two-stream form says: R = Γ(1 − e^{−2λτ})/(1 − Γ²e^{−2λτ}), T = (1 − Γ²)e^{−λτ}/(1 − Γ²e^{−2λτ}) (Meador & Weaver 1980, J. Atmos. Sci. 37:630; from memory)', () => {
+    // lit from below by a black surface's flux E, with no source in the layer: what leaves the top is T·E, what goes
+    // back down to the surface R·E (the surface, black, absorbs it)
+    for (const [tau, omega, g] of [[0.3, 0.9, 0.6], [2, 0.5, 0.2], [0.05, 0.99, 0.8]]) {
+      const E = 300
+      const r = thermalTwoStream({ layers: [layer(tau, omega, g, 0, 0)], surfaceEmissivity: 1, surfaceEmission: E })
+      const g1 = 2 - omega * (1 + g)
+      const g2 = omega * (1 - g)
+      const lam = Math.sqrt(g1 * g1 - g2 * g2)
+      const G = g2 / (g1 + lam)
+      const e1 = Math.exp(-lam * tau)
+      const den = 1 - G * G * e1 * e1
+      expect(r.up[0] / E).toBeCloseTo(((1 - G * G) * e1) / den, 12)
+      expect(r.down[1] / E).toBeCloseTo((G * (1 - e1 * e1)) / den, 12)
+    }
+  })
   it('an optically thick non-scattering isothermal layer emits as a blackbody at its temperature, whatever lies below', () => {
     for (const eps of [0.5, 1]) {
       const r = thermalTwoStream({ layers: [layer(60, 0, 0, 150, 150)], surfaceEmissivity: eps, surfaceEmission: 390 })
