@@ -18,6 +18,13 @@ import type { LongwaveBandOptics, LongwaveOptics } from './types.ts'
  */
 export const LONGWAVE_TOLERANCE = 1e-3
 
+/**
+ * The coarsest lattice step of the infrared size integration (IntegrationOptions.coarsestStep): the particles are
+ * small against these wavelengths and the integrands smooth, so a coarser first grid settles with a third fewer Mie
+ * evaluations; over the demo's samples it stays within 1.5e-6 of a 1e-7 integration (as the default step does).
+ */
+export const LONGWAVE_COARSEST_STEP = 2
+
 /** The nodes' wavelengths, nm, in band order. */
 export const LONGWAVE_NODES_NM: readonly number[] = Object.freeze(longwaveNodeWavelengthsUm().map((w) => Math.round(w * 1000)))
 
@@ -34,14 +41,14 @@ function weight(lo: number, hi: number): number {
 export function* sampleLongwaveSteps(
   sample: Sample,
   study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
-  options: { workspace?: OpticsWorkspace; tolerance?: number } = {}
+  options: { workspace?: OpticsWorkspace; tolerance?: number; coarsestStep?: number } = {}
 ): Generator<void, LongwaveOptics> {
   const atNodes = { user_materials: study.user_materials, wavelengths_nm: [...LONGWAVE_NODES_NM] }
   let own: Material[]
   let bulk
   try {
     own = studyMaterials(atNodes)
-    bulk = yield* sampleBulkSteps(sample, atNodes, { upscatter: false, angularWavelengthsNm: [], tolerance: Math.max(options.tolerance ?? 0, LONGWAVE_TOLERANCE), workspace: options.workspace }, own)
+    bulk = yield* sampleBulkSteps(sample, atNodes, { upscatter: false, angularWavelengthsNm: [], tolerance: Math.max(options.tolerance ?? 0, LONGWAVE_TOLERANCE), coarsestStep: Math.max(options.coarsestStep ?? 1, LONGWAVE_COARSEST_STEP), workspace: options.workspace }, own)
   } catch (e) {
     if (e instanceof InputError) return { bands: [], withheld: `The infrared part is left out: ${e.message}` }
     throw e

@@ -115,7 +115,7 @@ async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 
 /** This worker's share of a sample's wavelengths, then the sample's thermal-infrared band optics (cheap: small size parameters). */
 function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coarsestStep?: number }) {
   const bulk = yield* sampleBulkSteps(study.samples[0], study, { only, ...grid, workspace })
-  const longwave = yield* sampleLongwaveSteps(study.samples[0], study, { workspace, tolerance: grid.tolerance })
+  const longwave = yield* sampleLongwaveSteps(study.samples[0], study, { workspace, ...grid })
   return { bulk, longwave }
 }
 
