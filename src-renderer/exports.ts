@@ -89,7 +89,12 @@ export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]
     'angstrom_abs_withheld',
     'number_cm-3',
     'mass_ug_m-3',
-    'pm2_5_ug_m-3'
+    'pm2_5_ug_m-3',
+    'longwave_toa_W_m-2',
+    'longwave_surface_W_m-2',
+    'net_toa_W_m-2',
+    'sunlight_verdict',
+    'dominant_part'
   ])
   study.samples.forEach((s, i) => {
     const x = results[i]
@@ -119,7 +124,12 @@ export function resultsCsv(study: Study, results: (ExportedResult | undefined)[]
       r.optics.angstrom_fit.withheld?.abs ?? '',
       r.optics.number_cm3,
       r.optics.mass_ug_m3,
-      r.optics.pm2_5_ug_m3
+      r.optics.pm2_5_ug_m3,
+      f.longwave_toa_w_m2 ?? '',
+      f.longwave_surface_w_m2 ?? '',
+      f.net_toa_w_m2,
+      f.sunlight_verdict,
+      f.dominant
     ])
   })
   rows.push([])

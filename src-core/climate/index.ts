@@ -54,3 +54,26 @@ export type { ForcingVerdictWord, ForcingVerdictInput, ForcingVerdict, ForcingMa
 export { FORCING_CAUTION, DEFAULT_VERDICT_MARGIN_WM2, forcingVerdict, forcingMap, effectiveEmissionTemperature } from './verdict.ts'
 export type { ThinLayerCheckInput, ThinLayerCheck } from './validity.ts'
 export { THIN_LAYER_TRUSTED_SHARE, asymmetryFromUpscatter, thinLayerDepartureWarning, thinLayerCheck } from './validity.ts'
+export { blackbodyFractionBelow, planckBandFlux, planckSpectralFlux, C2_UM_K } from './planck.ts'
+export type { ThermalLayer, ThermalStackInput, ThermalStackFluxes } from './thermalTwoStream.ts'
+export { thermalTwoStream, HEMISPHERIC_MEAN_DIFFUSIVITY } from './thermalTwoStream.ts'
+export type { LongwaveBand, BandParticleOptics } from './longwaveBands.ts'
+export { LONGWAVE_BANDS, LONGWAVE_RANGE_UM, LONGWAVE_WEIGHT_TEMPERATURE_K, longwaveNodeWavelengthsUm, bandAverage } from './longwaveBands.ts'
+export type { LongwaveLayerBand, LongwaveForcingInput, LongwaveForcingResult, LongwaveInputName } from './longwave.ts'
+export {
+  longwaveForcing,
+  airTemperatureK,
+  checkLongwaveInput,
+  LONGWAVE_INPUT_RANGES,
+  LONGWAVE_METHOD,
+  STANDARD_LAPSE_RATE_K_PER_KM,
+  TROPOPAUSE_KM,
+  WATER_SCALE_HEIGHT_KM,
+  PRESSURE_SCALE_HEIGHT_KM,
+  DEFAULT_SURFACE_TEMPERATURE_K,
+  DEFAULT_LAYER_HEIGHT_KM,
+  DEFAULT_WATER_COLUMN_CM
+} from './longwave.ts'
+export { EMISSIVITY_SOURCE } from './surfaces.ts'
+export type { NetVerdictInput, NetVerdict } from './netVerdict.ts'
+export { netVerdict } from './netVerdict.ts'

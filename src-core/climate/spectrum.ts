@@ -17,6 +17,7 @@ import {
   STEFAN_BOLTZMANN_WM2K4,
   SUN_EFFECTIVE_TEMPERATURE_K
 } from './constants.ts'
+import { blackbodyFractionBelow } from './planck.ts'
 import { checkFinite, checkRange, checkRangeOpenLow } from './validate.ts'
 
 /** Second radiation constant c₂ = hc/k in µm K. */
@@ -39,40 +40,11 @@ export function solarSpectralIrradiance(wavelengthUm: number, solarConstant: num
 }
 
 /**
- * Fraction of a 5772 K blackbody's energy at wavelengths below λ (0..1).
- * With x = hc/(λkT): for x ≥ 1 the exponential series
- *   f = (15/π⁴) Σₙ e^{−nx} (x³/n + 3x²/n² + 6x/n³ + 6/n⁴)
- * (Widger, W. K. & Woodall, M. P. (1976), Bull. Am. Meteorol. Soc. 57, 1217–1219); for x < 1 the
- * complement 1 − (15/π⁴) ∫₀ˣ t³/(eᵗ − 1) dt with the Bernoulli-number series
- *   ∫₀ˣ t³/(eᵗ − 1) dt = Σₘ Bₘ x^{m+3} / (m! (m + 3))   (converges for x < 2π).
- * Domain: λ > 0 µm (Infinity gives 1).
+ * Fraction of a 5772 K blackbody's energy at wavelengths below λ (0..1): blackbodyFractionBelow (planck.ts) at the
+ * Sun's effective temperature. Domain: λ > 0 µm (Infinity gives 1).
  */
 export function solarFractionBelow(wavelengthUm: number): number {
-  if (wavelengthUm === Number.POSITIVE_INFINITY) return 1
-  checkRangeOpenLow('wavelengthUm', wavelengthUm, 0, Number.MAX_VALUE, 'µm')
-  const x = C2_UM_K / (wavelengthUm * SUN_EFFECTIVE_TEMPERATURE_K)
-  const c = 15 / Math.PI ** 4
-  if (x >= 1) {
-    const nMax = Math.ceil(45 / x) + 1
-    let s = 0
-    for (let n = 1; n <= nMax; n++) {
-      s += Math.exp(-n * x) * (x ** 3 / n + (3 * x * x) / n ** 2 + (6 * x) / n ** 3 + 6 / n ** 4)
-    }
-    return Math.min(1, c * s)
-  }
-  // Bernoulli numbers B_0..B_14 (odd ones beyond B_1 vanish)
-  const bern: Array<[number, number]> = [
-    [0, 1], [1, -0.5], [2, 1 / 6], [4, -1 / 30], [6, 1 / 42], [8, -1 / 30], [10, 5 / 66], [12, -691 / 2730], [14, 7 / 6]
-  ]
-  let s = 0
-  let fact = 1
-  let lastM = 0
-  for (const [m, b] of bern) {
-    for (let j = lastM + 1; j <= m; j++) fact *= j
-    lastM = m
-    s += (b * x ** (m + 3)) / (fact * (m + 3))
-  }
-  return 1 - c * s
+  return blackbodyFractionBelow(wavelengthUm, SUN_EFFECTIVE_TEMPERATURE_K)
 }
 
 /**

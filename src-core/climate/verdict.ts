@@ -182,6 +182,11 @@ export interface ForcingMapInput {
   transmittance?: number
   cloudFraction?: number
   solarConstant?: number
+  /**
+   * A forcing added everywhere on the map, W m⁻² (the layer's infrared part, which depends on neither the surface's
+   * albedo nor the visible ω): gives the net zero line. Default 0.
+   */
+  offsetWm2?: number
 }
 
 export interface ForcingMap {
@@ -197,6 +202,12 @@ export interface ForcingMap {
    * Empty if omegaMin ≥ 1.
    */
   zeroLine: { surfaceAlbedo: Float64Array; omegaCritical: Float64Array }
+  /**
+   * Where the thin-layer forcing plus offsetWm2 is zero, at the R_s grid points where that ω lies on the map: the
+   * thin-layer form is linear in ω, so ω = (4R_s + L/(Cτ)) / (2(1 − R_s)²β̄ + 4R_s) with C = (S₀/4)T²(1 − A_c).
+   * Empty without an offset or a layer.
+   */
+  netZeroLine: { surfaceAlbedo: Float64Array; omega: Float64Array }
 }
 
 /**
@@ -237,7 +248,28 @@ export function forcingMap(input: ForcingMapInput): ForcingMap {
       ys.push(criticalSingleScatteringAlbedo(R[i], input.upscatter))
     }
   }
-  return { surfaceAlbedo: R, omega: W, forcingWm2: F, zeroLine: { surfaceAlbedo: Float64Array.from(xs), omegaCritical: Float64Array.from(ys) } }
+  const L = input.offsetWm2 ?? 0
+  checkRange('offsetWm2', L, -1e4, 1e4, 'W m⁻²')
+  const nx: number[] = []
+  const ny: number[] = []
+  const ct = (S0 / 4) * T * T * (1 - Ac) * input.tau
+  if (L !== 0 && ct > 0) {
+    for (let i = 0; i < nR; i++) {
+      const den = 2 * (1 - R[i]) ** 2 * input.upscatter + 4 * R[i]
+      const w = (4 * R[i] + L / ct) / den
+      if (w >= wMin && w <= wMax) {
+        nx.push(R[i])
+        ny.push(w)
+      }
+    }
+  }
+  return {
+    surfaceAlbedo: R,
+    omega: W,
+    forcingWm2: F,
+    zeroLine: { surfaceAlbedo: Float64Array.from(xs), omegaCritical: Float64Array.from(ys) },
+    netZeroLine: { surfaceAlbedo: Float64Array.from(nx), omega: Float64Array.from(ny) }
+  }
 }
 
 /**

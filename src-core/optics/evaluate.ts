@@ -62,7 +62,7 @@ export function* humidityScatteringSteps(study: Study, index: number, humidities
   const out: number[] = []
   for (const rh of humidities) {
     // only σsca is needed: no angular sums
-    const optics = yield* sampleOpticsSteps(sample, at550, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, workspace: ws, tolerance: Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE) }, own)
+    const optics = yield* sampleOpticsSteps(sample, at550, { rhPercent: rh, angularWavelengthsNm: [], upscatter: false, longwave: false, workspace: ws, tolerance: Math.min(tolerance, HUMIDITY_CURVE_TOLERANCE) }, own)
     out.push(optics.wavelengths[0].sca)
   }
   return out

@@ -4,7 +4,14 @@
  * forcing over surface albedo and ω. The formulas themselves live in src-core/climate.
  */
 import {
+  checkLongwaveInput,
   dailyMeanThinLayerForcing,
+  DEFAULT_LAYER_HEIGHT_KM,
+  DEFAULT_SURFACE_TEMPERATURE_K,
+  DEFAULT_WATER_COLUMN_CM,
+  LONGWAVE_METHOD,
+  longwaveForcing,
+  netVerdict,
   DEFAULT_VERDICT_MARGIN_WM2,
   forcingMap,
   forcingVerdict,
@@ -12,6 +19,7 @@ import {
   solarBandWeights,
   SOLAR_CONSTANT_WM2,
   surfaceTypeById,
+  SURFACE_TYPES,
   thinLayerDepartureWarning,
   thinLayerForcing,
   twoStreamForcing
@@ -21,7 +29,7 @@ import { readableNumber, readableRange } from '../numberText.ts'
 import type { Site } from '../study/model.ts'
 import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
 import { valueAt } from './sample.ts'
-import type { ForcingMapData, SampleForcing, SampleOptics, WavelengthOptics } from './types.ts'
+import type { ForcingMapData, LongwaveForcingDetail, SampleForcing, SampleOptics, WavelengthOptics } from './types.ts'
 
 /** Pressure at the top of the aerosol layer, hPa, for the Rayleigh part of the spectral transmittance (common practice: a boundary layer up to ~1.5 km). */
 export const LAYER_TOP_PRESSURE_HPA = 850
@@ -33,6 +41,57 @@ export function siteSurfaceAlbedo(site: Site): number {
     return site.surface_albedo
   }
   return site.surface_albedo ?? surfaceTypeById(site.surface).albedo
+}
+
+/** The surface emissivity of a custom surface unless one is given (common practice: most natural surfaces, 0.9–0.99). */
+export const CUSTOM_SURFACE_EMISSIVITY = 0.95
+
+/** The site's infrared inputs with their defaults filled in, unchecked (what a form shows before a value is given). */
+export function siteLongwaveDefaults(site: Site): { surfaceTemperatureK: number; surfaceEmissivity: number; layerHeightKm: number; waterColumnCm: number } {
+  const type = SURFACE_TYPES.find((t) => t.id === site.surface)
+  return {
+    surfaceTemperatureK: site.surface_temperature_k ?? DEFAULT_SURFACE_TEMPERATURE_K,
+    surfaceEmissivity: site.surface_emissivity ?? type?.emissivity ?? CUSTOM_SURFACE_EMISSIVITY,
+    layerHeightKm: site.layer_height_km ?? DEFAULT_LAYER_HEIGHT_KM,
+    waterColumnCm: site.water_column_cm ?? DEFAULT_WATER_COLUMN_CM
+  }
+}
+
+/** The site's infrared inputs with their defaults filled in, each checked at its field with its range and reason. */
+export function siteLongwaveInputs(site: Site): { surfaceTemperatureK: number; surfaceEmissivity: number; layerHeightKm: number; waterColumnCm: number } {
+  if (site.surface !== 'custom' && site.surface_emissivity === undefined) surfaceTypeById(site.surface)
+  const { surfaceTemperatureK, surfaceEmissivity, layerHeightKm, waterColumnCm } = siteLongwaveDefaults(site)
+  checkLongwaveInput('surface_temperature_k', surfaceTemperatureK, 'site: surface_temperature_k')
+  checkLongwaveInput('surface_emissivity', surfaceEmissivity, 'site: surface_emissivity')
+  checkLongwaveInput('layer_height_km', layerHeightKm, 'site: layer_height_km')
+  checkLongwaveInput('water_column_cm', waterColumnCm, 'site: water_column_cm')
+  return { surfaceTemperatureK, surfaceEmissivity, layerHeightKm, waterColumnCm }
+}
+
+/** The infrared part of a sample's forcing from its band optics and the site, or the reason it is left out. */
+export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detail: LongwaveForcingDetail; toa: number; surface: number } | { withheld: string } {
+  const lw = optics.longwave
+  if (!lw || !lw.bands.length) return { withheld: lw?.withheld ?? 'The infrared part was not computed for these optics.' }
+  const inputs = siteLongwaveInputs(site)
+  const depthKm = optics.layer_depth_m / 1000
+  const bands = lw.bands.map((b) => ({ tau: b.ext * 1e-6 * optics.layer_depth_m, omega: Math.min(1, Math.max(0, b.ssa)), g: Math.min(1, Math.max(-1, b.g)) }))
+  const r = longwaveForcing({ bands, ...inputs, layerDepthKm: depthKm, cloudFraction: site.cloud_fraction })
+  return {
+    toa: r.toaWm2,
+    surface: r.surfaceWm2,
+    detail: {
+      surface_temperature_k: inputs.surfaceTemperatureK,
+      surface_emissivity: inputs.surfaceEmissivity,
+      layer_height_km: inputs.layerHeightKm,
+      layer_depth_km: r.layerTopKm - r.layerBottomKm,
+      water_column_cm: inputs.waterColumnCm,
+      layer_temperature_k: r.layerTemperatureK,
+      clear_sky_toa_w_m2: r.clearSkyToaWm2,
+      clear_sky_surface_w_m2: r.clearSkySurfaceWm2,
+      bands: lw.bands.map((b, i) => ({ lo_um: b.lo_um, hi_um: b.hi_um, tau: bands[i].tau, ssa: bands[i].omega, g: bands[i].g, toa_w_m2: r.bandToaWm2[i] })),
+      method: LONGWAVE_METHOD
+    }
+  }
 }
 
 /** β(μ₀) of a row, linearly interpolated in μ₀ between the reported nodes (clamped at the ends). */
@@ -111,7 +170,10 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
   const verdict = forcingVerdict({ tau, omega, surfaceAlbedo, upscatter, ...common, marginWm2 })
   const flip = thin.flipSurfaceAlbedo
   const departure = thinLayerDepartureWarning(thin.forcingWm2, two.toaWm2, tau, verdict.marginWm2)
-  const warnings = departure ? [`${departure} The verdict, the spectral and daily figures and the map are thin-layer figures too.`] : []
+  const warnings = departure ? [`${departure} The verdict's sunlight part, the spectral and daily figures and the map are thin-layer figures too.`] : []
+  const lw = sampleLongwaveForcing(optics, site)
+  const infrared = 'withheld' in lw ? null : lw
+  const net = netVerdict({ sunlightWm2: thin.forcingWm2, infraredWm2: infrared ? infrared.toa : 0, marginWm2: verdict.marginWm2 })
   return {
     tau_550: tau,
     ssa_550: omega,
@@ -126,8 +188,15 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
     daily_mean_w_m2: daily.forcingWm2,
     insolation_w_m2: daily.insolationWm2,
     two_stream: { toa_w_m2: two.toaWm2, surface_w_m2: two.surfaceWm2, atmosphere_w_m2: two.atmosphereWm2 },
-    verdict: verdict.verdict,
-    explanation: verdict.explanation,
+    longwave_toa_w_m2: infrared ? infrared.toa : null,
+    longwave_surface_w_m2: infrared ? infrared.surface : null,
+    net_toa_w_m2: net.netWm2,
+    dominant: net.dominant,
+    sunlight_verdict: verdict.verdict,
+    longwave: infrared ? infrared.detail : null,
+    longwave_withheld: 'withheld' in lw ? lw.withheld : null,
+    verdict: infrared ? net.verdict : verdict.verdict,
+    explanation: infrared ? `Sunlight part: ${verdict.explanation} ${net.explanation}` : `${verdict.explanation} ${'withheld' in lw ? lw.withheld : ''}`.trim(),
     margin_w_m2: verdict.marginWm2,
     caution: verdict.caution,
     warnings
@@ -148,7 +217,8 @@ export function sampleForcingMap(forcing: SampleForcing, site: Site, nSurface = 
     tau: forcing.tau_550,
     upscatter: Math.max(forcing.upscatter_550, 1e-6),
     transmittance: site.transmittance,
-    cloudFraction: site.cloud_fraction
+    cloudFraction: site.cloud_fraction,
+    offsetWm2: forcing.longwave_toa_w_m2 ?? 0
   })
   const rows: number[][] = []
   for (let j = 0; j < nOmega; j++) rows.push(Array.from(map.forcingWm2.subarray(j * nSurface, (j + 1) * nSurface)))
@@ -157,6 +227,7 @@ export function sampleForcingMap(forcing: SampleForcing, site: Site, nSurface = 
     ssa: Array.from(map.omega),
     forcing: rows,
     zero_line: Array.from(map.zeroLine.surfaceAlbedo, (r, i) => [r, map.zeroLine.omegaCritical[i]] as [number, number]),
+    net_zero_line: Array.from(map.netZeroLine.surfaceAlbedo, (r, i) => [r, map.netZeroLine.omega[i]] as [number, number]),
     sample: [forcing.surface_albedo, forcing.ssa_550]
   }
 }

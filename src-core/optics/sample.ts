@@ -30,7 +30,8 @@ import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
 import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, type Conditions, type Population, type SizeSegment } from './integrate.ts'
 import { angstromFit, deciview, deciviewWithheld, layerDepthM, localAbsorptionExponents, localAngstromExponents, rayleighScatteringMm, visibilityWithheld, visualRangeKm } from './metrics.ts'
 import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
-import type { AngularOptics, SampleOptics, WavelengthOptics } from './types.ts'
+import { sampleLongwaveSteps } from './longwave.ts'
+import type { AngularOptics, LongwaveOptics, SampleOptics, WavelengthOptics } from './types.ts'
 import { opticsWarnings } from './warnings.ts'
 
 export interface SampleOpticsOptions {
@@ -48,6 +49,8 @@ export interface SampleOpticsOptions {
   upscatter?: boolean
   /** The coarsest lattice step of the size integration (see IntegrationOptions.coarsestStep). */
   coarsestStep?: number
+  /** Compute the thermal-infrared band optics too (optics/longwave.ts; default true). */
+  longwave?: boolean
 }
 
 export const DEFAULT_ANGLES_DEG: number[] = Array.from({ length: 91 }, (_, i) => 2 * i)
@@ -211,7 +214,8 @@ export { finish }
  */
 export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): Generator<void, SampleOptics> {
   const bulk = yield* sampleBulkSteps(sample, study, options, own)
-  return assembleSampleOptics(sample, study, bulk, options, own)
+  const longwave = options.longwave === false ? undefined : yield* sampleLongwaveSteps(sample, study, { workspace: options.workspace, tolerance: options.tolerance })
+  return assembleSampleOptics(sample, study, bulk, { ...options, longwave }, own)
 }
 
 /** One wavelength's bulk optics as the size integration gives them, before the figures derived from them. */
@@ -291,7 +295,7 @@ export function assembleSampleOptics(
   sample: Sample,
   study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
   bulk: readonly WavelengthBulk[],
-  options: Pick<SampleOpticsOptions, 'rhPercent'> = {},
+  options: Pick<SampleOpticsOptions, 'rhPercent'> & { longwave?: LongwaveOptics } = {},
   own: Material[] = studyMaterials(study)
 ): SampleOptics {
   // the volumes (and so the mass efficiencies) come from the full range, whatever the integration's tolerance
@@ -381,6 +385,7 @@ export function assembleSampleOptics(
     pm10_ug_m3: pm ? pm.pm10 : NaN,
     angstrom_fit: angstromFit(rows),
     layer_depth_m: layerDepth,
+    ...(options.longwave ? { longwave: options.longwave } : {}),
     notes,
     warnings: opticsWarnings({ rhPercent: cond.rhPercent, kappa: Math.max(0, ...pops.map((p) => p.kind.kappa)), unsettledNm: unsettled })
   }

@@ -92,11 +92,48 @@ export interface SampleOptics {
   layer_depth_m: number
   /** Statements the results must carry (bin shape, approximations used). */
   notes: string[]
+  /** Thermal-infrared optics in the longwave bands (optics/longwave.ts); absent where not computed (f(RH) points). */
+  longwave?: LongwaveOptics
   /**
    * Figures that come from a method outside its range of validity: each says which figure, why and what to use
    * instead (optics/warnings.ts). Empty when there is nothing to say.
    */
   warnings: string[]
+}
+
+/** A sample's optics in one thermal-infrared band (band averages; coefficients in Mm⁻¹). */
+export interface LongwaveBandOptics {
+  lo_um: number
+  hi_um: number
+  ext: number
+  sca: number
+  abs: number
+  ssa: number
+  g: number
+}
+
+/** A sample's thermal-infrared optics: one entry per band of LONGWAVE_BANDS, or none with the reason. */
+export interface LongwaveOptics {
+  bands: LongwaveBandOptics[]
+  /** Why the bands are empty (a component without infrared indices), else null. */
+  withheld: string | null
+}
+
+/** The infrared part of a sample's forcing, with the site inputs it used. */
+export interface LongwaveForcingDetail {
+  surface_temperature_k: number
+  surface_emissivity: number
+  layer_height_km: number
+  layer_depth_km: number
+  water_column_cm: number
+  /** Temperature at the layer's middle, K (lapse rate 6.5 K km⁻¹). */
+  layer_temperature_k: number
+  /** Clear-sky TOA and surface infrared forcing, W m⁻² (the reported figures are these × (1 − cloud fraction)). */
+  clear_sky_toa_w_m2: number
+  clear_sky_surface_w_m2: number
+  /** Per band: edges (µm), the layer's optical depth, ω and g there, and its clear-sky TOA forcing (W m⁻²). */
+  bands: { lo_um: number; hi_um: number; tau: number; ssa: number; g: number; toa_w_m2: number }[]
+  method: string
 }
 
 /** The verdict words. */
@@ -124,6 +161,20 @@ export interface SampleForcing {
   insolation_w_m2: number
   /** Delta-Eddington two-stream layer (global-mean equivalent: μ₀ = 0.5, incident S₀/4), with the same β̄ as the thin-layer form. */
   two_stream: { toa_w_m2: number; surface_w_m2: number; atmosphere_w_m2: number }
+  /** Thermal-infrared forcing at the top of the atmosphere and at the surface, W m⁻² (positive warms); null when withheld. */
+  longwave_toa_w_m2: number | null
+  longwave_surface_w_m2: number | null
+  /** The sunlight figure the verdict uses (thin_layer_w_m2) plus longwave_toa_w_m2; the sunlight figure alone when the infrared part is withheld. */
+  net_toa_w_m2: number
+  /** Which part has the larger magnitude (sunlight when the infrared part is withheld). */
+  dominant: 'sunlight' | 'infrared'
+  /** The verdict on the sunlight part alone (the thin-layer figure against the margin). */
+  sunlight_verdict: VerdictWord
+  /** How the infrared part was made and with which inputs; null when withheld. */
+  longwave: LongwaveForcingDetail | null
+  /** Why the infrared part is left out, else null. */
+  longwave_withheld: string | null
+  /** The verdict on the net (net_toa_w_m2 against the margin). */
   verdict: VerdictWord
   /** One or two sentences with the numbers that decide the verdict. */
   explanation: string
@@ -141,6 +192,8 @@ export interface ForcingMapData {
   forcing: number[][]
   /** The ω_crit(R_s) line as [R_s, ω] points. */
   zero_line: [number, number][]
+  /** Where the net forcing (this map's sunlight part plus the sample's infrared part, the same everywhere) is zero, as [R_s, ω] points. */
+  net_zero_line: [number, number][]
   /** Where this sample sits: [R_s, ω at 550 nm]. */
   sample: [number, number]
 }

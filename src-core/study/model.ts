@@ -100,6 +100,14 @@ export interface Site {
   /** Surface id from the list of surfaces, or 'custom' with `surface_albedo`. */
   surface: string
   surface_albedo?: number
+  /** Infrared inputs (climate/longwave.ts; each has a default there): surface temperature, K. */
+  surface_temperature_k?: number
+  /** Broadband thermal-infrared emissivity of the surface, 0.5..1; default the surface type's. */
+  surface_emissivity?: number
+  /** Height of the aerosol layer's middle above the ground, km. */
+  layer_height_km?: number
+  /** Precipitable water of the column, cm (g cm⁻²). */
+  water_column_cm?: number
 }
 
 export interface Study {

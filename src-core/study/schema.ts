@@ -12,7 +12,7 @@ import { InputError } from '../errors.ts'
 import { readableBeside } from '../numberText.ts'
 import { defineUserMaterial, listMaterials } from '../materials/index.ts'
 import { BIN_QUANTITIES, MAX_GSD } from '../sizes/index.ts'
-import { SURFACE_TYPES } from '../climate/index.ts'
+import { LONGWAVE_INPUT_RANGES, SURFACE_TYPES, type LongwaveInputName } from '../climate/index.ts'
 import { findJsonSyntaxError, looksLikeDelimitedTable } from './jsonSyntax.ts'
 import { migrateStudy } from './migrate.ts'
 import { uncertaintySettingsSchema } from '../uncertainty/settings.ts'
@@ -150,6 +150,13 @@ const userMaterial = z.strictObject({
 
 const [wlLo, wlHi] = STUDY_WAVELENGTH_RANGE_NM
 
+/** An infrared site input, checked against its range in climate/longwave.ts, the reason said. */
+function longwaveField(name: LongwaveInputName, what: string, example: string) {
+  const r = LONGWAVE_INPUT_RANGES[name]
+  const u = r.unit ? ` ${r.unit}` : ''
+  return num((v) => v >= r.lo && v <= r.hi, (v) => `${what} ${fmt(v)}${u} is outside ${fmt(r.lo)} to ${fmt(r.hi)}${u} (${r.why})`, `Give ${what} from ${fmt(r.lo)} to ${fmt(r.hi)}${u}, e.g. ${example}${u}.`)
+}
+
 const site = z.strictObject({
   name: z.string().optional(),
   latitude_deg: num((v) => v >= -90 && v <= 90, (v) => `latitude ${fmt(v)}° is outside −90° to 90°`, 'Give the latitude in degrees, north positive, south negative (e.g. 47.2 or -33.9).'),
@@ -157,7 +164,11 @@ const site = z.strictObject({
   cloud_fraction: fraction('the cloud fraction'),
   transmittance: num((v) => v > 0 && v <= 1, (v) => `the atmospheric transmittance must be greater than 0 and at most 1 (it is ${fmt(v)})`, 'Give the fraction of sunlight that reaches the layer, e.g. 0.76.'),
   surface: nonEmptyText('the surface id', 'cropland'),
-  surface_albedo: fraction('the surface albedo').optional()
+  surface_albedo: fraction('the surface albedo').optional(),
+  surface_temperature_k: longwaveField('surface_temperature_k', 'the surface temperature', '288').optional(),
+  surface_emissivity: longwaveField('surface_emissivity', 'the surface infrared emissivity', '0.95').optional(),
+  layer_height_km: longwaveField('layer_height_km', "the height of the layer's middle", '1').optional(),
+  water_column_cm: longwaveField('water_column_cm', 'the water-vapour column', '2.5').optional()
 })
 
 /** The zod schema of the current study version. Its output type is checked against `Study` (model.ts). */

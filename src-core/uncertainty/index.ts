@@ -22,6 +22,7 @@ export {
   UNCERTAINTY_TOLERANCE,
   UNCERTAINTY_CHECK_EVERY,
   UNCERTAINTY_FIGURES,
+  UNCERTAINTY_VERDICT_FIGURE,
   readUncertaintySettings,
   variateQuantile,
   planUncertainty,

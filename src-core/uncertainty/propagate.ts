@@ -17,9 +17,9 @@
  * part way would leave strata empty).
  */
 import { InputError } from '../errors.ts'
-import { DEFAULT_VERDICT_MARGIN_WM2 } from '../climate/index.ts'
+import { DEFAULT_VERDICT_MARGIN_WM2, LONGWAVE_INPUT_RANGES } from '../climate/index.ts'
 import { getMaterial, refractiveIndexAt, type Material } from '../materials/index.ts'
-import { computeSampleOptics, OpticsWorkspace, resolveComposition, resolveMaterial, sampleForcing, siteSurfaceAlbedo, studyMaterials } from '../optics/index.ts'
+import { computeSampleOptics, OpticsWorkspace, resolveComposition, resolveMaterial, sampleForcing, siteLongwaveInputs, siteSurfaceAlbedo, studyMaterials } from '../optics/index.ts'
 import type { SampleForcing, SampleOptics } from '../optics/types.ts'
 import { MAX_GSD } from '../sizes/index.ts'
 import type { Composition, Sample, Site, Study } from '../study/model.ts'
@@ -43,14 +43,19 @@ export const UNCERTAINTY_FIGURES = [
   { key: 'g', label: 'asymmetry parameter at 550 nm', unit: '' },
   { key: 'upscatter', label: 'upscatter fraction β̄ at 550 nm', unit: '' },
   { key: 'tau', label: 'layer optical depth at 550 nm', unit: '' },
-  { key: 'forcing', label: 'thin-layer forcing, global-mean insolation (the forcing the verdict uses)', unit: 'W m⁻²' },
+  { key: 'forcing', label: 'thin-layer forcing, global-mean insolation (the sunlight part of the verdict)', unit: 'W m⁻²' },
   { key: 'forcing_daily_mean', label: "thin-layer forcing through the site's day", unit: 'W m⁻²' },
-  { key: 'forcing_two_stream_toa', label: 'two-stream forcing at the top of the atmosphere', unit: 'W m⁻²' }
+  { key: 'forcing_two_stream_toa', label: 'two-stream forcing at the top of the atmosphere', unit: 'W m⁻²' },
+  { key: 'longwave_toa', label: 'infrared forcing at the top of the atmosphere (0 where the infrared part is left out)', unit: 'W m⁻²' },
+  { key: 'net_toa', label: 'net forcing, sunlight + infrared (the forcing the verdict uses)', unit: 'W m⁻²' }
 ] as const
+
+/** The figure P(warm), the early stop and the sensitivity ranking look at: the net forcing the verdict uses. */
+export const UNCERTAINTY_VERDICT_FIGURE: UncertaintyFigureKey = 'net_toa'
 
 export type UncertaintyFigureKey = (typeof UNCERTAINTY_FIGURES)[number]['key']
 const N_OUT = UNCERTAINTY_FIGURES.length
-const FORCING_INDEX = UNCERTAINTY_FIGURES.findIndex((f) => f.key === 'forcing')
+const FORCING_INDEX = UNCERTAINTY_FIGURES.findIndex((f) => f.key === UNCERTAINTY_VERDICT_FIGURE)
 
 /** Run settings (the document's settings, with command-line or app overrides). */
 export interface UncertaintyRunOptions {
@@ -175,8 +180,20 @@ const VALID: Record<UncertainInput['quantity'], { lo: number; hi: number; loOpen
   layer: { lo: 0, hi: 50000, loOpen: true, unit: '' },
   surface_albedo: { lo: 0, hi: 1, unit: '' },
   cloud_fraction: { lo: 0, hi: 1, unit: '' },
-  transmittance: { lo: 0, hi: 1, loOpen: true, unit: '' }
+  transmittance: { lo: 0, hi: 1, loOpen: true, unit: '' },
+  surface_temperature: { lo: LONGWAVE_INPUT_RANGES.surface_temperature_k.lo, hi: LONGWAVE_INPUT_RANGES.surface_temperature_k.hi, unit: 'K' },
+  surface_emissivity: { lo: LONGWAVE_INPUT_RANGES.surface_emissivity.lo, hi: LONGWAVE_INPUT_RANGES.surface_emissivity.hi, unit: '' },
+  layer_height: { lo: LONGWAVE_INPUT_RANGES.layer_height_km.lo, hi: LONGWAVE_INPUT_RANGES.layer_height_km.hi, unit: 'km' },
+  water_column: { lo: LONGWAVE_INPUT_RANGES.water_column_cm.lo, hi: LONGWAVE_INPUT_RANGES.water_column_cm.hi, unit: 'cm' }
 }
+
+/** The site field each infrared quantity sets, and how its current value (default filled in) is read. */
+const INFRARED_SITE_FIELD = {
+  surface_temperature: { field: 'surface_temperature_k', read: (s: Site) => siteLongwaveInputs(s).surfaceTemperatureK },
+  surface_emissivity: { field: 'surface_emissivity', read: (s: Site) => siteLongwaveInputs(s).surfaceEmissivity },
+  layer_height: { field: 'layer_height_km', read: (s: Site) => siteLongwaveInputs(s).layerHeightKm },
+  water_column: { field: 'water_column_cm', read: (s: Site) => siteLongwaveInputs(s).waterColumnCm }
+} as const
 
 function inRange(q: UncertainInput['quantity'], v: number): boolean {
   const r = VALID[q]
@@ -385,6 +402,21 @@ function resolveInput(spec: UncertainInput, sample: Sample, site: Site, own: Mat
         }
       }
     }
+    case 'surface_temperature':
+    case 'surface_emissivity':
+    case 'layer_height':
+    case 'water_column': {
+      const { field, read } = INFRARED_SITE_FIELD[q]
+      checkBases([read(site)])
+      return {
+        label, spec, variate,
+        apply: (st, v, draw) => {
+          const value = applyOp(spec.apply, read(st.site), v)
+          checkValue(label, q, value, draw, v)
+          st.site[field] = value
+        }
+      }
+    }
   }
 }
 
@@ -479,6 +511,8 @@ function recordFigures(optics: SampleOptics, forcing: SampleForcing, out: Float6
   out[offset + 7] = forcing.thin_layer_w_m2
   out[offset + 8] = forcing.daily_mean_w_m2
   out[offset + 9] = forcing.two_stream.toa_w_m2
+  out[offset + 10] = forcing.longwave_toa_w_m2 ?? 0
+  out[offset + 11] = forcing.net_toa_w_m2
 }
 
 /** The uniform numbers of draw i (one per input), Latin hypercube strata applied. */
@@ -607,7 +641,7 @@ export interface UncertaintyResult {
   min_draws: number
   wavelength_nm: number
   figures: UncertaintyFigureResult[]
-  /** P(forcing > 0) over the draws (thin-layer forcing), with its binomial standard error √(p(1−p)/n). */
+  /** P(net forcing > 0) over the draws (sunlight + infrared), with its binomial standard error √(p(1−p)/n). */
   warming: ProbabilityEstimate
   sensitivity: { method: string; ranking: SensitivityEntry[] }
   inputs: UncertaintyInputResult[]
@@ -634,7 +668,7 @@ export function summarizeDraws(plan: UncertaintyPlan, block: DrawBlock, status: 
     .map((r, j) => ({ label: r.label, rho: spearmanRankCorrelation(drawColumn(block, j, 'inputs', nIn), forcing) }))
     .sort((a, b) => Math.abs(b.rho ?? -1) - Math.abs(a.rho ?? -1))
   const notes = [
-    `Each draw: the sample's optics at ${UNCERTAINTY_WAVELENGTH_NM} nm (size integration to ${UNCERTAINTY_TOLERANCE} relative) and its forcing at the site; "forcing" is the thin-layer estimate the verdict uses.`,
+    `Each draw: the sample's optics at ${UNCERTAINTY_WAVELENGTH_NM} nm (size integration to ${UNCERTAINTY_TOLERANCE} relative) and its forcing at the site, with the infrared part from the sample's band optics (4–40 µm); "net_toa", the thin-layer sunlight figure plus the infrared one, is the forcing the verdict, P(warm) and the ranking use.`,
     `Percentiles by linear interpolation between order statistics (Hyndman & Fan definition 7); sd with n − 1.`,
     plan.sampling === 'latin-hypercube'
       ? `Latin hypercube sampling: each input's range is cut into ${plan.draws} equally probable strata, each drawn exactly once (the run is not stopped early).`
@@ -653,7 +687,7 @@ export function summarizeDraws(plan: UncertaintyPlan, block: DrawBlock, status: 
     wavelength_nm: UNCERTAINTY_WAVELENGTH_NM,
     figures,
     warming: probabilityPositive(forcing),
-    sensitivity: { method: 'Spearman rank correlation of each input with the thin-layer forcing, sorted by |ρ|', ranking },
+    sensitivity: { method: 'Spearman rank correlation of each input with the net forcing (sunlight + infrared), sorted by |ρ|', ranking },
     inputs,
     notes
   }

@@ -40,12 +40,19 @@ export type UncertainBounds = { lo?: number; hi?: number; method: 'resample' | '
  *   measured bins, `median` scales the bin diameters and `amount` the bin values (factor only);
  * - `density` (g cm⁻³), `kappa`: of every composition in the sample (the resolved value when not given);
  * - `rh` (percent), `layer` (the layer's depth, scale height or AOD, whichever the sample gives);
- * - `surface_albedo`, `cloud_fraction`, `transmittance`: of the site.
+ * - `surface_albedo`, `cloud_fraction`, `transmittance`: of the site;
+ * - `surface_temperature` (K), `surface_emissivity`, `layer_height` (km), `water_column` (cm): the site's
+ *   infrared inputs (climate/longwave.ts; their defaults when the site gives none).
  */
-export type UncertainQuantity = 'n' | 'k' | 'median' | 'gsd' | 'amount' | 'density' | 'kappa' | 'rh' | 'layer' | 'surface_albedo' | 'cloud_fraction' | 'transmittance'
+export type UncertainQuantity =
+  | 'n' | 'k' | 'median' | 'gsd' | 'amount' | 'density' | 'kappa' | 'rh' | 'layer' | 'surface_albedo' | 'cloud_fraction' | 'transmittance'
+  | 'surface_temperature' | 'surface_emissivity' | 'layer_height' | 'water_column'
 
-export const UNCERTAIN_QUANTITIES: readonly UncertainQuantity[] = ['n', 'k', 'median', 'gsd', 'amount', 'density', 'kappa', 'rh', 'layer', 'surface_albedo', 'cloud_fraction', 'transmittance']
-export const SITE_QUANTITIES: readonly UncertainQuantity[] = ['surface_albedo', 'cloud_fraction', 'transmittance']
+export const UNCERTAIN_QUANTITIES: readonly UncertainQuantity[] = [
+  'n', 'k', 'median', 'gsd', 'amount', 'density', 'kappa', 'rh', 'layer', 'surface_albedo', 'cloud_fraction', 'transmittance',
+  'surface_temperature', 'surface_emissivity', 'layer_height', 'water_column'
+]
+export const SITE_QUANTITIES: readonly UncertainQuantity[] = ['surface_albedo', 'cloud_fraction', 'transmittance', 'surface_temperature', 'surface_emissivity', 'layer_height', 'water_column']
 
 /**
  * One uncertain input. `apply`: `factor` multiplies the value by the variate (e.g. a lognormal factor of

@@ -1,5 +1,5 @@
 // motebench forcing: direct-forcing estimate of a uniform aerosol layer from its optical figures.
-import { asymmetryFromUpscatter, forcingVerdict, InputError, SOLAR_CONSTANT_WM2, thinLayerCheck, thinLayerForcing, twoStreamEquivalentUpscatter, twoStreamForcing } from '../../src-core/index.ts'
+import { asymmetryFromUpscatter, CUSTOM_SURFACE_EMISSIVITY, DEFAULT_LAYER_HEIGHT_KM, DEFAULT_SURFACE_TEMPERATURE_K, DEFAULT_WATER_COLUMN_CM, forcingVerdict, InputError, LONGWAVE_BANDS, LONGWAVE_METHOD, longwaveForcing, netVerdict, SOLAR_CONSTANT_WM2, thinLayerCheck, thinLayerForcing, twoStreamEquivalentUpscatter, twoStreamForcing } from '../../src-core/index.ts'
 import { need, printJson, readArgs, readNumber, UsageError } from './common.ts'
 
 export const forcingHelp = `motebench forcing: global-mean direct forcing of a uniform aerosol layer, and whether it cools or warms
@@ -19,6 +19,17 @@ export const forcingHelp = `motebench forcing: global-mean direct forcing of a u
   --json                JSON output: method, forcing_w_m2, efficiency_w_m2_per_tau, critical_ssa, verdict, upscatter
                         and upscatter_source (the scattering the method assumed), warnings, caution (and toa_w_m2,
                         surface_w_m2, atmosphere_w_m2 with --two-stream; two_stream_w_m2 without)
+Thermal infrared (the layer's infrared part, added to the sunlight figure for the net verdict):
+  --ir-tau T            the layer's infrared optical depth, the same in every band from 4 to 40 µm, 0 to 1000
+  --ir-ssa W            its infrared single-scattering albedo, 0 to 1 (needed with --ir-tau)
+  --ir-g G              its infrared asymmetry parameter, −1 to 1, default 0.5
+  --surface-temperature K   surface temperature in kelvin, 180 to 350, default ${DEFAULT_SURFACE_TEMPERATURE_K}
+  --emissivity E        surface infrared emissivity, 0.5 to 1, default ${CUSTOM_SURFACE_EMISSIVITY}
+  --layer-height KM     height of the layer's middle above the ground, km, 0 to 15, default ${DEFAULT_LAYER_HEIGHT_KM}
+  --layer-depth KM      depth of the layer, km, default 1
+  --water-column CM     precipitable water of the column, cm, 0 to 10, default ${DEFAULT_WATER_COLUMN_CM}
+  With --ir-tau the JSON adds longwave_toa_w_m2, longwave_surface_w_m2, net_toa_w_m2 (forcing_w_m2 plus
+  longwave_toa_w_m2), sunlight_verdict, dominant and longwave_inputs, and verdict is the net's.
 A negative forcing cools. The thin-layer estimate is checked against the two-stream layer with the same β̄: where
 they differ by more than 10 % it carries a warning. This is a first-order screening estimate, not a climate projection.`
 
@@ -32,7 +43,15 @@ const FLAG_OF: Record<string, string> = {
   transmittance: '--transmittance',
   asymmetry: '--g',
   cosZenith: '--cos-zenith',
-  marginWm2: '--margin'
+  marginWm2: '--margin',
+  surfaceTemperatureK: '--surface-temperature',
+  surfaceEmissivity: '--emissivity',
+  layerHeightKm: '--layer-height',
+  layerDepthKm: '--layer-depth',
+  waterColumnCm: '--water-column',
+  'bands[0].tau': '--ir-tau',
+  'bands[0].omega': '--ir-ssa',
+  'bands[0].g': '--ir-g'
 }
 
 export function runForcing(argv: string[]): number {
@@ -60,6 +79,14 @@ function forcing(argv: string[]): number {
     'two-stream': { type: 'boolean', default: false },
     'cos-zenith': { type: 'string' },
     margin: { type: 'string' },
+    'ir-tau': { type: 'string' },
+    'ir-ssa': { type: 'string' },
+    'ir-g': { type: 'string' },
+    'surface-temperature': { type: 'string' },
+    emissivity: { type: 'string' },
+    'layer-height': { type: 'string' },
+    'layer-depth': { type: 'string' },
+    'water-column': { type: 'string' },
     json: { type: 'boolean', default: false }
   })
   const tau = readNumber(need(values.tau, 'forcing', '--tau', '--tau 0.2'), '--tau')
@@ -117,6 +144,19 @@ function forcing(argv: string[]): number {
       caution: v.caution
     }
   }
+  const ir = infraredPart(values, cloudFraction)
+  if (ir) {
+    const net = netVerdict({ sunlightWm2: result.forcing_w_m2 as number, infraredWm2: ir.toa, marginWm2 })
+    result.sunlight_verdict = result.verdict
+    result.verdict = net.verdict
+    result.longwave_toa_w_m2 = ir.toa
+    result.longwave_surface_w_m2 = ir.surface
+    result.net_toa_w_m2 = net.netWm2
+    result.dominant = net.dominant
+    result.longwave_inputs = ir.inputs
+    result.explanation = `Sunlight part: ${result.explanation as string} ${net.explanation}`
+    result.longwave_method = LONGWAVE_METHOD
+  }
   if (values.json) {
     printJson(result)
     return 0
@@ -129,8 +169,45 @@ function forcing(argv: string[]): number {
   out.write(`critical single-scattering albedo ${f(result.critical_ssa)} (the layer cools above it)\n`)
   out.write(`upscatter fraction ${f(result.upscatter)}: ${result.upscatter_source}\n`)
   if (!twoStream) out.write(`two-stream layer with the same upscatter: ${f(result.two_stream_w_m2)} W/m²\n`)
+  if (ir) out.write(`infrared: top of atmosphere ${f(result.longwave_toa_w_m2)} W/m², surface ${f(result.longwave_surface_w_m2)} W/m²; net ${f(result.net_toa_w_m2)} W/m² (sunlight part: ${result.sunlight_verdict})\n`)
   out.write(`${result.explanation}\n`)
   for (const w of result.warnings as string[]) out.write(`warning: ${w}\n`)
   out.write(`${result.caution}\n`)
   return 0
+}
+
+type ForcingValues = Record<string, string | boolean | undefined>
+
+/** The layer's infrared part from the --ir-* and site options, or null without --ir-tau. */
+function infraredPart(values: ForcingValues, cloudFraction: number): { toa: number; surface: number; inputs: Record<string, number> } | null {
+  const str = (k: string) => (typeof values[k] === 'string' ? (values[k] as string) : undefined)
+  const site = ['ir-ssa', 'ir-g', 'surface-temperature', 'emissivity', 'layer-height', 'layer-depth', 'water-column']
+  if (str('ir-tau') === undefined) {
+    const stray = site.find((k) => str(k) !== undefined)
+    if (stray) throw new UsageError(`forcing: --${stray} applies to the infrared part only; give --ir-tau (and --ir-ssa) too`)
+    return null
+  }
+  const tau = readNumber(str('ir-tau')!, '--ir-tau')
+  const omega = readNumber(need(str('ir-ssa'), 'forcing', '--ir-ssa', '--ir-ssa 0.5 (the infrared single-scattering albedo, with --ir-tau)'), '--ir-ssa')
+  const g = readNumber(str('ir-g'), '--ir-g', 0.5)
+  const inputs = {
+    ir_tau: tau,
+    ir_ssa: omega,
+    ir_g: g,
+    surface_temperature_k: readNumber(str('surface-temperature'), '--surface-temperature', DEFAULT_SURFACE_TEMPERATURE_K),
+    surface_emissivity: readNumber(str('emissivity'), '--emissivity', CUSTOM_SURFACE_EMISSIVITY),
+    layer_height_km: readNumber(str('layer-height'), '--layer-height', DEFAULT_LAYER_HEIGHT_KM),
+    layer_depth_km: readNumber(str('layer-depth'), '--layer-depth', 1),
+    water_column_cm: readNumber(str('water-column'), '--water-column', DEFAULT_WATER_COLUMN_CM)
+  }
+  const r = longwaveForcing({
+    bands: LONGWAVE_BANDS.map(() => ({ tau, omega, g })),
+    surfaceTemperatureK: inputs.surface_temperature_k,
+    surfaceEmissivity: inputs.surface_emissivity,
+    layerHeightKm: inputs.layer_height_km,
+    layerDepthKm: inputs.layer_depth_km,
+    waterColumnCm: inputs.water_column_cm,
+    cloudFraction
+  })
+  return { toa: r.toaWm2, surface: r.surfaceWm2, inputs }
 }

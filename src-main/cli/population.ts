@@ -14,6 +14,8 @@ export const populationHelp = `motebench population: bulk optics of a particle p
   --humidity-history H  rising (default: salts stay dry below deliquescence) or falling (they stay wet down to efflorescence)
   --wavelengths LIST    wavelengths, e.g. 450,550,700 (nm) or 0.45,0.55um (default 450,550,700)
   --tolerance T         relative accuracy of the size integration (default 1e-4)
+  --infrared            also the thermal-infrared band optics (12 bands, 4–40 µm; JSON key longwave_bands: lo_um,
+                        hi_um, ext, sca, abs, ssa, g; longwave_withheld says why when a component has no infrared index)
   --json                JSON output: number_cm3, volume_um3_cm3 (dry), mass_ug_m3 (dry), angstrom_ext, angstrom_sca,
                         angstrom_abs and wavelengths: [{wavelength_nm, ext, sca, abs (Mm⁻¹), ssa, g,
                         backscatter_fraction, upscatter_fraction}], warnings (figures outside their method's range;
@@ -42,6 +44,7 @@ export function runPopulation(argv: string[]): number {
     'humidity-history': { type: 'string' },
     wavelengths: { type: 'string' },
     tolerance: { type: 'string' },
+    infrared: { type: 'boolean', default: false },
     json: { type: 'boolean', default: false }
   })
   const modes = need(values.mode, 'population', '--mode', '--mode 1000,0.12um,1.8').map(readMode)
@@ -83,7 +86,7 @@ export function runPopulation(argv: string[]): number {
     rh_history: history,
     layer: { kind: 'depth', depth_m: 1000 }
   }
-  const optics = computeSampleOptics(sample, { wavelengths_nm: wavelengths, user_materials: userMaterials }, { tolerance, angularWavelengthsNm: [] })
+  const optics = computeSampleOptics(sample, { wavelengths_nm: wavelengths, user_materials: userMaterials }, { tolerance, angularWavelengthsNm: [], longwave: values.infrared })
   const rows = optics.wavelengths.map((w) => ({
     wavelength_nm: w.wavelength_nm,
     ext: w.ext,
@@ -104,6 +107,7 @@ export function runPopulation(argv: string[]): number {
       angstrom_sca: a.sca,
       angstrom_abs: a.abs,
       wavelengths: rows,
+      ...(values.infrared ? { longwave_bands: optics.longwave?.bands ?? [], longwave_withheld: optics.longwave?.withheld ?? null } : {}),
       warnings: optics.warnings
     })
     return 0
@@ -115,6 +119,13 @@ export function runPopulation(argv: string[]): number {
     ['λ nm', 'ext Mm⁻¹', 'sca Mm⁻¹', 'abs Mm⁻¹', 'ssa', 'g', 'backscatter', 'upscatter'],
     ...rows.map((r) => [r.wavelength_nm, r.ext, r.sca, r.abs, r.ssa, r.g, r.backscatter_fraction, r.upscatter_fraction])
   ])
+  if (values.infrared && optics.longwave) {
+    if (optics.longwave.withheld) out.write(`\n${optics.longwave.withheld}\n`)
+    else {
+      out.write('\nthermal infrared, band averages:\n')
+      printTable([['band µm', 'ext Mm⁻¹', 'sca Mm⁻¹', 'abs Mm⁻¹', 'ssa', 'g'], ...optics.longwave.bands.map((b) => [`${b.lo_um}–${b.hi_um}`, b.ext, b.sca, b.abs, b.ssa, b.g])])
+    }
+  }
   const ang = (v: number) => (Number.isFinite(v) ? formatNumber(v) : '—')
   out.write(`\nÅngström exponents (fit over all wavelengths): extinction ${ang(a.ext)}, scattering ${ang(a.sca)}, absorption ${ang(a.abs)}\n`)
   for (const w of optics.warnings) out.write(`warning: ${w}\n`)

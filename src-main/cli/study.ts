@@ -74,7 +74,12 @@ const FORCING_COLUMNS = [
   'two_stream_surface_W_m-2',
   'two_stream_atmosphere_W_m-2',
   'verdict',
-  'verdict_margin_W_m-2'
+  'verdict_margin_W_m-2',
+  'longwave_toa_W_m-2',
+  'longwave_surface_W_m-2',
+  'net_toa_W_m-2',
+  'sunlight_verdict',
+  'dominant_part'
 ]
 /** The last column: the sample's warnings (figures outside their method's range), joined by " | "; empty when none. */
 const WARNINGS_COLUMN = 'warnings'
@@ -118,7 +123,12 @@ export function studyCsv(results: SampleResult[]): string {
       t.surface_w_m2,
       t.atmosphere_w_m2,
       f.verdict,
-      f.margin_w_m2
+      f.margin_w_m2,
+      f.longwave_toa_w_m2 ?? '',
+      f.longwave_surface_w_m2 ?? '',
+      f.net_toa_w_m2,
+      f.sunlight_verdict,
+      f.dominant
     ]
     for (const w of o.wavelengths) {
       const cells = [
@@ -180,6 +190,7 @@ function studyText(study: Study, results: SampleResult[]): string {
     if (o.angstrom_fit.withheld?.abs) lines.push(`  absorption Ångström exponent not given: ${o.angstrom_fit.withheld.abs}`)
     lines.push(`  dry number ${f(o.number_cm3)} cm⁻³, dry mass ${f(o.mass_ug_m3)} µg/m³, PM2.5 ${f(o.pm2_5_ug_m3)} µg/m³; Ångström exponents ext ${f(o.angstrom_fit.ext)}, sca ${f(o.angstrom_fit.sca)}, abs ${f(o.angstrom_fit.abs)}`)
     lines.push(`  forcing: ${fc.verdict}; thin-layer ${f(fc.thin_layer_w_m2)} W/m², spectral ${f(fc.spectral_w_m2)} W/m², site daily mean ${f(fc.daily_mean_w_m2)} W/m², two-stream ${f(fc.two_stream.toa_w_m2)} W/m²`)
+    if (fc.longwave_toa_w_m2 !== null) lines.push(`  infrared: top of atmosphere ${f(fc.longwave_toa_w_m2)} W/m², surface ${f(fc.longwave_surface_w_m2 ?? NaN)} W/m²; net ${f(fc.net_toa_w_m2)} W/m² (sunlight part ${fc.sunlight_verdict})`)
     lines.push(`  ${fc.explanation}`)
     for (const w of sampleWarnings(r)) lines.push(`  warning: ${w}`)
   }

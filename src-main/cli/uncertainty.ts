@@ -18,6 +18,7 @@ import {
   truncateBlock,
   UNCERTAINTY_CHECK_EVERY,
   UNCERTAINTY_FIGURES,
+  UNCERTAINTY_VERDICT_FIGURE,
   type DrawBlock,
   type Study,
   type UncertaintyResult,
@@ -34,7 +35,8 @@ export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: M
   FILE.mote             a study whose "uncertainty" settings list the sample's uncertain inputs:
                           "uncertainty": { "samples": { "NAME": { "inputs": [ ... ] } }, "site": { "inputs": [ ... ] } }
                         each input: { "quantity": n | k | median | gsd | amount | density | kappa | rh | layer |
-                          surface_albedo | cloud_fraction | transmittance, "material": id (n, k), "mode": 0-based index or
+                          surface_albedo | cloud_fraction | transmittance | surface_temperature (K) |
+                          surface_emissivity | layer_height (km) | water_column (cm), "material": id (n, k), "mode": 0-based index or
                           name (median, gsd, amount), "apply": factor | add | set,
                           "distribution": { "kind": "normal", "mean", "sd" } | { "kind": "lognormal", "median", "gsd" } |
                           { "kind": "uniform", "lo", "hi" }, "bounds": { "lo", "hi", "method": resample | clamp } }
@@ -55,8 +57,8 @@ export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: M
                         line; needs --precision 0 or --lhs (no early stop)
   --out FILE            with --shard: the part's draws file (it appears only when complete)
 Reports, for extinction, scattering, absorption, ω, g, β̄, τ and the forcing at 550 nm: the plain value, median,
-5–95 % range, mean and sd; P(warm) = P(forcing > 0) with its binomial standard error; and the inputs ranked by
-|Spearman rank correlation| with the thin-layer forcing. Progress goes to standard error on a terminal; Ctrl-C
+5–95 % range, mean and sd; P(warm) = P(net forcing > 0) with its binomial standard error; and the inputs ranked by
+|Spearman rank correlation| with the net forcing (the thin-layer sunlight figure plus the infrared one). Progress goes to standard error on a terminal; Ctrl-C
 stops the run and reports the draws made so far (exit status 130).`
 
 export interface ParallelOptions {
@@ -68,7 +70,7 @@ export interface ParallelOptions {
   cancel?: Promise<void>
 }
 
-const FORCING = UNCERTAINTY_FIGURES.findIndex((f) => f.key === 'forcing')
+const FORCING = UNCERTAINTY_FIGURES.findIndex((f) => f.key === UNCERTAINTY_VERDICT_FIGURE)
 
 /** Starts one uncertainty worker thread (built JavaScript when the command line is built; see workers/start.ts). */
 export function startUncertaintyWorker(workerData: unknown): Worker {
@@ -316,7 +318,7 @@ function printUncertainty(r: UncertaintyResult): void {
   const rows: (string | number)[][] = [['figure at 550 nm', 'plain', 'median', '5 %', '95 %', 'mean', 'sd', 'unit']]
   for (const f of r.figures) rows.push([f.key, f.central, f.median, f.p05, f.p95, f.mean, f.sd, f.unit])
   printTable(rows)
-  out.write(`\nP(warm) = P(thin-layer forcing > 0) = ${formatNumber(r.warming.probability)} ± ${formatNumber(r.warming.standard_error)} (binomial standard error, ${r.warming.positives} of ${r.warming.count} draws)\n`)
+  out.write(`\nP(warm) = P(net forcing > 0, sunlight + infrared) = ${formatNumber(r.warming.probability)} ± ${formatNumber(r.warming.standard_error)} (binomial standard error, ${r.warming.positives} of ${r.warming.count} draws)\n`)
   out.write(`\n${r.sensitivity.method}:\n`)
   const sens: (string | number)[][] = [['input', 'ρ']]
   for (const s of r.sensitivity.ranking) sens.push([s.label, s.rho === null ? 'no spread' : s.rho])

@@ -12,6 +12,8 @@ export const MARKER_SIGNS: Record<MarkerShape, string> = { circle: '●', square
 
 export interface MapOverlay {
   zero: [number, number][]
+  /** The net zero line (sunlight + infrared), drawn dotted; only for a map of one sample. */
+  net?: [number, number][]
   sample: [number, number]
   stroke: string
   dash: number[]
@@ -91,6 +93,23 @@ export function drawOverlays(overlays: MapOverlay[], ink: string, halo: string):
         ctx.lineWidth = 2.5 * px
         ctx.setLineDash(o.dash.map((d) => d * px))
         ctx.stroke()
+        if (o.net && o.net.length > 1) {
+          ctx.beginPath()
+          o.net.forEach(([x, y], k) => {
+            const X = u.valToPos(x, 'x', true)
+            const Y = u.valToPos(y, 'y', true)
+            if (k === 0) ctx.moveTo(X, Y)
+            else ctx.lineTo(X, Y)
+          })
+          ctx.strokeStyle = halo
+          ctx.lineWidth = 4 * px
+          ctx.setLineDash([])
+          ctx.stroke()
+          ctx.strokeStyle = o.stroke
+          ctx.lineWidth = 2 * px
+          ctx.setLineDash([2 * px, 3 * px])
+          ctx.stroke()
+        }
       }
     })
     const ctx = u.ctx

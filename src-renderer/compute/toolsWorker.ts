@@ -22,6 +22,7 @@ import {
   truncateBlock,
   UNCERTAINTY_CHECK_EVERY,
   UNCERTAINTY_FIGURES,
+  UNCERTAINTY_VERDICT_FIGURE,
   type DrawBlock,
   type Sample,
   type Study,
@@ -34,7 +35,7 @@ import {
 import type { FromTools, SampleIndex, ToolProblem, ToTools, TruncationRow } from './toolMessages.ts'
 
 const post = (m: FromTools): void => (self as unknown as Worker).postMessage(m)
-const FORCING = UNCERTAINTY_FIGURES.findIndex((f) => f.key === 'forcing')
+const FORCING = UNCERTAINTY_FIGURES.findIndex((f) => f.key === UNCERTAINTY_VERDICT_FIGURE)
 /** Runs asked to stop (the uncertainty loop looks between blocks). */
 const cancelled = new Set<number>()
 

@@ -13,6 +13,7 @@ import {
   humidityScatteringSteps,
   OpticsWorkspace,
   sampleBulkSteps,
+  sampleLongwaveSteps,
   sampleResultFromOptics,
   sizeDistributionCurves,
   type HumidityGrowthCurve,
@@ -89,7 +90,7 @@ function ask<T>(w: Worker, m: Unsent<Extract<ToShareWorker, { request: number }>
 }
 
 /** This worker's share of stepped work and the helpers' shares (from `theirs`), or undefined if the job was dropped. */
-async function together<T>(mine: Generator<void, T>, theirs: Promise<T | null>[], job: number): Promise<{ mine: T; theirs: T[] } | undefined> {
+async function together<M, T>(mine: Generator<void, M>, theirs: Promise<T | null>[], job: number): Promise<{ mine: M; theirs: T[] } | undefined> {
   const own = await drive(mine, current(job))
   const settled = await Promise.allSettled(theirs)
   const failed = settled.find((s) => s.status === 'rejected')
@@ -106,9 +107,16 @@ async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
   const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
   if (holdMs > 0) await new Promise((resolve) => setTimeout(resolve, holdMs))
-  const parts = await together(sampleBulkSteps(study.samples[0], study, { only: shares[0], ...grid, workspace }), theirs, job)
+  const parts = await together(ownShare(study, shares[0], grid), theirs, job)
   if (!parts) return undefined
-  return assembleSampleOptics(study.samples[0], study, [...parts.mine, ...parts.theirs.flat()])
+  return assembleSampleOptics(study.samples[0], study, [...parts.mine.bulk, ...parts.theirs.flat()], { longwave: parts.mine.longwave })
+}
+
+/** This worker's share of a sample's wavelengths, then the sample's thermal-infrared band optics (cheap: small size parameters). */
+function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coarsestStep?: number }) {
+  const bulk = yield* sampleBulkSteps(study.samples[0], study, { only, ...grid, workspace })
+  const longwave = yield* sampleLongwaveSteps(study.samples[0], study, { workspace, ...grid })
+  return { bulk, longwave }
 }
 
 /** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */

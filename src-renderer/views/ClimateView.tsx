@@ -1,6 +1,6 @@
 // Warming or cooling: the site, the verdict in plain words with its numbers, the forcing map over surface
 // albedo and ω, and the thin-layer and two-stream estimates side by side.
-import { DEFAULT_VERDICT_MARGIN_WM2, SURFACE_TYPES, type SampleForcing, type Site } from '../../src-core/index.ts'
+import { DEFAULT_VERDICT_MARGIN_WM2, SURFACE_TYPES, siteLongwaveDefaults, type SampleForcing, type Site } from '../../src-core/index.ts'
 import { ESTIMATE_CAUTION } from '../cautions.ts'
 import { ForcingMapChart } from './ForcingMapChart.tsx'
 import { Field, readFraction, readNumber } from '../edit/Field.tsx'
@@ -64,7 +64,22 @@ function SiteForm() {
           commit={(v) => edit((st) => (st.verdict_margin_w_m2 = v), 'margin')}
         />
       </div>
+      <InfraredSiteFields site={site} />
     </fieldset>
+  )
+}
+
+/** The site's thermal-infrared inputs; each shows its default (the surface type's emissivity) until it is changed. */
+function InfraredSiteFields(p: { site: Site }) {
+  const site = p.site
+  const d = siteLongwaveDefaults(site)
+  return (
+    <div class="row wrap infrared-site" data-testid="infrared-site">
+      <Field path="site.surface_temperature_k" label="Surface temperature" value={site.surface_temperature_k ?? d.surfaceTemperatureK} read={readNumber('surface temperature')} write={(v) => num(v, 5)} hint="K" width="4.8em" title="Surface (skin) temperature, 180–350 K; default 288.15 K" commit={(v) => siteEdit((x) => (x.surface_temperature_k = v), 'ts')} />
+      <Field path="site.surface_emissivity" label="Infrared emissivity" value={site.surface_emissivity ?? d.surfaceEmissivity} read={readFraction('surface emissivity')} write={(v) => num(v, 3)} hint="0.5–1" width="3.5em" title="Broadband thermal-infrared emissivity of the surface; default the surface type's (Oke 1987, Table 1.1)" commit={(v) => siteEdit((x) => (x.surface_emissivity = v), 'emis')} />
+      <Field path="site.layer_height_km" label="Layer height" value={site.layer_height_km ?? d.layerHeightKm} read={readNumber('layer height')} write={(v) => num(v, 4)} hint="km (middle)" width="3.5em" title="Height of the layer's middle above the ground, 0–15 km; its temperature follows 6.5 K/km" commit={(v) => siteEdit((x) => (x.layer_height_km = v), 'height')} />
+      <Field path="site.water_column_cm" label="Water vapour" value={site.water_column_cm ?? d.waterColumnCm} read={readNumber('water-vapour column')} write={(v) => num(v, 3)} hint="cm precipitable" width="3.5em" title="Precipitable water of the column, 0–10 cm; default 2.5 cm" commit={(v) => siteEdit((x) => (x.water_column_cm = v), 'water')} />
+    </div>
   )
 }
 
@@ -88,8 +103,18 @@ export function Verdict(p: { x: ShownSample & { result: NonNullable<ShownSample[
       <VerdictBasis f={f} />
       <dl class="facts">
         <div>
-          <dt>{p.compact ? 'ΔF' : 'Forcing, thin layer (S₀/4)'}</dt>
+          <dt>{p.compact ? 'net' : 'Net, sunlight + infrared'}</dt>
+          <dd data-testid="net-forcing">{signed(f.net_toa_w_m2)} W m⁻²</dd>
+        </div>
+        <div>
+          <dt>{p.compact ? 'sunlight' : 'Sunlight part, thin layer (S₀/4)'}</dt>
           <dd data-testid="forcing">{signed(f.thin_layer_w_m2)} W m⁻²</dd>
+        </div>
+        <div>
+          <dt>{p.compact ? 'infrared' : 'Infrared part, top / surface'}</dt>
+          <dd data-testid="longwave-forcing" title={f.longwave_withheld ?? undefined}>
+            {f.longwave_toa_w_m2 === null ? 'left out' : `${signed(f.longwave_toa_w_m2)} / ${signed(f.longwave_surface_w_m2)} W m⁻²`}
+          </dd>
         </div>
         <div>
           <dt>{p.compact ? 'per τ' : 'Efficiency'}</dt>
@@ -125,8 +150,9 @@ export function VerdictBasis(p: { f: SampleForcing }) {
   const differs = Math.sign(f.daily_mean_w_m2) !== Math.sign(f.thin_layer_w_m2) && Math.abs(f.daily_mean_w_m2) > f.margin_w_m2
   return (
     <p class="verdict-basis" data-testid="verdict-basis">
-      The verdict (also in the sample list) rests on the thin-layer forcing with global-mean sunlight, {signed(f.thin_layer_w_m2)} W m⁻²
-      {f.verdict === 'too close to call' ? `, within the ±${num(f.margin_w_m2, 3)} W m⁻² margin` : ''}. The daily mean at the site, {signed(f.daily_mean_w_m2)} W m⁻², is the same layer under
+      The verdict (also in the sample list) rests on the net forcing, {signed(f.net_toa_w_m2)} W m⁻²
+      {f.verdict === 'too close to call' ? `, within the ±${num(f.margin_w_m2, 3)} W m⁻² margin` : ''}: the thin-layer forcing with global-mean sunlight, {signed(f.thin_layer_w_m2)} W m⁻² (on its own it {f.sunlight_verdict === 'too close to call' ? 'is too close to call' : f.sunlight_verdict}),
+      {f.longwave_toa_w_m2 === null ? ` with the infrared part left out (${f.longwave_withheld ?? ''})` : ` plus the thermal-infrared part at the top of the atmosphere, ${signed(f.longwave_toa_w_m2)} W m⁻²; the ${f.dominant} part dominates`}. The daily mean at the site, {signed(f.daily_mean_w_m2)} W m⁻², is the same layer under
       this latitude’s and day’s sun{differs ? ': here it has the other sign, so read it for this site and season, the verdict for the layer in general' : ''}.
     </p>
   )
@@ -134,17 +160,20 @@ export function VerdictBasis(p: { f: SampleForcing }) {
 
 export function MethodsTable(p: { ok: (ShownSample & { result: NonNullable<ShownSample['result']> })[] }) {
   const rows: [string, string, (f: SampleForcing) => number][] = [
-    ['Thin layer, global mean (Chylek & Wong): the verdict’s figure', 'S₀/4, top of atmosphere', (f) => f.thin_layer_w_m2],
+    ['Thin layer, global mean (Chylek & Wong): the verdict’s sunlight part', 'S₀/4, top of atmosphere', (f) => f.thin_layer_w_m2],
     ['Thin layer, solar-spectrum weighted', 'S₀/4, top of atmosphere', (f) => f.spectral_w_m2],
     ['Thin layer, daily mean at the site', 'site latitude and day', (f) => f.daily_mean_w_m2],
     ['Two-stream (δ-Eddington), top of atmosphere', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.toa_w_m2],
     ['Two-stream, at the surface', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.surface_w_m2],
-    ['Two-stream, absorbed in the atmosphere', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.atmosphere_w_m2]
+    ['Two-stream, absorbed in the atmosphere', 'μ₀ = 0.5, S₀/4', (f) => f.two_stream.atmosphere_w_m2],
+    ['Infrared (two-stream with emission), top of atmosphere', '4–40 µm, site temperatures', (f) => f.longwave_toa_w_m2 ?? NaN],
+    ['Infrared, at the surface', '4–40 µm, site temperatures', (f) => f.longwave_surface_w_m2 ?? NaN],
+    ['Net: thin-layer sunlight + infrared, top of atmosphere: the verdict’s figure', 'global mean', (f) => f.net_toa_w_m2]
   ]
   return (
     <table class="grid-table numbers methods" data-testid="methods-table">
       <caption>
-        Thin-layer and two-stream estimates (W m⁻²; negative = cooling at the top of the atmosphere). Both methods take the sample’s upscatter fraction β̄ at 550 nm
+        Sunlight (thin-layer and two-stream) and thermal-infrared estimates (W m⁻²; negative = cooling). Both methods take the sample’s upscatter fraction β̄ at 550 nm
         {p.ok.length === 1 ? ` (${fixed(p.ok[0].result.forcing.upscatter_550, 3)})` : ''}, the two-stream layer also its g, so they differ only by what the thin form leaves out.
       </caption>
       <thead>

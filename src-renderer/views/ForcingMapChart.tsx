@@ -29,6 +29,7 @@ export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; 
     const halo = p.theme === 'light' ? '#ffffff' : '#14171a'
     const overlays: MapOverlay[] = p.ok.map((x, k) => ({
       zero: x.result.map.zero_line,
+      net: several ? undefined : x.result.map.net_zero_line,
       sample: x.result.map.sample,
       stroke: several ? x.style.stroke : ink,
       dash: x.style.dash,
@@ -37,10 +38,11 @@ export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; 
     const lines: Line[] = p.ok.map((x, k) => ({
       label: several
         ? `${x.sample.name}: its zero line (own β̄ ${fixed(x.result.forcing.upscatter_550, 3)}) and ${MARKER_SIGNS[overlays[k].shape]}`
-        : `zero line (ω = ω_crit) and this sample ${MARKER_SIGNS[overlays[k].shape]}`,
+        : `sunlight zero line (ω = ω_crit) and this sample ${MARKER_SIGNS[overlays[k].shape]}`,
       stroke: overlays[k].stroke,
       dash: x.style.dash
     }))
+    if (!several && main.result.map.net_zero_line.length > 1) lines.push({ label: `net zero line (sunlight + infrared ${signed(main.result.forcing.longwave_toa_w_m2)} W m⁻²)`, stroke: ink, dash: [2, 3] })
     // every sample's map, not only the shaded one, sets how low ω reaches: no marker falls below the plot
     const lo = Math.min(...p.ok.map((x) => Math.min(...x.result.map.ssa)))
     const hi = Math.max(...p.ok.map((x) => Math.max(...x.result.map.ssa)))
@@ -90,7 +92,8 @@ export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; 
           ))}
         </div>
         <p class="map-scale-caption">
-          W m⁻², thin-layer forcing {several ? `of “${main.sample.name}”` : 'of this layer'} at each surface albedo and ω: blue cools, brown warms.
+          W m⁻², thin-layer sunlight forcing {several ? `of “${main.sample.name}”` : 'of this layer'} at each surface albedo and ω: blue cools, brown warms.
+          {!several && main.result.forcing.longwave_toa_w_m2 !== null && ` The infrared part adds ${signed(main.result.forcing.longwave_toa_w_m2)} W m⁻² everywhere on the map (it depends on neither); the net is zero on the dotted line.`}
           {several && ' Each sample cools above its own zero line and warms below it; the shading is only the first marked sample’s.'}
         </p>
       </div>

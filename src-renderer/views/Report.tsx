@@ -2,7 +2,7 @@
 // per-mode compositions; see ReportInputs.tsx) and results, charts, verdict, cautions, method references and the
 // software version, laid out for print (browser: print dialog; desktop: PDF).
 import { useEffect, useMemo } from 'preact/hooks'
-import { DEFAULT_VERDICT_MARGIN_WM2, SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
+import { DEFAULT_VERDICT_MARGIN_WM2, LONGWAVE_METHOD, siteLongwaveDefaults, SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { lineStyle } from '../charts/palette.ts'
 import { printReport } from '../commands.ts'
@@ -26,6 +26,9 @@ export const REFERENCES = [
   'Wiscombe, W. J. and Grams, G. W. (1976): The backscattered fraction in two-stream approximations. J. Atmos. Sci. 33, 2440–2451.',
   'Joseph, J. H., Wiscombe, W. J. and Weinman, J. A. (1976): The delta-Eddington approximation for radiative flux transfer. J. Atmos. Sci. 33, 2452–2459.',
   'Coakley, J. A. and Chýlek, P. (1975): The two-stream approximation in radiative transfer: including the angle of the incident radiation. J. Atmos. Sci. 32, 409–418. (The two-stream layer takes the population’s own upscatter fraction.)',
+  'Toon, O. B., McKay, C. P., Ackerman, T. P. and Santhanam, K. (1989): Rapid calculation of radiative heating rates and photodissociation rates in inhomogeneous multiple scattering atmospheres. J. Geophys. Res. 94(D13), 16287–16301. (The thermal-infrared two-stream with emission.)',
+  'Widger, W. K. and Woodall, M. P. (1976): Integration of the Planck blackbody radiation function. Bull. Am. Meteorol. Soc. 57, 1217–1219.',
+  'Oke, T. R. (1987): Boundary Layer Climates, 2nd ed. Routledge. (Surface albedos and emissivities.)',
   'Seinfeld, J. H. and Pandis, S. N. (2016): Atmospheric Chemistry and Physics, 3rd ed. Wiley. (Size distributions, visibility.)'
 ]
 
@@ -136,6 +139,7 @@ export function Report() {
   const s = useApp()
   const st = s.study
   const surface = SURFACE_TYPES.find((t) => t.id === st.site.surface)
+  const lw = siteLongwaveDefaults(st.site)
   const own = useMemo(() => ownComponentStates(st), [st])
   useEffect(() => {
     document.documentElement.classList.add('printing-report')
@@ -161,7 +165,8 @@ export function Report() {
           {st.notes && <p class="notes-text">{st.notes}</p>}
           <p>
             Site: {st.site.name ?? 'unnamed'}; latitude {num(st.site.latitude_deg)}°, day {st.site.day_of_year}, cloud fraction {num(st.site.cloud_fraction)}, transmittance {num(st.site.transmittance)}, surface{' '}
-            {st.site.surface === 'custom' ? `custom albedo ${num(st.site.surface_albedo ?? NaN)}` : `${surface?.name ?? st.site.surface} (albedo ${surface?.albedo})`}. Verdict “too close to call” within ±{num(st.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, 8)} W m⁻². Wavelengths: {st.wavelengths_nm.join(', ')} nm.
+            {st.site.surface === 'custom' ? `custom albedo ${num(st.site.surface_albedo ?? NaN)}` : `${surface?.name ?? st.site.surface} (albedo ${surface?.albedo})`}; thermal infrared: surface temperature {num(lw.surfaceTemperatureK, 5)} K,
+            emissivity {num(lw.surfaceEmissivity, 3)}, layer centred at {num(lw.layerHeightKm, 4)} km, water-vapour column {num(lw.waterColumnCm, 3)} cm{st.site.surface_temperature_k === undefined || st.site.water_column_cm === undefined || st.site.layer_height_km === undefined || st.site.surface_emissivity === undefined ? ' (defaults where not given)' : ''}. Verdict “too close to call” within ±{num(st.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, 8)} W m⁻². Wavelengths: {st.wavelengths_nm.join(', ')} nm.
           </p>
         </header>
         <section class="report-cautions">
@@ -177,6 +182,12 @@ export function Report() {
           <p>
             Particle optics by Mie theory for homogeneous and coated spheres over the size distribution; water uptake by κ-Köhler theory; refractive indices of mixtures by the
             rule named for each sample; forcing of a uniform layer by the thin-layer estimate and a δ-Eddington two-stream layer over a Lambertian surface.
+          </p>
+          <p data-testid="report-longwave-method">
+            {LONGWAVE_METHOD} The layer’s infrared optics are the same size integration at 20 wavelengths from 4 to 40 µm, averaged over 12 bands. The verdict rests on the net: the
+            thin-layer sunlight figure plus the infrared figure at the top of the atmosphere. Assumptions and limits: the gases’ band transmittances are stated, rough screening values
+            (the weakest part); the lapse rate, tropopause and water-vapour profile are fixed; the layer’s infrared indices of ammonium sulfate, ammonium nitrate, sulfuric acid and black carbon
+            are recalled from published tables (from memory), and organics are taken as transparent beyond 2.5 µm.
           </p>
           <ol>
             {REFERENCES.map((r, k) => (

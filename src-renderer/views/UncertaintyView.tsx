@@ -8,6 +8,7 @@ import {
   formatJsonPath,
   SITE_QUANTITIES,
   UNCERTAIN_QUANTITIES,
+  UNCERTAINTY_VERDICT_FIGURE,
   UNCERTAINTY_WAVELENGTH_NM,
   type Sample,
   type Study,
@@ -44,7 +45,11 @@ const QUANTITY: Record<UncertainQuantity, string> = {
   layer: 'layer: depth, scale height or AOD',
   surface_albedo: 'surface albedo',
   cloud_fraction: 'cloud fraction',
-  transmittance: 'transmittance above the layer'
+  transmittance: 'transmittance above the layer',
+  surface_temperature: 'surface temperature (K)',
+  surface_emissivity: 'surface infrared emissivity',
+  layer_height: "height of the layer's middle (km)",
+  water_column: 'water-vapour column (cm)'
 }
 
 const APPLY: Record<UncertainInput['apply'], string> = { factor: '× factor', add: '+ offset', set: '= value' }
@@ -390,7 +395,7 @@ const pct = (p: number) => `${num(p * 100, 3)} %`
 
 function Probability(p: { r: UncertaintyResult; verdict?: string; stale: boolean }) {
   const w = p.r.warming
-  const forcing = p.r.figures.find((f) => f.key === 'forcing')
+  const forcing = p.r.figures.find((f) => f.key === UNCERTAINTY_VERDICT_FIGURE)
   const word = w.probability >= 0.95 ? 'warms' : w.probability <= 0.05 ? 'cools' : 'undecided'
   const head =
     w.positives === 0
@@ -413,7 +418,7 @@ function Probability(p: { r: UncertaintyResult; verdict?: string; stale: boolean
         {p.stale && <span class="stale-tag">stale</span>}
       </h3>
       <p class="explanation">
-        P(warm), the probability that this layer warms (thin-layer forcing above 0), is <strong data-testid="p-warm-value">{fixed(w.probability, 3)}</strong> ± {fixed(w.standard_error, 3)} (binomial standard error): {w.positives} of {w.count} draws warm.
+        P(warm), the probability that this layer warms (net forcing, sunlight + infrared, above 0), is <strong data-testid="p-warm-value">{fixed(w.probability, 3)}</strong> ± {fixed(w.standard_error, 3)} (binomial standard error): {w.positives} of {w.count} draws warm.
         {w.positives === 0 || w.positives === w.count ? ' With every draw on one side the standard error is 0; it only shows that the other outcome is rare, not impossible.' : ''}
       </p>
       <p class="explanation">
@@ -426,7 +431,7 @@ function Probability(p: { r: UncertaintyResult; verdict?: string; stale: boolean
 
 function Histogram(p: { r: UncertaintyResult; theme: Theme; stale: boolean }) {
   const chart = useMemo(() => {
-    const f = p.r.figures.find((x) => x.key === 'forcing')
+    const f = p.r.figures.find((x) => x.key === UNCERTAINTY_VERDICT_FIGURE)
     if (!f) return null
     let { edges, counts } = f.histogram
     if (counts.length === 1) {
@@ -461,7 +466,7 @@ function Histogram(p: { r: UncertaintyResult; theme: Theme; stale: boolean }) {
     <div data-testid="forcing-histogram" data-bins={chart.bins} data-zero={chart.xRange[0] <= 0 && chart.xRange[1] >= 0 ? 'inside' : 'outside'}>
     <Chart
       name="forcing-histogram"
-      title={`Thin-layer forcing over ${p.r.draws} draws`}
+      title={`Net forcing (sunlight + infrared) over ${p.r.draws} draws`}
       data={chart.data}
       lines={chart.lines}
       xLabel="Forcing (W m⁻²)"
@@ -485,13 +490,15 @@ const FIGURE_NAMES: Record<string, string> = {
   g: 'g, asymmetry parameter',
   upscatter: 'β̄, upscatter fraction',
   tau: 'τ, optical depth of the layer',
-  forcing: 'Forcing, thin layer (the verdict’s)',
+  forcing: 'Forcing, thin layer (the verdict’s sunlight part)',
   forcing_daily_mean: 'Forcing, thin layer through the site’s day',
-  forcing_two_stream_toa: 'Forcing, two-stream at the top of the atmosphere'
+  forcing_two_stream_toa: 'Forcing, two-stream at the top of the atmosphere',
+  longwave_toa: 'Forcing, thermal infrared at the top of the atmosphere',
+  net_toa: 'Net forcing, sunlight + infrared (the verdict’s)'
 }
 
 function FiguresTable(p: { r: UncertaintyResult }) {
-  const f = (x: number, key: string) => (key.startsWith('forcing') ? signed(x) : key === 'ssa' || key === 'g' || key === 'upscatter' ? fixed(x, 3) : num(x, 4))
+  const f = (x: number, key: string) => (key.startsWith('forcing') || key.endsWith('_toa') ? signed(x) : key === 'ssa' || key === 'g' || key === 'upscatter' ? fixed(x, 3) : num(x, 4))
   return (
     <table class="grid-table numbers u-figures" data-testid="uncertainty-table">
       <caption>Each figure at {p.r.wavelength_nm} nm over the draws</caption>
@@ -532,7 +539,7 @@ function SensitivityTable(p: { r: UncertaintyResult }) {
     rho === null ? 'did not vary' : Math.abs(rho) < 0.1 ? 'little monotonic effect' : rho > 0 ? `higher → warmer${Math.abs(rho) > 0.7 ? ' (dominant)' : ''}` : `higher → cooler${Math.abs(rho) > 0.7 ? ' (dominant)' : ''}`
   return (
     <table class="grid-table numbers u-sensitivity" data-testid="sensitivity-table">
-      <caption>Which inputs matter: Spearman rank correlation ρ of each drawn input with the thin-layer forcing, strongest first (±1: it alone orders the forcing; 0: no monotonic effect)</caption>
+      <caption>Which inputs matter: Spearman rank correlation ρ of each drawn input with the net forcing (sunlight + infrared), strongest first (±1: it alone orders the forcing; 0: no monotonic effect)</caption>
       <thead>
         <tr>
           <th scope="col">Input</th>
@@ -601,7 +608,7 @@ export function UncertaintyView() {
   return (
     <div class="view tool-view uncertainty-view" data-view="uncertainty">
       <p class="help intro">
-        Monte Carlo: each draw perturbs the inputs below, computes “{sample.name}” at {UNCERTAINTY_WAVELENGTH_NM} nm and its forcing at the site. The share of draws whose thin-layer forcing is above zero is P(warm). The inputs are saved with the study.
+        Monte Carlo: each draw perturbs the inputs below, computes “{sample.name}” at {UNCERTAINTY_WAVELENGTH_NM} nm and its forcing at the site. The share of draws whose net forcing (the thin-layer sunlight figure plus the infrared one) is above zero is P(warm). The inputs are saved with the study.
       </p>
       <div class="u-columns">
         <div class="u-editor">

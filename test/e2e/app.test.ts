@@ -454,11 +454,21 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
       // the sign flips at the same albedo whatever the surface
       expect(Math.abs(shownNumber(await page.getByTestId('flip-albedo').textContent()) - flip)).toBeLessThan(0.002)
     }
-    // the thin-layer and two-stream estimates side by side, one column for the sample
+    // the thin-layer and two-stream estimates side by side, then the infrared and the net, one column for the sample
     const methods = page.getByTestId('methods-table')
-    expect(await methods.locator('tbody tr').count()).toBe(6)
-    expect(await methods.textContent()).toMatch(/Chylek & Wong.*Two-stream/s)
+    expect(await methods.locator('tbody tr').count()).toBe(9)
+    expect(await methods.textContent()).toMatch(/Chylek & Wong.*Two-stream.*Infrared.*Net/s)
     expect(await axes('forcing-map')).toMatch(/Single-scattering albedo ω against Surface albedo Rs.*zero line/)
+    // the verdict gives the sunlight, infrared and net parts; an infrared site input out of range is marked at its
+    // field with the range and the reason
+    expect(await page.getByTestId('net-forcing').textContent()).toMatch(/W m⁻²/)
+    expect(await page.getByTestId('longwave-forcing').textContent()).toMatch(/\/.*W m⁻²/)
+    const ts = page.locator('[data-path="site.surface_temperature_k"]')
+    await ts.fill('400')
+    await expect.poll(() => ts.getAttribute('aria-invalid'), { timeout: 10_000 }).toBe('true')
+    expect(await page.locator('[data-error-for="site.surface_temperature_k"]').first().textContent()).toMatch(/outside 180 to 350 K \(/)
+    await ts.fill('300')
+    await expect.poll(() => ts.getAttribute('aria-invalid'), { timeout: 10_000 }).toBe('false')
   })
 
   test('no request leaves the machine', () => {

@@ -171,9 +171,12 @@ describe('the report', { timeout: 120_000 }, () => {
       expect(await sec.getByTestId('verdict').getAttribute('data-verdict'), name).toMatch(/^(cools|warms|too close to call)$/)
       expect(await sec.locator('figure.chart canvas').count(), name).toBeGreaterThanOrEqual(3)
       expect(await sec.locator('[data-testid="optics-table"] tbody tr').count(), name).toBe(demoStudy().wavelengths_nm.length)
-      expect(await sec.getByTestId('methods-table').locator('tbody tr').count(), name).toBe(6)
+      expect(await sec.getByTestId('methods-table').locator('tbody tr').count(), name).toBe(9)
       expect(await sec.locator('.stale-note').count(), name).toBe(0)
     }
+    // the infrared part's method, with its assumptions and limits, and the site's infrared inputs
+    expect(await report.getByTestId('report-longwave-method').textContent()).toMatch(/Toon et al\. 1989.*net.*Assumptions and limits/s)
+    expect(await report.locator('header').textContent()).toMatch(/surface temperature [\d.]+ K.*water-vapour column/s)
     // the selected sample's σext at 550 nm is the one the workbench showed
     const first = report.locator(`[data-report-sample="${names[0]}"] [data-testid="optics-table"] tr[data-wavelength="550"] td[data-col="σext"]`)
     expect(shownNumber(await first.textContent())).toBe(tableSigma)

@@ -111,7 +111,7 @@ describe('what the screen shows', { timeout: 120_000 }, () => {
     expect(Number(await scale.getAttribute('data-max'))).toBeGreaterThan(0)
     expect(await scale.textContent()).toMatch(/^−[\d.]+.*0.*\+[\d.]+.*W m⁻²/s)
     // the verdict says which figure it rests on
-    expect(await page.getByTestId('verdict-basis').first().textContent()).toMatch(/rests on the thin-layer forcing with global-mean sunlight.*daily mean at the site/s)
+    expect(await page.getByTestId('verdict-basis').first().textContent()).toMatch(/rests on the net forcing.*thin-layer forcing with global-mean sunlight.*thermal-infrared part.*daily mean at the site/s)
     expect(errors).toEqual([])
   })
 

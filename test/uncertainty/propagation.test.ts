@@ -42,7 +42,8 @@ describe('uncertainty propagation', () => {
     const row = optics.wavelengths[0]
     const plain: Record<string, number> = {
       ext: row.ext, sca: row.sca, abs: row.abs, ssa: row.ssa, g: row.g, upscatter: row.upscatter_fraction, tau: row.optical_depth,
-      forcing: forcing.thin_layer_w_m2, forcing_daily_mean: forcing.daily_mean_w_m2, forcing_two_stream_toa: forcing.two_stream.toa_w_m2
+      forcing: forcing.thin_layer_w_m2, forcing_daily_mean: forcing.daily_mean_w_m2, forcing_two_stream_toa: forcing.two_stream.toa_w_m2,
+      longwave_toa: forcing.longwave_toa_w_m2!, net_toa: forcing.net_toa_w_m2
     }
     for (const f of UNCERTAINTY_FIGURES) {
       const got = fig(r, f.key)
@@ -52,7 +53,9 @@ describe('uncertainty propagation', () => {
       expect(got.sd).toBe(0)
       expect(got.central).toBe(plain[f.key])
     }
-    expect(r.warming.probability).toBe(forcing.thin_layer_w_m2 > 0 ? 1 : 0)
+    // P(warm) is on the net forcing, sunlight + infrared, the one the verdict uses
+    expect(forcing.net_toa_w_m2).toBe(forcing.thin_layer_w_m2 + forcing.longwave_toa_w_m2!)
+    expect(r.warming.probability).toBe(forcing.net_toa_w_m2 > 0 ? 1 : 0)
     expect(r.warming.standard_error).toBe(0)
     expect(r.sensitivity.ranking.every((e) => e.rho === null)).toBe(true)
     // and close to the study's full calculation (all wavelengths, default tolerance 1e-4): the thin-layer forcing
@@ -77,11 +80,21 @@ describe('uncertainty propagation', () => {
     expect(fig(r, 'ext').sd).toBe(0)
   })
 
-  it('P(warm) for a uniform surface albedo is the share of its range above the sign-flip albedo (closed form)', () => {
+  it('P(warm) for a uniform surface albedo is the share of its range above the albedo where the net forcing flips (closed form)', () => {
     const s = study()
     const sample = s.samples.find((x) => x.name === SOOT)!
     const plain = sampleForcing(computeSampleOptics(sample, { wavelengths_nm: [550] }, { tolerance: 1e-3, angularWavelengthsNm: [] }), s.site, s.verdict_margin_w_m2)
-    const flip = plain.flip_surface_albedo!
+    // net = ΔF_sun(R) + ΔF_ir, with ΔF_sun = −C[2(1 − R)²β̄τ_sca − 4Rτ_abs], C = (S₀/4)T²(1 − A_c) (Chylek & Wong 1995)
+    // and ΔF_ir independent of R: net = 0 is a quadratic in R, 2β̄τ_s(1 − R)² − 4τ_a R = ΔF_ir/C
+    const C = (1361 / 4) * s.site.transmittance ** 2 * (1 - s.site.cloud_fraction)
+    const ts = plain.tau_550 * plain.ssa_550
+    const ta = plain.tau_550 - ts
+    const a = 2 * plain.upscatter_550 * ts
+    const rhs = plain.longwave_toa_w_m2! / C
+    // a(1 − R)² − 4τ_a R − rhs = 0 → aR² − (2a + 4τ_a)R + (a − rhs) = 0, the root in 0..1
+    const B = 2 * a + 4 * ta
+    const flip = (B - Math.sqrt(B * B - 4 * a * (a - rhs))) / (2 * a)
+    expect(flip).toBeLessThan(plain.flip_surface_albedo!)
     expect(flip).toBeGreaterThan(0.05)
     const lo = Math.max(0, flip - 0.1)
     const hi = Math.min(1, flip + 0.2)
@@ -175,5 +188,36 @@ describe('uncertainty propagation', () => {
     const r = parseStudy(JSON.stringify(bad))
     expect(r.ok).toBe(false)
     if (!r.ok) expect(r.problems[0].path).toBe(`uncertainty.samples.${SOOT}.inputs[0].distribution.sd`)
+  })
+})
+
+describe('uncertainty of the infrared part', () => {
+  it('draws the infrared site inputs: the surface temperature moves the infrared and net figures, not the optics; net = sunlight + infrared in every draw', () => {
+    const s = study()
+    const inputs: UncertainInput[] = [
+      { quantity: 'surface_temperature', apply: 'set', distribution: { kind: 'uniform', lo: 270, hi: 310 } },
+      { quantity: 'water_column', apply: 'factor', distribution: { kind: 'lognormal', median: 1, gsd: 1.3 }, bounds: { lo: 0.5, hi: 2, method: 'resample' } }
+    ]
+    const plan = planUncertainty(s, SOOT, { draws: 40, seed: 3, inputs, precision: 0 })
+    const block = computeDraws(plan, 0, 40)
+    const k = (key: string) => UNCERTAINTY_FIGURES.findIndex((f) => f.key === key)
+    const n = UNCERTAINTY_FIGURES.length
+    const lw = new Set<number>()
+    for (let i = 0; i < block.count; i++) {
+      const o = block.outputs.subarray(i * n, (i + 1) * n)
+      expect(o[k('net_toa')]).toBe(o[k('forcing')] + o[k('longwave_toa')])
+      lw.add(o[k('longwave_toa')])
+    }
+    expect(lw.size).toBeGreaterThan(30)
+    const r = runUncertainty(s, SOOT, { draws: 40, seed: 3, inputs, precision: 0 })
+    expect(fig(r, 'ext').sd).toBe(0)
+    expect(fig(r, 'longwave_toa').sd).toBeGreaterThan(0)
+    // the ranking is against the net: the surface temperature, through the infrared, leads it
+    expect(r.sensitivity.ranking[0].label).toMatch(/surface temperature/)
+    expect(r.sensitivity.ranking[0].rho!).toBeGreaterThan(0.9)
+  })
+  it('refuses an infrared input that could leave its range, with the range', () => {
+    const s = study()
+    expect(() => planUncertainty(s, SOOT, { draws: 10, inputs: [{ quantity: 'surface_emissivity', apply: 'set', distribution: { kind: 'uniform', lo: 0.3, hi: 1 } }] })).toThrow(InputError)
   })
 })

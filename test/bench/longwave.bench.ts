@@ -1,0 +1,44 @@
+// Bench case for the infrared part: each demo sample's whole computation (optics at the study's wavelengths with a
+// fresh workspace, then its forcing) with and without the thermal-infrared bands; the goal is at most 20 %
+// added to a sample's computation.
+import { computeSampleOptics, demoStudy, OpticsWorkspace, sampleForcing } from '../../src-core/index.ts'
+import { median, report } from './timing.ts'
+
+export function benchLongwaveDemo(): void {
+  const study = demoStudy()
+  for (const sample of study.samples) {
+    const evaluations = { with: 0, without: 0 }
+    const run = (longwave: boolean) => () => {
+      const ws = new OpticsWorkspace()
+      const optics = computeSampleOptics(sample, study, { workspace: ws, longwave })
+      sampleForcing(optics, study.site, study.verdict_margin_w_m2)
+      evaluations[longwave ? 'with' : 'without'] = ws.evaluations
+    }
+    // the two runs alternate, so that a change of the machine's load falls on both alike
+    const a = run(false)
+    const b = run(true)
+    a()
+    b()
+    const ta: number[] = []
+    const tb: number[] = []
+    for (let r = 0; r < 7; r++) {
+      let t = performance.now()
+      a()
+      ta.push(performance.now() - t)
+      t = performance.now()
+      b()
+      tb.push(performance.now() - t)
+    }
+    const without = median(ta)
+    const withIr = median(tb)
+    report('longwave-demo', {
+      sample: sample.name,
+      ms_without_infrared: Math.round(without * 10) / 10,
+      ms_with_infrared: Math.round(withIr * 10) / 10,
+      added_percent: Math.round((withIr / without - 1) * 1000) / 10,
+      mie_evaluations_without: evaluations.without,
+      mie_evaluations_infrared: evaluations.with - evaluations.without,
+      goal_added_percent: 20
+    })
+  }
+}

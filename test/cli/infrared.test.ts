@@ -1,0 +1,71 @@
+// The infrared part in the command line: forcing's infrared options, and the study's JSON and CSV figures.
+import { join } from 'node:path'
+import { describe, expect, it } from 'vitest'
+import { LONGWAVE_BANDS, longwaveForcing } from '../../src-core/index.ts'
+import { runForcing } from '../../src-main/cli/forcing.ts'
+import { runPopulation } from '../../src-main/cli/population.ts'
+import { runStudy } from '../../src-main/cli/study.ts'
+import { repo, runHere } from './helpers.ts'
+
+const demo = join(repo, 'resources/demo.mote')
+const layer = ['--tau', '0.2', '--ssa', '0.92', '--upscatter', '0.24', '--surface-albedo', '0.15']
+
+describe('motebench forcing with the infrared part', () => {
+  it('adds longwave_toa_w_m2, longwave_surface_w_m2 and net_toa_w_m2 = forcing_w_m2 + longwave_toa_w_m2, the verdict on the net', async () => {
+    const r = await runHere(runForcing, [...layer, '--ir-tau', '0.1', '--ir-ssa', '0.5', '--layer-height', '3', '--surface-temperature', '300', '--json'])
+    expect(r.code).toBe(0)
+    const f = JSON.parse(r.stdout)
+    expect(f.net_toa_w_m2).toBeCloseTo(f.forcing_w_m2 + f.longwave_toa_w_m2, 12)
+    // the same layer through the library (the CLI adds nothing of its own)
+    const lib = longwaveForcing({ bands: LONGWAVE_BANDS.map(() => ({ tau: 0.1, omega: 0.5, g: 0.5 })), surfaceTemperatureK: 300, surfaceEmissivity: 0.95, layerHeightKm: 3, layerDepthKm: 1, waterColumnCm: 2.5, cloudFraction: 0.6 })
+    expect(f.longwave_toa_w_m2).toBe(lib.toaWm2)
+    expect(f.longwave_surface_w_m2).toBe(lib.surfaceWm2)
+    expect(f.longwave_toa_w_m2).toBeGreaterThan(0)
+    expect(f.sunlight_verdict).toBe('cools')
+    expect(f.verdict).toBe(Math.abs(f.net_toa_w_m2) < 0.5 ? 'too close to call' : f.net_toa_w_m2 < 0 ? 'cools' : 'warms')
+    expect(f.longwave_inputs).toMatchObject({ surface_temperature_k: 300, layer_height_km: 3, water_column_cm: 2.5, surface_emissivity: 0.95 })
+  })
+  it('refuses out-of-range infrared inputs at their option with the range and reason (exit 2), and site options without --ir-tau', async () => {
+    for (const [flag, value] of [['--surface-temperature', '400'], ['--emissivity', '0.2'], ['--layer-height', '30'], ['--water-column', '12']]) {
+      const r = await runHere(runForcing, [...layer, '--ir-tau', '0.1', '--ir-ssa', '0.5', flag, value])
+      expect(r.code).toBe(2)
+      expect(r.stderr).toContain(flag)
+      expect(r.stderr).toMatch(/outside .* to .*\(/)
+    }
+    const stray = await runHere(runForcing, [...layer, '--water-column', '2'])
+    expect(stray.code).toBe(2)
+    expect(stray.stderr).toContain('--ir-tau')
+  })
+})
+
+describe('motebench study: infrared and net figures', () => {
+  it("each sample's forcing carries longwave_toa_w_m2, longwave_surface_w_m2 and net_toa_w_m2 in JSON, and the CSV the same columns", async () => {
+    const r = await runHere(runStudy, [demo, '--format', 'json', '--tolerance', '1e-3', '--sample', 'Quarry dust event'])
+    expect(r.code).toBe(0)
+    const f = JSON.parse(r.stdout).samples[0].forcing
+    expect(f.longwave_toa_w_m2).toBeGreaterThan(0)
+    expect(typeof f.longwave_surface_w_m2).toBe('number')
+    expect(f.net_toa_w_m2).toBeCloseTo(f.thin_layer_w_m2 + f.longwave_toa_w_m2, 12)
+    expect(f.longwave.bands).toHaveLength(LONGWAVE_BANDS.length)
+    const c = await runHere(runStudy, [demo, '--format', 'csv', '--tolerance', '1e-3', '--sample', 'Quarry dust event'])
+    const [head, first] = c.stdout.split('\n')
+    const cols = head.split(',')
+    const cells = first.split(',')
+    for (const k of ['longwave_toa_W_m-2', 'longwave_surface_W_m-2', 'net_toa_W_m-2']) expect(cols).toContain(k)
+    expect(Number(cells[cols.indexOf('net_toa_W_m-2')])).toBeCloseTo(f.net_toa_w_m2, 6)
+  })
+})
+
+describe('motebench population --infrared', () => {
+  it('adds the band optics over 4–40 µm, one entry per band, absorption = extinction − scattering; the silicate band of dust absorbs more than the window beside it', async () => {
+    const r = await runHere(runPopulation, ['--mode', '10,3um,1.8', '--material', 'mineral-dust', '--rh', '0', '--infrared', '--json', '--tolerance', '1e-3'])
+    expect(r.code).toBe(0)
+    const j = JSON.parse(r.stdout)
+    expect(j.longwave_withheld).toBeNull()
+    expect(j.longwave_bands.map((b: { lo_um: number }) => b.lo_um)).toEqual(LONGWAVE_BANDS.map((b) => b.loUm))
+    for (const b of j.longwave_bands) expect(b.abs).toBeCloseTo(b.ext - b.sca, 9)
+    // illite's Si–O stretching band at 9–10 µm (Querry 1987, the catalogue's dust) against the 11.5–12.5 µm window
+    const at = (lo: number) => j.longwave_bands.find((b: { lo_um: number }) => b.lo_um === lo)
+    expect(at(9.5).abs).toBeGreaterThan(at(11.5).abs)
+  })
+})
