@@ -123,6 +123,14 @@ function levelsKm(bottom: number, top: number): number[] {
   return out
 }
 
+/**
+ * The aerosol-free atmosphere of the last call (its levels' band emission and each band's fluxes): an uncertainty
+ * run or a map computes many layers in the same atmosphere, and these depend on the site and the layer's place only.
+ */
+let cleanKey = ''
+let cleanEmission: number[][] = []
+let cleanFluxes: { up: ArrayLike<number>; down: ArrayLike<number> }[] = []
+
 /** The layer's infrared forcing; see the module note. */
 export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingResult {
   const { bands, surfaceTemperatureK: ts, surfaceEmissivity: eps, layerHeightKm: h, waterColumnCm: w } = input
@@ -152,6 +160,13 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
   const gas = !input.transparentGases
   const waterBelow = (zz: number) => 1 - Math.exp(-zz / WATER_SCALE_HEIGHT_KM)
   const pressure = (zz: number) => Math.exp(-zz / PRESSURE_SCALE_HEIGHT_KM)
+  const key = [ts, eps, h, w, lapse, D, bottom, top, input.transparentGases === true].join()
+  const reuse = key === cleanKey
+  if (!reuse) {
+    cleanKey = ''
+    cleanEmission = []
+    cleanFluxes = []
+  }
   const layersClean: ThermalLayer[] = new Array(nl)
   const layersWith: ThermalLayer[] = new Array(nl)
   const bandToa: number[] = []
@@ -159,7 +174,8 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
   let sfc = 0
   let olr = 0
   LONGWAVE_BANDS.forEach((band, bi) => {
-    const emission = temps.map((t) => planckBandFlux(band.loUm, band.hiUm, t))
+    const emission = reuse ? cleanEmission[bi] : temps.map((t) => planckBandFlux(band.loUm, band.hiUm, t))
+    if (!reuse) cleanEmission[bi] = emission
     const a = bands[bi]
     for (let i = 0; i < nl; i++) {
       // layers from the top down: layer i spans z[nl − i − 1] (bottom) to z[nl − i] (top)
@@ -182,7 +198,8 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
       layersWith[i] = { tau, omega: tau > 0 ? (a.omega * tauA) / tau : 0, g: a.g, emissionTop, emissionBottom }
     }
     const surfaceEmission = emission[0]
-    const clean = thermalTwoStream({ layers: layersClean, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
+    const clean = reuse ? cleanFluxes[bi] : thermalTwoStream({ layers: layersClean, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
+    if (!reuse) cleanFluxes[bi] = { up: clean.up, down: clean.down }
     const withLayer = thermalTwoStream({ layers: layersWith, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
     const dToa = clean.up[0] - withLayer.up[0]
     const dSfc = withLayer.down[nl] - withLayer.up[nl] - (clean.down[nl] - clean.up[nl])
@@ -191,6 +208,7 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
     sfc += dSfc
     olr += clean.up[0]
   })
+  cleanKey = key
   const clear = 1 - ac
   return {
     toaWm2: toa * clear,

@@ -4,6 +4,14 @@
  * Each draw copies the sample and the site, perturbs the uncertain inputs by their drawn variates, and
  * computes `computeSampleOptics` (550 nm only, tolerance 1e-3, no angular output) and `sampleForcing`.
  *
+ * The infrared part: the band optics (20 wavelengths over 4–40 µm) are integrated once, for the unperturbed
+ * sample, and each draw scales their coefficients by its wet volume over the unperturbed one. Particles are small
+ * against these wavelengths, where absorption and extinction per particle go with its volume (the small-particle
+ * limit; Bohren & Huffman 1983, §5.2); so a draw's changes of amount, size and water move the infrared part, while
+ * a perturbed refractive index moves only the sunlight part. Integrating the bands in every draw made a run five
+ * times slower (4.5 s against 22 s for the demo's 1000 draws on two cores). The infrared site inputs are drawn
+ * as they are.
+ *
  * Reproducibility and splitting: draw i's random numbers come from its own substream (seed, i) (see
  * random.ts), so `computeDraws(plan, i, j)` gives the same numbers whichever worker computes it and in
  * whatever order; `mergeDrawBlocks` puts blocks back in draw order. With Latin hypercube sampling (McKay,
@@ -20,7 +28,7 @@ import { InputError } from '../errors.ts'
 import { DEFAULT_VERDICT_MARGIN_WM2, LONGWAVE_INPUT_RANGES } from '../climate/index.ts'
 import { getMaterial, refractiveIndexAt, type Material } from '../materials/index.ts'
 import { computeSampleOptics, OpticsWorkspace, resolveComposition, resolveMaterial, sampleForcing, siteLongwaveInputs, siteSurfaceAlbedo, studyMaterials } from '../optics/index.ts'
-import type { SampleForcing, SampleOptics } from '../optics/types.ts'
+import type { LongwaveOptics, SampleForcing, SampleOptics } from '../optics/types.ts'
 import { MAX_GSD } from '../sizes/index.ts'
 import type { Composition, Sample, Site, Study } from '../study/model.ts'
 import { normalCdf, normalQuantile, randomPermutation, Xoshiro128 } from './random.ts'
@@ -103,6 +111,8 @@ export interface UncertaintyPlan {
   strata: Uint32Array[] | null
   /** Optics of the unperturbed sample when no input changes the optics (site inputs only). */
   fixedOptics: SampleOptics | null
+  /** The unperturbed sample's infrared band optics and wet volume, which the draws scale (see the module note). */
+  longwaveBase: { optics: LongwaveOptics; wetVolume: number } | null
 }
 
 /** Draws start..start+count−1: the variates (count × inputs) and the figures (count × UNCERTAINTY_FIGURES). */
@@ -456,9 +466,11 @@ export function planUncertainty(study: Study, sampleName: string, options: Uncer
   if (sampling === 'latin-hypercube') strata = inputs.map((_, j) => randomPermutation(draws, new Xoshiro128(seed, j, 1)))
   const plan: UncertaintyPlan = {
     sample, site: study.site, study: { user_materials: study.user_materials }, inputs, draws, seed, sampling, precision, minDraws,
-    marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata, fixedOptics: null
+    marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata, fixedOptics: null, longwaveBase: null
   }
-  if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = drawOptics(plan, copyJson(sample), new Map(), new OpticsWorkspace())
+  const nominal = nominalOptics(plan, copyJson(sample), new OpticsWorkspace())
+  if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = nominal
+  else if (nominal.longwave) plan.longwaveBase = { optics: nominal.longwave, wetVolume: nominal.wet_volume_um3_cm3 }
   return plan
 }
 
@@ -489,13 +501,31 @@ function perturbedMaterials(plan: UncertaintyPlan, index: DrawState['index']): M
   return [...extra, ...plan.own]
 }
 
-function drawOptics(plan: UncertaintyPlan, sample: Sample, index: DrawState['index'], ws: OpticsWorkspace): SampleOptics {
+/** The unperturbed sample's optics at 550 nm, with its infrared band optics. */
+function nominalOptics(plan: UncertaintyPlan, sample: Sample, ws: OpticsWorkspace): SampleOptics {
   return computeSampleOptics(
     sample,
     { wavelengths_nm: [UNCERTAINTY_WAVELENGTH_NM], user_materials: plan.study.user_materials },
     { tolerance: UNCERTAINTY_TOLERANCE, angularWavelengthsNm: [], workspace: ws },
+    perturbedMaterials(plan, new Map())
+  )
+}
+
+/** A draw's optics at 550 nm, its infrared band optics scaled from the unperturbed sample's (module note). */
+function drawOptics(plan: UncertaintyPlan, sample: Sample, index: DrawState['index'], ws: OpticsWorkspace): SampleOptics {
+  const base = plan.longwaveBase
+  if (!base) return nominalOptics(plan, sample, ws)
+  const optics = computeSampleOptics(
+    sample,
+    { wavelengths_nm: [UNCERTAINTY_WAVELENGTH_NM], user_materials: plan.study.user_materials },
+    { tolerance: UNCERTAINTY_TOLERANCE, angularWavelengthsNm: [], workspace: ws, longwave: false },
     perturbedMaterials(plan, index)
   )
+  const f = base.wetVolume > 0 ? optics.wet_volume_um3_cm3 / base.wetVolume : 0
+  optics.longwave = base.optics.withheld
+    ? base.optics
+    : { withheld: null, bands: base.optics.bands.map((b) => ({ ...b, ext: b.ext * f, sca: b.sca * f, abs: b.abs * f })) }
+  return optics
 }
 
 /** The figures of one computed draw, in UNCERTAINTY_FIGURES order, into `out` at `offset`. */
