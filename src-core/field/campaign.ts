@@ -168,7 +168,8 @@ function singleRows(s: ReadSizer): Rows {
  * out; without a readable sizer there is no record (`problem` says why). Throws InputError only for what no file
  * alone is to blame for (the study's sample or composition, clocks of different forms).
  */
-export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: { tolerance?: number; workspace?: OpticsWorkspace } = {}): CampaignBuild {
+export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void } = {}): CampaignBuild {
+  const progress = options.onProgress ?? (() => {})
   const sample = study.samples.find((s) => s.name === settings.sample)
   if (!sample) throw new InputError('campaign.sample', `no sample is named "${settings.sample}"`, 'Choose the sample whose composition and humidity the record takes.')
   const sizers: ReadSizer[] = []
@@ -181,6 +182,7 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
     if ('table' in r) sizers.push(r as ReadSizer)
     else instruments.push(r as ReadInstrument)
   }
+  progress(0.2)
   if (sizers.length === 0) {
     const any = inputs.some((i) => isSizerKind(i.kind))
     return { files, problem: any ? { message: 'no sizer file could be read', fix: 'Fix the sizer file as its summary says, or point at the right file.' } : { message: 'the campaign has no sizer file yet', fix: 'Add a mobility, aerodynamic or optical sizer export, or a merged size distribution.' } }
@@ -205,6 +207,7 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
   const ws = options.workspace ?? new OpticsWorkspace()
   const studyAt = { wavelengths_nm: wavelengthsNm, user_materials: study.user_materials }
   const kernels = binOpticsKernels(sample, studyAt, rows.layout, { tolerance: options.tolerance ?? 1e-4, workspace: ws })
+  progress(0.4)
   const evaluate = binnedRowEvaluator(kernels, rows.layout)
   const width = binnedRowWidth(kernels)
   const compareCols = channels.length > 0 ? comparisonColumns(plan) : []
@@ -244,15 +247,18 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
       out.fill(NaN)
       comparer.compare(row, m, out)
       cells.set(out, k * columns.length + width)
+      if (i % 4096 === 4095) progress(0.6 + (0.2 * i) / kept.length)
     })
     notes = comparisonNotes(plan, { intervalText: formatDuration(Math.round(intervalMs)), files: instruments.map((f) => f.summary.name) })
   }
   const dNdlogD = new Float64Array(n * bins)
   const fig = new Float64Array(width)
-  for (const k of kept) {
+  progress(0.8)
+  kept.forEach((k, i) => {
     evaluate(rows.values, k * bins, fig, 0)
     cells.set(fig, k * columns.length)
-  }
+    if (i % 4096 === 4095) progress(0.8 + (0.2 * i) / kept.length)
+  })
   // dN/dlogD for the colour map: the layout's quantity turned by the same kernels' conversion (number weights)
   const toDn = quantityFactors(rows.layout, kernels.kind.densityGcm3)
   for (const k of kept) for (let j = 0; j < bins; j++) dNdlogD[k * bins + j] = rows.values[k * bins + j] * toDn[j]
