@@ -162,7 +162,12 @@ async function readReferenced(): Promise<void> {
     const { texts, missing } = session.get()
     if (texts[ref.path] || missing[ref.path]) continue
     const abs = resolveFilePath(s.file?.path, ref.path)
-    const got = abs ? await host().readInstrumentFile(abs) : { missing: `its folder is not known (the study${s.file ? ` ${s.file.name}` : ''} was not opened from a file on disk)` }
+    const got =
+      host().kind === 'browser'
+        ? { missing: 'a web page cannot open a file by its path' }
+        : abs
+          ? await host().readInstrumentFile(abs)
+          : { missing: `its folder is not known (the study${s.file ? ` ${s.file.name}` : ''} was not saved to a file)` }
     if ('missing' in got) {
       session.set({ missing: { ...session.get().missing, [ref.path]: got.missing } })
       continue
