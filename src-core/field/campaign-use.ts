@@ -4,7 +4,7 @@
  * interval, keeping where it came from), and the record as CSV in the columns `motebench series` writes.
  */
 import { InputError } from '../errors.ts'
-import { angstromFitOf } from '../optics/metrics.ts'
+import { angstromExponent } from '../optics/metrics.ts'
 import type { Sample } from '../study/model.ts'
 import { CAMPAIGN_KIND_WORDS } from './campaign-settings.ts'
 import type { CampaignRecord } from './campaign.ts'
@@ -20,6 +20,8 @@ export interface RecordSeries {
   /** Row of the record behind each x (−1 for an inserted break). */
   row: number[]
   values: Record<RecordSeriesName, (number | null)[]>
+  /** The Ångström exponent's two wavelengths: the computed ones on either side of the chosen one (nm). */
+  angstromPairNm: [number, number]
   /** The wavelength each measured figure is compared at, nm (NaN when there is no such instrument). */
   scatteringAtNm: number
   absorptionAtNm: number
@@ -28,7 +30,9 @@ export interface RecordSeries {
 const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
 
 /**
- * The charts' series over rows [from, to) (default all). A row without a distribution gives null in every
+ * The charts' series over rows [from, to) (default all). The Ångström exponent of extinction is taken between the
+ * computed wavelengths on either side of the chosen one (as the optics table gives it at each wavelength,
+ * localAngstromExponents). A row without a distribution gives null in every
  * computed figure; a spacing above 1.5 times the record's interval gets a break, so lines stop across gaps.
  * Measured scattering is the nephelometer's at its wavelength nearest the chosen one (compared with the computed
  * scattering there); measured absorption is carried to the chosen wavelength by its own Ångström exponent
@@ -44,7 +48,10 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
   const iG = col(`g_${w}nm`)
   const iN = col('dry_number_cm-3')
   const iM = col('dry_mass_ug_m-3')
-  const extCols = r.wavelengthsNm.map((x) => col(`ext_${x}nm_Mm-1`))
+  const at = r.wavelengthsNm.indexOf(w)
+  const pair: [number, number] = [r.wavelengthsNm[Math.max(0, at - 1)], r.wavelengthsNm[Math.min(r.wavelengthsNm.length - 1, at + 1)]]
+  const iLo = col(`ext_${pair[0]}nm_Mm-1`)
+  const iHi = col(`ext_${pair[1]}nm_Mm-1`)
   const scaCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'scattering')
   const absCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'absorption')
   const nearest = scaCh.length > 0 ? scaCh.reduce((a, b) => (Math.abs(b.c.wavelengthNm - w) < Math.abs(a.c.wavelengthNm - w) ? b : a)) : undefined
@@ -53,8 +60,7 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
   const absVals = new Float64Array(absCh.length)
   const width = r.columns.length
   const nc = r.channels.length
-  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN }
-  const ext: number[] = new Array(extCols.length)
+  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN }
   const push = (t: number, row: number) => {
     out.x.push(t / 1000)
     out.row.push(row)
@@ -69,8 +75,7 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
     v.abs.push(finite(r.cells[c + iAbs]))
     v.ssa.push(finite(r.cells[c + iSsa]))
     v.g.push(finite(r.cells[c + iG]))
-    for (let j = 0; j < extCols.length; j++) ext[j] = r.cells[c + extCols[j]]
-    v.angstrom.push(finite(angstromFitOf(r.wavelengthsNm, ext)))
+    v.angstrom.push(finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1])))
     v.number.push(finite(r.cells[c + iN]))
     v.mass.push(finite(r.cells[c + iM]))
     const sm = nearest ? r.measured[row * nc + nearest.i] : NaN

@@ -13,7 +13,7 @@ import { InputError } from '../errors.ts'
 import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinLayout } from '../optics/binKernels.ts'
 import { OpticsWorkspace } from '../optics/integrate.ts'
 import type { Sample, Study } from '../study/model.ts'
-import { isSizerKind, type CampaignSettings } from './campaign-settings.ts'
+import { campaignProblems, isSizerKind, type CampaignSettings } from './campaign-settings.ts'
 import { readCampaignInstrument, readCampaignSizer, type CampaignFileSummary, type CampaignInput, type ReadInstrument, type ReadSizer } from './campaign-read.ts'
 import { planMerge, mergeStep, type SizerInput } from './merge.ts'
 import { mergedMidpointsNm } from './output.ts'
@@ -172,6 +172,9 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
   const progress = options.onProgress ?? (() => {})
   const sample = study.samples.find((s) => s.name === settings.sample)
   if (!sample) throw new InputError('campaign.sample', `no sample is named "${settings.sample}"`, 'Choose the sample whose composition and humidity the record takes.')
+  // what the merge needs, for the files given (the settings' own file list may lag behind)
+  const problem = campaignProblems({ ...settings, files: inputs.map((i) => ({ kind: i.kind, path: i.name })) }, [sample.name])[0]
+  if (problem) throw new InputError(problem.path, problem.message, problem.fix)
   const sizers: ReadSizer[] = []
   const instruments: ReadInstrument[] = []
   const files: CampaignFileSummary[] = []

@@ -438,11 +438,13 @@ function crossChecks(doc: unknown, problems: StudyProblem[], warnings: string[])
     wavelengthsNm: Array.isArray(doc.wavelengths_nm) ? doc.wavelengths_nm.filter((w): w is number => isNum(w) && w >= wlLo && w <= wlHi) : []
   }
 
-  // The campaign: one file per kind, what the merge needs, a sample that exists.
+  // The campaign: one file per kind, what the merge needs, a sample that exists. A campaign being set up is
+  // not a broken study: these are warnings (the study opens and saves), and the record is not made until they
+  // are settled (buildCampaignRecord refuses it with the same words).
   const campaign = campaignSettingsSchema.safeParse(doc.campaign)
   if (doc.campaign !== undefined && campaign.success) {
     const names = Array.isArray(doc.samples) ? doc.samples.filter(isObject).map((x) => x.name).filter((n): n is string => typeof n === 'string') : []
-    problems.push(...campaignProblems(campaign.data as CampaignSettings, names))
+    for (const p of campaignProblems(campaign.data as CampaignSettings, names)) warnings.push(`${p.path}: ${p.message}; ${p.fix}`)
   }
 
   // Wavelengths ascending.

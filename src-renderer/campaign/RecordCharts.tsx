@@ -52,7 +52,7 @@ function panels(r: CampaignRecord, s: RecordSeries): Panel[] {
   }
   out.push(
     { name: 'record-ssa-g', title: `ω and g at ${w} nm`, yLabel: 'no unit', lines: [{ key: 'ssa', label: 'ω', style: 0 }, { key: 'g', label: 'g', style: 1 }], height: 140 },
-    { name: 'record-angstrom', title: `Ångström exponent of extinction (${r.wavelengthsNm[0]}–${r.wavelengthsNm[r.wavelengthsNm.length - 1]} nm fit)`, yLabel: 'å', lines: [{ key: 'angstrom', label: 'å ext', style: 0 }], height: 130 },
+    { name: 'record-angstrom', title: `Ångström exponent of extinction at ${w} nm (${s.angstromPairNm[0]}–${s.angstromPairNm[1]} nm)`, yLabel: 'å', lines: [{ key: 'angstrom', label: 'å ext', style: 0 }], height: 130 },
     { name: 'record-number-mass', title: 'Dry number and mass', yLabel: 'cm⁻³', y2Label: 'µg m⁻³', lines: [{ key: 'number', label: 'number (cm⁻³)', style: 0 }, { key: 'mass', label: 'mass (µg m⁻³)', style: 1, axis: 1 }], height: 150 }
   )
   return out
@@ -66,6 +66,25 @@ const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
 
 /** UTC time labels: the record's clock (a naive clock is shown as written). */
 const tzDate = (ts: number) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC')
+
+/** Tick marks of a log diameter axis: 1, 2 and 5 in each decade inside [lo, hi] (uPlot's own log splits can loop on short ranges). */
+function decadeTicks(lo: number, hi: number): number[] {
+  const out: number[] = []
+  for (let d = Math.floor(Math.log10(lo)); d <= Math.ceil(Math.log10(hi)); d++) for (const m of [1, 2, 5]) {
+    const v = m * 10 ** d
+    if (v >= lo && v <= hi) out.push(Number(v.toPrecision(3)))
+  }
+  return out
+}
+
+/** Time ticks in UTC: "HH:MM", with the ISO date under the first tick and under each midnight. */
+function timeLabels(_u: uPlot, splits: number[]): string[] {
+  return splits.map((s, i) => {
+    const t = new Date(Math.round(s * 1000)).toISOString()
+    const hm = t.slice(11, 16)
+    return i === 0 || hm === '00:00' ? `${hm}\n${t.slice(0, 10)}` : hm
+  })
+}
 
 const iso = (sec: number) => new Date(Math.round(sec * 1000)).toISOString().slice(0, 19) + 'Z'
 
@@ -117,6 +136,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       grid: { stroke: grid, width: 1, show: side !== 1 },
       ticks: { stroke: grid, width: 1 },
       size: 56,
+      space: 24,
       labelSize: 16
     })
     for (const p of list) {
@@ -134,8 +154,10 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       const holder = document.createElement('div')
       fig.append(holder)
       el.append(fig)
-      const data: (number | null)[][] = [series.x, ...(p.map ? [series.x.map(() => null)] : p.lines.map((l) => series.values[l.key]))]
       const e = record.edgesUm
+      // the map's one series only spans the diameter axis (its first two points at the ends, drawn in no colour)
+      const span = series.x.map((_, i): number | null => (i === 0 ? e[0] : i === 1 ? e[e.length - 1] : null))
+      const data: (number | null)[][] = [series.x, ...(p.map ? [span] : p.lines.map((l) => series.values[l.key]))]
       const opts: uPlot.Options = {
         width,
         height: p.height,
@@ -143,12 +165,17 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         pxAlign: 0,
         scales: {
           x: { time: true, range: (u, lo, hi) => [lo ?? x0, hi ?? x1] },
-          y: p.map ? { distr: 3, log: 10, range: [e[0], e[e.length - 1]] } : p.yLog ? { distr: 3, log: 10 } : {},
+          y: p.map ? { distr: 3, log: 10, range: (): uPlot.Range.MinMax => [e[0], e[e.length - 1]] } : p.yLog ? { distr: 3, log: 10 } : {},
           ...(p.y2Label ? { y2: {} } : {})
         },
         legend: { show: !p.map, live: false },
         cursor: { sync: { key: 'motebench-record' }, drag: { x: true, y: false, setScale: false }, points: { show: false } },
-        axes: [axis(''), axis(p.yLabel), ...(p.y2Label ? [{ ...axis(p.y2Label, 1), scale: 'y2' }] : [])],
+        axes: [
+          { ...axis(''), values: timeLabels },
+          p.map ? { ...axis(p.yLabel), splits: () => decadeTicks(e[0], e[e.length - 1]), filter: (_u: uPlot, s: number[]) => s, values: (_u: uPlot, s: number[]) => s.map((v) => (v == null ? '' : String(Number(v.toPrecision(3))))) } : axis(p.yLabel),
+          // every chart keeps the same room on the right, so that the time axes line up
+          p.y2Label ? { ...axis(p.y2Label, 1), scale: 'y2' } : { scale: 'y', side: 1, size: 72, stroke: 'transparent', grid: { show: false }, ticks: { show: false }, splits: () => [], values: () => [] }
+        ],
         series: [
           { label: 'time' },
           ...(p.map
@@ -280,12 +307,9 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     <div class="record-charts">
       <div class="record-legend" data-testid="record-colour-legend">
         <span>dN/dlogD (cm⁻³), log scale:</span>
+        <span data-testid="record-colour-low">{decade(range[0])} or less</span>
         <span class="record-scale" style={{ background: `linear-gradient(to right, ${[0, 0.25, 0.5, 0.75, 1].map(colourCss).join(', ')})` }} />
-        <span class="record-scale-ticks">
-          {Array.from({ length: Math.floor(range[1]) - Math.ceil(range[0]) + 1 }, (_, i) => Math.ceil(range[0]) + i).map((e) => (
-            <span key={e}>10{sup(e)}</span>
-          ))}
-        </span>
+        <span data-testid="record-colour-high">{decade(range[1])}</span>
         <span class="muted">; no colour: no distribution (a gap)</span>
       </div>
       <div class="record-stack" ref={box} tabIndex={0} aria-label="Record charts: + and − zoom, ← → pan, Home shows the whole record; drag across to mark a stretch" data-testid="record-stack" />
@@ -309,6 +333,12 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
 
 /** Zoom the stack from outside (buttons, typed stretch). */
 export const zoomControls: { zoom: (fromMs: number, toMs: number) => void; whole: () => void; step: (key: string) => void } = { zoom: () => {}, whole: () => {}, step: () => {} }
+
+/** 10 to a power in half decades: 10³, 3.2×10³. */
+function decade(e: number): string {
+  const whole = Math.floor(e)
+  return e - whole > 0.25 ? `3.2×10${sup(whole)}` : `10${sup(whole)}`
+}
 
 const SUP = '⁰¹²³⁴⁵⁶⁷⁸⁹'
 function sup(e: number): string {

@@ -30,15 +30,19 @@ export const colourCss = (share: number): string => {
   return `rgb(${COLOUR_TABLE[i]},${COLOUR_TABLE[i + 1]},${COLOUR_TABLE[i + 2]})`
 }
 
-/** The colour scale's ends, log₁₀ dN/dlogD: the 1st and 99.5th percentiles of the positive values (a sample of them). */
+/**
+ * The colour scale's ends, log₁₀ dN/dlogD, in half decades: the 99.5th percentile of the positive values (a sample
+ * of them) at the top, and the 1st percentile but at most five decades below it at the bottom (lower values take
+ * the lowest colour), so that the tails of the bins do not flatten the map.
+ */
 export function colourRange(r: CampaignRecord): [number, number] {
   const v: number[] = []
   const step = Math.max(1, Math.floor(r.dNdlogD.length / 200_000))
   for (let i = 0; i < r.dNdlogD.length; i += step) if (r.dNdlogD[i] > 0) v.push(Math.log10(r.dNdlogD[i]))
   if (v.length === 0) return [0, 1]
   v.sort((a, b) => a - b)
-  const lo = v[Math.floor(0.01 * (v.length - 1))]
   const hi = v[Math.floor(0.995 * (v.length - 1))]
+  const lo = Math.max(v[Math.floor(0.01 * (v.length - 1))], hi - 5)
   return hi > lo ? [Math.floor(lo * 2) / 2, Math.ceil(hi * 2) / 2] : [lo - 1, lo + 1]
 }
 

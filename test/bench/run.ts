@@ -7,6 +7,7 @@ import { benchUncertaintyDemo } from './uncertainty.bench.ts'
 import { benchSeries } from './series.bench.ts'
 import { benchCliStart } from './cli-start.bench.ts'
 import { benchSizerRead } from './reader.bench.ts'
+import { benchCampaign } from './campaign.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
@@ -20,7 +21,8 @@ const cases: Record<string, () => void | Promise<void>> = {
   series: benchSeries,
   'cli-start': benchCliStart,
   'sizer-read': benchSizerRead,
-  'uncertainty-demo': benchUncertaintyDemo
+  'uncertainty-demo': benchUncertaintyDemo,
+  campaign: benchCampaign
 }
 
 const wanted = process.argv.slice(2)

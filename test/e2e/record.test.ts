@@ -69,7 +69,8 @@ describe('station record', { timeout: 180_000 }, () => {
       const row = ref.times.indexOf(x * 1000)
       if (row < 0) return expect(plotted.series[0].values[i]).toBeNull() // a break drawn in a gap
       if (!ref.present[row]) return expect(plotted.series[0].values[i]).toBeNull()
-      expect(plotted.series[0].values[i]).toBe(ref.cells[row * w + ext])
+      // the page's Math (Chromium) and this process's (Node) may differ in the last bits of the kernels
+      expect(plotted.series[0].values[i]! / ref.cells[row * w + ext]).toBeCloseTo(1, 12)
       compared++
     })
     expect(compared).toBe(838)
@@ -130,6 +131,9 @@ describe('station record', { timeout: 180_000 }, () => {
   test('a study whose files cannot be opened by their path names each with its old path and a way to point at it', async () => {
     const page = await openRecord()
     await addCampaign(page)
+    await page.getByTestId('record-density').fill('1.8')
+    await page.getByTestId('record-density').press('Enter')
+    await page.getByTestId('record-summary').waitFor({ timeout: 120_000 })
     const [download] = await Promise.all([page.waitForEvent('download'), page.keyboard.press('Control+s')])
     const text = await readFile((await download.path())!, 'utf8')
     // open the saved study in a fresh page: the web page cannot read files by path

@@ -49,16 +49,20 @@ describe('the campaign in the study document', () => {
     if (r.ok) expect(r.study.campaign).toEqual(c)
   })
 
-  it('says what is missing and how to fix it', () => {
-    const r = parseStudy(withCampaign({ ...settings({ files: [{ kind: 'aerodynamic', path: 'a.csv' }, { kind: 'aerodynamic', path: 'b.csv' }, { kind: 'optical', path: 'c.csv' }] }), density_g_cm3: undefined, sample: 'Nope' }))
-    expect(r.ok).toBe(false)
-    if (r.ok) return
-    const paths = r.problems.map((p) => p.path)
-    expect(paths).toContain('campaign.files[1].kind') // two aerodynamic files
-    expect(paths).toContain('campaign.density_g_cm3')
-    expect(paths).toContain('campaign.counter')
-    expect(paths).toContain('campaign.sample')
-    for (const p of r.problems) expect(p.fix.length).toBeGreaterThan(10)
+  it('says what a campaign being set up still needs, and how to fix it, without refusing the study', () => {
+    const c = { ...settings({ files: [{ kind: 'aerodynamic', path: 'a.csv' }, { kind: 'aerodynamic', path: 'b.csv' }, { kind: 'optical', path: 'c.csv' }] }), density_g_cm3: undefined, sample: 'Nope' }
+    const r = parseStudy(withCampaign(c))
+    expect(r.ok).toBe(true)
+    if (!r.ok) return
+    const w = r.warnings.join('\n')
+    expect(w).toMatch(/campaign.files\[1\].kind: a second aerodynamic sizer file/)
+    expect(w).toMatch(/campaign.density_g_cm3: an aerodynamic sizer needs the particle density.*; Give the particle density/)
+    expect(w).toMatch(/campaign.counter: /)
+    expect(w).toMatch(/campaign.sample: no sample is named "Nope"/)
+    // the record is not made until they are settled
+    const mob = input('mobility', 'valley-mobility.csv')
+    const aer = input('aerodynamic', 'valley-aerodynamic.csv')
+    expect(() => buildCampaignRecord([mob, aer], settings({ density_g_cm3: undefined }), study())).toThrow(/needs the particle density/)
     const bad = parseStudy(withCampaign(settings({ shape_factor: 0.5 })))
     expect(bad.ok).toBe(false)
     if (!bad.ok) expect(bad.problems[0].path).toBe('campaign.shape_factor')

@@ -1,0 +1,45 @@
+import { chromium } from 'playwright-core'
+const FILES = ['campaign-mobility.csv', 'campaign-aerodynamic.csv', 'campaign-nephelometer.csv', 'campaign-absorption.csv'].map((n) => '/work/wt/campaign/resources/field/' + n)
+const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox'] })
+const page = await browser.newPage({ viewport: { width: 1366, height: 768 } })
+page.on('pageerror', (e) => console.log('PAGEERROR', e.message, e.stack))
+page.on('console', (m) => m.type() === 'error' && console.log('CONSOLE', m.text()))
+page.setDefaultTimeout(120000)
+await page.goto('http://127.0.0.1:5391/')
+await page.getByTestId('cautions-ok').click()
+await page.locator('.sample-item[data-sample="Quarry dust event"] button.sample-name').click()
+await page.locator('#tab-record').click()
+const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByTestId('record-add-files').click()])
+await chooser.setFiles(FILES)
+await page.getByTestId('record-density').fill('1.8')
+await page.getByTestId('record-density').press('Enter')
+await page.getByTestId('record-summary').waitFor()
+await page.waitForTimeout(500)
+await page.getByTestId('record-from').fill('2026-07-15T13:00:00Z')
+await page.getByTestId('record-to').fill('2026-07-15T19:00:00Z')
+await page.getByTestId('record-mark').click()
+await page.evaluate(() => {
+  const panel = document.getElementById('result-panel')!
+  const el = document.querySelector('.record-stretch')!
+  panel.scrollTop += el.getBoundingClientRect().top - panel.getBoundingClientRect().top - 8
+})
+const box = (await page.locator('[data-chart="record-coefficients"] .u-over').boundingBox())!
+await page.mouse.move(box.x + box.width * 0.45, box.y + box.height / 2)
+await page.waitForTimeout(300)
+await page.screenshot({ path: '/tmp/campaign-shots/debug.png' })
+await page.evaluate(() => { const p = document.getElementById('result-panel')!; p.scrollTop += 700 })
+await page.waitForTimeout(200)
+await page.screenshot({ path: '/tmp/campaign-shots/debug2.png' })
+// drag to mark, wheel zoom
+const m = (await page.locator('[data-chart="record-ssa-g"] .u-over').boundingBox())!
+await page.mouse.move(m.x + m.width * 0.2, m.y + 20)
+await page.mouse.down()
+await page.mouse.move(m.x + m.width * 0.3, m.y + 20, { steps: 5 })
+await page.mouse.up()
+console.log('mark', await page.getByTestId('record-from').inputValue(), await page.getByTestId('record-to').inputValue())
+const t0 = Date.now()
+await page.mouse.wheel(0, -300)
+await page.waitForTimeout(200)
+console.log('wheel ok', Date.now() - t0)
+await page.screenshot({ path: '/tmp/campaign-shots/debug3.png' })
+await browser.close()
