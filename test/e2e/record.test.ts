@@ -78,6 +78,7 @@ describe('station record', { timeout: 180_000 }, () => {
     expect(await page.getByTestId('record-colour-legend').textContent()).toMatch(/log scale/)
 
     // hover read-out
+    await page.locator('[data-chart="record-coefficients"]').scrollIntoViewIfNeeded()
     const box = (await page.locator('[data-chart="record-coefficients"] .u-over').boundingBox())!
     await page.mouse.move(box.x + box.width * 0.3, box.y + box.height / 2)
     await expect.poll(() => page.getByTestId('record-readout').textContent()).toMatch(/σext 550 nm.*Mm⁻¹.*ω/)
