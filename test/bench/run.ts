@@ -8,6 +8,7 @@ import { benchSeries } from './series.bench.ts'
 import { benchCliStart } from './cli-start.bench.ts'
 import { benchSizerRead } from './reader.bench.ts'
 import { benchCampaign } from './campaign.bench.ts'
+import { benchUiCampaign } from './ui-campaign.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
@@ -22,7 +23,8 @@ const cases: Record<string, () => void | Promise<void>> = {
   'cli-start': benchCliStart,
   'sizer-read': benchSizerRead,
   'uncertainty-demo': benchUncertaintyDemo,
-  campaign: benchCampaign
+  campaign: benchCampaign,
+  'ui-campaign': benchUiCampaign
 }
 
 const wanted = process.argv.slice(2)
