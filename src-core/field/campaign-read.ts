@@ -7,9 +7,29 @@ import { InputError } from '../errors.ts'
 import { binsFromMeasurement, edgesFromMidpoints } from '../sizes/index.ts'
 import { CAMPAIGN_KIND_WORDS, isSizerKind, type CampaignFileKind } from './campaign-settings.ts'
 import { parseOpticalText, type OpticalHeader, type OpticalRecord } from './optical-file.ts'
-import { parseSizerText } from './reader.ts'
 import { formatDuration, parseTimeStamp, typicalInterval } from './timebase.ts'
-import type { SizerTable } from './types.ts'
+import { createSizerReader } from './reader.ts'
+import type { SizerHeader, SizerRejection } from './types.ts'
+
+/**
+ * The lines of a text one at a time, split as the file readers split them (\r\n, \n or a lone \r; no empty last
+ * line after a final break), without an array of every line.
+ */
+function eachLine(text: string, take: (line: string) => void): void {
+  let at = 0
+  const n = text.length
+  while (at < n) {
+    let end = at
+    while (end < n) {
+      const c = text.charCodeAt(end)
+      if (c === 10 || c === 13) break
+      end++
+    }
+    take(text.slice(at, end))
+    if (end < n && text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10) end++
+    at = end + 1
+  }
+}
 
 /** A file's text as the app or the CLI read it. */
 export interface CampaignInput {
@@ -54,11 +74,15 @@ export interface CampaignFileSummary {
 
 const MAX_LISTED = 20
 
-/** A sizer file read whole: its table and each kept row's time in ms. */
+/** A sizer file read whole: its header, and its kept rows packed (times, time texts, values row after row). */
 export interface ReadSizer {
   summary: CampaignFileSummary
-  table: SizerTable
-  /** Per record: ms, or NaN when its time is not an ISO 8601 stamp. */
+  table: SizerHeader
+  rows: number
+  bins: number
+  /** rows × bins, in the file's quantity. */
+  values: Float64Array
+  timeText: string[]
   timesMs: Float64Array
   zoned: boolean
   /** Native edges (µm) and the factor that turns a value into dN/dlog d (native diameter). */
@@ -83,47 +107,66 @@ function refused(kind: CampaignFileKind, name: string, e: InputError): CampaignF
 export function readCampaignSizer(input: CampaignInput, density?: number): ReadSizer | { summary: CampaignFileSummary } {
   const { kind, name, text } = input
   try {
-    const table = parseSizerText(text, { fileName: name })
-    const reasons: LeftOutRow[] = table.rejected.map((r) => ({ ...r }))
-    // rows whose time is not an ISO 8601 stamp, or whose zone form differs from the first's, are left out here
-    const keep: number[] = []
+    // rows whose time is not an ISO 8601 stamp, or whose zone form differs from the first's, are left out here;
+    // the kept rows' values are packed into one growing Float64Array (no array per row)
+    const reasons: LeftOutRow[] = []
     const times: number[] = []
+    const timeText: string[] = []
+    let values = new Float64Array(0)
+    let bins = 0
     let zoned: boolean | undefined
-    table.records.forEach((r, i) => {
-      const t = parseTimeStamp(r.time)
-      if (!t) return void reasons.push({ line: r.line, column: 1, reason: `"${r.time}" is not an ISO 8601 time stamp; the row is left out`, fix: 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05.' })
-      if (zoned !== undefined && t.zoned !== zoned) return void reasons.push({ line: r.line, column: 1, reason: `the time "${r.time}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first; the row is left out`, fix: 'Give every time stamp of the file the same form.' })
-      zoned = t.zoned
-      keep.push(i)
-      times.push(t.ms)
+    let lastLine = 0
+    let extra = 0
+    const reader = createSizerReader({
+      fileName: name,
+      reuseBuffer: true,
+      maxKeptRejections: Infinity,
+      onRecord: (r) => {
+        const t = parseTimeStamp(r.time)
+        if (!t) return void (extra++, reasons.push({ line: r.line, column: 1, reason: `"${r.time}" is not an ISO 8601 time stamp; the row is left out`, fix: 'Write times as 2026-06-01T10:05:00Z or 2026-06-01 10:05.' }))
+        if (zoned !== undefined && t.zoned !== zoned) return void (extra++, reasons.push({ line: r.line, column: 1, reason: `the time "${r.time}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first; the row is left out`, fix: 'Give every time stamp of the file the same form.' }))
+        if (times.length > 0 && !(t.ms > times[times.length - 1])) throw new InputError(`${name} line ${r.line} column 1`, `the time ${r.time} does not follow the row before it (line ${lastLine})`, 'Sort the rows by time and remove repeated times.')
+        zoned = t.zoned
+        bins = r.values.length
+        const k = times.length
+        if ((k + 1) * bins > values.length) {
+          const grown = new Float64Array(Math.max(1024 * bins, 2 * values.length))
+          grown.set(values)
+          values = grown
+        }
+        for (let j = 0; j < bins; j++) values[k * bins + j] = r.values[j]
+        times.push(t.ms)
+        timeText.push(r.time)
+        lastLine = r.line
+      }
     })
-    if (keep.length === 0) throw new InputError(name, 'no row with an ISO 8601 time and a full set of values was read', 'Give one row per time: the time (e.g. 2026-06-01T10:05:00Z), then one value per bin.')
-    for (let i = 1; i < times.length; i++) {
-      if (!(times[i] > times[i - 1])) throw new InputError(`${name} line ${table.records[keep[i]].line} column 1`, `the time ${table.records[keep[i]].time} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
-    }
-    const records = keep.map((i) => table.records[i])
+    eachLine(text, (line) => reader.push(line))
+    const end = reader.end()
+    reasons.push(...end.rejected.map((r: SizerRejection) => ({ ...r })))
+    if (times.length === 0) throw new InputError(name, 'no row with an ISO 8601 time and a full set of values was read', 'Give one row per time: the time (e.g. 2026-06-01T10:05:00Z), then one value per bin.')
+    const { recordCount: _n, rejected: _r, rejectedCount: _c, firstTime: _f, lastTime: _l, ...table } = end
     const unit = table.diameterUnit === 'nm' ? 'nm' : 'µm'
     const edgesNative = table.edges ? Float64Array.from(table.diameters) : edgesFromMidpoints(table.diameters, unit)
-    const bins = binsFromMeasurement({ diameters: edgesNative, diameterKind: 'edges', diameterUnit: table.diameterUnit, quantity: table.quantity, values: new Array(edgesNative.length - 1).fill(1), density })
+    const binsOf = binsFromMeasurement({ diameters: edgesNative, diameterKind: 'edges', diameterUnit: table.diameterUnit, quantity: table.quantity, values: new Array(edgesNative.length - 1).fill(1), density })
     reasons.sort((a, b) => a.line - b.line)
-    const leftOut = table.rowsLeftOut + (table.records.length - records.length)
+    const leftOut = table.rowsLeftOut + extra
     const interval = typicalInterval(times)
     const summary: CampaignFileSummary = {
       kind,
       name,
       ok: true,
-      rows: records.length,
+      rows: times.length,
       bins: edgesNative.length - 1,
       channels: [],
-      firstTime: records[0].time,
-      lastTime: records[records.length - 1].time,
+      firstTime: timeText[0],
+      lastTime: timeText[timeText.length - 1],
       interval: interval !== undefined ? formatDuration(Math.round(interval)) : '',
       ignoredColumns: table.ignoredColumns.map((c) => c.name),
       leftOut,
       reasons: reasons.slice(0, MAX_LISTED),
       notes: [...table.notes, `${CAMPAIGN_KIND_WORDS[kind]}: ${table.diameters.length - (table.edges ? 1 : 0)} bins in ${table.quantity}, diameters in ${table.diameterUnit} (${table.unitSource})`]
     }
-    return { summary, table: { ...table, records }, timesMs: Float64Array.from(times), zoned: zoned!, edgesUm: bins.edges, factor: bins.dNdlogD }
+    return { summary, table, rows: times.length, bins, values: values.subarray(0, times.length * bins), timeText, timesMs: Float64Array.from(times), zoned: zoned!, edgesUm: binsOf.edges, factor: binsOf.dNdlogD }
   } catch (e) {
     if (e instanceof InputError) return { summary: refused(kind, name, e) }
     throw e

@@ -104,11 +104,11 @@ function mergedRows(sizers: ReadSizer[], settings: CampaignSettings): Rows {
   const buf = sizers.map((s) => new Float64Array(s.factor.length))
   const averagers = sizers.map((s, i) => {
     const a = new TimeAverager(base, s.factor.length)
-    s.table.records.forEach((r, k) => {
-      const b = buf[i]
-      for (let j = 0; j < b.length; j++) b[j] = r.values[j] * s.factor[j]
+    const b = buf[i]
+    for (let k = 0; k < s.rows; k++) {
+      for (let j = 0; j < b.length; j++) b[j] = s.values[k * s.bins + j] * s.factor[j]
       a.add(s.timesMs[k], b)
-    })
+    }
     return a
   })
   const means = averagers.map((a) => a.means())
@@ -150,16 +150,13 @@ function mergedRows(sizers: ReadSizer[], settings: CampaignSettings): Rows {
 /** One sizer (or a merged file) row by row, as `series` reads it. */
 function singleRows(s: ReadSizer): Rows {
   const t = s.table
-  const bins = t.edges ? t.diameters.length - 1 : t.diameters.length
-  const values = new Float64Array(t.records.length * bins)
-  t.records.forEach((r, k) => values.set(r.values, k * bins))
   return {
     timesMs: Array.from(s.timesMs),
-    timeText: t.records.map((r) => r.time),
-    present: t.records.map(() => true),
+    timeText: s.timeText,
+    present: s.timeText.map(() => true),
     gaps: new Map(),
     layout: { diameters: t.diameters.slice(), diameter_unit: t.diameterUnit, edges: t.edges, quantity: t.quantity },
-    values
+    values: s.values
   }
 }
 
