@@ -9,6 +9,7 @@ import { recordSeries, type CampaignRecord, type RecordSeries, type RecordSeries
 import { lineStyle, type Theme } from '../charts/palette.ts'
 import { num } from '../format.ts'
 import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
+import { decimate, type Shown } from './decimate.ts'
 import { campaignStore, setMark, setVisible } from './session.ts'
 
 interface PanelLine {
@@ -113,7 +114,15 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     const grid = cssVar('--grid', el)
     const markFill = theme === 'light' ? 'rgba(0, 96, 160, 0.16)' : 'rgba(86, 180, 233, 0.22)'
     const plots: uPlot[] = []
-    let syncing = false
+    const keys = [...new Set(list.flatMap((p) => p.lines.map((l) => l.key)))]
+    const buckets = Math.max(100, Math.round(width))
+    let shown: Shown = decimate(series, keys, x0Of(series), Infinity, buckets)
+    const dataFor = (p: Panel, d: Shown): (number | null)[][] => {
+      const e = record.edgesUm
+      // the map's one series only spans the diameter axis (its first two points at the ends, drawn in no colour)
+      const span = d.x.map((_, i): number | null => (i === 0 ? e[0] : i === 1 ? e[e.length - 1] : null))
+      return [d.x, ...(p.map ? [span] : p.lines.map((l) => d.values[l.key]!))]
+    }
     const x0 = series.x[0]
     const x1 = series.x[series.x.length - 1] + record.intervalMs / 1000
     const bandOf = (u: uPlot) => {
@@ -155,9 +164,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       fig.append(holder)
       el.append(fig)
       const e = record.edgesUm
-      // the map's one series only spans the diameter axis (its first two points at the ends, drawn in no colour)
-      const span = series.x.map((_, i): number | null => (i === 0 ? e[0] : i === 1 ? e[e.length - 1] : null))
-      const data: (number | null)[][] = [series.x, ...(p.map ? [span] : p.lines.map((l) => series.values[l.key]))]
+      const data = dataFor(p, shown)
       const opts: uPlot.Options = {
         width,
         height: p.height,
@@ -171,7 +178,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         legend: { show: !p.map, live: false },
         cursor: { sync: { key: 'motebench-record' }, drag: { x: true, y: false, setScale: false }, points: { show: false } },
         axes: [
-          { ...axis(''), values: timeLabels },
+          { ...axis(''), space: 70, values: timeLabels },
           p.map ? { ...axis(p.yLabel), splits: () => decadeTicks(e[0], e[e.length - 1]), filter: (_u: uPlot, s: number[]) => s, values: (_u: uPlot, s: number[]) => s.map((v) => (v == null ? '' : String(Number(v.toPrecision(3))))) } : axis(p.yLabel),
           // every chart keeps the same room on the right, so that the time axes line up
           p.y2Label ? { ...axis(p.y2Label, 1), scale: 'y2' } : { scale: 'y', side: 1, size: 72, stroke: 'transparent', grid: { show: false }, ticks: { show: false }, splits: () => [], values: () => [] }
@@ -198,22 +205,11 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
               for (const q of plots) q.redraw(false)
             }
           ],
-          setScale: [
-            (u, key) => {
-              if (key !== 'x' || syncing) return
-              const { min, max } = u.scales.x
-              if (min === undefined || max === undefined) return
-              syncing = true
-              for (const q of plots) if (q !== u) q.setScale('x', { min, max })
-              syncing = false
-              setVisible([min * 1000, max * 1000])
-            }
-          ],
           setCursor: [
             (u) => {
               if (u !== plots[0]) return
               const i = u.cursor.idx
-              setHover(i === null || i === undefined ? null : i)
+              setHover(i === null || i === undefined ? null : rowNear(record, shown.x[i]))
             }
           ]
         }
@@ -225,8 +221,19 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     }
     shownPlots.plots = plots
     shownPlots.titles = list.map((p) => p.title)
+    /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
+    const show = (lo: number, hi: number) => {
+      shown = decimate(series, keys, lo, hi, buckets)
+      plots.forEach((q, i) => {
+        q.batch(() => {
+          q.setData(dataFor(list[i], shown) as uPlot.AlignedData, false)
+          q.setScale('x', { min: lo, max: hi })
+        })
+      })
+      setVisible([lo * 1000, hi * 1000])
+    }
     const vis = campaignStore().get().visible
-    if (vis) for (const q of plots) q.setScale('x', { min: vis[0] / 1000, max: vis[1] / 1000 })
+    if (vis) show(vis[0] / 1000, vis[1] / 1000)
 
     // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
     const onWheel = (ev: WheelEvent) => {
@@ -251,7 +258,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       let lo = Math.max(x0, a)
       let hi = lo + span
       if (hi > x1) (hi = x1), (lo = x1 - span)
-      plots[0]?.setScale('x', { min: lo, max: hi })
+      show(lo, hi)
     }
     const onKey = (ev: KeyboardEvent) => {
       const u = plots[0]
@@ -301,8 +308,8 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     }
   }, [record, theme, list, series, range])
 
-  const row = hover !== null ? series.row[hover] : -1
-  const readout = row >= 0 ? readoutOf(record, series, hover!, row) : null
+  const row = hover ?? -1
+  const readout = row >= 0 ? readoutOf(record, series, indexOfRow(series, row), row) : null
   return (
     <div class="record-charts">
       <div class="record-legend" data-testid="record-colour-legend">
@@ -329,6 +336,35 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       </div>
     </div>
   )
+}
+
+const x0Of = (s: RecordSeries) => s.x[0] ?? 0
+
+/** The record row nearest time x (s), or −1. */
+function rowNear(r: CampaignRecord, x: number | undefined): number {
+  if (x === undefined || r.times.length === 0) return -1
+  const t = x * 1000
+  let lo = 0
+  let hi = r.times.length - 1
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1
+    if (r.times[mid] <= t) lo = mid
+    else hi = mid - 1
+  }
+  return lo + 1 < r.times.length && r.times[lo + 1] - t < t - r.times[lo] ? lo + 1 : lo
+}
+
+/** The index of a record row in the charts' full series (rows are in order; breaks come between them). */
+function indexOfRow(s: RecordSeries, row: number): number {
+  let lo = 0
+  let hi = s.row.length - 1
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1
+    const r = s.row[mid] < 0 ? s.row[mid + 1] ?? Infinity : s.row[mid]
+    if (r < row) lo = mid + 1
+    else hi = mid
+  }
+  return s.row[lo] === row ? lo : s.row.indexOf(row)
 }
 
 /** Zoom the stack from outside (buttons, typed stretch). */

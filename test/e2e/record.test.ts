@@ -121,6 +121,12 @@ describe('station record', { timeout: 180_000 }, () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('record-csv').click()])
     const text = await readFile((await download.path())!, 'utf8')
     expect(text).toBe(recordCsv(expected()))
+    // the charts as one PNG picture
+    const [png] = await Promise.all([page.waitForEvent('download'), page.getByTestId('record-png').click()])
+    expect(png.suggestedFilename()).toMatch(/-record\.png$/)
+    const bytes = await readFile((await png.path())!)
+    expect(bytes.subarray(1, 4).toString('latin1')).toBe('PNG')
+    expect(bytes.readUInt32BE(20)).toBeGreaterThan(bytes.readUInt32BE(16)) // taller than wide: the stacked charts
     // the mobility sizer's outage: no distribution, no sample
     await page.getByTestId('record-from').fill('2026-07-15T06:10:00Z')
     await page.getByTestId('record-to').fill('2026-07-15T07:00:00Z')
