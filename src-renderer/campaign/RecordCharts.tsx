@@ -222,6 +222,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     shownPlots.plots = plots
     shownPlots.titles = list.map((p) => p.title)
     /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
+    let visibleTimer: ReturnType<typeof setTimeout> | undefined
     const show = (lo: number, hi: number) => {
       shown = decimate(series, keys, lo, hi, buckets)
       plots.forEach((q, i) => {
@@ -230,7 +231,9 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
           q.setScale('x', { min: lo, max: hi })
         })
       })
-      setVisible([lo * 1000, hi * 1000])
+      // the visible range is for the CSV button: said after the zoom settles, so the page does not re-render in the redraw's frame
+      clearTimeout(visibleTimer)
+      visibleTimer = setTimeout(() => setVisible([lo * 1000, hi * 1000]), 250)
     }
     const vis = campaignStore().get().visible
     if (vis) show(vis[0] / 1000, vis[1] / 1000)
@@ -300,6 +303,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     ro.observe(el)
     return () => {
       unsub()
+      clearTimeout(visibleTimer)
       ro.disconnect()
       el.removeEventListener('wheel', onWheel)
       el.removeEventListener('keydown', onKey)

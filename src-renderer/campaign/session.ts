@@ -223,7 +223,7 @@ async function start(force: boolean): Promise<void> {
   const { texts } = session.get()
   const inputs = c.files.filter((f) => texts[f.path]).map((f) => ({ kind: f.kind, name: texts[f.path].name, text: texts[f.path].text }))
   const sample = study.samples.find((x) => x.name === c.sample)
-  const key = JSON.stringify([c, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => textFingerprint(i.text))])
+  const key = JSON.stringify([c, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
   if (key === lastKey && !force) return
   lastKey = key
   if (!inputs.some((i) => isSizerKind(i.kind))) {
