@@ -231,3 +231,15 @@ describe('the record as CSV against motebench series', () => {
     expect(table(ours)).toEqual(table(theirs))
   }, 120_000)
 })
+
+describe('the fingerprint kept with a file reference', () => {
+  it('notices a file that grew, was cut or had its head or tail changed', async () => {
+    const { textFingerprint } = await import('../../src-core/index.ts')
+    const text = readFileSync(demoPath('valley-aerodynamic.csv'), 'utf8')
+    const f = textFingerprint(text)
+    expect(textFingerprint(text)).toBe(f)
+    expect(textFingerprint(text + '2026-06-01T14:00:45Z,1\n')).not.toBe(f)
+    expect(textFingerprint(text.slice(0, -40))).not.toBe(f)
+    expect(textFingerprint('X' + text.slice(1))).not.toBe(f)
+  })
+})
