@@ -10,6 +10,7 @@ import type { Page } from 'playwright-core'
 import { describe, expect, test } from 'vitest'
 import { buildCampaignRecord, demoStudy, recordCsv, stretchSample, type CampaignInput } from '../../src-core/index.ts'
 import { appSession, isLocal, ROOT } from './harness.ts'
+import { findClipped } from './clipping.ts'
 
 const session = appSession()
 const FILES = ['campaign-mobility.csv', 'campaign-aerodynamic.csv', 'campaign-nephelometer.csv', 'campaign-absorption.csv']
@@ -118,6 +119,8 @@ describe('station record', { timeout: 180_000 }, () => {
     await page.getByTestId('record-density').fill('1.8')
     await page.getByTestId('record-density').press('Enter')
     await page.getByTestId('record-summary').waitFor({ timeout: 120_000 })
+    // at 1366 × 768 nothing of the view is cut off (test/e2e/clipping.ts)
+    expect(await findClipped(page)).toEqual([])
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('record-csv').click()])
     const text = await readFile((await download.path())!, 'utf8')
     expect(text).toBe(recordCsv(expected()))
