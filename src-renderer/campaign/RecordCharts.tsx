@@ -68,10 +68,14 @@ const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
 /** UTC time labels: the record's clock (a naive clock is shown as written). */
 const tzDate = (ts: number) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC')
 
-/** Tick marks of a log diameter axis: 1, 2 and 5 in each decade inside [lo, hi] (uPlot's own log splits can loop on short ranges). */
+/**
+ * Tick marks of a log diameter axis inside [lo, hi]: each decade, with 2 and 5 too over two decades or less
+ * (uPlot's own log splits can loop on short ranges).
+ */
 function decadeTicks(lo: number, hi: number): number[] {
   const out: number[] = []
-  for (let d = Math.floor(Math.log10(lo)); d <= Math.ceil(Math.log10(hi)); d++) for (const m of [1, 2, 5]) {
+  const steps = Math.log10(hi / lo) > 2 ? [1] : [1, 2, 5]
+  for (let d = Math.floor(Math.log10(lo)); d <= Math.ceil(Math.log10(hi)); d++) for (const m of steps) {
     const v = m * 10 ** d
     if (v >= lo && v <= hi) out.push(Number(v.toPrecision(3)))
   }
