@@ -67,6 +67,13 @@ export interface Host {
   saveStudy(req: { text: string; path?: string; suggestedName: string; saveAs: boolean }): Promise<{ name: string; path?: string } | null>
   /** Asks for a sizer export (CSV/TSV/text). */
   openSizerFile(): Promise<OpenedFile | null>
+  /** Asks for one or more instrument files of a campaign (sizers, nephelometer, absorption photometer). */
+  openInstrumentFiles(): Promise<OpenedFile[] | null>
+  /**
+   * Reads an instrument file a study refers to, by its absolute path (desktop); `missing` says why it could not
+   * be read (moved, renamed, or a web page, which cannot open a file by its path).
+   */
+  readInstrumentFile(path: string): Promise<OpenedFile | { missing: string }>
   /** Writes an export (text, or bytes as base64) where the user says; resolves to false if cancelled. */
   exportFile(req: { suggestedName: string; kind: ExportKind; text?: string; base64?: string }): Promise<boolean>
   /** Prints the page that is showing (the report): desktop writes a PDF, the browser opens its print dialog. */
@@ -91,6 +98,8 @@ export const CHANNELS = {
   openStudy: 'motebench:open-study',
   saveStudy: 'motebench:save-study',
   openSizer: 'motebench:open-sizer',
+  openInstruments: 'motebench:open-instruments',
+  readInstrument: 'motebench:read-instrument',
   exportFile: 'motebench:export-file',
   printReport: 'motebench:print-report',
   keepRecovery: 'motebench:keep-recovery',

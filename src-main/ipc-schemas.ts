@@ -83,6 +83,8 @@ export const CHANNEL_SCHEMAS = {
   openStudy: noArguments,
   saveStudy: saveStudyRequest,
   openSizer: noArguments,
+  openInstruments: noArguments,
+  readInstrument: absolutePath,
   exportFile: exportFileRequest,
   printReport: printReportRequest,
   keepRecovery: keepRecoveryRequest,

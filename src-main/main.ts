@@ -17,6 +17,7 @@ import { windowIconPath, windowOptions, windowTitle } from './window-options.ts'
 import { WindowRegistry, type WindowRecord } from './window-registry.ts'
 
 const STUDY_FILTERS = [FILE_FILTERS.study, { name: 'JSON', extensions: ['json'] }, { name: 'All files', extensions: ['*'] }]
+const instrumentFileName = (path: string): boolean => /\.(csv|tsv|txt|dat)$/i.test(path)
 const SIZER_FILTERS = [{ name: 'Sizer export', extensions: ['csv', 'tsv', 'txt', 'dat'] }, { name: 'All files', extensions: ['*'] }]
 
 const page = appPage(process.env['ELECTRON_RENDERER_URL'], join(import.meta.dirname, '../renderer/index.html'))
@@ -192,6 +193,30 @@ function registerIpc(): void {
     } catch (err) {
       dialog.showErrorBox('Could not import the sizer file', messageOf(err))
       return null
+    }
+  })
+
+  handle('openInstruments', async (e) => {
+    const r = await dialog.showOpenDialog(windowOf(e), { title: 'Add instrument files to the campaign', properties: ['openFile', 'multiSelections'], filters: SIZER_FILTERS })
+    if (r.canceled || r.filePaths.length === 0) return null
+    const files = []
+    for (const path of r.filePaths) {
+      try {
+        files.push((await readChosenFile(path)).file)
+      } catch (err) {
+        dialog.showErrorBox('Could not read the instrument file', messageOf(err))
+      }
+    }
+    return files
+  })
+
+  // Only table files (the kinds the open dialog offers), so a page cannot use it to read other files.
+  handle('readInstrument', async (_e, path) => {
+    if (!instrumentFileName(path)) return { missing: `${path} is not a table file (.csv, .tsv, .txt or .dat)` }
+    try {
+      return (await readChosenFile(path)).file
+    } catch (err) {
+      return { missing: messageOf(err) }
     }
   })
 

@@ -2,6 +2,7 @@
 import { useEffect, useState } from 'preact/hooks'
 import { onPendingSizer, openText, readSizer, run, type PendingSizer } from './commands.ts'
 import { host } from './host/index.ts'
+import { addFiles } from './campaign/session.ts'
 import { showView } from './state/actions.ts'
 import { store, useApp } from './state/store.ts'
 import { CatalogueDialog } from './views/Catalogue.tsx'
@@ -20,7 +21,7 @@ const inTextField = (t: EventTarget | null) => t instanceof HTMLElement && (t.ta
 /** Keyboard shortcuts. On the desktop the menu's accelerators send the file commands instead. */
 function onKey(e: KeyboardEvent): void {
   const mod = e.ctrlKey || e.metaKey
-  if (e.altKey && !mod && /^[1-8]$/.test(e.key)) {
+  if (e.altKey && !mod && /^[1-9]$/.test(e.key)) {
     e.preventDefault()
     showView(VIEWS[Number(e.key) - 1].id)
     return
@@ -71,7 +72,13 @@ export function App() {
   const onDrop = (e: DragEvent) => {
     e.preventDefault()
     setDragging(false)
-    const f = e.dataTransfer?.files[0]
+    const all = [...(e.dataTransfer?.files ?? [])]
+    if (store().get().view === 'record') {
+      // on the station record, every dropped file joins the campaign
+      void Promise.all(all.map(async (x) => ({ name: x.name, text: await x.text() }))).then(addFiles)
+      return
+    }
+    const f = all[0]
     if (!f) return
     void f.text().then((text) => {
       if (!/\.(mote|json)$/i.test(f.name)) readSizer({ name: f.name, text })
@@ -105,7 +112,7 @@ export function App() {
         <Results />
       </main>
       <Toast />
-      {dragging && <div class="drop-hint">Drop a sizer export to import its bins</div>}
+      {dragging && <div class="drop-hint">{s.view === 'record' ? 'Drop instrument files to add them to the campaign' : 'Drop a sizer export to import its bins'}</div>}
       {pending && <SizerDialog pending={pending} onClose={() => setPending(null)} />}
       {s.cautionsOpen && <CautionsDialog />}
       <CatalogueDialog />

@@ -5,6 +5,7 @@ import { App } from './App.tsx'
 import { FIRST_START_KEY } from './cautions.ts'
 import { keepHostInformed, openText } from './commands.ts'
 import { startComputing } from './compute/client.ts'
+import { watchCampaign } from './campaign/session.ts'
 import { host } from './host/index.ts'
 import { keepRecoveryCopy, offerRecovery } from './recovery.ts'
 import { blankStudy, load } from './state/actions.ts'
@@ -62,6 +63,7 @@ async function start(): Promise<void> {
   keepHostInformed()
   keepRecoveryCopy()
   startComputing()
+  watchCampaign()
   render(<App />, document.getElementById('app') as HTMLElement)
 }
 

@@ -91,3 +91,37 @@ export {
   RowComparer
 } from './optical.ts'
 export { type RatioSummary, percentileSorted, RatioCollector, comparisonNotes } from './optical-summary.ts'
+export {
+  type CampaignFileKind,
+  type CampaignFileRef,
+  type CampaignSettings,
+  type CampaignProblem,
+  CAMPAIGN_FILE_KINDS,
+  CAMPAIGN_KIND_WORDS,
+  isSizerKind,
+  campaignSettingsSchema,
+  campaignProblems,
+  folderOf,
+  relativeFilePath,
+  resolveFilePath,
+  textFingerprint
+} from './campaign-settings.ts'
+export {
+  type CampaignInput,
+  type CampaignFileSummary,
+  type LeftOutRow,
+  readCampaignSizer,
+  readCampaignInstrument
+} from './campaign-read.ts'
+export { type CampaignRecord, type CampaignBuild, figureColumns, buildCampaignRecord } from './campaign.ts'
+export {
+  RECORD_SERIES,
+  type RecordSeriesName,
+  type RecordSeries,
+  type StretchSample,
+  recordSeries,
+  rowsIn,
+  stretchSample,
+  recordCell,
+  recordCsv
+} from './campaign-use.ts'

@@ -4,6 +4,8 @@
  * and the app. Units are in the field names.
  */
 
+import type { CampaignSettings } from '../field/campaign-settings.ts'
+
 export const STUDY_FORMAT = 'motebench-study'
 export const STUDY_VERSION = 2
 
@@ -28,6 +30,8 @@ export interface BinsSpec {
   source?: string
   /** When the values are the mean of several rows of a sizer time series: how many. */
   rows_averaged?: number
+  /** With `rows_averaged`: each bin's standard deviation over those rows (same quantity), kept for the uncertainty tools. */
+  spread?: number[]
 }
 
 /** One component of a particle, by volume fraction of the dry particle. */
@@ -123,4 +127,6 @@ export interface Study {
   verdict_margin_w_m2?: number
   /** Uncertainty settings, when a study has them (their shape is defined with the uncertainty tools). */
   uncertainty?: Record<string, unknown>
+  /** A station's instrument files and the parameters of their record (src-core/field/campaign-settings.ts). */
+  campaign?: CampaignSettings
 }

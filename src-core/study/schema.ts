@@ -16,7 +16,9 @@ import { LONGWAVE_INPUT_RANGES, SURFACE_TYPES, type LongwaveInputName } from '..
 import { findJsonSyntaxError, looksLikeDelimitedTable } from './jsonSyntax.ts'
 import { migrateStudy } from './migrate.ts'
 import { uncertaintySettingsSchema } from '../uncertainty/settings.ts'
+import { campaignProblems, campaignSettingsSchema } from '../field/campaign-settings.ts'
 import { STUDY_FORMAT, STUDY_VERSION, type Study } from './model.ts'
+import type { CampaignSettings } from '../field/campaign-settings.ts'
 
 /** One thing wrong with a study document. */
 export interface StudyProblem {
@@ -109,7 +111,8 @@ const bins = z.strictObject({
   quantity: z.enum(BIN_QUANTITIES),
   values: z.array(num((v) => v >= 0, (v) => `a bin value cannot be negative (it is ${fmt(v)})`, 'Check the instrument export; replace negative values (noise after inversion) by 0 or remove the bin.')).min(1),
   source: z.string().optional(),
-  rows_averaged: z.number().int().min(1).optional()
+  rows_averaged: z.number().int().min(1).optional(),
+  spread: z.array(num((v) => v >= 0, (v) => `a bin's spread cannot be negative (it is ${fmt(v)})`, 'The spread is a standard deviation over the averaged rows: 0 or more.')).optional()
 })
 
 const size = z.discriminatedUnion('kind', [z.strictObject({ kind: z.literal('modes'), modes: z.array(mode).min(1) }), z.strictObject({ kind: z.literal('bins'), bins })])
@@ -184,7 +187,8 @@ export const studySchema: z.ZodType<Study> = z.strictObject({
   user_materials: z.array(userMaterial).optional(),
   site,
   verdict_margin_w_m2: num((v) => v >= 0 && v <= 100, (v) => `the verdict margin must be from 0 to 100 W m⁻² (it is ${fmt(v)})`, 'Give the margin in W m⁻², e.g. 0.5.').optional(),
-  uncertainty: uncertaintySettingsSchema.optional()
+  uncertainty: uncertaintySettingsSchema.optional(),
+  campaign: campaignSettingsSchema.optional()
 })
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -417,6 +421,9 @@ function checkBins(b: unknown, at: string, ctx: CrossContext): void {
       })
     }
   }
+  if (Array.isArray(b.spread) && b.spread.length !== b.values.length) {
+    ctx.problems.push({ path: `${at}.spread`, message: `${b.spread.length} spreads for ${b.values.length} values`, fix: 'Give one spread (standard deviation over the averaged rows) per bin value, or leave "spread" out.' })
+  }
   if (typeof b.edges === 'boolean') {
     const expected = b.edges ? b.values.length + 1 : b.values.length
     if (d.length !== expected) {
@@ -440,6 +447,15 @@ function crossChecks(doc: unknown, problems: StudyProblem[], warnings: string[])
     materialIds: new Set(listMaterials().map((m) => m.id)),
     userIds,
     wavelengthsNm: Array.isArray(doc.wavelengths_nm) ? doc.wavelengths_nm.filter((w): w is number => isNum(w) && w >= wlLo && w <= wlHi) : []
+  }
+
+  // The campaign: one file per kind, what the merge needs, a sample that exists. A campaign being set up is
+  // not a broken study: these are warnings (the study opens and saves), and the record is not made until they
+  // are settled (buildCampaignRecord refuses it with the same words).
+  const campaign = campaignSettingsSchema.safeParse(doc.campaign)
+  if (doc.campaign !== undefined && campaign.success) {
+    const names = Array.isArray(doc.samples) ? doc.samples.filter(isObject).map((x) => x.name).filter((n): n is string => typeof n === 'string') : []
+    for (const p of campaignProblems(campaign.data as CampaignSettings, names)) warnings.push(`${p.path}: ${p.message}; ${p.fix}`)
   }
 
   // Wavelengths ascending.

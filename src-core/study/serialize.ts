@@ -58,7 +58,9 @@ const KEY_ORDER = [
   'rows',
   'source',
   'rows_averaged',
-  'uncertainty'
+  'spread',
+  'uncertainty',
+  'campaign'
 ]
 /** Longest line (with its indent) for an object written on one line. */
 const INLINE_WIDTH = 120

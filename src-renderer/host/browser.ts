@@ -29,6 +29,30 @@ function chooseFile(accept: string): Promise<OpenedFile | null> {
   })
 }
 
+/** The file chooser for several files; null when the user cancels. */
+function chooseFiles(accept: string): Promise<OpenedFile[] | null> {
+  return new Promise((resolve) => {
+    const input = document.createElement('input')
+    input.type = 'file'
+    input.accept = accept
+    input.multiple = true
+    input.style.display = 'none'
+    input.dataset['role'] = 'file-chooser'
+    document.body.append(input)
+    const done = (v: OpenedFile[] | null) => {
+      input.remove()
+      resolve(v)
+    }
+    input.addEventListener('cancel', () => done(null))
+    input.addEventListener('change', () => {
+      const list = [...(input.files ?? [])]
+      if (list.length === 0) return done(null)
+      void Promise.all(list.map(async (f) => ({ name: f.name, text: await f.text() }))).then(done)
+    })
+    input.click()
+  })
+}
+
 function download(name: string, blob: Blob): void {
   const url = URL.createObjectURL(blob)
   const a = document.createElement('a')
@@ -72,6 +96,10 @@ export function browserHost(): Host {
       return { name: req.suggestedName }
     },
     openSizerFile: () => chooseFile(ACCEPT.sizer),
+    openInstrumentFiles: () => chooseFiles(ACCEPT.sizer),
+    async readInstrumentFile(path) {
+      return { missing: `a web page cannot open ${path} by its path` }
+    },
     async exportFile(req) {
       const data = req.base64 !== undefined ? fromBase64(req.base64) : (req.text ?? '')
       download(req.suggestedName, new Blob([data], { type: MIME[req.kind] }))

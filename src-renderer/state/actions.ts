@@ -100,7 +100,7 @@ export function blankStudy(): Study {
   }
 }
 
-function uniqueName(base: string, study: Study): string {
+export function uniqueName(base: string, study: Study): string {
   const names = new Set(study.samples.map((s) => s.name))
   if (!names.has(base)) return base
   for (let i = 2; ; i++) if (!names.has(`${base} ${i}`)) return `${base} ${i}`

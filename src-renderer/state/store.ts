@@ -5,7 +5,7 @@ import type { SampleResult, Study, StudyProblem } from '../../src-core/index.ts'
 import type { Theme } from '../charts/palette.ts'
 
 /** The views of the results area, by what they show. */
-export type ViewName = 'optics' | 'angles' | 'humidity' | 'climate' | 'compare' | 'uncertainty' | 'closure' | 'instruments'
+export type ViewName = 'optics' | 'angles' | 'humidity' | 'climate' | 'compare' | 'record' | 'uncertainty' | 'closure' | 'instruments'
 
 export interface Snapshot {
   study: Study

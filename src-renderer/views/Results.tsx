@@ -1,4 +1,4 @@
-// The results area: one view at a time, chosen by tabs (Alt+1…8); the last three are tools run on request.
+// The results area: one view at a time, chosen by tabs (Alt+1…9); the last three are tools run on request.
 import type { JSX } from 'preact'
 import { showView } from '../state/actions.ts'
 import { useApp, type ViewName } from '../state/store.ts'
@@ -11,6 +11,7 @@ import { ClosureView } from './ClosureView.tsx'
 import { InstrumentView } from './InstrumentView.tsx'
 import { UncertaintyView } from './UncertaintyView.tsx'
 import { OpticsView } from './OpticsView.tsx'
+import { RecordView } from './RecordView.tsx'
 
 export const VIEWS: { id: ViewName; label: string; render: () => JSX.Element; tool?: boolean }[] = [
   { id: 'optics', label: 'Optics by wavelength', render: () => <OpticsView /> },
@@ -18,6 +19,7 @@ export const VIEWS: { id: ViewName; label: string; render: () => JSX.Element; to
   { id: 'humidity', label: 'Humidity f(RH)', render: () => <HumidityView /> },
   { id: 'climate', label: 'Warming or cooling', render: () => <ClimateView /> },
   { id: 'compare', label: 'Side by side', render: () => <CompareView /> },
+  { id: 'record', label: 'Station record', render: () => <RecordView /> },
   { id: 'uncertainty', label: 'How sure is the verdict', render: () => <UncertaintyView />, tool: true },
   { id: 'closure', label: 'Index from measurements', render: () => <ClosureView />, tool: true },
   { id: 'instruments', label: 'Instrument corrections', render: () => <InstrumentView />, tool: true }

@@ -8,6 +8,8 @@ import { benchSeries } from './series.bench.ts'
 import { benchCliStart } from './cli-start.bench.ts'
 import { benchSizerRead } from './reader.bench.ts'
 import { benchLongwaveDemo } from './longwave.bench.ts'
+import { benchCampaign } from './campaign.bench.ts'
+import { benchUiCampaign } from './ui-campaign.bench.ts'
 
 const cases: Record<string, () => void | Promise<void>> = {
   'sphere-grid': benchSphereGrid,
@@ -22,7 +24,9 @@ const cases: Record<string, () => void | Promise<void>> = {
   'cli-start': benchCliStart,
   'sizer-read': benchSizerRead,
   'uncertainty-demo': benchUncertaintyDemo,
-  'longwave-demo': benchLongwaveDemo
+  'longwave-demo': benchLongwaveDemo,
+  campaign: benchCampaign,
+  'ui-campaign': benchUiCampaign
 }
 
 const wanted = process.argv.slice(2)

@@ -15,6 +15,8 @@ const GOOD: Record<ChannelName, unknown[]> = {
     { text: '{}', path: '/data/valley.mote', suggestedName: 'valley.mote', saveAs: true }
   ],
   openSizer: [undefined],
+  openInstruments: [undefined],
+  readInstrument: ['/data/station/neph.csv'],
   exportFile: [
     { suggestedName: 'valley-results.csv', kind: 'csv', text: 'a,b\n' },
     { suggestedName: 'chart.png', kind: 'png', base64: png }
@@ -52,6 +54,8 @@ const BAD: Record<ChannelName, [string, unknown][]> = {
     ['null', null]
   ],
   openSizer: [['a path', '/etc/passwd']],
+  openInstruments: [['a path', '/etc/passwd']],
+  readInstrument: [['a relative path', 'neph.csv'], ['a path climbing out with ..', '/data/../etc/passwd'], ['an object', { path: '/data/a.csv' }]],
   exportFile: [
     ['both text and base64', { suggestedName: 'a.png', kind: 'png', text: 'x', base64: png }],
     ['neither text nor base64', { suggestedName: 'a.csv', kind: 'csv' }],

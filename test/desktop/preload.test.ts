@@ -44,6 +44,8 @@ describe('the preload', () => {
     await host.openStudy()
     await host.saveStudy({ text: '{}', suggestedName: 'valley.mote', saveAs: false })
     await host.openSizerFile()
+    await host.openInstrumentFiles()
+    await host.readInstrumentFile('/data/station/neph.csv')
     await host.exportFile({ suggestedName: 'results.csv', kind: 'csv', text: 'a,b\n' })
     await host.printReport({ suggestedName: 'report.pdf' })
     await host.keepRecovery(null)

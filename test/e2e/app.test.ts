@@ -396,9 +396,9 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
     const page = await openApp()
     const axes = (chart: string) => page.locator(`[data-chart="${chart}"] [data-chart-axes]`).textContent()
 
-    // on a 1366 × 768 screen every view fits the width (all eight views fit 1366 px): the page never scrolls sideways, and the samples, the
+    // on a 1366 × 768 screen every view fits the width (all nine views fit 1366 px): the page never scrolls sideways, and the samples, the
     // inputs and the results sit side by side within the window
-    for (let k = 1; k <= 8; k++) {
+    for (let k = 1; k <= 9; k++) {
       await page.keyboard.press(`Alt+${k}`)
       await page.locator('#result-panel').waitFor()
       const fit = await page.evaluate(() => ({

@@ -18,7 +18,7 @@ export const ABS_WAVELENGTHS = [370, 520, 880]
 export const NEPH_ANGLES = { lowDeg: 7, highDeg: 170 }
 
 /** Per mode of KNOWN_MODES at 1 cm⁻³ … its coefficients at the sample's composition and humidity. */
-function perMode() {
+export function perMode() {
   const study = demoStudy()
   const base = study.samples.find((s) => s.name === 'Quarry dust event')!
   return KNOWN_MODES.map((m) => {

@@ -1,0 +1,187 @@
+/**
+ * What is made from a campaign's record: the series the charts draw (null in gaps, never a made-up number), a
+ * stretch of time turned into a sample (the mean distribution with its spread, named by its ISO 8601 time
+ * interval, keeping where it came from), and the record as CSV in the columns `motebench series` writes.
+ */
+import { InputError } from '../errors.ts'
+import { angstromExponent } from '../optics/metrics.ts'
+import type { Sample } from '../study/model.ts'
+import { CAMPAIGN_KIND_WORDS } from './campaign-settings.ts'
+import type { CampaignRecord } from './campaign.ts'
+import { absorptionAt } from './optical.ts'
+
+/** The figures the record's charts draw, each at the chosen wavelength unless its name says otherwise. */
+export const RECORD_SERIES = ['ext', 'sca', 'abs', 'ssa', 'g', 'angstrom', 'number', 'mass', 'sca_meas', 'abs_meas', 'sca_ratio', 'abs_ratio'] as const
+export type RecordSeriesName = (typeof RECORD_SERIES)[number]
+
+export interface RecordSeries {
+  /** Time, s since 1970 (uPlot's time unit), one per row, with a break (null everywhere) inserted in each gap. */
+  x: number[]
+  /** Row of the record behind each x (−1 for an inserted break). */
+  row: number[]
+  values: Record<RecordSeriesName, (number | null)[]>
+  /** The Ångström exponent's two wavelengths: the computed ones on either side of the chosen one (nm). */
+  angstromPairNm: [number, number]
+  /** The wavelength each measured figure is compared at, nm (NaN when there is no such instrument). */
+  scatteringAtNm: number
+  absorptionAtNm: number
+}
+
+const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
+
+/**
+ * The charts' series over rows [from, to) (default all). The Ångström exponent of extinction is taken between the
+ * computed wavelengths on either side of the chosen one (as the optics table gives it at each wavelength,
+ * localAngstromExponents). A row without a distribution gives null in every
+ * computed figure; a spacing above 1.5 times the record's interval gets a break, so lines stop across gaps.
+ * Measured scattering is the nephelometer's at its wavelength nearest the chosen one (compared with the computed
+ * scattering there); measured absorption is carried to the chosen wavelength by its own Ångström exponent
+ * (absorptionAt, as `series` carries it for ω).
+ */
+export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): RecordSeries {
+  const col = (name: string) => r.columns.indexOf(name)
+  const w = r.chosenNm
+  const iExt = col(`ext_${w}nm_Mm-1`)
+  const iSca = col(`sca_${w}nm_Mm-1`)
+  const iAbs = col(`abs_${w}nm_Mm-1`)
+  const iSsa = col(`ssa_${w}nm`)
+  const iG = col(`g_${w}nm`)
+  const iN = col('dry_number_cm-3')
+  const iM = col('dry_mass_ug_m-3')
+  const at = r.wavelengthsNm.indexOf(w)
+  const pair: [number, number] = [r.wavelengthsNm[Math.max(0, at - 1)], r.wavelengthsNm[Math.min(r.wavelengthsNm.length - 1, at + 1)]]
+  const iLo = col(`ext_${pair[0]}nm_Mm-1`)
+  const iHi = col(`ext_${pair[1]}nm_Mm-1`)
+  const scaCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'scattering')
+  const absCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'absorption')
+  const nearest = scaCh.length > 0 ? scaCh.reduce((a, b) => (Math.abs(b.c.wavelengthNm - w) < Math.abs(a.c.wavelengthNm - w) ? b : a)) : undefined
+  const iScaAt = nearest ? col(`sca_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
+  const absWl = absCh.map((x) => x.c.wavelengthNm)
+  const absVals = new Float64Array(absCh.length)
+  const width = r.columns.length
+  const nc = r.channels.length
+  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN }
+  const push = (t: number, row: number) => {
+    out.x.push(t / 1000)
+    out.row.push(row)
+    const v = out.values
+    if (row < 0 || !r.present[row]) {
+      for (const k of RECORD_SERIES) v[k].push(null)
+      return
+    }
+    const c = row * width
+    v.ext.push(finite(r.cells[c + iExt]))
+    v.sca.push(finite(r.cells[c + iSca]))
+    v.abs.push(finite(r.cells[c + iAbs]))
+    v.ssa.push(finite(r.cells[c + iSsa]))
+    v.g.push(finite(r.cells[c + iG]))
+    v.angstrom.push(finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1])))
+    v.number.push(finite(r.cells[c + iN]))
+    v.mass.push(finite(r.cells[c + iM]))
+    const sm = nearest ? r.measured[row * nc + nearest.i] : NaN
+    v.sca_meas.push(finite(sm))
+    v.sca_ratio.push(sm > 0 ? finite(r.cells[c + iScaAt] / sm) : null)
+    for (let j = 0; j < absCh.length; j++) absVals[j] = r.measured[row * nc + absCh[j].i]
+    const am = absCh.length > 0 ? absorptionAt(w, absWl, absVals) : NaN
+    v.abs_meas.push(finite(am))
+    v.abs_ratio.push(am > 0 ? finite(r.cells[c + iAbs] / am) : null)
+  }
+  const lo = Math.max(0, from)
+  const hi = Math.min(r.times.length, to)
+  for (let k = lo; k < hi; k++) {
+    if (k > lo && r.times[k] - r.times[k - 1] > 1.5 * r.intervalMs) push((r.times[k - 1] + r.times[k]) / 2, -1)
+    push(r.times[k], k)
+  }
+  return out
+}
+
+/** The rows whose start lies in [fromMs, toMs] (first and last index; last < first when none). */
+export function rowsIn(r: CampaignRecord, fromMs: number, toMs: number): [number, number] {
+  let a = 0
+  while (a < r.times.length && r.times[a] < fromMs) a++
+  let b = r.times.length - 1
+  while (b >= 0 && r.times[b] > toMs) b--
+  return [a, b]
+}
+
+/** A stretch of the record made into a sample: its mean distribution, the spread, the count and where it came from. */
+export interface StretchSample {
+  sample: Sample
+  rows: number
+  /** Rows in the stretch without a distribution (gaps), left out of the mean. */
+  gapRows: number
+}
+
+/**
+ * The sample of the rows whose start lies in [fromMs, toMs]: the arithmetic mean of their distributions bin by bin
+ * (rows without one are left out and counted), each bin's sample standard deviation as its spread (0 for one
+ * row), the campaign sample's composition, humidity and layer, named by the ISO 8601 interval of the rows taken.
+ * Throws InputError when the stretch holds no distribution.
+ */
+export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): StretchSample {
+  const [a, b] = rowsIn(r, fromMs, toMs)
+  const n = r.bins
+  const sum = new Float64Array(n)
+  const sq = new Float64Array(n)
+  let count = 0
+  let gapRows = 0
+  let first = -1
+  let last = -1
+  for (let k = a; k <= b; k++) {
+    if (!r.present[k]) {
+      gapRows++
+      continue
+    }
+    if (first < 0) first = k
+    last = k
+    count++
+    for (let j = 0; j < n; j++) sum[j] += r.values[k * n + j]
+  }
+  if (count === 0) {
+    throw new InputError(
+      'time range',
+      b < a ? 'no row of the record starts in the marked stretch' : `the ${gapRows} row${gapRows === 1 ? '' : 's'} in the marked stretch ${gapRows === 1 ? 'is a gap' : 'are gaps'} without a distribution`,
+      'Mark a stretch that holds at least one row with data (the colour map shows where the distributions are).'
+    )
+  }
+  const mean = Array.from(sum, (s) => s / count)
+  for (let k = first; k <= last; k++) {
+    if (!r.present[k]) continue
+    for (let j = 0; j < n; j++) {
+      const d = r.values[k * n + j] - mean[j]
+      sq[j] += d * d
+    }
+  }
+  const spread = Array.from(sq, (s) => (count > 1 ? Math.sqrt(s / (count - 1)) : 0))
+  const name = `${r.timeText[first]}/${r.timeText[last]}`
+  const files = r.files.filter((f) => f.ok && f.bins > 0).map((f) => `${f.name} (${CAMPAIGN_KIND_WORDS[f.kind]})`)
+  const source = `campaign ${files.join(' + ')}, mean of ${count} row${count === 1 ? '' : 's'} ${name}${gapRows > 0 ? ` (${gapRows} gap row${gapRows === 1 ? '' : 's'} left out)` : ''}`
+  const base = structuredClone(r.sample)
+  const sample: Sample = {
+    ...base,
+    name,
+    notes: `Made from the campaign record: ${source}; composition, humidity and layer of the sample "${r.sample.name}".`,
+    size: { kind: 'bins', bins: { diameters: r.layout.diameters.slice(), diameter_unit: r.layout.diameter_unit, edges: r.layout.edges, quantity: r.layout.quantity, values: mean, source, rows_averaged: count, spread } }
+  }
+  return { sample, rows: count, gapRows }
+}
+
+/** A number as `motebench series` writes it: 7 significant digits, empty when not finite. */
+export const recordCell = (v: number): string => (Number.isFinite(v) ? String(Number(v.toPrecision(7))) : '')
+
+/**
+ * The record as CSV, in the columns and number form of `motebench series` on the same files (its "#" lines
+ * first when instruments are compared): the rows with a distribution whose start lies in [fromMs, toMs].
+ */
+export function recordCsv(r: CampaignRecord, fromMs = -Infinity, toMs = Infinity): string {
+  const lines = r.notes.map((x) => `# ${x}`)
+  lines.push(['time', ...r.columns].join(','))
+  const width = r.columns.length
+  for (let k = 0; k < r.times.length; k++) {
+    if (!r.present[k] || r.times[k] < fromMs || r.times[k] > toMs) continue
+    let line = /[",\r\n]/.test(r.timeText[k]) ? `"${r.timeText[k].replace(/"/g, '""')}"` : r.timeText[k]
+    for (let c = 0; c < width; c++) line += ',' + recordCell(r.cells[k * width + c])
+    lines.push(line)
+  }
+  return lines.join('\n') + '\n'
+}

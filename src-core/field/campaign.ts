@@ -1,0 +1,296 @@
+/**
+ * A campaign's record: the station's files turned into one row per time step, as `motebench merge` and
+ * `motebench series` make it, but in memory for the app. Several sizers are merged (planMerge, mergeStep) on a
+ * regular time base (TimeAverager), their values rounded as the merged file writes them, so that the record is
+ * what `series` gives on the file `merge` writes; one sizer (or an already merged file) is taken row by row as
+ * `series` takes it. The figures come from the bin kernels (binnedRowEvaluator: the bins are the same on every
+ * row), the measured coefficients are averaged onto the rows (MeasuredAlignment) and compared (RowComparer).
+ *
+ * A step without a full distribution is a gap: `present[k]` is 0, its reason is in `gaps`, and the columns
+ * the charts read (`recordColumn`) give null there, never a number.
+ */
+import { InputError } from '../errors.ts'
+import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinLayout } from '../optics/binKernels.ts'
+import { OpticsWorkspace } from '../optics/integrate.ts'
+import type { Sample, Study } from '../study/model.ts'
+import { campaignProblems, isSizerKind, type CampaignSettings } from './campaign-settings.ts'
+import { readCampaignInstrument, readCampaignSizer, type CampaignFileSummary, type CampaignInput, type ReadInstrument, type ReadSizer } from './campaign-read.ts'
+import { planMerge, mergeStep, type SizerInput } from './merge.ts'
+import { mergedMidpointsNm } from './output.ts'
+import { binsFromMeasurement } from '../sizes/index.ts'
+import { comparisonColumns, instrumentKernels, instrumentWavelengths, MeasuredAlignment, RowComparer, type ComparisonPlan, type MeasuredChannel } from './optical.ts'
+import { comparisonNotes } from './optical-summary.ts'
+import { formatDuration, formatTimeStamp, regularTimeBase, TimeAverager, typicalInterval } from './timebase.ts'
+export interface CampaignRecord {
+  /** The sample that gives composition, humidity and layer. */
+  sample: Sample
+  zoned: boolean
+  /** The rows' typical spacing, ms (a spacing above 1.5 times this is drawn as a gap). */
+  intervalMs: number
+  /** Per row: its start (ms), its time as written, and 1 when it has a distribution (0: a gap, see `gaps`). */
+  times: Float64Array
+  timeText: string[]
+  present: Uint8Array
+  /** Rows without a distribution: why (e.g. "only mobility had data"). */
+  gaps: Map<number, string>
+  /** The bins every row shares (the merged file's midpoints in nm, or the one sizer's own). */
+  layout: BinLayout
+  bins: number
+  /** rows × bins, in the layout's quantity (0 in gaps). */
+  values: Float64Array
+  /** rows × bins, dN/dlogD (cm⁻³) for the colour map (0 in gaps). */
+  dNdlogD: Float64Array
+  /** Bin edges, µm. */
+  edgesUm: Float64Array
+  /** The computed wavelengths (the study's, the chosen one and the instruments'), ascending. */
+  wavelengthsNm: number[]
+  chosenNm: number
+  /** The columns of `cells` (as `series` names them, after its `time`): figures, then the comparison. */
+  columns: string[]
+  /** rows × columns; NaN for an empty cell (gaps, rows without a measured record). */
+  cells: Float64Array
+  /** Measured channels and their per-row means (rows × channels, NaN: none). */
+  channels: MeasuredChannel[]
+  measured: Float64Array
+  /** How the measured figures were made comparable (as series writes them in its "#" lines). */
+  notes: string[]
+  files: CampaignFileSummary[]
+}
+
+/** What `buildCampaignRecord` gives: every file's summary, and the record when a sizer could be read. */
+export interface CampaignBuild {
+  files: CampaignFileSummary[]
+  record?: CampaignRecord
+  /** Why there is no record (no sizer, or none that could be read), with the fix. */
+  problem?: { message: string; fix: string }
+}
+
+/** Column names of the figures, after `time`, as `series` writes them. */
+export function figureColumns(wavelengthsNm: readonly number[]): string[] {
+  const cols: string[] = []
+  for (const w of wavelengthsNm) cols.push(`ext_${w}nm_Mm-1`, `sca_${w}nm_Mm-1`, `abs_${w}nm_Mm-1`, `ssa_${w}nm`, `g_${w}nm`)
+  cols.push('dry_number_cm-3', 'dry_volume_um3_cm-3', 'dry_mass_ug_m-3')
+  return cols
+}
+
+const rounded6 = (v: number): number => (Number.isNaN(v) ? NaN : Number(v.toPrecision(6)))
+
+interface Rows {
+  timesMs: number[]
+  timeText: string[]
+  present: boolean[]
+  gaps: Map<number, string>
+  layout: BinLayout
+  values: Float64Array
+}
+
+/** Several sizers merged onto a regular time base, values rounded as the merged file holds them. */
+function mergedRows(sizers: ReadSizer[], settings: CampaignSettings): Rows {
+  const zoned = sizers[0].zoned
+  for (const s of sizers.slice(1)) {
+    if (s.zoned !== zoned) throw new InputError(s.summary.name, `its times ${s.zoned ? 'carry a zone' : 'have no zone'} but those of ${sizers[0].summary.name} ${zoned ? 'carry one' : 'do not'}`, 'Write every file\'s times in the same form (best in UTC with Z).')
+  }
+  const intervals = sizers.map((s) => typicalInterval(s.timesMs)).filter((v): v is number => v !== undefined)
+  const stepMs = settings.step_s !== undefined ? settings.step_s * 1000 : intervals.length > 0 ? Math.max(...intervals) : undefined
+  if (stepMs === undefined) throw new InputError('campaign', 'every sizer file has a single time, so no averaging step is known', 'Give the averaging step (e.g. 300 s).')
+  let first = Infinity
+  let last = -Infinity
+  for (const s of sizers) {
+    first = Math.min(first, s.timesMs[0])
+    last = Math.max(last, s.timesMs[s.timesMs.length - 1])
+  }
+  const base = regularTimeBase(first, last, stepMs)
+  const steps = base.starts.length
+  const buf = sizers.map((s) => new Float64Array(s.factor.length))
+  const averagers = sizers.map((s, i) => {
+    const a = new TimeAverager(base, s.factor.length)
+    const b = buf[i]
+    for (let k = 0; k < s.rows; k++) {
+      for (let j = 0; j < b.length; j++) b[j] = s.values[k * s.bins + j] * s.factor[j]
+      a.add(s.timesMs[k], b)
+    }
+    return a
+  })
+  const means = averagers.map((a) => a.means())
+  const inputs: SizerInput[] = sizers.map((s) => ({ kind: s.summary.kind as SizerInput['kind'], label: s.summary.name, edgesUm: s.edgesUm }))
+  const c = settings.counter
+  const plan = planMerge(inputs, {
+    shapeFactor: settings.shape_factor,
+    density: settings.density_g_cm3,
+    ...(c ? { optical: { index: { n: c.n, k: c.k }, geometry: { wavelengthNm: c.wavelength_nm, lowDeg: c.angles_deg[0], highDeg: c.angles_deg[1] } } } : {})
+  })
+  const bins = plan.edges.length - 1
+  const values = new Float64Array(steps * bins)
+  const merged = new Float64Array(bins)
+  const present: boolean[] = []
+  const gaps = new Map<number, string>()
+  const timesMs: number[] = []
+  const timeText: string[] = []
+  for (let k = 0; k < steps; k++) {
+    const vals = means.map((m) => m[k])
+    mergeStep(plan, vals, merged)
+    let full = true
+    for (let j = 0; j < bins; j++) {
+      const v = rounded6(merged[j])
+      if (Number.isNaN(v)) full = false
+      values[k * bins + j] = Number.isNaN(v) ? 0 : v
+    }
+    timesMs.push(base.starts[k])
+    timeText.push(formatTimeStamp(base.starts[k], zoned))
+    present.push(full)
+    if (!full) {
+      const had = sizers.filter((_, i) => vals[i]).map((s) => s.summary.kind)
+      gaps.set(k, had.length > 0 ? `only ${had.join(' and ')} had data` : 'no sizer had data')
+      values.fill(0, k * bins, (k + 1) * bins)
+    }
+  }
+  return { timesMs, timeText, present, gaps, layout: { diameters: mergedMidpointsNm(plan), diameter_unit: 'nm', edges: false, quantity: 'dN/dlogDp' }, values }
+}
+
+/** One sizer (or a merged file) row by row, as `series` reads it. */
+function singleRows(s: ReadSizer): Rows {
+  const t = s.table
+  return {
+    timesMs: Array.from(s.timesMs),
+    timeText: s.timeText,
+    present: s.timeText.map(() => true),
+    gaps: new Map(),
+    layout: { diameters: t.diameters.slice(), diameter_unit: t.diameterUnit, edges: t.edges, quantity: t.quantity },
+    values: s.values
+  }
+}
+
+/**
+ * The record of a campaign from its files' texts. A file that cannot be read is refused in its summary and left
+ * out; without a readable sizer there is no record (`problem` says why). Throws InputError only for what no file
+ * alone is to blame for (the study's sample or composition, clocks of different forms).
+ */
+export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void } = {}): CampaignBuild {
+  const progress = options.onProgress ?? (() => {})
+  const sample = study.samples.find((s) => s.name === settings.sample)
+  if (!sample) throw new InputError('campaign.sample', `no sample is named "${settings.sample}"`, 'Choose the sample whose composition and humidity the record takes.')
+  // what the merge needs, for the files given (the settings' own file list may lag behind)
+  const problem = campaignProblems({ ...settings, files: inputs.map((i) => ({ kind: i.kind, path: i.name })) }, [sample.name])[0]
+  if (problem) throw new InputError(problem.path, problem.message, problem.fix)
+  const sizers: ReadSizer[] = []
+  const instruments: ReadInstrument[] = []
+  const files: CampaignFileSummary[] = []
+  for (const input of inputs) {
+    const r = isSizerKind(input.kind) ? readCampaignSizer(input, settings.density_g_cm3) : readCampaignInstrument(input)
+    files.push(r.summary)
+    if (!r.summary.ok) continue
+    if ('table' in r) sizers.push(r as ReadSizer)
+    else instruments.push(r as ReadInstrument)
+  }
+  progress(0.2)
+  if (sizers.length === 0) {
+    const any = inputs.some((i) => isSizerKind(i.kind))
+    return { files, problem: any ? { message: 'no sizer file could be read', fix: 'Fix the sizer file as its summary says, or point at the right file.' } : { message: 'the campaign has no sizer file yet', fix: 'Add a mobility, aerodynamic or optical sizer export, or a merged size distribution.' } }
+  }
+  const rows = sizers.length > 1 ? mergedRows(sizers, settings) : singleRows(sizers[0])
+  if (sizers.length === 1 && sizers[0].summary.kind !== 'merged') sizers[0].summary.notes.push('one sizer: its diameters are taken as they are (merging converts to volume-equivalent diameters)')
+  const zoned = sizers[0].zoned
+  const n = rows.timesMs.length
+  const bins = rows.layout.edges ? rows.layout.diameters.length - 1 : rows.layout.diameters.length
+
+  // measured channels, in file order; one file per kind, so no channel repeats
+  const channels: MeasuredChannel[] = []
+  const firsts: number[] = []
+  for (const f of instruments) {
+    firsts.push(channels.length)
+    for (const c of f.header.channels) channels.push({ quantity: c.quantity, wavelengthNm: c.wavelengthNm, file: f.summary.name })
+  }
+  const plan: ComparisonPlan = { channels, truncation: null, closure: null }
+  const base = [...new Set([...study.wavelengths_nm, settings.wavelength_nm])].sort((a, b) => a - b)
+  const wavelengthsNm = [...new Set([...base, ...instrumentWavelengths(plan)])].sort((a, b) => a - b)
+
+  const ws = options.workspace ?? new OpticsWorkspace()
+  const studyAt = { wavelengths_nm: wavelengthsNm, user_materials: study.user_materials }
+  const kernels = binOpticsKernels(sample, studyAt, rows.layout, { tolerance: options.tolerance ?? 1e-4, workspace: ws })
+  progress(0.4)
+  const evaluate = binnedRowEvaluator(kernels, rows.layout)
+  const width = binnedRowWidth(kernels)
+  const compareCols = channels.length > 0 ? comparisonColumns(plan) : []
+  const columns = [...figureColumns(wavelengthsNm), ...compareCols]
+  const cells = new Float64Array(n * columns.length).fill(NaN)
+  const measured = new Float64Array(n * channels.length).fill(NaN)
+
+  // the rows with a distribution are the time base of the measured files (as series aligns to the rows it reads)
+  const kept: number[] = []
+  for (let k = 0; k < n; k++) if (rows.present[k]) kept.push(k)
+  const keptTimes = kept.map((k) => rows.timesMs[k])
+  const intervalMs = typicalInterval(keptTimes) ?? typicalInterval(rows.timesMs) ?? 60000
+  let notes: string[] = []
+  if (channels.length > 0 && kept.length > 0) {
+    const alignment = new MeasuredAlignment(keptTimes, channels, typicalInterval(keptTimes))
+    instruments.forEach((f, i) => {
+      for (const rec of f.records) {
+        if (rec.zoned !== zoned) {
+          f.summary.ok = false
+          f.summary.error = { where: `${f.summary.name} line ${rec.line} column 1`, problem: `the time ${rec.time} ${rec.zoned ? 'has a zone' : 'has no zone'} but the sizer's times ${zoned ? 'have one' : 'have none'}, so the clocks cannot be aligned`, fix: 'Write both files\' times in the same form (both in UTC with Z, or both without a zone on the same clock).' }
+          break
+        }
+        alignment.add(rec.ms, firsts[i], rec.values, f.summary.name)
+      }
+      const used = alignment.used.get(f.summary.name) ?? 0
+      f.summary.notes.push(`${used} records inside the record's rows, ${alignment.outside.get(f.summary.name) ?? 0} outside them`)
+      if (used === 0) f.summary.notes.push('warning: no record falls inside a sizer row: check the two clocks (times, zone)')
+    })
+    const comparer = new RowComparer(instrumentKernels(sample, studyAt, rows.layout, plan, { tolerance: options.tolerance ?? 1e-4, workspace: ws }), plan)
+    const m = new Float64Array(channels.length)
+    const out = new Float64Array(compareCols.length)
+    const row = new Float64Array(bins)
+    kept.forEach((k, i) => {
+      alignment.measuredAt(i, m)
+      measured.set(m, k * channels.length)
+      row.set(rows.values.subarray(k * bins, (k + 1) * bins))
+      out.fill(NaN)
+      comparer.compare(row, m, out)
+      cells.set(out, k * columns.length + width)
+      if (i % 4096 === 4095) progress(0.6 + (0.2 * i) / kept.length)
+    })
+    notes = comparisonNotes(plan, { intervalText: formatDuration(Math.round(intervalMs)), files: instruments.map((f) => f.summary.name) })
+  }
+  const dNdlogD = new Float64Array(n * bins)
+  const fig = new Float64Array(width)
+  progress(0.8)
+  kept.forEach((k, i) => {
+    evaluate(rows.values, k * bins, fig, 0)
+    cells.set(fig, k * columns.length)
+    if (i % 4096 === 4095) progress(0.8 + (0.2 * i) / kept.length)
+  })
+  // dN/dlogD for the colour map: the layout's quantity turned by the same kernels' conversion (number weights)
+  const toDn = quantityFactors(rows.layout, kernels.kind.densityGcm3)
+  for (const k of kept) for (let j = 0; j < bins; j++) dNdlogD[k * bins + j] = rows.values[k * bins + j] * toDn[j]
+  return {
+    files,
+    record: {
+      sample,
+      zoned,
+      intervalMs,
+      times: Float64Array.from(rows.timesMs),
+      timeText: rows.timeText,
+      present: Uint8Array.from(rows.present, (p) => (p ? 1 : 0)),
+      gaps: rows.gaps,
+      layout: rows.layout,
+      bins,
+      values: rows.values,
+      dNdlogD,
+      edgesUm: kernels.edgesUm,
+      wavelengthsNm,
+      chosenNm: settings.wavelength_nm,
+      columns,
+      cells,
+      channels,
+      measured,
+      notes,
+      files
+    }
+  }
+}
+
+/** Per bin, the factor that turns a value of the layout's quantity into dN/dlogD (binsFromMeasurement's own conversion). */
+function quantityFactors(layout: BinLayout, density: number): Float64Array {
+  const n = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+  return binsFromMeasurement({ diameters: layout.diameters, diameterKind: layout.edges ? 'edges' : 'midpoints', diameterUnit: layout.diameter_unit, quantity: layout.quantity, values: new Array(n).fill(1), density }).dNdlogD
+}

@@ -1,0 +1,442 @@
+// The record's stacked charts on one time axis: the size distribution as a colour map, the coefficients computed
+// and measured, their ratio, ω and g, the Ångström exponent, number and mass. Zoom and pan move every chart
+// (mouse wheel to zoom, Shift+wheel to pan; on the focused stack + − ← → and Home); a drag marks a stretch on
+// all of them; the hover read-out gives every figure at the time under the pointer. Gaps are null: lines stop.
+import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
+import uPlot from 'uplot'
+import 'uplot/dist/uPlot.min.css'
+import { recordSeries, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
+import { lineStyle, type Theme } from '../charts/palette.ts'
+import { num } from '../format.ts'
+import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
+import { decimate, type Shown } from './decimate.ts'
+import { campaignStore, setMark, setVisible } from './session.ts'
+
+interface PanelLine {
+  key: RecordSeriesName
+  label: string
+  style: number
+  axis?: 1
+  points?: boolean
+}
+
+interface Panel {
+  name: string
+  title: string
+  yLabel: string
+  y2Label?: string
+  yLog?: boolean
+  lines: PanelLine[]
+  height: number
+  map?: boolean
+}
+
+function panels(r: CampaignRecord, s: RecordSeries): Panel[] {
+  const w = r.chosenNm
+  const measured = r.channels.length > 0
+  const coef: PanelLine[] = [
+    { key: 'ext', label: `σext ${w} nm`, style: 0 },
+    { key: 'sca', label: `σsca ${w} nm`, style: 1 },
+    { key: 'abs', label: `σabs ${w} nm`, style: 2 }
+  ]
+  if (Number.isFinite(s.scatteringAtNm)) coef.push({ key: 'sca_meas', label: `σsca measured ${s.scatteringAtNm} nm`, style: 3 })
+  if (Number.isFinite(s.absorptionAtNm)) coef.push({ key: 'abs_meas', label: `σabs measured, at ${w} nm`, style: 4 })
+  const out: Panel[] = [
+    { name: 'record-size', title: 'Size distribution dN/dlogD (cm⁻³)', yLabel: 'Diameter (µm)', yLog: true, lines: [], height: 190, map: true },
+    { name: 'record-coefficients', title: `Coefficients at ${w} nm`, yLabel: 'Mm⁻¹', lines: coef, height: 170 }
+  ]
+  if (measured) {
+    const ratio: PanelLine[] = []
+    if (Number.isFinite(s.scatteringAtNm)) ratio.push({ key: 'sca_ratio', label: `scattering ${s.scatteringAtNm} nm`, style: 0 })
+    if (Number.isFinite(s.absorptionAtNm)) ratio.push({ key: 'abs_ratio', label: `absorption ${w} nm`, style: 1 })
+    out.push({ name: 'record-ratio', title: 'Computed / measured', yLabel: 'ratio', lines: ratio, height: 140 })
+  }
+  out.push(
+    { name: 'record-ssa-g', title: `ω and g at ${w} nm`, yLabel: 'no unit', lines: [{ key: 'ssa', label: 'ω', style: 0 }, { key: 'g', label: 'g', style: 1 }], height: 140 },
+    { name: 'record-angstrom', title: `Ångström exponent of extinction at ${w} nm (${s.angstromPairNm[0]}–${s.angstromPairNm[1]} nm)`, yLabel: 'å', lines: [{ key: 'angstrom', label: 'å ext', style: 0 }], height: 130 },
+    { name: 'record-number-mass', title: 'Dry number and mass', yLabel: 'cm⁻³', y2Label: 'µg m⁻³', lines: [{ key: 'number', label: 'number (cm⁻³)', style: 0 }, { key: 'mass', label: 'mass (µg m⁻³)', style: 1, axis: 1 }], height: 150 }
+  )
+  return out
+}
+
+function cssVar(name: string, el: Element): string {
+  return getComputedStyle(el).getPropertyValue(name).trim() || '#000'
+}
+
+const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
+
+/** UTC time labels: the record's clock (a naive clock is shown as written). */
+const tzDate = (ts: number) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC')
+
+/**
+ * Tick marks of a log diameter axis inside [lo, hi]: each decade, with 2 and 5 too over two decades or less
+ * (uPlot's own log splits can loop on short ranges).
+ */
+function decadeTicks(lo: number, hi: number): number[] {
+  const out: number[] = []
+  const steps = Math.log10(hi / lo) > 2 ? [1] : [1, 2, 5]
+  for (let d = Math.floor(Math.log10(lo)); d <= Math.ceil(Math.log10(hi)); d++) for (const m of steps) {
+    const v = m * 10 ** d
+    if (v >= lo && v <= hi) out.push(Number(v.toPrecision(3)))
+  }
+  return out
+}
+
+/** Time ticks in UTC: "HH:MM", with the ISO date under the first tick and under each midnight. */
+function timeLabels(_u: uPlot, splits: number[]): string[] {
+  return splits.map((s, i) => {
+    const t = new Date(Math.round(s * 1000)).toISOString()
+    const hm = t.slice(11, 16)
+    return i === 0 || hm === '00:00' ? `${hm}\n${t.slice(0, 10)}` : hm
+  })
+}
+
+const iso = (sec: number) => new Date(Math.round(sec * 1000)).toISOString().slice(0, 19) + 'Z'
+
+export interface RecordChartsProps {
+  record: CampaignRecord
+  theme: Theme
+}
+
+/** The plots of the stack, for the PNG export. */
+export const shownPlots: { plots: uPlot[]; titles: string[] } = { plots: [], titles: [] }
+
+export function RecordCharts({ record, theme }: RecordChartsProps) {
+  const box = useRef<HTMLDivElement>(null)
+  const series = useMemo(() => recordSeries(record), [record])
+  const list = useMemo(() => panels(record, series), [record, series])
+  const range = useMemo(() => colourRange(record), [record])
+  const [hover, setHover] = useState<number | null>(null)
+  const mark = useRef<[number, number] | null>(campaignStore().get().mark)
+
+  useEffect(() => {
+    const el = box.current
+    if (!el) return
+    el.innerHTML = ''
+    const width = Math.max(320, el.clientWidth - 8)
+    const ink = cssVar('--ink', el)
+    const grid = cssVar('--grid', el)
+    const markFill = theme === 'light' ? 'rgba(0, 96, 160, 0.16)' : 'rgba(86, 180, 233, 0.22)'
+    const plots: uPlot[] = []
+    const keys = [...new Set(list.flatMap((p) => p.lines.map((l) => l.key)))]
+    const buckets = Math.max(100, Math.round(width))
+    let shown: Shown = decimate(series, keys, x0Of(series), Infinity, buckets)
+    const dataFor = (p: Panel, d: Shown): (number | null)[][] => {
+      const e = record.edgesUm
+      // the map's one series only spans the diameter axis (its first two points at the ends, drawn in no colour)
+      const span = d.x.map((_, i): number | null => (i === 0 ? e[0] : i === 1 ? e[e.length - 1] : null))
+      return [d.x, ...(p.map ? [span] : p.lines.map((l) => d.values[l.key]!))]
+    }
+    const x0 = series.x[0]
+    const x1 = series.x[series.x.length - 1] + record.intervalMs / 1000
+    const bandOf = (u: uPlot) => {
+      const m = mark.current
+      if (!m) return
+      const a = u.valToPos(m[0] / 1000, 'x', true)
+      const b = u.valToPos(m[1] / 1000, 'x', true)
+      const { top, height } = u.bbox
+      u.ctx.save()
+      u.ctx.fillStyle = markFill
+      u.ctx.fillRect(Math.min(a, b), top, Math.max(2, Math.abs(b - a)), height)
+      u.ctx.restore()
+    }
+    const axis = (label: string, side?: number): uPlot.Axis => ({
+      label,
+      stroke: ink,
+      font: FONT,
+      labelFont: FONT,
+      ...(side !== undefined ? { side } : {}),
+      grid: { stroke: grid, width: 1, show: side !== 1 },
+      ticks: { stroke: grid, width: 1 },
+      size: 56,
+      space: 24,
+      labelSize: 16
+    })
+    for (const p of list) {
+      const fig = document.createElement('figure')
+      fig.className = 'chart record-chart'
+      fig.dataset['chart'] = p.name
+      const cap = document.createElement('figcaption')
+      cap.innerHTML = `<span class="chart-title"></span>`
+      cap.firstElementChild!.textContent = p.title
+      const axesWords = document.createElement('p')
+      axesWords.className = 'sr-only'
+      axesWords.dataset['chartAxes'] = ''
+      axesWords.textContent = `${p.yLabel}${p.yLog ? ' (log scale)' : ''} against time (UTC).${p.lines.length ? ` Lines: ${p.lines.map((l) => l.label).join('; ')}` : ' Colours: log dN/dlogD.'}`
+      fig.append(cap, axesWords)
+      const holder = document.createElement('div')
+      fig.append(holder)
+      el.append(fig)
+      const e = record.edgesUm
+      const data = dataFor(p, shown)
+      const opts: uPlot.Options = {
+        width,
+        height: p.height,
+        tzDate,
+        pxAlign: 0,
+        scales: {
+          x: { time: true, range: (u, lo, hi) => [lo ?? x0, hi ?? x1] },
+          y: p.map ? { distr: 3, log: 10, range: (): uPlot.Range.MinMax => [e[0], e[e.length - 1]] } : p.yLog ? { distr: 3, log: 10 } : {},
+          ...(p.y2Label ? { y2: {} } : {})
+        },
+        legend: { show: !p.map, live: false },
+        cursor: { sync: { key: 'motebench-record' }, drag: { x: true, y: false, setScale: false }, points: { show: false } },
+        axes: [
+          { ...axis(''), space: 70, values: timeLabels },
+          p.map ? { ...axis(p.yLabel), splits: () => decadeTicks(e[0], e[e.length - 1]), filter: (_u: uPlot, s: number[]) => s, values: (_u: uPlot, s: number[]) => s.map((v) => (v == null ? '' : String(Number(v.toPrecision(3))))) } : axis(p.yLabel),
+          // every chart keeps the same room on the right, so that the time axes line up
+          p.y2Label ? { ...axis(p.y2Label, 1), scale: 'y2' } : { scale: 'y', side: 1, size: 72, stroke: 'transparent', grid: { show: false }, ticks: { show: false }, splits: () => [], values: () => [] }
+        ],
+        series: [
+          { label: 'time' },
+          ...(p.map
+            ? [{ label: 'dN/dlogD', show: true, stroke: 'transparent', points: { show: false } } as uPlot.Series]
+            : p.lines.map((l): uPlot.Series => {
+                const st = lineStyle(l.style, theme)
+                return { label: l.label, stroke: st.stroke, dash: st.dash, width: 1.6, scale: l.axis === 1 ? 'y2' : 'y', points: { show: false } }
+              }))
+        ],
+        hooks: {
+          draw: [(u) => (p.map ? drawColourMap(u, record, range) : undefined), bandOf],
+          setSelect: [
+            (u) => {
+              if (u.select.width < 3) return
+              const a = u.posToVal(u.select.left, 'x') * 1000
+              const b = u.posToVal(u.select.left + u.select.width, 'x') * 1000
+              mark.current = [a, b]
+              setMark([a, b])
+              u.setSelect({ left: 0, top: 0, width: 0, height: 0 }, false)
+              for (const q of plots) q.redraw(false)
+            }
+          ],
+          setCursor: [
+            (u) => {
+              if (u !== plots[0]) return
+              const i = u.cursor.idx
+              setHover(i === null || i === undefined ? null : rowNear(record, shown.x[i]))
+            }
+          ]
+        }
+      }
+      const u = new uPlot(opts, data as uPlot.AlignedData, holder)
+      // the plotted data, for tests and the read-out: what this chart draws
+      ;(fig as unknown as { plotted: unknown }).plotted = { x: series.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: series.values[l.key] })) }
+      plots.push(u)
+    }
+    shownPlots.plots = plots
+    shownPlots.titles = list.map((p) => p.title)
+    /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
+    let visibleTimer: ReturnType<typeof setTimeout> | undefined
+    const show = (lo: number, hi: number) => {
+      shown = decimate(series, keys, lo, hi, buckets)
+      plots.forEach((q, i) => {
+        q.batch(() => {
+          q.setData(dataFor(list[i], shown) as uPlot.AlignedData, false)
+          q.setScale('x', { min: lo, max: hi })
+        })
+      })
+      // the visible range is for the CSV button: said after the zoom settles, so the page does not re-render in the redraw's frame
+      clearTimeout(visibleTimer)
+      visibleTimer = setTimeout(() => setVisible([lo * 1000, hi * 1000]), 250)
+    }
+    const vis = campaignStore().get().visible
+    if (vis) show(vis[0] / 1000, vis[1] / 1000)
+
+    // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
+    const onWheel = (ev: WheelEvent) => {
+      const u = plots.find((q) => q.over.contains(ev.target as Node))
+      if (!u) return
+      ev.preventDefault()
+      const { min, max } = u.scales.x
+      if (min === undefined || max === undefined) return
+      const span = max - min
+      if (ev.shiftKey || Math.abs(ev.deltaX) > Math.abs(ev.deltaY)) {
+        const by = (Math.sign(ev.deltaX || ev.deltaY) * span) / 8
+        zoomTo(min + by, max + by)
+        return
+      }
+      const at = u.posToVal(ev.offsetX, 'x')
+      const f = ev.deltaY > 0 ? 1.25 : 0.8
+      zoomTo(at - (at - min) * f, at + (max - at) * f)
+    }
+    const zoomTo = (a: number, b: number) => {
+      const span = Math.min(b - a, x1 - x0)
+      if (!(span > record.intervalMs / 1000)) return
+      let lo = Math.max(x0, a)
+      let hi = lo + span
+      if (hi > x1) (hi = x1), (lo = x1 - span)
+      show(lo, hi)
+    }
+    const onKey = (ev: KeyboardEvent) => {
+      const u = plots[0]
+      if (!u) return
+      const { min, max } = u.scales.x
+      if (min === undefined || max === undefined) return
+      const span = max - min
+      const mid = (min + max) / 2
+      const act: Record<string, () => void> = {
+        '+': () => zoomTo(mid - span * 0.4, mid + span * 0.4),
+        '=': () => zoomTo(mid - span * 0.4, mid + span * 0.4),
+        '-': () => zoomTo(mid - span * 0.625, mid + span * 0.625),
+        ArrowLeft: () => zoomTo(min - span / 8, max - span / 8),
+        ArrowRight: () => zoomTo(min + span / 8, max + span / 8),
+        Home: () => zoomTo(x0, x1)
+      }
+      const f = act[ev.key]
+      if (f) {
+        ev.preventDefault()
+        f()
+      }
+    }
+    el.addEventListener('wheel', onWheel, { passive: false })
+    el.addEventListener('keydown', onKey)
+    zoomControls.zoom = (a, b) => zoomTo(a / 1000, b / 1000)
+    zoomControls.whole = () => zoomTo(x0, x1)
+    zoomControls.step = (k) => onKey(new KeyboardEvent('keydown', { key: k }))
+    const unsub = campaignStore().subscribe(() => {
+      const m = campaignStore().get().mark
+      if (m !== mark.current) {
+        mark.current = m
+        for (const q of plots) q.redraw(false)
+      }
+    })
+    const ro = new ResizeObserver(() => {
+      const w = Math.max(320, el.clientWidth - 8)
+      for (const q of plots) if (Math.abs(q.width - w) > 2) q.setSize({ width: w, height: q.height })
+    })
+    ro.observe(el)
+    return () => {
+      unsub()
+      clearTimeout(visibleTimer)
+      ro.disconnect()
+      el.removeEventListener('wheel', onWheel)
+      el.removeEventListener('keydown', onKey)
+      for (const q of plots) q.destroy()
+      shownPlots.plots = []
+    }
+  }, [record, theme, list, series, range])
+
+  const row = hover ?? -1
+  const readout = row >= 0 ? readoutOf(record, series, indexOfRow(series, row), row) : null
+  return (
+    <div class="record-charts">
+      <div class="record-legend" data-testid="record-colour-legend">
+        <span>dN/dlogD (cm⁻³), log scale:</span>
+        <span data-testid="record-colour-low">{decade(range[0])} or less</span>
+        <span class="record-scale" style={{ background: `linear-gradient(to right, ${[0, 0.25, 0.5, 0.75, 1].map(colourCss).join(', ')})` }} />
+        <span data-testid="record-colour-high">{decade(range[1])}</span>
+        <span class="muted">; no colour: no distribution (a gap)</span>
+      </div>
+      <div class="record-stack" ref={box} tabIndex={0} aria-label="Record charts: + and − zoom, ← → pan, Home shows the whole record; drag across to mark a stretch" data-testid="record-stack" />
+      <div class="record-readout" data-testid="record-readout" aria-live="off">
+        {readout ? (
+          <dl>
+            {readout.map(([k, v]) => (
+              <div key={k}>
+                <dt>{k}</dt>
+                <dd>{v}</dd>
+              </div>
+            ))}
+          </dl>
+        ) : (
+          <p class="muted">Point at a chart to read every figure at that time.</p>
+        )}
+      </div>
+    </div>
+  )
+}
+
+const x0Of = (s: RecordSeries) => s.x[0] ?? 0
+
+/** The record row nearest time x (s), or −1. */
+function rowNear(r: CampaignRecord, x: number | undefined): number {
+  if (x === undefined || r.times.length === 0) return -1
+  const t = x * 1000
+  let lo = 0
+  let hi = r.times.length - 1
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1
+    if (r.times[mid] <= t) lo = mid
+    else hi = mid - 1
+  }
+  return lo + 1 < r.times.length && r.times[lo + 1] - t < t - r.times[lo] ? lo + 1 : lo
+}
+
+/** The index of a record row in the charts' full series (rows are in order; breaks come between them). */
+function indexOfRow(s: RecordSeries, row: number): number {
+  let lo = 0
+  let hi = s.row.length - 1
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1
+    const r = s.row[mid] < 0 ? s.row[mid + 1] ?? Infinity : s.row[mid]
+    if (r < row) lo = mid + 1
+    else hi = mid
+  }
+  return s.row[lo] === row ? lo : s.row.indexOf(row)
+}
+
+/** Zoom the stack from outside (buttons, typed stretch). */
+export const zoomControls: { zoom: (fromMs: number, toMs: number) => void; whole: () => void; step: (key: string) => void } = { zoom: () => {}, whole: () => {}, step: () => {} }
+
+/** 10 to a power in half decades: 10³, 3.2×10³. */
+function decade(e: number): string {
+  const whole = Math.floor(e)
+  return e - whole > 0.25 ? `3.2×10${sup(whole)}` : `10${sup(whole)}`
+}
+
+const SUP = '⁰¹²³⁴⁵⁶⁷⁸⁹'
+function sup(e: number): string {
+  return (e < 0 ? '⁻' : '') + String(Math.abs(e)).split('').map((d) => SUP[Number(d)]).join('')
+}
+
+function readoutOf(r: CampaignRecord, s: RecordSeries, i: number, row: number): [string, string][] {
+  const v = (k: RecordSeriesName, digits = 4) => {
+    const x = s.values[k][i]
+    return x === null ? '—' : num(x, digits)
+  }
+  const out: [string, string][] = [['time', r.timeText[row] || iso(s.x[i])]]
+  if (!r.present[row]) {
+    out.push(['no distribution', r.gaps.get(row) ?? 'a gap'])
+    return out
+  }
+  const w = r.chosenNm
+  out.push([`σext ${w} nm`, `${v('ext')} Mm⁻¹`], [`σsca ${w} nm`, `${v('sca')} Mm⁻¹`], [`σabs ${w} nm`, `${v('abs')} Mm⁻¹`], ['ω', v('ssa', 3)], ['g', v('g', 3)], ['å ext', v('angstrom', 3)], ['number', `${v('number')} cm⁻³`], ['mass', `${v('mass')} µg m⁻³`])
+  if (Number.isFinite(s.scatteringAtNm)) out.push([`σsca measured ${s.scatteringAtNm} nm`, `${v('sca_meas')} Mm⁻¹`], ['scattering computed/measured', v('sca_ratio', 3)])
+  if (Number.isFinite(s.absorptionAtNm)) out.push([`σabs measured (at ${w} nm)`, `${v('abs_meas')} Mm⁻¹`], ['absorption computed/measured', v('abs_ratio', 3)])
+  return out
+}
+
+/** Every chart of the stack in one PNG (titles, plots and the colour scale), theme background. */
+export function recordPng(): string | null {
+  const plots = shownPlots.plots
+  if (plots.length === 0) return null
+  const ratio = plots[0].ctx.canvas.width / plots[0].width
+  const w = plots[0].ctx.canvas.width
+  const titleH = 24 * ratio
+  const h = plots.reduce((s, u) => s + u.ctx.canvas.height + titleH, 0) + 30 * ratio
+  const out = document.createElement('canvas')
+  out.width = w
+  out.height = h
+  const ctx = out.getContext('2d') as CanvasRenderingContext2D
+  const el = plots[0].root
+  ctx.fillStyle = cssVar('--panel', el)
+  ctx.fillRect(0, 0, w, h)
+  let y = 0
+  plots.forEach((u, i) => {
+    ctx.fillStyle = cssVar('--ink', el)
+    ctx.font = `600 ${13 * ratio}px system-ui, "DejaVu Sans", sans-serif`
+    ctx.fillText(shownPlots.titles[i] ?? '', 8 * ratio, y + 17 * ratio)
+    y += titleH
+    ctx.drawImage(u.ctx.canvas, 0, y)
+    y += u.ctx.canvas.height
+  })
+  // the colour scale under the stack
+  for (let x = 0; x < 200 * ratio; x++) {
+    ctx.fillStyle = colourCss(x / (200 * ratio))
+    ctx.fillRect(8 * ratio + x, y + 8 * ratio, 1, 12 * ratio)
+  }
+  ctx.fillStyle = cssVar('--ink', el)
+  ctx.font = `${12 * ratio}px system-ui, "DejaVu Sans", sans-serif`
+  ctx.fillText('dN/dlogD (cm⁻³), log scale, low → high (see the legend in the app)', 216 * ratio, y + 19 * ratio)
+  return out.toDataURL('image/png')
+}

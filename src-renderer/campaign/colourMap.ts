@@ -1,0 +1,109 @@
+// The record's size distribution as a time–diameter colour map: each pixel of the plot takes the row whose step
+// holds its time and the bin that holds its diameter, coloured by log₁₀ dN/dlogD on a scale of its own
+// (dark violet through blue and green to pale yellow: lightness rises steadily, so it reads in grey and for
+// colour-blind readers). Drawn as one ImageData per redraw, so its cost follows the plot's pixels, not the rows.
+import type uPlot from 'uplot'
+import type { CampaignRecord } from '../../src-core/index.ts'
+
+const ANCHORS: [number, number, number][] = [
+  [38, 20, 66],
+  [40, 70, 140],
+  [34, 138, 150],
+  [110, 190, 90],
+  [246, 232, 120]
+]
+
+/** 256 colours from low to high. */
+export const COLOUR_TABLE: Uint8ClampedArray = (() => {
+  const out = new Uint8ClampedArray(256 * 3)
+  for (let i = 0; i < 256; i++) {
+    const f = (i / 255) * (ANCHORS.length - 1)
+    const a = Math.min(ANCHORS.length - 2, Math.floor(f))
+    const t = f - a
+    for (let c = 0; c < 3; c++) out[i * 3 + c] = ANCHORS[a][c] + t * (ANCHORS[a + 1][c] - ANCHORS[a][c])
+  }
+  return out
+})()
+
+export const colourCss = (share: number): string => {
+  const i = Math.max(0, Math.min(255, Math.round(share * 255))) * 3
+  return `rgb(${COLOUR_TABLE[i]},${COLOUR_TABLE[i + 1]},${COLOUR_TABLE[i + 2]})`
+}
+
+/**
+ * The colour scale's ends, log₁₀ dN/dlogD, in half decades: the 99.5th percentile of the positive values (a sample
+ * of them) at the top, and the 1st percentile but at most five decades below it at the bottom (lower values take
+ * the lowest colour), so that the tails of the bins do not flatten the map.
+ */
+export function colourRange(r: CampaignRecord): [number, number] {
+  const v: number[] = []
+  const step = Math.max(1, Math.floor(r.dNdlogD.length / 200_000))
+  for (let i = 0; i < r.dNdlogD.length; i += step) if (r.dNdlogD[i] > 0) v.push(Math.log10(r.dNdlogD[i]))
+  if (v.length === 0) return [0, 1]
+  v.sort((a, b) => a - b)
+  const hi = v[Math.floor(0.995 * (v.length - 1))]
+  const lo = Math.max(v[Math.floor(0.01 * (v.length - 1))], hi - 5)
+  return hi > lo ? [Math.floor(lo * 2) / 2, Math.ceil(hi * 2) / 2] : [lo - 1, lo + 1]
+}
+
+/** The row whose step holds time t (ms), or −1. */
+function rowAt(r: CampaignRecord, t: number): number {
+  const s = r.times
+  if (s.length === 0 || t < s[0]) return -1
+  let lo = 0
+  let hi = s.length - 1
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1
+    if (s[mid] <= t) lo = mid
+    else hi = mid - 1
+  }
+  const end = Math.min(s[lo] + r.intervalMs, lo + 1 < s.length ? s[lo + 1] : Infinity)
+  return t < end && r.present[lo] ? lo : -1
+}
+
+/** Draws the map into the plot area of `u` (x in s, y in µm on a log scale). */
+export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, number]): void {
+  const { left, top, width, height } = u.bbox
+  if (width < 1 || height < 1) return
+  const ratio = width / u.over.clientWidth || 1
+  const img = u.ctx.createImageData(Math.round(width), Math.round(height))
+  const rows = new Int32Array(img.width)
+  for (let x = 0; x < img.width; x++) rows[x] = rowAt(r, u.posToVal(x / ratio, 'x') * 1000)
+  const e = r.edgesUm
+  const binOf = new Int32Array(img.height)
+  for (let y = 0; y < img.height; y++) {
+    const d = u.posToVal(y / ratio, 'y')
+    let b = -1
+    if (d >= e[0] && d < e[e.length - 1]) {
+      let lo = 0
+      let hi = e.length - 2
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >> 1
+        if (e[mid] <= d) lo = mid
+        else hi = mid - 1
+      }
+      b = lo
+    }
+    binOf[y] = b
+  }
+  const [a, z] = range
+  const scale = 255 / (z - a)
+  const px = img.data
+  for (let x = 0; x < img.width; x++) {
+    const row = rows[x]
+    if (row < 0) continue
+    const base = row * r.bins
+    for (let y = 0; y < img.height; y++) {
+      const b = binOf[y]
+      if (b < 0) continue
+      const v = r.dNdlogD[base + b]
+      const i = v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0
+      const o = (y * img.width + x) * 4
+      px[o] = COLOUR_TABLE[i * 3]
+      px[o + 1] = COLOUR_TABLE[i * 3 + 1]
+      px[o + 2] = COLOUR_TABLE[i * 3 + 2]
+      px[o + 3] = 255
+    }
+  }
+  u.ctx.putImageData(img, Math.round(left), Math.round(top))
+}

@@ -1,0 +1,300 @@
+// The campaign in the app: the study keeps references to the instrument files and the merge parameters
+// (study.campaign, undoable and saved); this session keeps the files' texts, which files could not be read or
+// changed, the record computed from them in a worker, the marked stretch and the visible range.
+import {
+  CAMPAIGN_KIND_WORDS,
+  campaignProblems,
+  isSizerKind,
+  parseSizerText,
+  relativeFilePath,
+  resolveFilePath,
+  stretchSample,
+  textFingerprint,
+  type CampaignBuild,
+  type CampaignFileKind,
+  type CampaignSettings,
+  type Study
+} from '../../src-core/index.ts'
+import { host } from '../host/index.ts'
+import { edit, uniqueName } from '../state/actions.ts'
+import { createStore, newId, store } from '../state/store.ts'
+import type { FromRecordWorker, ToRecordWorker } from './worker.ts'
+
+export interface HeldFile {
+  name: string
+  path?: string
+  text: string
+}
+
+export interface CampaignSession {
+  /** Texts read in this session, by the path the study keeps. */
+  texts: Record<string, HeldFile>
+  /** Kept paths that could not be read: why. */
+  missing: Record<string, string>
+  /** Kept paths whose file differs from the one added: what changed. */
+  changed: Record<string, string>
+  build: CampaignBuild | null
+  /** Why the record could not be made (beyond a file's own summary). */
+  failure: string | null
+  running: boolean
+  share: number
+  /** Milliseconds the last record took in the worker (reading, merging and computing). */
+  ms: number
+  /** The marked stretch and the visible range, ms. */
+  mark: [number, number] | null
+  visible: [number, number] | null
+}
+
+const session = createStore<CampaignSession>({ texts: {}, missing: {}, changed: {}, build: null, failure: null, running: false, share: 0, ms: 0, mark: null, visible: null })
+export const campaignStore = () => session
+
+/** A new campaign's settings: the selected sample, 550 nm (or the study's wavelength nearest it). */
+function freshSettings(study: Study): CampaignSettings {
+  const s = store().get()
+  const i = Math.max(0, s.ids.indexOf(s.selected))
+  const wl = study.wavelengths_nm.reduce((a, b) => (Math.abs(b - 550) < Math.abs(a - 550) ? b : a), study.wavelengths_nm[0] ?? 550)
+  return { files: [], sample: study.samples[i]?.name ?? study.samples[0].name, wavelength_nm: wl, shape_factor: 1 }
+}
+
+/** What a file holds, from its header: measured coefficients by their column names, sizers by their diameter unit. */
+export function guessKind(name: string, text: string): CampaignFileKind {
+  const head = text.slice(0, 4000).toLowerCase()
+  if (/^time\b.*\bscattering \d/m.test(head)) return 'scattering'
+  if (/^time\b.*\babsorption \d/m.test(head)) return 'absorption'
+  if (/volume-equivalent|merged size distribution/.test(head) || /merged/i.test(name)) return 'merged'
+  try {
+    return parseSizerText(text.slice(0, 20000).split(/\r?\n/).slice(0, 60).join('\n'), { fileName: name }).diameterUnit === 'um' ? 'aerodynamic' : 'mobility'
+  } catch {
+    return 'mobility'
+  }
+}
+
+/** Adds files to the campaign (one per kind: a file of a kind already present replaces it). */
+export function addFiles(files: HeldFile[]): void {
+  if (files.length === 0) return
+  const s = store().get()
+  const texts = { ...session.get().texts }
+  const missing = { ...session.get().missing }
+  const changed = { ...session.get().changed }
+  edit((study) => {
+    const c = study.campaign ?? freshSettings(study)
+    for (const f of files) {
+      const kind = guessKind(f.name, f.text)
+      const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
+      const ref = { kind, path: kept, size: f.text.length, hash: textFingerprint(f.text) }
+      const at = c.files.findIndex((x) => x.kind === kind)
+      if (at >= 0) c.files[at] = ref
+      else c.files.push(ref)
+      texts[kept] = f
+      delete missing[kept]
+      delete changed[kept]
+    }
+    study.campaign = c
+  })
+  session.set({ texts, missing, changed })
+  refresh()
+}
+
+/** Points a reference whose file could not be read (or changed) at a file the user chooses. */
+export async function pointAgain(index: number): Promise<void> {
+  const chosen = await host().openInstrumentFiles()
+  if (!chosen || chosen.length === 0) return
+  const f = chosen[0]
+  const s = store().get()
+  const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
+  const old = s.study.campaign?.files[index]?.path
+  edit((study) => {
+    const r = study.campaign?.files[index]
+    if (r) Object.assign(r, { path: kept, size: f.text.length, hash: textFingerprint(f.text) })
+  })
+  const { texts, missing, changed } = session.get()
+  const next = { ...texts, [kept]: f }
+  const m = { ...missing }
+  const c = { ...changed }
+  if (old !== undefined) (delete m[old], delete c[old])
+  session.set({ texts: next, missing: m, changed: c })
+  refresh()
+}
+
+/** Takes a changed file as it now is (its new size and fingerprint are kept). */
+export function acceptChanged(index: number): void {
+  const ref = store().get().study.campaign?.files[index]
+  const held = ref && session.get().texts[ref.path]
+  if (!ref || !held) return
+  edit((study) => {
+    const r = study.campaign?.files[index]
+    if (r) Object.assign(r, { size: held.text.length, hash: textFingerprint(held.text) })
+  })
+  const c = { ...session.get().changed }
+  delete c[ref.path]
+  session.set({ changed: c })
+}
+
+export function removeFile(index: number): void {
+  edit((study) => {
+    study.campaign?.files.splice(index, 1)
+  })
+  refresh()
+}
+
+export function setKind(index: number, kind: CampaignFileKind): void {
+  edit((study) => {
+    const r = study.campaign?.files[index]
+    if (r) r.kind = kind
+  })
+  refresh()
+}
+
+/** Changes a parameter of the campaign (merged with quick successive edits of the same one). */
+export function setParameter(change: (c: CampaignSettings) => void, key: string): void {
+  edit((study) => {
+    if (study.campaign) change(study.campaign)
+  }, `campaign:${key}`)
+  refresh()
+}
+
+/** Reads the files the study refers to that this session does not hold yet (desktop: by path). */
+async function readReferenced(): Promise<void> {
+  const s = store().get()
+  const c = s.study.campaign
+  if (!c) return
+  for (const ref of c.files) {
+    const { texts, missing } = session.get()
+    if (texts[ref.path] || missing[ref.path]) continue
+    const abs = resolveFilePath(s.file?.path, ref.path)
+    const got =
+      host().kind === 'browser'
+        ? { missing: 'a web page cannot open a file by its path' }
+        : abs
+          ? await host().readInstrumentFile(abs)
+          : { missing: `its folder is not known (the study${s.file ? ` ${s.file.name}` : ''} was not saved to a file)` }
+    if ('missing' in got) {
+      session.set({ missing: { ...session.get().missing, [ref.path]: got.missing } })
+      continue
+    }
+    session.set({ texts: { ...session.get().texts, [ref.path]: got } })
+    if (ref.hash && textFingerprint(got.text) !== ref.hash) {
+      const what = ref.size !== undefined && ref.size !== got.text.length ? `its size went from ${ref.size} to ${got.text.length} characters` : 'its contents differ'
+      session.set({ changed: { ...session.get().changed, [ref.path]: `${what} since it was added to the study` } })
+    }
+  }
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// The record, computed in a worker (one at a time; a newer request ends the running one).
+
+let worker: Worker | null = null
+let job = 0
+let timer: ReturnType<typeof setTimeout> | undefined
+let lastKey = ''
+
+function stopWorker(): void {
+  worker?.terminate()
+  worker = null
+}
+
+/** Stops the running computation (the last record, if any, stays). */
+export function stopRecord(): void {
+  job++
+  stopWorker()
+  session.set({ running: false, share: 0, failure: 'Stopped before the record was complete: change a parameter or press “Compute again” to start again.' })
+}
+
+/** Recomputes the record soon if what it depends on changed (files, parameters, the sample, wavelengths). */
+export function refresh(force = false): void {
+  clearTimeout(timer)
+  timer = setTimeout(() => void start(force), 250)
+}
+
+async function start(force: boolean): Promise<void> {
+  await readReferenced()
+  const study = store().get().study
+  const c = study.campaign
+  if (!c || c.files.length === 0) {
+    session.set({ build: null, failure: null, running: false })
+    lastKey = ''
+    return
+  }
+  const problems = campaignProblems(c, study.samples.map((x) => x.name))
+  if (problems.length > 0) {
+    session.set({ failure: problems.map((p) => `${p.message}. ${p.fix}`).join(' '), running: false })
+    return
+  }
+  const { texts } = session.get()
+  const inputs = c.files.filter((f) => texts[f.path]).map((f) => ({ kind: f.kind, name: texts[f.path].name, text: texts[f.path].text }))
+  const sample = study.samples.find((x) => x.name === c.sample)
+  const key = JSON.stringify([c, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
+  if (key === lastKey && !force) return
+  lastKey = key
+  if (!inputs.some((i) => isSizerKind(i.kind))) {
+    session.set({ build: null, running: false, failure: c.files.some((f) => isSizerKind(f.kind)) ? 'The sizer file could not be read at its path: point at it again.' : 'Add a sizer file (mobility, aerodynamic or optical sizer, or a merged distribution): the record is made from its distributions.' })
+    return
+  }
+  stopWorker()
+  const mine = ++job
+  const w = new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
+  worker = w
+  session.set({ running: true, share: 0, failure: null })
+  w.onmessage = (e: MessageEvent<FromRecordWorker>) => {
+    const m = e.data
+    if (m.job !== mine) return
+    if (m.type === 'progress') return session.set({ share: m.share })
+    stopWorker()
+    if (m.type === 'failed') return session.set({ running: false, failure: m.message })
+    session.set({ running: false, share: 1, build: m.build, ms: m.ms, failure: m.build.problem ? `${m.build.problem.message}. ${m.build.problem.fix}` : null, visible: null })
+  }
+  w.onerror = (e) => {
+    e.preventDefault()
+    stopWorker()
+    session.set({ running: false, failure: `The computation stopped (${e.message || 'worker failure'}). Press “Compute again”.` })
+  }
+  w.postMessage({ job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
+}
+
+/** Forgets the session's files (a new or another study). */
+export function resetSession(): void {
+  stopWorker()
+  job++
+  lastKey = ''
+  session.set({ texts: {}, missing: {}, changed: {}, build: null, failure: null, running: false, share: 0, mark: null, visible: null })
+}
+
+export const setMark = (mark: [number, number] | null): void => session.set({ mark })
+export const setVisible = (visible: [number, number] | null): void => session.set({ visible })
+
+/** Makes the marked stretch a sample of the study (selected); returns why not when it cannot. */
+export function makeSample(): string | null {
+  const { build, mark } = session.get()
+  const r = build?.record
+  if (!r || !mark) return 'Mark a stretch of time first (drag across the charts, or type its start and end).'
+  let made
+  try {
+    made = stretchSample(r, mark[0], mark[1])
+  } catch (e) {
+    return (e as Error).message
+  }
+  const id = newId()
+  edit((study, ids) => {
+    study.samples.push({ ...made.sample, name: uniqueName(made.sample.name, study) })
+    ids.push(id)
+  })
+  store().set({ selected: id, view: 'optics', toast: { text: `Made the sample “${made.sample.name}” from ${made.rows} row${made.rows === 1 ? '' : 's'} of the record${made.gapRows ? ` (${made.gapRows} gap rows left out)` : ''}.`, undo: true } })
+  return null
+}
+
+export const kindWords = CAMPAIGN_KIND_WORDS
+
+/** Follows the study: a change of what the record depends on recomputes it; another study forgets the files. */
+export function watchCampaign(): () => void {
+  let study = store().get().study
+  let ids = store().get().ids
+  return store().subscribe(() => {
+    const s = store().get()
+    if (s.study === study) return
+    // a document of its own (open, new, recovery) shares no sample id with the one before
+    if (ids.length > 0 && !s.ids.some((id) => ids.includes(id))) resetSession()
+    study = s.study
+    ids = s.ids
+    if (s.study.campaign || session.get().build) refresh()
+  })
+}

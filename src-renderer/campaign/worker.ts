@@ -1,0 +1,31 @@
+// The campaign's record computed off the page's thread: the files' texts in, the record's typed arrays out
+// (transferred, not copied). All the work is src-core's buildCampaignRecord.
+import { buildCampaignRecord, InputError, type CampaignBuild, type CampaignInput, type CampaignSettings, type Study } from '../../src-core/index.ts'
+
+export type ToRecordWorker = { job: number; inputs: CampaignInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
+export type FromRecordWorker =
+  | { job: number; type: 'progress'; share: number }
+  | { job: number; type: 'done'; build: CampaignBuild; ms: number }
+  | { job: number; type: 'failed'; message: string; fix: string }
+
+self.onmessage = (e: MessageEvent<ToRecordWorker>) => {
+  const { job, inputs, settings, study } = e.data
+  const started = performance.now()
+  const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer)
+  try {
+    let last = 0
+    const build = buildCampaignRecord(inputs, settings, study, {
+      onProgress: (share) => {
+        const now = performance.now()
+        if (now - last > 100) post({ job, type: 'progress', share })
+        last = now
+      }
+    })
+    const r = build.record
+    const transfer = r ? [r.times.buffer, r.present.buffer, r.values.buffer, r.dNdlogD.buffer, r.cells.buffer, r.measured.buffer] : []
+    post({ job, type: 'done', build, ms: performance.now() - started }, transfer as Transferable[])
+  } catch (err) {
+    if (err instanceof InputError) post({ job, type: 'failed', message: err.message, fix: err.fix })
+    else post({ job, type: 'failed', message: (err as Error)?.message ?? String(err), fix: 'This is a fault of the program; please report it with the files.' })
+  }
+}
