@@ -6,6 +6,7 @@ import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
 import { recordSeries, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
+import { themedAxis } from '../charts/axis.ts'
 import { lineStyle, type Theme } from '../charts/palette.ts'
 import { num } from '../format.ts'
 import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
@@ -63,7 +64,6 @@ function cssVar(name: string, el: Element): string {
   return getComputedStyle(el).getPropertyValue(name).trim() || '#000'
 }
 
-const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
 
 /** UTC time labels: the record's clock (a naive clock is shown as written). */
 const tzDate = (ts: number) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC')
@@ -140,18 +140,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       u.ctx.fillRect(Math.min(a, b), top, Math.max(2, Math.abs(b - a)), height)
       u.ctx.restore()
     }
-    const axis = (label: string, side?: number): uPlot.Axis => ({
-      label,
-      stroke: ink,
-      font: FONT,
-      labelFont: FONT,
-      ...(side !== undefined ? { side } : {}),
-      grid: { stroke: grid, width: 1, show: side !== 1 },
-      ticks: { stroke: grid, width: 1 },
-      size: 56,
-      space: 24,
-      labelSize: 16
-    })
+    const axis = (label: string, side?: number): uPlot.Axis => ({ ...themedAxis(label, ink, grid, side), size: 56, space: 24 })
     for (const p of list) {
       const fig = document.createElement('figure')
       fig.className = 'chart record-chart'

@@ -6,6 +6,7 @@ import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
 import { host } from '../host/index.ts'
 import { fileStem, minus } from '../format.ts'
+import { CHART_FONT, themedAxis } from './axis.ts'
 import { DashSwatch } from './DashSwatch.tsx'
 import type { Theme } from './palette.ts'
 
@@ -66,22 +67,14 @@ function tick(v: number | null): string {
   return minus(String(Number(v.toPrecision(4))))
 }
 
-const FONT = '12px system-ui, "Segoe UI", "DejaVu Sans", sans-serif'
 
 /** `current` gives the newest props: the drawing hooks draw what the chart shows now, not what it first showed. */
 function options(p: ChartProps, width: number, el: Element, current: () => ChartProps = () => p): uPlot.Options {
   const ink = cssVar('--ink', el)
   const grid = cssVar('--grid', el)
   const axis = (label: string, side?: number, ticks?: number[]): uPlot.Axis => ({
-    label,
-    stroke: ink,
-    font: FONT,
-    labelFont: FONT,
-    ...(side !== undefined ? { side } : {}),
-    grid: { stroke: grid, width: 1, show: side !== 1 },
-    ticks: { stroke: grid, width: 1 },
+    ...themedAxis(label, ink, grid, side),
     size: 50,
-    labelSize: 16,
     gap: 3,
     values: (_u: uPlot, splits: number[]) => splits.map(tick),
     ...(ticks ? { splits: () => ticks, filter: (_u: uPlot, splits: number[]) => splits } : {})
@@ -159,7 +152,7 @@ export function chartPng(u: uPlot, title: string, lines: Line[]): string {
   ctx.setTransform(1, 0, 0, 1, 0, 0)
   ctx.drawImage(src, 0, 30 * ratio)
   ctx.scale(ratio, ratio)
-  ctx.font = FONT
+  ctx.font = CHART_FONT
   lines.forEach((l, i) => {
     const x = 8 + (i % 3) * (u.width / 3)
     const y = src.height / ratio + 44 + Math.floor(i / 3) * 20
