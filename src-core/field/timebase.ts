@@ -12,6 +12,7 @@
  * is right for concentrations). A step without records has no average: callers say so, never fill it.
  */
 import { InputError } from '../errors.ts'
+import { lastAtOrBelow } from '../numeric/index.ts'
 
 /** A parsed time stamp: milliseconds (since 1970-01-01 in UTC, or in the naive clock) and whether a zone was given. */
 export interface TimeStamp {
@@ -135,16 +136,8 @@ export function stampTimeBase(timesMs: ArrayLike<number>, intervalMs?: number): 
 
 /** The step holding t, or −1 (binary search). */
 export function stepOf(base: TimeBase, t: number): number {
-  const s = base.starts
-  let lo = 0
-  let hi = s.length - 1
-  if (hi < 0 || t < s[0]) return -1
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1
-    if (s[mid] <= t) lo = mid
-    else hi = mid - 1
-  }
-  return t < base.ends[lo] ? lo : -1
+  const k = lastAtOrBelow(base.starts, t)
+  return k >= 0 && t < base.ends[k] ? k : -1
 }
 
 /**

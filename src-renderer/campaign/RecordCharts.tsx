@@ -5,7 +5,7 @@
 import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
-import { recordSeries, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
+import { lastAtOrBelow, recordSeries, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
 import { themedAxis } from '../charts/axis.ts'
 import { lineStyle, type Theme } from '../charts/palette.ts'
 import { num } from '../format.ts'
@@ -341,13 +341,7 @@ const x0Of = (s: RecordSeries) => s.x[0] ?? 0
 function rowNear(r: CampaignRecord, x: number | undefined): number {
   if (x === undefined || r.times.length === 0) return -1
   const t = x * 1000
-  let lo = 0
-  let hi = r.times.length - 1
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1
-    if (r.times[mid] <= t) lo = mid
-    else hi = mid - 1
-  }
+  const lo = Math.max(0, lastAtOrBelow(r.times, t))
   return lo + 1 < r.times.length && r.times[lo + 1] - t < t - r.times[lo] ? lo + 1 : lo
 }
 

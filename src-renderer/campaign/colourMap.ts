@@ -3,7 +3,7 @@
 // (dark violet through blue and green to pale yellow: lightness rises steadily, so it reads in grey and for
 // colour-blind readers). Drawn as one ImageData per redraw, so its cost follows the plot's pixels, not the rows.
 import type uPlot from 'uplot'
-import type { CampaignRecord } from '../../src-core/index.ts'
+import { lastAtOrBelow, type CampaignRecord } from '../../src-core/index.ts'
 
 const ANCHORS: [number, number, number][] = [
   [38, 20, 66],
@@ -49,14 +49,8 @@ export function colourRange(r: CampaignRecord): [number, number] {
 /** The row whose step holds time t (ms), or −1. */
 function rowAt(r: CampaignRecord, t: number): number {
   const s = r.times
-  if (s.length === 0 || t < s[0]) return -1
-  let lo = 0
-  let hi = s.length - 1
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1
-    if (s[mid] <= t) lo = mid
-    else hi = mid - 1
-  }
+  const lo = lastAtOrBelow(s, t)
+  if (lo < 0) return -1
   const end = Math.min(s[lo] + r.intervalMs, lo + 1 < s.length ? s[lo + 1] : Infinity)
   return t < end && r.present[lo] ? lo : -1
 }
@@ -73,18 +67,8 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
   const binOf = new Int32Array(img.height)
   for (let y = 0; y < img.height; y++) {
     const d = u.posToVal(y / ratio, 'y')
-    let b = -1
-    if (d >= e[0] && d < e[e.length - 1]) {
-      let lo = 0
-      let hi = e.length - 2
-      while (lo < hi) {
-        const mid = (lo + hi + 1) >> 1
-        if (e[mid] <= d) lo = mid
-        else hi = mid - 1
-      }
-      b = lo
-    }
-    binOf[y] = b
+    // the bin whose lower edge is the last at or below d (bins are e[b] .. e[b + 1])
+    binOf[y] = d < e[e.length - 1] ? lastAtOrBelow(e, d, e.length - 1) : -1
   }
   const [a, z] = range
   const scale = 255 / (z - a)
