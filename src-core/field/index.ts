@@ -59,7 +59,7 @@ export type {
 export { MAX_KEPT_REJECTIONS, MAX_HELD_ROWS, createSizerReader, parseSizerText, sizerRecordToBins } from './reader.ts'
 export { SizerChoiceNeeded, type SizerChoice } from './text.ts'
 export { inferDiameterUnit } from './plan.ts'
-export { type DateOrder, type ParsedTime, DATE_ORDER_NAMES, readDateTime, readClock, readDayOfYear, readEpochSeconds, epochNamed, isoText } from './time.ts'
+export { type DateOrder, type ParsedTime, DATE_ORDER_NAMES, readDateTime, readPlainIso, readClock, readDayOfYear, readEpochSeconds, epochNamed, isoText } from './time.ts'
 export { readNumber, parseCellNumber } from './cells.ts'
 export { type AveragedRecords, averageRecords } from './average.ts'
 export {

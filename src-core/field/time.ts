@@ -123,6 +123,10 @@ export interface ParsedTime {
  * applies to times that state none. Undefined when the cell is not a date of that order or the time is bad.
  */
 export function readDateTime(dateCell: string, clockCell: string | undefined, order: DateOrder, defaultZone: number | undefined): ParsedTime | undefined {
+  if (clockCell === undefined && order === 'ymd') {
+    const fast = readPlainIso(dateCell, defaultZone)
+    if (fast) return fast
+  }
   const p = dateParts(dateCell.trim())
   if (!p) return undefined
   const ymd = ymdOf(p, order)
@@ -138,6 +142,45 @@ export function readDateTime(dateCell: string, clockCell: string | undefined, or
   const zone = c.zone ?? defaultZone
   const clockMs = day + Math.round(c.seconds * 1000)
   return { iso: isoText(clockMs, zone), ms: clockMs - (zone ?? 0) * 60000 }
+}
+
+const digit = (text: string, i: number): number => {
+  const c = text.charCodeAt(i) - 48
+  return c >= 0 && c <= 9 ? c : NaN
+}
+const digits2 = (text: string, i: number): number => 10 * digit(text, i) + digit(text, i + 1)
+
+/**
+ * The common machine-written form YYYY-MM-DDTHH:MM:SS, with 'T' or one space, optionally .fff (three digits)
+ * and optionally Z, read character by character: what readDateTime gives for it, without its regular
+ * expressions (a sizer's time column is read on every row). Undefined for anything else (a year before 1000,
+ * 24:00, a leap second, other fractions or zones), which readDateTime's general path then reads or refuses;
+ * test/field/time-fast.test.ts compares the two on many cells.
+ */
+export function readPlainIso(cell: string, defaultZone: number | undefined): ParsedTime | undefined {
+  const n = cell.length
+  if (n !== 19 && n !== 20 && n !== 23 && n !== 24) return undefined
+  const sep = cell.charCodeAt(10)
+  if (cell.charCodeAt(4) !== 45 || cell.charCodeAt(7) !== 45 || (sep !== 84 && sep !== 32) || cell.charCodeAt(13) !== 58 || cell.charCodeAt(16) !== 58) return undefined
+  const zulu = cell.charCodeAt(n - 1) === 90 // 'Z'
+  const fracEnd = zulu ? n - 1 : n
+  if (fracEnd !== 19 && !(fracEnd === 23 && cell.charCodeAt(19) === 46)) return undefined
+  const y = 100 * digits2(cell, 0) + digits2(cell, 2)
+  const mo = digits2(cell, 5)
+  const d = digits2(cell, 8)
+  const h = digits2(cell, 11)
+  const mi = digits2(cell, 14)
+  const sec = digits2(cell, 17)
+  const ms = fracEnd === 23 ? 100 * digit(cell, 20) + digits2(cell, 21) : 0
+  // NaN (a character that is not a digit) fails every comparison below
+  if (!(y >= 1000 && mo >= 1 && mo <= 12 && d >= 1 && d <= DAYS_IN_MONTH[mo - 1] && h <= 23 && mi <= 59 && sec <= 59 && ms >= 0)) return undefined
+  if (mo === 2 && d === 29 && !(y % 4 === 0 && (y % 100 !== 0 || y % 400 === 0))) return undefined
+  const clockMs = Date.UTC(y, mo - 1, d, h, mi, sec, ms)
+  const zone = zulu ? 0 : defaultZone
+  // ISO text as isoText writes it: 'T', a fraction only when not whole, the zone when known
+  const body = ms === 0 ? (n === 19 || n === 20) && sep === 84 ? cell.slice(0, 19) : cell.slice(0, 10) + 'T' + cell.slice(11, 19) : sep === 84 ? cell.slice(0, 23) : cell.slice(0, 10) + 'T' + cell.slice(11, 23)
+  const iso = zone === undefined ? body : zulu && body.length === n - 1 && sep === 84 ? cell : body + zoneText(zone)
+  return { iso, ms: clockMs - (zone ?? 0) * 60000 }
 }
 
 /** A decimal day of year (1.0 = 1 January 00:00) of `year`, rounded to the second. */
