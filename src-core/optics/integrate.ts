@@ -391,6 +391,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   const hasFlat = segs.some((sg) => sg.s.flat)
   // The nodes added are counted against the cache's bound even when the caller gives the work up between
   // steps (drive() in the app's workers calls return(), which runs this finally): they stay in the cache.
+  nodes.users++
   try {
     for (; lv <= opts.maxLevel; lv++) {
       const withAngles = !anglesFrozen
@@ -472,6 +473,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       negligibleSca = 1e-8 * figures.sca
     }
   } finally {
+    nodes.users--
     ws.nodes.grew(added)
   }
   addInto(into, result)

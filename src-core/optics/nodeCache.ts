@@ -42,9 +42,20 @@ export class NodeTable {
   private readonly keyIds = new Map<string, number>()
   angular = new Float64Array(4096)
   private angularUsed = 0
+  /** Integrations using this table now (a stepped one may be paused): a dropped table in use is not reused. */
+  users = 0
 
   get size(): number {
     return this.count
+  }
+
+  /** Empties the table for another context, keeping its arrays (their size is what the last context needed). */
+  reset(): this {
+    this.index.clear()
+    this.keyIds.clear()
+    this.count = 0
+    this.angularUsed = 0
+    return this
   }
 
   /** The node at lattice position t, or −1. */
@@ -115,14 +126,25 @@ export class NodeTable {
       bigger.set(this.angular.subarray(0, at))
       this.angular = bigger
     }
+    // a table handed on from a dropped context holds its old rows here; the angular tables add into a row
+    this.angular.fill(0, at, at + width)
     this.angularUsed = at + width
     return at
   }
 }
 
+/** Dropped tables kept for reuse. */
+const MAX_SPARE_TABLES = 4
+
 export class NodeCache {
   private contexts = new Map<string, NodeTable>()
   private count = 0
+  /**
+   * Tables of dropped contexts, emptied and given to the next new context: a run whose contexts are never used
+   * twice (each draw of an uncertainty run has its own humidity and indices) would otherwise allocate and grow
+   * new arrays for every one, and leave the old to the garbage collector.
+   */
+  private spare: NodeTable[] = []
 
   constructor(readonly limit = 400_000) {}
 
@@ -132,7 +154,7 @@ export class NodeCache {
     if (nodes) {
       this.contexts.delete(key)
     } else {
-      nodes = new NodeTable()
+      nodes = this.spare.pop()?.reset() ?? new NodeTable()
     }
     this.contexts.set(key, nodes)
     return nodes
@@ -149,6 +171,7 @@ export class NodeCache {
       if (this.count <= this.limit * 0.75) break
       this.count -= nodes.size
       this.contexts.delete(key)
+      if (nodes.users === 0 && this.spare.length < MAX_SPARE_TABLES) this.spare.push(nodes)
     }
   }
 
@@ -158,6 +181,7 @@ export class NodeCache {
 
   clear(): void {
     this.contexts.clear()
+    this.spare.length = 0
     this.count = 0
   }
 }

@@ -28,6 +28,8 @@ export {
   planUncertainty,
   drawUniforms,
   computeDraws,
+  drawWorkspace,
+  UNCERTAINTY_NODE_LIMIT,
   mergeDrawBlocks,
   drawColumn,
   earlyStopPoint,

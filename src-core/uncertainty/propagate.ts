@@ -501,6 +501,20 @@ function perturbedMaterials(plan: UncertaintyPlan, index: DrawState['index']): M
   return [...extra, ...plan.own]
 }
 
+/**
+ * Node limit of a draws' workspace. A draw with its own humidity or indices has its own node context, never used
+ * again: under the default limit (400,000 nodes, about 220 MB with the angular rows) a run kept them all and grew
+ * new tables for each draw; under this one the cache keeps the last few dozen draws' nodes and hands dropped
+ * tables on to new contexts (nodeCache.ts). Draws that share a context (only amounts, sizes or the site drawn)
+ * still find its nodes.
+ */
+export const UNCERTAINTY_NODE_LIMIT = 20_000
+
+/** A workspace for computing draws (see UNCERTAINTY_NODE_LIMIT). */
+export function drawWorkspace(): OpticsWorkspace {
+  return new OpticsWorkspace(UNCERTAINTY_NODE_LIMIT)
+}
+
 /** The unperturbed sample's optics at 550 nm, with its infrared band optics. */
 function nominalOptics(plan: UncertaintyPlan, sample: Sample, ws: OpticsWorkspace): SampleOptics {
   return computeSampleOptics(
@@ -560,7 +574,7 @@ export function drawUniforms(plan: Pick<UncertaintyPlan, 'seed' | 'draws' | 'str
  * the same numbers on any worker. `keepGoing` is asked before each draw; false stops the block early
  * (its `count` then says how many were made).
  */
-export function computeDraws(plan: UncertaintyPlan, start: number, end: number, workspace = new OpticsWorkspace(), keepGoing?: () => boolean): DrawBlock {
+export function computeDraws(plan: UncertaintyPlan, start: number, end: number, workspace = drawWorkspace(), keepGoing?: () => boolean): DrawBlock {
   if (!(Number.isInteger(start) && Number.isInteger(end) && start >= 0 && end >= start && end <= plan.draws)) {
     throw new InputError('uncertainty: draws', `draws ${start} to ${end} are not within 0 to ${plan.draws}`, 'Ask for draws inside the plan.')
   }
@@ -679,7 +693,7 @@ export interface UncertaintyResult {
 }
 
 /** The plain calculation of the plan's sample (no perturbation) at the run's settings. */
-export function centralFigures(plan: UncertaintyPlan, workspace = new OpticsWorkspace()): Float64Array {
+export function centralFigures(plan: UncertaintyPlan, workspace = drawWorkspace()): Float64Array {
   const optics = plan.fixedOptics ?? drawOptics(plan, plan.sample, new Map(), workspace)
   const out = new Float64Array(N_OUT)
   recordFigures(optics, sampleForcing(optics, plan.site, plan.marginWm2), out, 0)
@@ -732,7 +746,7 @@ export type UncertaintyProgress = (p: { done: number; total: number }) => boolea
  */
 export function runUncertainty(study: Study, sampleName: string, options: UncertaintyRunOptions = {}, onProgress?: UncertaintyProgress): UncertaintyResult {
   const plan = planUncertainty(study, sampleName, options)
-  const ws = new OpticsWorkspace()
+  const ws = drawWorkspace()
   const blocks: DrawBlock[] = []
   let done = 0
   let status: UncertaintyStatus = 'completed'

@@ -8,7 +8,7 @@ import {
   centralFigures,
   computeDraws,
   earlyStopPoint,
-  OpticsWorkspace,
+  drawWorkspace,
   InputError,
   mergeDrawBlocks,
   parseStudy,
@@ -179,7 +179,7 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
       })
     }
     // This thread works too, one block at a time, yielding between blocks for messages and Ctrl-C.
-    const ws = new OpticsWorkspace()
+    const ws = drawWorkspace()
     const own = async () => {
       while (!finished && nextChunk < chunks.length) {
         const [start, end] = chunks[nextChunk++]

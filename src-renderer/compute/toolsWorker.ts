@@ -10,7 +10,7 @@ import {
   mergeDrawBlocks,
   mixRefractiveIndices,
   nephelometerTruncation,
-  OpticsWorkspace,
+  drawWorkspace,
   planUncertainty,
   probabilityPositive,
   rebinOpcEdges,
@@ -84,7 +84,7 @@ async function uncertainty(m: Extract<ToTools, { type: 'uncertainty' }>): Promis
     return
   }
   const nIn = plan.inputs.length
-  const ws = new OpticsWorkspace()
+  const ws = drawWorkspace()
   let merged: DrawBlock = { start: 0, count: 0, inputs: new Float64Array(0), outputs: new Float64Array(0) }
   let status: UncertaintyStatus = 'completed'
   post({ type: 'progress', run: m.run, done: 0, total: plan.draws })

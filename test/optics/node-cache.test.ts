@@ -1,7 +1,7 @@
 // The node cache (src-core/optics/nodeCache.ts) must be invisible in the results: a computation that takes
 // nodes from an earlier one gives the figures a cold computation gives, and only the Mie evaluations change.
 import { describe, expect, it } from 'vitest'
-import { computeSampleOptics, demoStudy, OpticsWorkspace, type Sample, type SampleOptics } from '../../src-core/index.ts'
+import { computeSampleOptics, demoStudy, finish, OpticsWorkspace, sampleOpticsSteps, type Sample, type SampleOptics } from '../../src-core/index.ts'
 
 // three of the demo's wavelengths keep the test quick
 const study = { ...demoStudy(), wavelengths_nm: [450, 550, 700] }
@@ -85,5 +85,18 @@ describe('node cache', () => {
     const r = computeSampleOptics(coastal, study, { workspace: small })
     expect(small.nodes.size).toBeLessThanOrEqual(2000)
     expectSameFigures(r, computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace() }))
+    // the dropped contexts' tables are handed on to new ones (emptied, rows zeroed): a second sample through the
+    // same small workspace also gives the cold figures
+    const other = study.samples.find((s) => s !== coastal)!
+    expectSameFigures(computeSampleOptics(other, study, { workspace: small }), computeSampleOptics(other, study, { workspace: new OpticsWorkspace() }))
+  })
+
+  it('a paused integration keeps its nodes while another computation on the workspace drops its context', () => {
+    const small = new OpticsWorkspace(500)
+    const paused = sampleOpticsSteps(coastal, study, { workspace: small })
+    for (let i = 0; i < 3; i++) paused.next() // into the first wavelength's integration
+    const other = study.samples.find((s) => s !== coastal)!
+    computeSampleOptics(other, study, { workspace: small }) // drops every older context, the paused one's too
+    expectSameFigures(finish(paused), computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace() }))
   })
 })

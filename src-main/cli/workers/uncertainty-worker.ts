@@ -2,7 +2,7 @@
 // Messages in: { type: 'draws', start, end }. Out: { type: 'block', start, count, inputs, outputs } (buffers
 // transferred) or { type: 'error', ... }. The plan is rebuilt here from the study (planning is deterministic).
 import { parentPort, workerData } from 'node:worker_threads'
-import { computeDraws, InputError, OpticsWorkspace, planUncertainty, type Study, type UncertaintyRunOptions } from '../../../src-core/index.ts'
+import { computeDraws, drawWorkspace, InputError, planUncertainty, type Study, type UncertaintyRunOptions } from '../../../src-core/index.ts'
 
 const port = parentPort!
 const data = workerData as { study: Study; sampleName: string; options: UncertaintyRunOptions }
@@ -14,7 +14,7 @@ function fail(e: unknown): void {
 
 try {
   const plan = planUncertainty(data.study, data.sampleName, data.options)
-  const ws = new OpticsWorkspace()
+  const ws = drawWorkspace()
   port.on('message', (m: { type: string; start: number; end: number }) => {
     if (m.type !== 'draws') return
     try {
