@@ -53,6 +53,11 @@ export type CampaignSettings = {
   counter?: { n: number; k: number; wavelength_nm: number; angles_deg: [number, number] }
   /** Averaging step of the merge, s (default: the coarsest sizer's interval). */
   step_s?: number
+  /**
+   * Correct the measured scattering for the nephelometer's angular truncation (as `series --truncation`): the
+   * angles it sees, degrees (default DEFAULT_NEPHELOMETER_ANGLES, 7–170°). Absent: compared as measured.
+   */
+  truncation?: { angles_deg: [number, number] }
 }
 
 const positive = (what: string, example: string, lo = 0, hi = Infinity) =>
@@ -86,7 +91,8 @@ export const campaignSettingsSchema = z.strictObject({
       angles_deg: z.tuple([z.number().min(0).max(180), z.number().min(0).max(180)])
     })
     .optional(),
-  step_s: positive('the averaging step in seconds', '300', 0, 86400 * 31).optional()
+  step_s: positive('the averaging step in seconds', '300', 0, 86400 * 31).optional(),
+  truncation: z.strictObject({ angles_deg: z.tuple([z.number().min(0).max(90), z.number().gt(90).max(180)]) }).optional()
 })
 
 /** One relation the schema cannot see: where (a JSON path under `campaign`), what and how to fix it. */
@@ -117,6 +123,9 @@ export function campaignProblems(c: CampaignSettings, sampleNames: readonly stri
   }
   if (c.counter && !(c.counter.angles_deg[1] > c.counter.angles_deg[0])) {
     out.push({ path: 'campaign.counter.angles_deg', message: `the collection angles ${c.counter.angles_deg[0]}–${c.counter.angles_deg[1]}° do not ascend`, fix: 'Give the lower angle first, e.g. [35, 120].' })
+  }
+  if (c.truncation && !(c.truncation.angles_deg[1] > c.truncation.angles_deg[0])) {
+    out.push({ path: 'campaign.truncation.angles_deg', message: `the nephelometer's angles ${c.truncation.angles_deg[0]}–${c.truncation.angles_deg[1]}° do not ascend`, fix: 'Give the lower angle first, e.g. [7, 170].' })
   }
   if (!sampleNames.includes(c.sample)) {
     out.push({ path: 'campaign.sample', message: `no sample is named "${c.sample}"`, fix: `Name the sample whose composition and humidity the record takes: ${sampleNames.map((n) => `"${n}"`).join(', ')}.` })

@@ -25,6 +25,8 @@ export interface RecordSeries {
   /** The wavelength each measured figure is compared at, nm (NaN when there is no such instrument). */
   scatteringAtNm: number
   absorptionAtNm: number
+  /** true: `sca_meas` (and so `sca_ratio`) is the measured scattering corrected for the nephelometer's truncation. */
+  scatteringCorrected: boolean
 }
 
 const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
@@ -36,7 +38,8 @@ const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
  * computed figure; a spacing above 1.5 times the record's interval gets a break, so lines stop across gaps.
  * Measured scattering is the nephelometer's at its wavelength nearest the chosen one (compared with the computed
  * scattering there); measured absorption is carried to the chosen wavelength by its own Ångström exponent
- * (absorptionAt, as `series` carries it for ω).
+ * (absorptionAt, as `series` carries it for ω). With the truncation correction on, the measured scattering and its
+ * ratio are the corrected ones (`sca_meas_corr_…`, as `series --truncation` writes them).
  */
 export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): RecordSeries {
   const col = (name: string) => r.columns.indexOf(name)
@@ -56,11 +59,13 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
   const absCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'absorption')
   const nearest = scaCh.length > 0 ? scaCh.reduce((a, b) => (Math.abs(b.c.wavelengthNm - w) < Math.abs(a.c.wavelengthNm - w) ? b : a)) : undefined
   const iScaAt = nearest ? col(`sca_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
+  // with the truncation correction on (campaign.truncation), the corrected measured scattering (RowComparer's)
+  const iScaCorr = nearest ? col(`sca_meas_corr_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
   const absWl = absCh.map((x) => x.c.wavelengthNm)
   const absVals = new Float64Array(absCh.length)
   const width = r.columns.length
   const nc = r.channels.length
-  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN }
+  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN, scatteringCorrected: iScaCorr >= 0 }
   const push = (t: number, row: number) => {
     out.x.push(t / 1000)
     out.row.push(row)
@@ -78,7 +83,7 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
     v.angstrom.push(finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1])))
     v.number.push(finite(r.cells[c + iN]))
     v.mass.push(finite(r.cells[c + iM]))
-    const sm = nearest ? r.measured[row * nc + nearest.i] : NaN
+    const sm = iScaCorr >= 0 ? r.cells[c + iScaCorr] : nearest ? r.measured[row * nc + nearest.i] : NaN
     v.sca_meas.push(finite(sm))
     v.sca_ratio.push(sm > 0 ? finite(r.cells[c + iScaAt] / sm) : null)
     for (let j = 0; j < absCh.length; j++) absVals[j] = r.measured[row * nc + absCh[j].i]

@@ -200,7 +200,8 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
     firsts.push(channels.length)
     for (const c of f.header.channels) channels.push({ quantity: c.quantity, wavelengthNm: c.wavelengthNm, file: f.summary.name })
   }
-  const plan: ComparisonPlan = { channels, truncation: null, closure: null }
+  const t = settings.truncation?.angles_deg
+  const plan: ComparisonPlan = { channels, truncation: t && channels.some((c) => c.quantity === 'scattering') ? { lowDeg: t[0], highDeg: t[1] } : null, closure: null }
   const base = [...new Set([...study.wavelengths_nm, settings.wavelength_nm])].sort((a, b) => a - b)
   const wavelengthsNm = [...new Set([...base, ...instrumentWavelengths(plan)])].sort((a, b) => a - b)
 

@@ -1,7 +1,7 @@
 // The station record: the campaign's instrument files with their reading summaries, the merge parameters, the
 // record over time in stacked charts, a marked stretch made into a sample, and the record's exports.
 import { useState } from 'preact/hooks'
-import { CAMPAIGN_FILE_KINDS, readDateTime, recordCsv, type CampaignFileSummary, type CampaignSettings } from '../../src-core/index.ts'
+import { CAMPAIGN_FILE_KINDS, DEFAULT_NEPHELOMETER_ANGLES, readDateTime, recordCsv, type CampaignFileSummary, type CampaignSettings } from '../../src-core/index.ts'
 import { host } from '../host/index.ts'
 import { addFiles, acceptChanged, campaignStore, kindWords, makeSample, pointAgain, refresh, removeFile, setKind, setMark, setParameter, stopRecord } from '../campaign/session.ts'
 import { RecordCharts, recordPng, zoomControls } from '../campaign/RecordCharts.tsx'
@@ -153,6 +153,8 @@ function Parameters(p: { c: CampaignSettings }) {
   const s = useApp()
   const c = p.c
   const hasOptical = c.files.some((f) => f.kind === 'optical')
+  const hasScattering = c.files.some((f) => f.kind === 'scattering')
+  const angles = c.truncation?.angles_deg
   return (
     <section class="record-params" aria-label="Record parameters">
       <label class="record-param">
@@ -179,6 +181,23 @@ function Parameters(p: { c: CampaignSettings }) {
         read={(v) => (v > 0 && v <= 44640 ? null : 'give a step above 0 min')}
         commit={(v) => setParameter((x) => (v === undefined ? delete x.step_s : (x.step_s = v * 60)), 'step')}
       />
+      {hasScattering && (
+        <label class="record-param" title="Multiplies the measured scattering by C = σ true / σ seen from each row's own phase function (after Anderson & Ogren 1998), as motebench series --truncation does">
+          <input
+            type="checkbox"
+            checked={!!angles}
+            data-testid="record-truncation"
+            onChange={(e) => setParameter((x) => ((e.target as HTMLInputElement).checked ? (x.truncation = { angles_deg: [...DEFAULT_NEPHELOMETER_ANGLES] as [number, number] }) : delete x.truncation), 'truncation')}
+          />
+          <span>Correct the measured scattering for truncation</span>
+        </label>
+      )}
+      {hasScattering && angles && (
+        <>
+          <ParamField label="Nephelometer sees from" unit="°" value={angles[0]} testId="record-neph-low" read={(v) => (v >= 0 && v < angles[1] && v <= 90 ? null : `give 0 to ${Math.min(90, angles[1])}°`)} commit={(v) => setParameter((x) => x.truncation && (x.truncation.angles_deg = [v!, x.truncation.angles_deg[1]]), 'neph-low')} />
+          <ParamField label="to" unit="°" value={angles[1]} testId="record-neph-high" read={(v) => (v > 90 && v <= 180 ? null : 'give above 90 to 180°')} commit={(v) => setParameter((x) => x.truncation && (x.truncation.angles_deg = [x.truncation.angles_deg[0], v!]), 'neph-high')} />
+        </>
+      )}
       {hasOptical && (
         <>
           <ParamField label="Counter index n" unit="" value={c.counter?.n} testId="record-counter-n" read={(v) => (v > 1 && v <= 3 ? null : 'give n from 1 to 3')} commit={(v) => setParameter((x) => (x.counter = { n: v!, k: x.counter?.k ?? 0, wavelength_nm: x.counter?.wavelength_nm ?? 780, angles_deg: x.counter?.angles_deg ?? [35, 120] }), 'cn')} />
