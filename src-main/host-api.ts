@@ -30,6 +30,8 @@ export interface OpenedFile {
   name: string
   path?: string
   text: string
+  /** Instrument files read by the desktop: the whole text's fingerprint (src-core/field/fingerprint.ts), made by the host. */
+  fingerprint?: string
 }
 
 /** A recovery copy found at start-up. */

@@ -13,6 +13,7 @@
  * }
  */
 import { z } from 'zod'
+export { fileChange, textFingerprint, wholeTextFingerprint, WHOLE_FINGERPRINT } from './fingerprint.ts'
 
 /** What an instrument file holds: a sizer's distributions (or an already merged file), or measured coefficients. */
 export const CAMPAIGN_FILE_KINDS = ['mobility', 'aerodynamic', 'optical', 'merged', 'scattering', 'absorption'] as const
@@ -171,27 +172,4 @@ export function resolveFilePath(studyPath: string | undefined, kept: string): st
     else out.push(s)
   }
   return r + out.join('/')
-}
-
-/** Characters of a text's beginning and of its end that its fingerprint reads. */
-const FINGERPRINT_SPAN = 1 << 16
-
-/**
- * A short fingerprint of a file's text: FNV-1a, 32 bits, hex (Fowler, Noll & Vo 1991), of its length, its first
- * and its last FINGERPRINT_SPAN characters. It notices an instrument file that grew, was cut, or replaced, without
- * reading a year of rows on the page; an edit in the middle of a long file alone goes unnoticed. Not a security hash.
- */
-export function textFingerprint(text: string): string {
-  let h = 0x811c9dc5
-  const mix = (c: number) => {
-    h ^= c
-    h = Math.imul(h, 0x01000193)
-  }
-  const n = text.length
-  mix(n & 0xffff)
-  mix(n >>> 16)
-  const head = Math.min(n, FINGERPRINT_SPAN)
-  for (let i = 0; i < head; i++) mix(text.charCodeAt(i))
-  for (let i = Math.max(head, n - FINGERPRINT_SPAN); i < n; i++) mix(text.charCodeAt(i))
-  return (h >>> 0).toString(16).padStart(8, '0')
 }

@@ -104,7 +104,10 @@ export {
   folderOf,
   relativeFilePath,
   resolveFilePath,
-  textFingerprint
+  textFingerprint,
+  wholeTextFingerprint,
+  fileChange,
+  WHOLE_FINGERPRINT
 } from './campaign-settings.ts'
 export {
   type CampaignInput,

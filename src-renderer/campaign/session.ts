@@ -10,6 +10,7 @@ import {
   resolveFilePath,
   stretchSample,
   textFingerprint,
+  fileChange,
   type CampaignBuild,
   type CampaignFileKind,
   type CampaignSettings,
@@ -24,7 +25,12 @@ export interface HeldFile {
   name: string
   path?: string
   text: string
+  /** The desktop host's fingerprint of the whole text (absent: the page makes the sampled one). */
+  fingerprint?: string
 }
+
+/** The fingerprint a reference keeps: the host's whole-text one (desktop), else the sampled one made here. */
+const fingerprintOf = (f: HeldFile): string => f.fingerprint ?? textFingerprint(f.text)
 
 export interface CampaignSession {
   /** Texts read in this session, by the path the study keeps. */
@@ -81,7 +87,7 @@ export function addFiles(files: HeldFile[]): void {
     for (const f of files) {
       const kind = guessKind(f.name, f.text)
       const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
-      const ref = { kind, path: kept, size: f.text.length, hash: textFingerprint(f.text) }
+      const ref = { kind, path: kept, size: f.text.length, hash: fingerprintOf(f) }
       const at = c.files.findIndex((x) => x.kind === kind)
       if (at >= 0) c.files[at] = ref
       else c.files.push(ref)
@@ -105,7 +111,7 @@ export async function pointAgain(index: number): Promise<void> {
   const old = s.study.campaign?.files[index]?.path
   edit((study) => {
     const r = study.campaign?.files[index]
-    if (r) Object.assign(r, { path: kept, size: f.text.length, hash: textFingerprint(f.text) })
+    if (r) Object.assign(r, { path: kept, size: f.text.length, hash: fingerprintOf(f) })
   })
   const { texts, missing, changed } = session.get()
   const next = { ...texts, [kept]: f }
@@ -123,7 +129,7 @@ export function acceptChanged(index: number): void {
   if (!ref || !held) return
   edit((study) => {
     const r = study.campaign?.files[index]
-    if (r) Object.assign(r, { size: held.text.length, hash: textFingerprint(held.text) })
+    if (r) Object.assign(r, { size: held.text.length, hash: fingerprintOf(held) })
   })
   const c = { ...session.get().changed }
   delete c[ref.path]
@@ -173,8 +179,8 @@ async function readReferenced(): Promise<void> {
       continue
     }
     session.set({ texts: { ...session.get().texts, [ref.path]: got } })
-    if (ref.hash && textFingerprint(got.text) !== ref.hash) {
-      const what = ref.size !== undefined && ref.size !== got.text.length ? `its size went from ${ref.size} to ${got.text.length} characters` : 'its contents differ'
+    const what = fileChange(ref, got.text, got.fingerprint)
+    if (what) {
       session.set({ changed: { ...session.get().changed, [ref.path]: `${what} since it was added to the study` } })
     }
   }
