@@ -14,6 +14,7 @@ export const MENU_COMMANDS = [
   'save',
   'save-as',
   'import-sizer',
+  'add-instrument-files',
   'export-csv',
   'export-json',
   'export-report',

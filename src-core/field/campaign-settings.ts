@@ -173,3 +173,23 @@ export function resolveFilePath(studyPath: string | undefined, kept: string): st
   }
   return r + out.join('/')
 }
+
+/**
+ * The campaign's file references for a study saved at `toStudy` (its first save, or "save as" elsewhere): each file
+ * found where it was (an absolute path, or one relative to `fromStudy`) is kept relative to the new study file where
+ * both share a root. A relative path with no known folder (`fromStudy` undefined) stays as it is. Returns the
+ * settings (the same object when nothing changes) and each changed path, old → new.
+ */
+export function rebaseCampaignPaths(c: CampaignSettings, fromStudy: string | undefined, toStudy: string): { settings: CampaignSettings; moved: Map<string, string> } {
+  const moved = new Map<string, string>()
+  const files = c.files.map((f) => {
+    const abs = isAbsolute(f.path) ? f.path : resolveFilePath(fromStudy, f.path)
+    if (abs === undefined) return f
+    const kept = relativeFilePath(toStudy, abs)
+    if (kept === f.path) return f
+    moved.set(f.path, kept)
+    return { ...f, path: kept }
+  })
+  return { settings: moved.size > 0 ? { ...c, files } : c, moved }
+}
+

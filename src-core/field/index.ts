@@ -104,6 +104,7 @@ export {
   folderOf,
   relativeFilePath,
   resolveFilePath,
+  rebaseCampaignPaths,
   textFingerprint,
   wholeTextFingerprint,
   fileChange,

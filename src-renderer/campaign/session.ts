@@ -7,6 +7,7 @@ import {
   isSizerKind,
   parseSizerText,
   relativeFilePath,
+  rebaseCampaignPaths,
   resolveFilePath,
   stretchSample,
   textFingerprint,
@@ -229,7 +230,8 @@ async function start(force: boolean): Promise<void> {
   const { texts } = session.get()
   const inputs = c.files.filter((f) => texts[f.path]).map((f) => ({ kind: f.kind, name: texts[f.path].name, text: texts[f.path].text }))
   const sample = study.samples.find((x) => x.name === c.sample)
-  const key = JSON.stringify([c, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
+  // the paths are left out of the key (a save that makes them relative to the study file changes no file)
+  const key = JSON.stringify([{ ...c, files: c.files.map((f) => ({ ...f, path: '' })) }, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
   if (key === lastKey && !force) return
   lastKey = key
   if (!inputs.some((i) => isSizerKind(i.kind))) {
@@ -255,6 +257,24 @@ async function start(force: boolean): Promise<void> {
     session.set({ running: false, failure: `The computation stopped (${e.message || 'worker failure'}). Press “Compute again”.` })
   }
   w.postMessage({ job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
+}
+
+/**
+ * After the study was saved at `toPath` (its first save, or "save as" elsewhere): the file references are made
+ * relative to the new study file (rebaseCampaignPaths), in the document (not an undo step: the files are the same)
+ * and in this session's held texts. True when a path changed, so the study is to be written again.
+ */
+export function rebaseForSave(fromPath: string | undefined, toPath: string): boolean {
+  const app = store().get()
+  const c = app.study.campaign
+  if (!c) return false
+  const { settings, moved } = rebaseCampaignPaths(c, fromPath, toPath)
+  if (moved.size === 0) return false
+  const rekey = <T,>(m: Record<string, T>): Record<string, T> => Object.fromEntries(Object.entries(m).map(([k, v]) => [moved.get(k) ?? k, v]))
+  const { texts, missing, changed } = session.get()
+  session.set({ texts: rekey(texts), missing: rekey(missing), changed: rekey(changed) })
+  store().set({ study: { ...app.study, campaign: settings } })
+  return true
 }
 
 /** Forgets the session's files (a new or another study). */
