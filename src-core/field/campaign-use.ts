@@ -115,12 +115,16 @@ export interface StretchSample {
   rows: number
   /** Rows in the stretch without a distribution (gaps), left out of the mean. */
   gapRows: number
+  /** Where the sample's humidity came from: the files (the mean recorded over `rows` of the rows taken) or the study's sample. */
+  humidity: { from: 'files'; file: string; rows: number; percent: number } | { from: 'study'; percent: number; why: string }
 }
 
 /**
  * The sample of the rows whose start lies in [fromMs, toMs]: the arithmetic mean of their distributions bin by bin
  * (rows without one are left out and counted), each bin's sample standard deviation as its spread (0 for one
- * row), the campaign sample's composition, humidity and layer, named by the ISO 8601 interval of the rows taken.
+ * row), the campaign sample's composition and layer, the humidity recorded in the files where the rows have one
+ * (their mean, `stretchHumidity`) or else the campaign sample's, named by the ISO 8601 interval of the rows taken;
+ * its notes say where each came from.
  * Throws InputError when the stretch holds no distribution.
  */
 export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): StretchSample {
@@ -158,6 +162,7 @@ export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): 
     }
   }
   const spread = Array.from(sq, (s) => (count > 1 ? Math.sqrt(s / (count - 1)) : 0))
+  const humidity = stretchHumidity(r, first, last)
   const name = `${r.timeText[first]}/${r.timeText[last]}`
   const files = r.files.filter((f) => f.ok && f.bins > 0).map((f) => `${f.name} (${CAMPAIGN_KIND_WORDS[f.kind]})`)
   const source = `campaign ${files.join(' + ')}, mean of ${count} row${count === 1 ? '' : 's'} ${name}${gapRows > 0 ? ` (${gapRows} gap row${gapRows === 1 ? '' : 's'} left out)` : ''}`
@@ -165,10 +170,35 @@ export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): 
   const sample: Sample = {
     ...base,
     name,
-    notes: `Made from the campaign record: ${source}; composition, humidity and layer of the sample "${r.sample.name}".`,
+    rh_percent: humidity.percent,
+    notes:
+      humidity.from === 'files'
+        ? `Made from the campaign record: ${source}; humidity ${humidity.percent} % from the files: the mean relative humidity recorded in ${humidity.file} over ${humidity.rows} of the ${count} rows; composition and layer of the sample "${r.sample.name}".`
+        : `Made from the campaign record: ${source}; composition, humidity and layer of the sample "${r.sample.name}" (humidity ${humidity.percent} %: ${humidity.why}).`,
     size: { kind: 'bins', bins: { diameters: r.layout.diameters.slice(), diameter_unit: r.layout.diameter_unit, edges: r.layout.edges, quantity: r.layout.quantity, values: mean, source, rows_averaged: count, spread } }
   }
-  return { sample, rows: count, gapRows }
+  return { sample, rows: count, gapRows, humidity }
+}
+
+/**
+ * The humidity of a stretch's sample: the mean of the humidity recorded in the files over the rows taken (those
+ * with a distribution and a recorded value), rounded to 0.1 %; else the campaign sample's, saying why.
+ */
+function stretchHumidity(r: CampaignRecord, first: number, last: number): StretchSample['humidity'] {
+  const own = r.sample.rh_percent
+  if (!r.rh || !r.rhFile) return { from: 'study', percent: own, why: 'no file of the campaign records a humidity' }
+  let sum = 0
+  let rows = 0
+  for (let k = first; k <= last; k++) {
+    const v = r.rh[k]
+    if (!r.present[k] || !(v === v)) continue
+    sum += v
+    rows++
+  }
+  if (rows === 0) return { from: 'study', percent: own, why: `${r.rhFile} records no humidity in these rows` }
+  const mean = Math.round((sum / rows) * 10) / 10
+  if (!(mean < 100)) return { from: 'study', percent: own, why: `the humidity recorded in ${r.rhFile} averages ${mean} % here, not below 100 % (cloud, not aerosol)` }
+  return { from: 'files', file: r.rhFile, rows, percent: mean }
 }
 
 /** A number as `motebench series` writes it: 7 significant digits, empty when not finite. */

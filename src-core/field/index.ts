@@ -129,3 +129,4 @@ export {
   recordCell,
   recordCsv
 } from './campaign-use.ts'
+export { isHumidityHeader, humidityProblem, humidityOnRows } from './humidity.ts'

@@ -304,7 +304,7 @@ export function makeSample(): string | null {
     study.samples.push({ ...made.sample, name: uniqueName(made.sample.name, study) })
     ids.push(id)
   })
-  store().set({ selected: id, view: 'optics', toast: { text: `Made the sample “${made.sample.name}” from ${made.rows} row${made.rows === 1 ? '' : 's'} of the record${made.gapRows ? ` (${made.gapRows} gap rows left out)` : ''}.`, undo: true } })
+  store().set({ selected: id, view: 'optics', toast: { text: `Made the sample “${made.sample.name}” from ${made.rows} row${made.rows === 1 ? '' : 's'} of the record${made.gapRows ? ` (${made.gapRows} gap rows left out)` : ''}; humidity ${made.humidity.percent} % ${made.humidity.from === 'files' ? `recorded in ${made.humidity.file}` : `of “${r.sample.name}” (${made.humidity.why})`}.`, undo: true } })
   return null
 }
 

@@ -63,6 +63,26 @@ function FileSummary(p: { f: CampaignFileSummary }) {
         {f.interval ? `, every ${f.interval}` : ''}
       </span>
       {f.ignoredColumns.length > 0 && <span data-testid="record-file-ignored">ignored columns: {f.ignoredColumns.map((c) => `“${c}”`).join(', ')}</span>}
+      {f.humidity && (
+        <span data-testid="record-file-humidity">
+          relative humidity in {f.humidity.column}: {f.humidity.rows} row{f.humidity.rows === 1 ? '' : 's'} with a value
+          {f.humidity.leftOut > 0 ? `, ${f.humidity.leftOut} value${f.humidity.leftOut === 1 ? '' : 's'} left out` : ''}
+        </span>
+      )}
+      {f.humidity && f.humidity.reasons.length > 0 && (
+        <details>
+          <summary>Why humidity values were left out</summary>
+          <ul>
+            {f.humidity.reasons.map((r, i) => (
+              <li key={i}>
+                line {r.line}
+                {r.column !== undefined ? ` column ${r.column}` : ''}: {r.reason} <em>Fix:</em> {r.fix}
+              </li>
+            ))}
+            {f.humidity.leftOut > f.humidity.reasons.length && <li>… and {f.humidity.leftOut - f.humidity.reasons.length} more</li>}
+          </ul>
+        </details>
+      )}
       <span data-testid="record-file-left-out">{f.leftOut} row{f.leftOut === 1 ? '' : 's'} left out</span>
       {f.reasons.length > 0 && (
         <details>
@@ -348,7 +368,7 @@ export function RecordView() {
         <>
           <p class="muted" data-testid="record-summary">
             {r.times.length} rows from {r.timeText[0]} to {r.timeText[r.timeText.length - 1]}, {r.bins} bins, {r.times.length - countAbsent(r.present)} with a distribution
-            {r.gaps.size > 0 ? `, ${r.gaps.size} gap rows (${[...new Set(r.gaps.values())].join('; ')})` : ''}; composition and humidity of “{r.sample.name}”; computed in {(s.ms / 1000).toFixed(1)} s.
+            {r.gaps.size > 0 ? `, ${r.gaps.size} gap rows (${[...new Set(r.gaps.values())].join('; ')})` : ''}; {r.rhFile ? <>composition of “{r.sample.name}”, humidity recorded in {r.rhFile} (a sample made from a stretch takes its mean there)</> : <>composition and humidity of “{r.sample.name}” (no file records a humidity)</>}; computed in {(s.ms / 1000).toFixed(1)} s.
           </p>
           <Stretch />
           <Exports />
