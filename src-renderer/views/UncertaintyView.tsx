@@ -50,7 +50,7 @@ const QUANTITY: Record<UncertainQuantity, string> = {
   surface_emissivity: 'surface infrared emissivity',
   layer_height: "height of the layer's middle (km)",
   water_column: 'water-vapour column (cm)',
-  spread: 'measured bins within their spread (stretch of the record)'
+  spread: 'measured bins within their spread'
 }
 
 /** The spread input a sample made from a stretch of the station record is offered: z ~ N(0, 1) spreads, every bin together. */
@@ -222,8 +222,8 @@ function InputRow(p: { list: ListName; sample: Sample; j: number; input: Uncerta
           <label class="field" title="Standard error: the uncertainty of the stretch's mean (spread/√rows; consecutive rows are correlated, so a lower bound). Standard deviation: the stretch's variability, row to row.">
             <span>Each bin within</span>
             <select value={x.spread_scale ?? 'standard-error'} data-path={`${base}.spread_scale`} data-testid="spread-scale" onChange={(e) => change((i) => (i.spread_scale = (e.target as HTMLSelectElement).value as 'standard-error' | 'standard-deviation'))}>
-              <option value="standard-error">the standard error of the mean</option>
-              <option value="standard-deviation">the rows' standard deviation</option>
+              <option value="standard-error">standard error of the mean</option>
+              <option value="standard-deviation">rows' standard deviation</option>
             </select>
           </label>
         )}
