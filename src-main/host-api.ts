@@ -14,6 +14,7 @@ export const MENU_COMMANDS = [
   'save',
   'save-as',
   'import-sizer',
+  'add-instrument-files',
   'export-csv',
   'export-json',
   'export-report',
@@ -30,6 +31,8 @@ export interface OpenedFile {
   name: string
   path?: string
   text: string
+  /** Instrument files read by the desktop: the whole text's fingerprint (src-core/field/fingerprint.ts), made by the host. */
+  fingerprint?: string
 }
 
 /** A recovery copy found at start-up. */

@@ -12,7 +12,7 @@ import { appPage, isAppPage, permissionAllowed, windowOpenResponse } from './nav
 import { RecentStudies } from './recent-studies.ts'
 import { RecoveryStore } from './recovery-store.ts'
 import { firstWindows, quitsWhenAllWindowsClose, studyArgument } from './start-up.ts'
-import { overwriteChosen, overwriteQuestion, readChosenFile, StudyFiles } from './study-saving.ts'
+import { overwriteChosen, overwriteQuestion, readChosenFile, readInstrumentFile, StudyFiles } from './study-saving.ts'
 import { windowIconPath, windowOptions, windowTitle } from './window-options.ts'
 import { WindowRegistry, type WindowRecord } from './window-registry.ts'
 
@@ -202,7 +202,7 @@ function registerIpc(): void {
     const files = []
     for (const path of r.filePaths) {
       try {
-        files.push((await readChosenFile(path)).file)
+        files.push(await readInstrumentFile(path))
       } catch (err) {
         dialog.showErrorBox('Could not read the instrument file', messageOf(err))
       }
@@ -214,7 +214,7 @@ function registerIpc(): void {
   handle('readInstrument', async (_e, path) => {
     if (!instrumentFileName(path)) return { missing: `${path} is not a table file (.csv, .tsv, .txt or .dat)` }
     try {
-      return (await readChosenFile(path)).file
+      return await readInstrumentFile(path)
     } catch (err) {
       return { missing: messageOf(err) }
     }

@@ -45,6 +45,7 @@ export function menuTemplate(platform: NodeJS.Platform, recent: readonly string[
     command('Save as…', 'CmdOrCtrl+Shift+S', 'save-as'),
     separator,
     command('Import sizer file…', 'CmdOrCtrl+I', 'import-sizer'),
+    command('Add instrument files to the station record…', 'CmdOrCtrl+Shift+A', 'add-instrument-files'),
     command('Export results as CSV…', 'CmdOrCtrl+E', 'export-csv'),
     command('Export results as JSON…', 'CmdOrCtrl+Shift+E', 'export-json'),
     command('Export report as PDF…', 'CmdOrCtrl+P', 'export-report'),

@@ -5,6 +5,7 @@ import { basename } from 'node:path'
 import { FileChangedError, saveTextAtomically, type SaveIo } from './files.ts'
 import type { OpenedFile } from './host-api.ts'
 import { MAX_TEXT } from './ipc-schemas.ts'
+import { wholeTextFingerprint } from '../src-core/field/fingerprint.ts'
 
 /** A file that could not be read, with what to do about it. */
 export class FileReadError extends Error {
@@ -37,6 +38,16 @@ export async function readChosenFile(path: string): Promise<{ file: OpenedFile; 
   } catch (e) {
     throw e instanceof FileReadError ? e : readFailure(path, e)
   }
+}
+
+/**
+ * Reads an instrument file of a campaign (chosen, or by the path a study keeps) with the fingerprint of its whole
+ * text: the host holds all of it here anyway, so a change anywhere in the file is noticed (the page, which
+ * should not pass over a year of rows, can only fingerprint the beginning and the end).
+ */
+export async function readInstrumentFile(path: string): Promise<OpenedFile> {
+  const { file } = await readChosenFile(path)
+  return { ...file, fingerprint: wholeTextFingerprint(file.text) }
 }
 
 /** The question shown when a study changed on disk since this window read or wrote it. */

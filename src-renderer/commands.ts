@@ -5,10 +5,11 @@ import { cancel } from './compute/client.ts'
 import { resultsCsv, resultsJson, statusLines, type ExportedResult } from './exports.ts'
 import { fileStem } from './format.ts'
 import { host } from './host/index.ts'
-import { blankStudy, load, redo, undo } from './state/actions.ts'
+import { blankStudy, load, redo, showView, undo } from './state/actions.ts'
 import { store } from './state/store.ts'
 import { sampleState } from './shown.ts'
 import { openCatalogue } from './views/Catalogue.tsx'
+import { addFiles, rebaseForSave } from './campaign/session.ts'
 
 const notice = (kind: 'error' | 'info', title: string, lines: string[]) => store().set({ notice: { kind, title, lines } })
 
@@ -61,6 +62,11 @@ export async function save(saveAs = false): Promise<boolean> {
   const suggestedName = s.file?.name ?? `${fileStem(s.study.name)}.mote`
   const r = await host().saveStudy({ text: serializeStudy(s.study), path: s.file?.path, suggestedName, saveAs })
   if (!r) return false
+  // instrument files added before this save (or kept relative to another folder) are kept relative to this file
+  if (r.path && rebaseForSave(s.file?.path, r.path)) {
+    const again = await host().saveStudy({ text: serializeStudy(store().get().study), path: r.path, suggestedName: r.name, saveAs: false })
+    if (!again) return false
+  }
   store().set({ file: r, dirty: false })
   void host().keepRecovery(null)
   return true
@@ -119,6 +125,13 @@ export function readSizer(file: OpenedFile): void {
     }
   }
   pendingListener?.({ name: file.name, text: file.text, table, needs })
+}
+
+/** Shows the station record and asks for instrument files to add to its campaign. */
+export async function addInstrumentFiles(): Promise<void> {
+  showView('record')
+  const got = await host().openInstrumentFiles()
+  if (got && got.length > 0) addFiles(got)
 }
 
 export async function importSizer(): Promise<void> {
@@ -189,6 +202,8 @@ export function run(command: MenuCommand): void {
       return store().set({ cautionsOpen: true })
     case 'catalogue':
       return openCatalogue()
+    case 'add-instrument-files':
+      return void addInstrumentFiles()
     case 'save-and-close':
       void save(false).then((ok) => ok && host().closeWindow())
       return

@@ -70,6 +70,8 @@ export interface CampaignFileSummary {
   reasons: LeftOutRow[]
   /** What the reader decided without the file saying it. */
   notes: string[]
+  /** The sample's relative humidity recorded in the file (humidity.ts): its column, the rows with a value, and the cells left out (outside 0–100 % or not a number; their rows are kept) with the first MAX_LISTED reasons. */
+  humidity?: { column: string; rows: number; leftOut: number; reasons: LeftOutRow[] }
 }
 
 const MAX_LISTED = 20
@@ -88,12 +90,20 @@ export interface ReadSizer {
   /** Native edges (µm) and the factor that turns a value into dN/dlog d (native diameter). */
   edgesUm: Float64Array
   factor: Float64Array
+  /** With a humidity column: each kept row's relative humidity, % (NaN: none). */
+  rh?: Float64Array
 }
 
 export interface ReadInstrument {
   summary: CampaignFileSummary
   header: OpticalHeader
   records: OpticalRecord[]
+}
+
+function humiditySummary(column: string, rh: readonly number[], leftOut: number, reasons: readonly LeftOutRow[]): NonNullable<CampaignFileSummary['humidity']> {
+  let rows = 0
+  for (const v of rh) if (v === v) rows++
+  return { column, rows, leftOut, reasons: reasons.slice(0, MAX_LISTED).map((x) => ({ ...x })) }
 }
 
 function refused(kind: CampaignFileKind, name: string, e: InputError): CampaignFileSummary {
@@ -112,6 +122,7 @@ export function readCampaignSizer(input: CampaignInput, density?: number): ReadS
     const reasons: LeftOutRow[] = []
     const times: number[] = []
     const timeText: string[] = []
+    const rh: number[] = []
     let values = new Float64Array(0)
     let bins = 0
     let zoned: boolean | undefined
@@ -137,6 +148,7 @@ export function readCampaignSizer(input: CampaignInput, density?: number): ReadS
         for (let j = 0; j < bins; j++) values[k * bins + j] = r.values[j]
         times.push(t.ms)
         timeText.push(r.time)
+        if (r.rh !== undefined) rh.push(r.rh)
         lastLine = r.line
       }
     })
@@ -164,9 +176,10 @@ export function readCampaignSizer(input: CampaignInput, density?: number): ReadS
       ignoredColumns: table.ignoredColumns.map((c) => c.name),
       leftOut,
       reasons: reasons.slice(0, MAX_LISTED),
-      notes: [...table.notes, `${CAMPAIGN_KIND_WORDS[kind]}: ${table.diameters.length - (table.edges ? 1 : 0)} bins in ${table.quantity}, diameters in ${table.diameterUnit} (${table.unitSource})`]
+      notes: [...table.notes, `${CAMPAIGN_KIND_WORDS[kind]}: ${table.diameters.length - (table.edges ? 1 : 0)} bins in ${table.quantity}, diameters in ${table.diameterUnit} (${table.unitSource})`],
+      ...(table.humidityColumn ? { humidity: humiditySummary(`"${table.humidityColumn.name}" (column ${table.humidityColumn.column})`, rh, end.humidityRejectedCount, end.humidityRejected) } : {})
     }
-    return { summary, table, rows: times.length, bins, values: values.subarray(0, times.length * bins), timeText, timesMs: Float64Array.from(times), zoned: zoned!, edgesUm: binsOf.edges, factor: binsOf.dNdlogD }
+    return { summary, table, rows: times.length, bins, values: values.subarray(0, times.length * bins), timeText, timesMs: Float64Array.from(times), zoned: zoned!, edgesUm: binsOf.edges, factor: binsOf.dNdlogD, ...(table.humidityColumn ? { rh: Float64Array.from(rh) } : {}) }
   } catch (e) {
     if (e instanceof InputError) return { summary: refused(kind, name, e) }
     throw e
@@ -194,7 +207,8 @@ export function readCampaignInstrument(input: CampaignInput): ReadInstrument | {
       ignoredColumns: [],
       leftOut: r.rejectedCount,
       reasons: r.rejected.slice(0, MAX_LISTED).map((x) => ({ ...x })),
-      notes: []
+      notes: [],
+      ...(r.header.humidityColumn !== undefined ? { humidity: humiditySummary(`"${r.header.humidityName}" (column ${r.header.humidityColumn})`, r.records.map((x) => x.rh ?? NaN), r.humidityRejectedCount, r.humidityRejected) } : {})
     }
     return { summary, header: r.header, records: r.records }
   } catch (e) {

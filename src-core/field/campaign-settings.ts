@@ -13,6 +13,7 @@
  * }
  */
 import { z } from 'zod'
+export { fileChange, textFingerprint, wholeTextFingerprint, WHOLE_FINGERPRINT } from './fingerprint.ts'
 
 /** What an instrument file holds: a sizer's distributions (or an already merged file), or measured coefficients. */
 export const CAMPAIGN_FILE_KINDS = ['mobility', 'aerodynamic', 'optical', 'merged', 'scattering', 'absorption'] as const
@@ -53,6 +54,11 @@ export type CampaignSettings = {
   counter?: { n: number; k: number; wavelength_nm: number; angles_deg: [number, number] }
   /** Averaging step of the merge, s (default: the coarsest sizer's interval). */
   step_s?: number
+  /**
+   * Correct the measured scattering for the nephelometer's angular truncation (as `series --truncation`): the
+   * angles it sees, degrees (default DEFAULT_NEPHELOMETER_ANGLES, 7–170°). Absent: compared as measured.
+   */
+  truncation?: { angles_deg: [number, number] }
 }
 
 const positive = (what: string, example: string, lo = 0, hi = Infinity) =>
@@ -86,7 +92,8 @@ export const campaignSettingsSchema = z.strictObject({
       angles_deg: z.tuple([z.number().min(0).max(180), z.number().min(0).max(180)])
     })
     .optional(),
-  step_s: positive('the averaging step in seconds', '300', 0, 86400 * 31).optional()
+  step_s: positive('the averaging step in seconds', '300', 0, 86400 * 31).optional(),
+  truncation: z.strictObject({ angles_deg: z.tuple([z.number().min(0).max(90), z.number().gt(90).max(180)]) }).optional()
 })
 
 /** One relation the schema cannot see: where (a JSON path under `campaign`), what and how to fix it. */
@@ -117,6 +124,9 @@ export function campaignProblems(c: CampaignSettings, sampleNames: readonly stri
   }
   if (c.counter && !(c.counter.angles_deg[1] > c.counter.angles_deg[0])) {
     out.push({ path: 'campaign.counter.angles_deg', message: `the collection angles ${c.counter.angles_deg[0]}–${c.counter.angles_deg[1]}° do not ascend`, fix: 'Give the lower angle first, e.g. [35, 120].' })
+  }
+  if (c.truncation && !(c.truncation.angles_deg[1] > c.truncation.angles_deg[0])) {
+    out.push({ path: 'campaign.truncation.angles_deg', message: `the nephelometer's angles ${c.truncation.angles_deg[0]}–${c.truncation.angles_deg[1]}° do not ascend`, fix: 'Give the lower angle first, e.g. [7, 170].' })
   }
   if (!sampleNames.includes(c.sample)) {
     out.push({ path: 'campaign.sample', message: `no sample is named "${c.sample}"`, fix: `Name the sample whose composition and humidity the record takes: ${sampleNames.map((n) => `"${n}"`).join(', ')}.` })
@@ -164,25 +174,22 @@ export function resolveFilePath(studyPath: string | undefined, kept: string): st
   return r + out.join('/')
 }
 
-/** Characters of a text's beginning and of its end that its fingerprint reads. */
-const FINGERPRINT_SPAN = 1 << 16
-
 /**
- * A short fingerprint of a file's text: FNV-1a, 32 bits, hex (Fowler, Noll & Vo 1991), of its length, its first
- * and its last FINGERPRINT_SPAN characters. It notices an instrument file that grew, was cut, or replaced, without
- * reading a year of rows on the page; an edit in the middle of a long file alone goes unnoticed. Not a security hash.
+ * The campaign's file references for a study saved at `toStudy` (its first save, or "save as" elsewhere): each file
+ * found where it was (an absolute path, or one relative to `fromStudy`) is kept relative to the new study file where
+ * both share a root. A relative path with no known folder (`fromStudy` undefined) stays as it is. Returns the
+ * settings (the same object when nothing changes) and each changed path, old → new.
  */
-export function textFingerprint(text: string): string {
-  let h = 0x811c9dc5
-  const mix = (c: number) => {
-    h ^= c
-    h = Math.imul(h, 0x01000193)
-  }
-  const n = text.length
-  mix(n & 0xffff)
-  mix(n >>> 16)
-  const head = Math.min(n, FINGERPRINT_SPAN)
-  for (let i = 0; i < head; i++) mix(text.charCodeAt(i))
-  for (let i = Math.max(head, n - FINGERPRINT_SPAN); i < n; i++) mix(text.charCodeAt(i))
-  return (h >>> 0).toString(16).padStart(8, '0')
+export function rebaseCampaignPaths(c: CampaignSettings, fromStudy: string | undefined, toStudy: string): { settings: CampaignSettings; moved: Map<string, string> } {
+  const moved = new Map<string, string>()
+  const files = c.files.map((f) => {
+    const abs = isAbsolute(f.path) ? f.path : resolveFilePath(fromStudy, f.path)
+    if (abs === undefined) return f
+    const kept = relativeFilePath(toStudy, abs)
+    if (kept === f.path) return f
+    moved.set(f.path, kept)
+    return { ...f, path: kept }
+  })
+  return { settings: moved.size > 0 ? { ...c, files } : c, moved }
 }
+

@@ -25,6 +25,8 @@ export interface RecordSeries {
   /** The wavelength each measured figure is compared at, nm (NaN when there is no such instrument). */
   scatteringAtNm: number
   absorptionAtNm: number
+  /** true: `sca_meas` (and so `sca_ratio`) is the measured scattering corrected for the nephelometer's truncation. */
+  scatteringCorrected: boolean
 }
 
 const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
@@ -36,7 +38,8 @@ const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
  * computed figure; a spacing above 1.5 times the record's interval gets a break, so lines stop across gaps.
  * Measured scattering is the nephelometer's at its wavelength nearest the chosen one (compared with the computed
  * scattering there); measured absorption is carried to the chosen wavelength by its own Ångström exponent
- * (absorptionAt, as `series` carries it for ω).
+ * (absorptionAt, as `series` carries it for ω). With the truncation correction on, the measured scattering and its
+ * ratio are the corrected ones (`sca_meas_corr_…`, as `series --truncation` writes them).
  */
 export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): RecordSeries {
   const col = (name: string) => r.columns.indexOf(name)
@@ -56,11 +59,13 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
   const absCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'absorption')
   const nearest = scaCh.length > 0 ? scaCh.reduce((a, b) => (Math.abs(b.c.wavelengthNm - w) < Math.abs(a.c.wavelengthNm - w) ? b : a)) : undefined
   const iScaAt = nearest ? col(`sca_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
+  // with the truncation correction on (campaign.truncation), the corrected measured scattering (RowComparer's)
+  const iScaCorr = nearest ? col(`sca_meas_corr_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
   const absWl = absCh.map((x) => x.c.wavelengthNm)
   const absVals = new Float64Array(absCh.length)
   const width = r.columns.length
   const nc = r.channels.length
-  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN }
+  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN, scatteringCorrected: iScaCorr >= 0 }
   const push = (t: number, row: number) => {
     out.x.push(t / 1000)
     out.row.push(row)
@@ -78,7 +83,7 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
     v.angstrom.push(finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1])))
     v.number.push(finite(r.cells[c + iN]))
     v.mass.push(finite(r.cells[c + iM]))
-    const sm = nearest ? r.measured[row * nc + nearest.i] : NaN
+    const sm = iScaCorr >= 0 ? r.cells[c + iScaCorr] : nearest ? r.measured[row * nc + nearest.i] : NaN
     v.sca_meas.push(finite(sm))
     v.sca_ratio.push(sm > 0 ? finite(r.cells[c + iScaAt] / sm) : null)
     for (let j = 0; j < absCh.length; j++) absVals[j] = r.measured[row * nc + absCh[j].i]
@@ -110,12 +115,16 @@ export interface StretchSample {
   rows: number
   /** Rows in the stretch without a distribution (gaps), left out of the mean. */
   gapRows: number
+  /** Where the sample's humidity came from: the files (the mean recorded over `rows` of the rows taken) or the study's sample. */
+  humidity: { from: 'files'; file: string; rows: number; percent: number } | { from: 'study'; percent: number; why: string }
 }
 
 /**
  * The sample of the rows whose start lies in [fromMs, toMs]: the arithmetic mean of their distributions bin by bin
  * (rows without one are left out and counted), each bin's sample standard deviation as its spread (0 for one
- * row), the campaign sample's composition, humidity and layer, named by the ISO 8601 interval of the rows taken.
+ * row), the campaign sample's composition and layer, the humidity recorded in the files where the rows have one
+ * (their mean, `stretchHumidity`) or else the campaign sample's, named by the ISO 8601 interval of the rows taken;
+ * its notes say where each came from.
  * Throws InputError when the stretch holds no distribution.
  */
 export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): StretchSample {
@@ -153,6 +162,7 @@ export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): 
     }
   }
   const spread = Array.from(sq, (s) => (count > 1 ? Math.sqrt(s / (count - 1)) : 0))
+  const humidity = stretchHumidity(r, first, last)
   const name = `${r.timeText[first]}/${r.timeText[last]}`
   const files = r.files.filter((f) => f.ok && f.bins > 0).map((f) => `${f.name} (${CAMPAIGN_KIND_WORDS[f.kind]})`)
   const source = `campaign ${files.join(' + ')}, mean of ${count} row${count === 1 ? '' : 's'} ${name}${gapRows > 0 ? ` (${gapRows} gap row${gapRows === 1 ? '' : 's'} left out)` : ''}`
@@ -160,10 +170,35 @@ export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): 
   const sample: Sample = {
     ...base,
     name,
-    notes: `Made from the campaign record: ${source}; composition, humidity and layer of the sample "${r.sample.name}".`,
+    rh_percent: humidity.percent,
+    notes:
+      humidity.from === 'files'
+        ? `Made from the campaign record: ${source}; humidity ${humidity.percent} % from the files: the mean relative humidity recorded in ${humidity.file} over ${humidity.rows} of the ${count} rows; composition and layer of the sample "${r.sample.name}".`
+        : `Made from the campaign record: ${source}; composition, humidity and layer of the sample "${r.sample.name}" (humidity ${humidity.percent} %: ${humidity.why}).`,
     size: { kind: 'bins', bins: { diameters: r.layout.diameters.slice(), diameter_unit: r.layout.diameter_unit, edges: r.layout.edges, quantity: r.layout.quantity, values: mean, source, rows_averaged: count, spread } }
   }
-  return { sample, rows: count, gapRows }
+  return { sample, rows: count, gapRows, humidity }
+}
+
+/**
+ * The humidity of a stretch's sample: the mean of the humidity recorded in the files over the rows taken (those
+ * with a distribution and a recorded value), rounded to 0.1 %; else the campaign sample's, saying why.
+ */
+function stretchHumidity(r: CampaignRecord, first: number, last: number): StretchSample['humidity'] {
+  const own = r.sample.rh_percent
+  if (!r.rh || !r.rhFile) return { from: 'study', percent: own, why: 'no file of the campaign records a humidity' }
+  let sum = 0
+  let rows = 0
+  for (let k = first; k <= last; k++) {
+    const v = r.rh[k]
+    if (!r.present[k] || !(v === v)) continue
+    sum += v
+    rows++
+  }
+  if (rows === 0) return { from: 'study', percent: own, why: `${r.rhFile} records no humidity in these rows` }
+  const mean = Math.round((sum / rows) * 10) / 10
+  if (!(mean < 100)) return { from: 'study', percent: own, why: `the humidity recorded in ${r.rhFile} averages ${mean} % here, not below 100 % (cloud, not aerosol)` }
+  return { from: 'files', file: r.rhFile, rows, percent: mean }
 }
 
 /** A number as `motebench series` writes it: 7 significant digits, empty when not finite. */

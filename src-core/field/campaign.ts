@@ -20,6 +20,7 @@ import { mergedMidpointsNm } from './output.ts'
 import { binsFromMeasurement } from '../sizes/index.ts'
 import { comparisonColumns, instrumentKernels, instrumentWavelengths, MeasuredAlignment, RowComparer, type ComparisonPlan, type MeasuredChannel } from './optical.ts'
 import { comparisonNotes } from './optical-summary.ts'
+import { humidityOnRows } from './humidity.ts'
 import { formatDuration, formatTimeStamp, regularTimeBase, TimeAverager, typicalInterval } from './timebase.ts'
 export interface CampaignRecord {
   /** The sample that gives composition, humidity and layer. */
@@ -54,6 +55,13 @@ export interface CampaignRecord {
   measured: Float64Array
   /** How the measured figures were made comparable (as series writes them in its "#" lines). */
   notes: string[]
+  /**
+   * The sample's relative humidity recorded in the files, per row, % (NaN: none), averaged onto the rows from
+   * `rhFile`: the nephelometer's file when it records one (the humidity its scattering, compared here, was measured
+   * at), else the first sizer file that does; absent when no file records a humidity.
+   */
+  rh?: Float64Array
+  rhFile?: string
   files: CampaignFileSummary[]
 }
 
@@ -200,7 +208,8 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
     firsts.push(channels.length)
     for (const c of f.header.channels) channels.push({ quantity: c.quantity, wavelengthNm: c.wavelengthNm, file: f.summary.name })
   }
-  const plan: ComparisonPlan = { channels, truncation: null, closure: null }
+  const t = settings.truncation?.angles_deg
+  const plan: ComparisonPlan = { channels, truncation: t && channels.some((c) => c.quantity === 'scattering') ? { lowDeg: t[0], highDeg: t[1] } : null, closure: null }
   const base = [...new Set([...study.wavelengths_nm, settings.wavelength_nm])].sort((a, b) => a - b)
   const wavelengthsNm = [...new Set([...base, ...instrumentWavelengths(plan)])].sort((a, b) => a - b)
 
@@ -251,6 +260,7 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
     })
     notes = comparisonNotes(plan, { intervalText: formatDuration(Math.round(intervalMs)), files: instruments.map((f) => f.summary.name) })
   }
+  const humidity = recordedHumidity(rows.timesMs, intervalMs, instruments, sizers)
   const dNdlogD = new Float64Array(n * bins)
   const fig = new Float64Array(width)
   progress(0.8)
@@ -284,9 +294,24 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
       channels,
       measured,
       notes,
-      files
+      files,
+      ...humidity
     }
   }
+}
+
+/** The record's humidity from the files (see CampaignRecord.rh): the nephelometer's, else the first sizer's. */
+function recordedHumidity(rowTimesMs: number[], intervalMs: number, instruments: ReadInstrument[], sizers: ReadSizer[]): { rh?: Float64Array; rhFile?: string } {
+  for (const f of instruments) {
+    if (f.summary.kind !== 'scattering' || !f.summary.ok || !f.summary.humidity?.rows) continue
+    const rh = humidityOnRows(rowTimesMs, intervalMs, f.records.map((r) => r.ms), f.records.map((r) => r.rh ?? NaN))
+    return { rh, rhFile: f.summary.name }
+  }
+  for (const s of sizers) {
+    if (!s.rh || !s.summary.humidity?.rows) continue
+    return { rh: humidityOnRows(rowTimesMs, intervalMs, s.timesMs, s.rh), rhFile: s.summary.name }
+  }
+  return {}
 }
 
 /** Per bin, the factor that turns a value of the layout's quantity into dN/dlogD (binsFromMeasurement's own conversion). */

@@ -17,6 +17,7 @@ import {
   unitName,
   where
 } from './text.ts'
+import { isHumidityHeader } from './humidity.ts'
 import { inferDiameterUnit, planTime, type PlanTime } from './plan.ts'
 import type { SizerHeader, SizerLayout, SizerOptions } from './types.ts'
 
@@ -261,6 +262,8 @@ export function detect(buffer: { line: number; text: string }[], options: SizerO
       ? planTime({ headerCells, unitsCells: unitsRow?.cells, firstBin, binEnd, dataRows, metadata, options, decimal })
       : ({ kind: 'none', columns: [], ignored: [], format: '', notes: [], dateCol: -1, clockCol: -1 } satisfies PlanTime)
   notes.push(...time.notes)
+  // a relative-humidity column among the others is read (humidity.ts), not ignored
+  const humidity = layout === 'time-rows' ? time.ignored.find((c) => isHumidityHeader(c.name)) : undefined
   const header: SizerHeader = {
     layout,
     diameterUnit,
@@ -276,7 +279,8 @@ export function detect(buffer: { line: number; text: string }[], options: SizerO
     timeColumns: time.columns,
     timeFormat: time.format,
     ...(time.order && time.kind !== 'none' ? { dateOrder: time.order } : {}),
-    ignoredColumns: time.ignored,
+    ignoredColumns: time.ignored.filter((c) => c !== humidity),
+    ...(humidity ? { humidityColumn: humidity } : {}),
     unitSource,
     notes
   }

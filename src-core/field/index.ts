@@ -104,7 +104,11 @@ export {
   folderOf,
   relativeFilePath,
   resolveFilePath,
-  textFingerprint
+  rebaseCampaignPaths,
+  textFingerprint,
+  wholeTextFingerprint,
+  fileChange,
+  WHOLE_FINGERPRINT
 } from './campaign-settings.ts'
 export {
   type CampaignInput,
@@ -125,3 +129,4 @@ export {
   recordCell,
   recordCsv
 } from './campaign-use.ts'
+export { isHumidityHeader, humidityProblem, humidityOnRows } from './humidity.ts'

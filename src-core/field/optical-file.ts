@@ -12,7 +12,9 @@
  *   cells may be quoted (papaparse splits them).
  * - The first column is the time stamp (its header starts with "time"); every other header cell is
  *   "QUANTITY WAVELENGTH nm", QUANTITY one of scattering, backscattering (hemispheric, 90°–180°), absorption,
- *   optionally followed by the unit in brackets: "scattering 450 nm [Mm-1]".
+ *   optionally followed by the unit in brackets: "scattering 450 nm [Mm-1]"; or, once, the sample's relative
+ *   humidity in % ("RH", "RH (%)", "sample RH": humidity.ts), whose cells outside 0–100 % are left out with their
+ *   reason while the row's coefficients are kept.
  * - The unit, Mm⁻¹ (written Mm-1, Mm^-1, Mm⁻¹ or 1/Mm), is stated in each header cell or once in a
  *   "# units: Mm-1" line; a file that states none, or another unit, is refused (convert it first).
  * - An empty cell, NaN or NA means no data for that quantity at that time (never counted as 0). Small
@@ -29,6 +31,7 @@
  */
 import Papa from 'papaparse/papaparse.js'
 import { InputError } from '../errors.ts'
+import { humidityProblem, humidityValue, isHumidityHeader } from './humidity.ts'
 import { MAX_HELD_ROWS } from './reader.ts'
 import { DATE_ORDER_NAMES, dateParts, orderEvidence, readClock, readDateTime, statedOrder, type DateOrder } from './time.ts'
 import { parseTimeStamp, type TimeStamp } from './timebase.ts'
@@ -50,6 +53,10 @@ export interface OpticalHeader {
   delimiter: string
   /** "# key: value" lines (keys in lower case). */
   metadata: Record<string, string>
+  /** The column (1-based) of the sample's relative humidity in %, when a header cell names one (humidity.ts). */
+  humidityColumn?: number
+  /** Its header cell. */
+  humidityName?: string
 }
 
 /** One row: its time (ms, and whether it had a zone) and one value per channel (NaN: no data). */
@@ -59,6 +66,8 @@ export interface OpticalRecord {
   ms: number
   zoned: boolean
   values: Float64Array
+  /** With a humidity column: the row's relative humidity, % (NaN: none, or left out). */
+  rh?: number
 }
 
 /** A data row left out of the reading: where, why and how to fix it. */
@@ -103,7 +112,7 @@ export interface OpticalReader {
    * The header, the number of rows read and the rows left out (the first MAX_KEPT_OPTICAL_REJECTIONS, and their
    * count); throws when the file had no header or no row that could be read.
    */
-  end(): OpticalHeader & { recordCount: number; rejected: OpticalRejection[]; rejectedCount: number }
+  end(): OpticalHeader & { recordCount: number; rejected: OpticalRejection[]; rejectedCount: number; humidityRejected: OpticalRejection[]; humidityRejectedCount: number }
   readonly header: OpticalHeader | undefined
 }
 
@@ -122,6 +131,9 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
   const held: { text: string; line: number }[] = []
   const rejected: OpticalRejection[] = []
   let rejectedCount = 0
+  const humidityRejected: OpticalRejection[] = []
+  let humidityRejectedCount = 0
+  let width = 0
   const reject = (line: number, column: number, reason: string, fix: string): void => {
     rejectedCount++
     if (rejected.length < MAX_KEPT_OPTICAL_REJECTIONS) rejected.push({ line, column, reason: `${reason}; the row is left out`, fix })
@@ -141,7 +153,13 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
       throw new InputError(`${file}: units`, `the coefficients are in "${fileUnit}", not Mm⁻¹`, 'Convert the coefficients to Mm⁻¹ (1 Mm⁻¹ = 10⁻⁶ m⁻¹) and write "# units: Mm-1".')
     }
     const channels: OpticalChannel[] = []
+    let humidityColumn: number | undefined
     for (let c = 1; c < cells.length; c++) {
+      if (isHumidityHeader(cells[c])) {
+        if (humidityColumn !== undefined) throw new InputError(at(line, c + 1), `"${cells[c]}" is a second humidity column (the first is column ${humidityColumn})`, 'Keep one relative-humidity column (the sample\'s, in %).')
+        humidityColumn = c + 1
+        continue
+      }
       const m = HEADER_CELL.exec(cells[c])
       if (!m) {
         throw new InputError(at(line, c + 1), `the header cell "${cells[c]}" is not a quantity and a wavelength`, 'Write each column as QUANTITY WAVELENGTH nm with QUANTITY scattering, backscattering or absorption, e.g. "scattering 550 nm".')
@@ -162,7 +180,8 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     }
     if (channels.length === 0) throw new InputError(at(line), 'the header names no quantity', 'Add columns such as "scattering 550 nm" after the time column.')
     if (unitMissing) throw new InputError(at(line), 'the unit of the coefficients is not stated', 'Add a line "# units: Mm-1" above the header, or write the unit in each header cell: "scattering 550 nm [Mm-1]".')
-    header = { fileName: file, channels, headerLine: line, delimiter, metadata }
+    header = { fileName: file, channels, headerLine: line, delimiter, metadata, ...(humidityColumn !== undefined ? { humidityColumn, humidityName: cells[humidityColumn - 1] } : {}) }
+    width = cells.length
     const stated = Object.entries(metadata).map(([k, v]) => (/date|format|order/.test(k) ? statedOrder(v) : undefined)).find((o) => o) ?? statedOrder(cells[0])
     if (stated) {
       order = stated
@@ -211,8 +230,8 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
         }
       }
     }
-    if (cells.length > h.channels.length + 1) {
-      return reject(line, h.channels.length + 2, `the row has ${cells.length} cells, the header ${h.channels.length + 1}`, 'Give each row a time and one value per header column (an empty cell for no data).')
+    if (cells.length > width) {
+      return reject(line, width + 1, `the row has ${cells.length} cells, the header ${width}`, 'Give each row a time and one value per header column (an empty cell for no data).')
     }
     const t = rowTime(cells[0])
     if (!t) {
@@ -221,20 +240,29 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     }
     const values = new Float64Array(h.channels.length)
     for (let j = 0; j < h.channels.length; j++) {
-      const cell = cells[j + 1] ?? ''
+      const ch = h.channels[j]
+      const cell = cells[ch.column - 1] ?? ''
       if (MISSING.test(cell)) values[j] = NaN
       else if (NUMBER.test(cell)) values[j] = Number(cell)
-      else {
-        const ch = h.channels[j]
-        return reject(line, j + 2, `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
+      else return reject(line, ch.column, `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
+    }
+    let rh: number | undefined
+    if (h.humidityColumn !== undefined) {
+      const cell = cells[h.humidityColumn - 1] ?? ''
+      const v = NUMBER.test(cell) ? Number(cell) : NaN
+      const p = humidityProblem(cell, v)
+      if (p) {
+        humidityRejectedCount++
+        if (humidityRejected.length < MAX_KEPT_OPTICAL_REJECTIONS) humidityRejected.push({ line, column: h.humidityColumn, ...p })
       }
+      rh = humidityValue(cell, v)
     }
     if (zoned === undefined) zoned = t.zoned
     else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
     if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
     lastMs = t.ms
     count++
-    options.onRecord({ line, time: t.iso, ms: t.ms, zoned: t.zoned, values })
+    options.onRecord(rh === undefined ? { line, time: t.iso, ms: t.ms, zoned: t.zoned, values } : { line, time: t.iso, ms: t.ms, zoned: t.zoned, values, rh })
   }
 
   return {
@@ -261,7 +289,7 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
         throw new InputError(at(r.line, r.column), `no row could be read (${rejectedCount} left out; the first: ${r.reason})`, r.fix)
       }
       if (count === 0) throw new InputError(`${file} line ${header.headerLine}`, 'the file has a header but no rows', 'Give one row per time after the header.')
-      return { ...header, recordCount: count, rejected: rejected.slice().sort((a, b) => a.line - b.line), rejectedCount }
+      return { ...header, recordCount: count, rejected: rejected.slice().sort((a, b) => a.line - b.line), rejectedCount, humidityRejected: humidityRejected.slice().sort((a, b) => a.line - b.line), humidityRejectedCount }
     }
   }
 }
@@ -270,10 +298,10 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
 export function parseOpticalText(
   text: string,
   options: Omit<OpticalReaderOptions, 'onRecord'>
-): { header: OpticalHeader; records: OpticalRecord[]; rejected: OpticalRejection[]; rejectedCount: number } {
+): { header: OpticalHeader; records: OpticalRecord[]; rejected: OpticalRejection[]; rejectedCount: number; humidityRejected: OpticalRejection[]; humidityRejectedCount: number } {
   const records: OpticalRecord[] = []
   const reader = createOpticalReader({ ...options, onRecord: (r) => records.push(r) })
   for (const line of text.split(/\r?\n/)) reader.push(line)
-  const { recordCount: _n, rejected, rejectedCount, ...header } = reader.end()
-  return { header, records, rejected, rejectedCount }
+  const { recordCount: _n, rejected, rejectedCount, humidityRejected, humidityRejectedCount, ...header } = reader.end()
+  return { header, records, rejected, rejectedCount, humidityRejected, humidityRejectedCount }
 }

@@ -33,6 +33,7 @@ import type { BinsSpec } from '../study/model.ts'
 import { CellSplitter } from './cells.ts'
 import { detect, type Detected } from './header.ts'
 import { inferDiameterUnit, RowTime } from './plan.ts'
+import { humidityProblem, humidityValue } from './humidity.ts'
 import { SizerChoiceNeeded, toNumber, unitName, where } from './text.ts'
 import { readDateTime } from './time.ts'
 import type { SizerHeader, SizerOptions, SizerReader, SizerReaderOptions, SizerRecord, SizerRejection, SizerSummary, SizerTable } from './types.ts'
@@ -82,6 +83,9 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
   let firstTime = ''
   let lastTime = ''
   let shared: number[] | undefined
+  const humidityRejected: SizerRejection[] = []
+  let humidityRejectedCount = 0
+  let humidityRows = 0
 
   // single and time-columns: the whole table is kept until the end.
   const singleDiameters: number[] = []
@@ -178,6 +182,19 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     if (negatives > 0) {
       zeroCells += negatives
       zeroRows++
+    }
+    if (h.humidityColumn) {
+      const k = h.humidityColumn.column - 1
+      const cell = s.cell(k)
+      const v = s.number(k, comma)
+      const p = humidityProblem(cell, v)
+      if (p) {
+        humidityRejectedCount++
+        if (humidityRejected.length < keep) humidityRejected.push({ line, column: k + 1, ...p })
+      }
+      const rh = humidityValue(cell, v)
+      if (rh === rh) humidityRows++
+      return emit({ time: t.iso, timeMs: t.ms, values, line, rh })
     }
     emit({ time: t.iso, timeMs: t.ms, values, line })
   }
@@ -380,7 +397,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
           emit({ time: dated ? times[j]!.iso : det!.headerCells[j + 1], timeMs: dated ? times[j]!.ms : NaN, values: columnValues.map((r) => r[j]), line: h.headerLine })
         }
       }
-      return { ...h, recordCount, rejected: rejected.slice(), rejectedCount, rowsLeftOut, negativesZeroed: { cells: zeroCells, rows: zeroRows }, firstTime, lastTime }
+      return { ...h, recordCount, rejected: rejected.slice(), rejectedCount, rowsLeftOut, negativesZeroed: { cells: zeroCells, rows: zeroRows }, humidityRejected: humidityRejected.slice(), humidityRejectedCount, humidityRows, firstTime, lastTime }
     }
   }
 }
@@ -393,7 +410,7 @@ export function parseSizerText(text: string, options: SizerOptions = {}): SizerT
   if (lines.length > 1 && lines[lines.length - 1] === '') lines.pop()
   for (const line of lines) reader.push(line)
   const summary = reader.end()
-  const { recordCount: _c, rejectedCount: _r, firstTime: _f, lastTime: _l, ...rest } = summary
+  const { recordCount: _c, rejectedCount: _r, firstTime: _f, lastTime: _l, humidityRejectedCount: _h, humidityRows: _hr, ...rest } = summary
   return { ...rest, records }
 }
 

@@ -37,6 +37,8 @@ export interface SizerRecord {
   values: number[]
   /** 1-based line of the row (time-rows), the first value row (single) or the header row (time-columns). */
   line: number
+  /** With a humidity column (`humidityColumn`): the row's relative humidity, %, NaN when none or left out. */
+  rh?: number
 }
 
 export interface SizerRejection {
@@ -82,6 +84,8 @@ export interface SizerHeader {
   dateOrder?: DateOrder
   /** Columns before and after the bins that are not read (sample number, temperature, totals, ...). */
   ignoredColumns: SizerColumn[]
+  /** time-rows: the column of the sample's relative humidity in %, when a header names one (humidity.ts). */
+  humidityColumn?: SizerColumn
   /** Where the diameter unit comes from ("option", "metadata line 3", "header cells", "inferred: ..."). */
   unitSource: string
   /** What was inferred or decided without the file saying it, for the reading summary. */
@@ -94,6 +98,8 @@ export interface SizerTable extends SizerHeader {
   /** Rows (time-rows and single) left out because of bad cells. */
   rowsLeftOut: number
   negativesZeroed: { cells: number; rows: number }
+  /** Humidity cells left out (outside 0–100 %, not a number); their rows are kept. */
+  humidityRejected: SizerRejection[]
 }
 
 export interface SizerSummary extends SizerHeader {
@@ -105,6 +111,11 @@ export interface SizerSummary extends SizerHeader {
   rowsLeftOut: number
   /** With negatives 'zero': cells set to 0, and rows that had at least one. */
   negativesZeroed: { cells: number; rows: number }
+  /** Humidity cells left out (outside 0–100 %, not a number; their rows are kept): the first kept, and the count. */
+  humidityRejected: SizerRejection[]
+  humidityRejectedCount: number
+  /** Rows with a humidity value. */
+  humidityRows: number
   /** Times of the first and last records read ('' when none). */
   firstTime: string
   lastTime: string

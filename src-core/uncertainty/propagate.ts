@@ -194,7 +194,8 @@ const VALID: Record<UncertainInput['quantity'], { lo: number; hi: number; loOpen
   surface_temperature: { lo: LONGWAVE_INPUT_RANGES.surface_temperature_k.lo, hi: LONGWAVE_INPUT_RANGES.surface_temperature_k.hi, unit: 'K' },
   surface_emissivity: { lo: LONGWAVE_INPUT_RANGES.surface_emissivity.lo, hi: LONGWAVE_INPUT_RANGES.surface_emissivity.hi, unit: '' },
   layer_height: { lo: LONGWAVE_INPUT_RANGES.layer_height_km.lo, hi: LONGWAVE_INPUT_RANGES.layer_height_km.hi, unit: 'km' },
-  water_column: { lo: LONGWAVE_INPUT_RANGES.water_column_cm.lo, hi: LONGWAVE_INPUT_RANGES.water_column_cm.hi, unit: 'cm' }
+  water_column: { lo: LONGWAVE_INPUT_RANGES.water_column_cm.lo, hi: LONGWAVE_INPUT_RANGES.water_column_cm.hi, unit: 'cm' },
+  spread: { lo: -Infinity, hi: Infinity, unit: 'spreads' }
 }
 
 /** The site field each infrared quantity sets, and how its current value (default filled in) is read. */
@@ -249,7 +250,9 @@ function defaultLabel(s: UncertainInput): string {
         ? `${s.quantity === 'median' ? 'median diameter' : s.quantity} of ${s.mode === undefined ? 'every mode' : typeof s.mode === 'number' ? `mode ${s.mode}` : `mode "${s.mode}"`}`
         : s.quantity === 'rh'
           ? 'relative humidity'
-          : s.quantity.replace(/_/g, ' ')
+          : s.quantity === 'spread'
+            ? `measured bins within their ${s.spread_scale === 'standard-deviation' ? 'standard deviation' : 'standard error'}`
+            : s.quantity.replace(/_/g, ' ')
   return `${what} (${s.apply})`
 }
 
@@ -289,6 +292,7 @@ function resolveInput(spec: UncertainInput, sample: Sample, site: Site, own: Mat
   }
   if ((q === 'n' || q === 'k') && !spec.material) throw new InputError(`${where}: material`, `an uncertain ${q} needs the component's id`, 'Add "material", e.g. "black-carbon".')
   if (spec.material !== undefined && q !== 'n' && q !== 'k') throw new InputError(`${where}: material`, `"material" only applies to n and k, not to ${q}`, 'Remove "material".')
+  if (spec.spread_scale !== undefined && q !== 'spread') throw new InputError(`${where}: spread_scale`, `"spread_scale" only applies to spread, not to ${q}`, 'Remove "spread_scale".')
   if (spec.mode !== undefined && q !== 'median' && q !== 'gsd' && q !== 'amount') throw new InputError(`${where}: mode`, `"mode" only applies to median, gsd and amount, not to ${q}`, 'Remove "mode".')
 
   switch (q) {
@@ -394,6 +398,20 @@ function resolveInput(spec: UncertainInput, sample: Sample, site: Site, own: Mat
         }
       }
     }
+    case 'spread': {
+      const b = sample.size.kind === 'bins' ? sample.size.bins : undefined
+      if (!b?.spread) throw new InputError(`${where}: quantity`, `sample "${sample.name}" has no spread kept with its bins (only a stretch of a station record made a sample has one)`, 'Choose another quantity, or make the sample from a stretch of the station record.')
+      if (spec.apply !== 'add') throw new InputError(`${where}: apply`, 'the spread is drawn as an offset in units of the spread', 'Use "apply": "add" with a normal distribution of mean 0 and sd 1.')
+      const sigma = spreadSigmas(b.values, b.spread, spec.spread_scale === 'standard-deviation' ? 1 : Math.sqrt(b.rows_averaged ?? 1))
+      return {
+        label, spec, variate,
+        apply: (st, v) => {
+          if (st.sample.size.kind !== 'bins') return
+          const x = st.sample.size.bins
+          x.values = x.values.map((m, j) => (sigma[j] > 0 ? m * Math.exp(sigma[j] * v - (sigma[j] * sigma[j]) / 2) : m))
+        }
+      }
+    }
     case 'surface_albedo':
     case 'cloud_fraction':
     case 'transmittance': {
@@ -428,6 +446,20 @@ function resolveInput(spec: UncertainInput, sample: Sample, site: Site, own: Mat
       }
     }
   }
+}
+
+/**
+ * Per bin, the σ of ln(value) of a lognormal with the bin's mean m and standard deviation s/divisor:
+ * σ² = ln(1 + (s/(divisor·m))²) (the lognormal's moments; Aitchison & Brown 1957). 0 where the bin or its spread is 0.
+ */
+function spreadSigmas(values: readonly number[], spread: readonly number[], divisor: number): Float64Array {
+  const out = new Float64Array(values.length)
+  for (let j = 0; j < values.length; j++) {
+    const m = values[j]
+    const sd = (spread[j] ?? 0) / divisor
+    out[j] = m > 0 && sd > 0 ? Math.sqrt(Math.log1p((sd / m) ** 2)) : 0
+  }
+  return out
 }
 
 /**

@@ -42,15 +42,20 @@ export type UncertainBounds = { lo?: number; hi?: number; method: 'resample' | '
  * - `rh` (percent), `layer` (the layer's depth, scale height or AOD, whichever the sample gives);
  * - `surface_albedo`, `cloud_fraction`, `transmittance`: of the site;
  * - `surface_temperature` (K), `surface_emissivity`, `layer_height` (km), `water_column` (cm): the site's
- *   infrared inputs (climate/longwave.ts; their defaults when the site gives none).
+ *   infrared inputs (climate/longwave.ts; their defaults when the site gives none);
+ * - `spread`: measured bins that keep their spread (`bins.spread`, a stretch of a station record made a sample):
+ *   the variate z (apply `add`, in units of the spread; normal, mean 0, sd 1 draws the spread itself) moves every
+ *   bin together to the quantile z of a lognormal with the bin's mean and, by `spread_scale`, the standard error of
+ *   the mean (`standard-error`, the default: spread/√rows) or the rows' standard deviation (`standard-deviation`).
+ *   See "How the spread of a stretch is drawn" in DEVELOPERS.md.
  */
 export type UncertainQuantity =
   | 'n' | 'k' | 'median' | 'gsd' | 'amount' | 'density' | 'kappa' | 'rh' | 'layer' | 'surface_albedo' | 'cloud_fraction' | 'transmittance'
-  | 'surface_temperature' | 'surface_emissivity' | 'layer_height' | 'water_column'
+  | 'surface_temperature' | 'surface_emissivity' | 'layer_height' | 'water_column' | 'spread'
 
 export const UNCERTAIN_QUANTITIES: readonly UncertainQuantity[] = [
   'n', 'k', 'median', 'gsd', 'amount', 'density', 'kappa', 'rh', 'layer', 'surface_albedo', 'cloud_fraction', 'transmittance',
-  'surface_temperature', 'surface_emissivity', 'layer_height', 'water_column'
+  'surface_temperature', 'surface_emissivity', 'layer_height', 'water_column', 'spread'
 ]
 export const SITE_QUANTITIES: readonly UncertainQuantity[] = ['surface_albedo', 'cloud_fraction', 'transmittance', 'surface_temperature', 'surface_emissivity', 'layer_height', 'water_column']
 
@@ -67,6 +72,8 @@ export type UncertainInput = {
   apply: 'factor' | 'add' | 'set'
   distribution: UncertainDistribution
   bounds?: UncertainBounds
+  /** `spread` only: what each bin is drawn with (default `standard-error`). */
+  spread_scale?: 'standard-error' | 'standard-deviation'
 }
 
 export type UncertaintySampleSettings = { inputs: UncertainInput[] }
@@ -121,7 +128,8 @@ const input = z.strictObject({
   mode: z.union([num((v) => Number.isInteger(v) && v >= 0, (v) => `mode ${fmt(v)} is not a whole number from 0`, 'Give the mode as its 0-based position in the sample (0 is the first) or its name.'), z.string()]).optional(),
   apply: z.enum(['factor', 'add', 'set']),
   distribution,
-  bounds: bounds.optional()
+  bounds: bounds.optional(),
+  spread_scale: z.enum(['standard-error', 'standard-deviation']).optional()
 })
 
 const inputList = z.strictObject({ inputs: z.array(input) })

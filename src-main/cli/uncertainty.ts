@@ -36,8 +36,11 @@ export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: M
                           "uncertainty": { "samples": { "NAME": { "inputs": [ ... ] } }, "site": { "inputs": [ ... ] } }
                         each input: { "quantity": n | k | median | gsd | amount | density | kappa | rh | layer |
                           surface_albedo | cloud_fraction | transmittance | surface_temperature (K) |
-                          surface_emissivity | layer_height (km) | water_column (cm), "material": id (n, k), "mode": 0-based index or
-                          name (median, gsd, amount), "apply": factor | add | set,
+                          surface_emissivity | layer_height (km) | water_column (cm) | spread (measured bins kept with
+                          their spread, e.g. a stretch of a station record: apply add, normal 0, 1 draws every bin
+                          within it), "material": id (n, k), "mode": 0-based index or name (median, gsd, amount),
+                          "spread_scale": standard-error (default) | standard-deviation (spread),
+                          "apply": factor | add | set,
                           "distribution": { "kind": "normal", "mean", "sd" } | { "kind": "lognormal", "median", "gsd" } |
                           { "kind": "uniform", "lo", "hi" }, "bounds": { "lo", "hi", "method": resample | clamp } }
   --sample NAME         the sample to run

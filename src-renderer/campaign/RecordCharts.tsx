@@ -40,7 +40,7 @@ function panels(r: CampaignRecord, s: RecordSeries): Panel[] {
     { key: 'sca', label: `σsca ${w} nm`, style: 1 },
     { key: 'abs', label: `σabs ${w} nm`, style: 2 }
   ]
-  if (Number.isFinite(s.scatteringAtNm)) coef.push({ key: 'sca_meas', label: `σsca measured ${s.scatteringAtNm} nm`, style: 3 })
+  if (Number.isFinite(s.scatteringAtNm)) coef.push({ key: 'sca_meas', label: `σsca measured ${s.scatteringAtNm} nm${s.scatteringCorrected ? ', truncation-corrected' : ''}`, style: 3 })
   if (Number.isFinite(s.absorptionAtNm)) coef.push({ key: 'abs_meas', label: `σabs measured, at ${w} nm`, style: 4 })
   const out: Panel[] = [
     { name: 'record-size', title: 'Size distribution dN/dlogD (cm⁻³)', yLabel: 'Diameter (µm)', yLog: true, lines: [], height: 190, map: true },
@@ -384,7 +384,7 @@ function readoutOf(r: CampaignRecord, s: RecordSeries, i: number, row: number): 
   }
   const w = r.chosenNm
   out.push([`σext ${w} nm`, `${v('ext')} Mm⁻¹`], [`σsca ${w} nm`, `${v('sca')} Mm⁻¹`], [`σabs ${w} nm`, `${v('abs')} Mm⁻¹`], ['ω', v('ssa', 3)], ['g', v('g', 3)], ['å ext', v('angstrom', 3)], ['number', `${v('number')} cm⁻³`], ['mass', `${v('mass')} µg m⁻³`])
-  if (Number.isFinite(s.scatteringAtNm)) out.push([`σsca measured ${s.scatteringAtNm} nm`, `${v('sca_meas')} Mm⁻¹`], ['scattering computed/measured', v('sca_ratio', 3)])
+  if (Number.isFinite(s.scatteringAtNm)) out.push([`σsca measured ${s.scatteringAtNm} nm${s.scatteringCorrected ? ', truncation-corrected' : ''}`, `${v('sca_meas')} Mm⁻¹`], ['scattering computed/measured', v('sca_ratio', 3)])
   if (Number.isFinite(s.absorptionAtNm)) out.push([`σabs measured (at ${w} nm)`, `${v('abs_meas')} Mm⁻¹`], ['absorption computed/measured', v('abs_ratio', 3)])
   return out
 }

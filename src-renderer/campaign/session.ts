@@ -7,9 +7,11 @@ import {
   isSizerKind,
   parseSizerText,
   relativeFilePath,
+  rebaseCampaignPaths,
   resolveFilePath,
   stretchSample,
   textFingerprint,
+  fileChange,
   type CampaignBuild,
   type CampaignFileKind,
   type CampaignSettings,
@@ -24,7 +26,12 @@ export interface HeldFile {
   name: string
   path?: string
   text: string
+  /** The desktop host's fingerprint of the whole text (absent: the page makes the sampled one). */
+  fingerprint?: string
 }
+
+/** The fingerprint a reference keeps: the host's whole-text one (desktop), else the sampled one made here. */
+const fingerprintOf = (f: HeldFile): string => f.fingerprint ?? textFingerprint(f.text)
 
 export interface CampaignSession {
   /** Texts read in this session, by the path the study keeps. */
@@ -81,7 +88,7 @@ export function addFiles(files: HeldFile[]): void {
     for (const f of files) {
       const kind = guessKind(f.name, f.text)
       const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
-      const ref = { kind, path: kept, size: f.text.length, hash: textFingerprint(f.text) }
+      const ref = { kind, path: kept, size: f.text.length, hash: fingerprintOf(f) }
       const at = c.files.findIndex((x) => x.kind === kind)
       if (at >= 0) c.files[at] = ref
       else c.files.push(ref)
@@ -105,7 +112,7 @@ export async function pointAgain(index: number): Promise<void> {
   const old = s.study.campaign?.files[index]?.path
   edit((study) => {
     const r = study.campaign?.files[index]
-    if (r) Object.assign(r, { path: kept, size: f.text.length, hash: textFingerprint(f.text) })
+    if (r) Object.assign(r, { path: kept, size: f.text.length, hash: fingerprintOf(f) })
   })
   const { texts, missing, changed } = session.get()
   const next = { ...texts, [kept]: f }
@@ -123,7 +130,7 @@ export function acceptChanged(index: number): void {
   if (!ref || !held) return
   edit((study) => {
     const r = study.campaign?.files[index]
-    if (r) Object.assign(r, { size: held.text.length, hash: textFingerprint(held.text) })
+    if (r) Object.assign(r, { size: held.text.length, hash: fingerprintOf(held) })
   })
   const c = { ...session.get().changed }
   delete c[ref.path]
@@ -173,8 +180,8 @@ async function readReferenced(): Promise<void> {
       continue
     }
     session.set({ texts: { ...session.get().texts, [ref.path]: got } })
-    if (ref.hash && textFingerprint(got.text) !== ref.hash) {
-      const what = ref.size !== undefined && ref.size !== got.text.length ? `its size went from ${ref.size} to ${got.text.length} characters` : 'its contents differ'
+    const what = fileChange(ref, got.text, got.fingerprint)
+    if (what) {
       session.set({ changed: { ...session.get().changed, [ref.path]: `${what} since it was added to the study` } })
     }
   }
@@ -223,7 +230,8 @@ async function start(force: boolean): Promise<void> {
   const { texts } = session.get()
   const inputs = c.files.filter((f) => texts[f.path]).map((f) => ({ kind: f.kind, name: texts[f.path].name, text: texts[f.path].text }))
   const sample = study.samples.find((x) => x.name === c.sample)
-  const key = JSON.stringify([c, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
+  // the paths are left out of the key (a save that makes them relative to the study file changes no file)
+  const key = JSON.stringify([{ ...c, files: c.files.map((f) => ({ ...f, path: '' })) }, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
   if (key === lastKey && !force) return
   lastKey = key
   if (!inputs.some((i) => isSizerKind(i.kind))) {
@@ -249,6 +257,24 @@ async function start(force: boolean): Promise<void> {
     session.set({ running: false, failure: `The computation stopped (${e.message || 'worker failure'}). Press “Compute again”.` })
   }
   w.postMessage({ job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
+}
+
+/**
+ * After the study was saved at `toPath` (its first save, or "save as" elsewhere): the file references are made
+ * relative to the new study file (rebaseCampaignPaths), in the document (not an undo step: the files are the same)
+ * and in this session's held texts. True when a path changed, so the study is to be written again.
+ */
+export function rebaseForSave(fromPath: string | undefined, toPath: string): boolean {
+  const app = store().get()
+  const c = app.study.campaign
+  if (!c) return false
+  const { settings, moved } = rebaseCampaignPaths(c, fromPath, toPath)
+  if (moved.size === 0) return false
+  const rekey = <T,>(m: Record<string, T>): Record<string, T> => Object.fromEntries(Object.entries(m).map(([k, v]) => [moved.get(k) ?? k, v]))
+  const { texts, missing, changed } = session.get()
+  session.set({ texts: rekey(texts), missing: rekey(missing), changed: rekey(changed) })
+  store().set({ study: { ...app.study, campaign: settings } })
+  return true
 }
 
 /** Forgets the session's files (a new or another study). */
@@ -278,7 +304,7 @@ export function makeSample(): string | null {
     study.samples.push({ ...made.sample, name: uniqueName(made.sample.name, study) })
     ids.push(id)
   })
-  store().set({ selected: id, view: 'optics', toast: { text: `Made the sample “${made.sample.name}” from ${made.rows} row${made.rows === 1 ? '' : 's'} of the record${made.gapRows ? ` (${made.gapRows} gap rows left out)` : ''}.`, undo: true } })
+  store().set({ selected: id, view: 'optics', toast: { text: `Made the sample “${made.sample.name}” from ${made.rows} row${made.rows === 1 ? '' : 's'} of the record${made.gapRows ? ` (${made.gapRows} gap rows left out)` : ''}; humidity ${made.humidity.percent} % ${made.humidity.from === 'files' ? `recorded in ${made.humidity.file}` : `of “${r.sample.name}” (${made.humidity.why})`}.`, undo: true } })
   return null
 }
 

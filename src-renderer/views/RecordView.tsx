@@ -1,7 +1,7 @@
 // The station record: the campaign's instrument files with their reading summaries, the merge parameters, the
 // record over time in stacked charts, a marked stretch made into a sample, and the record's exports.
 import { useState } from 'preact/hooks'
-import { CAMPAIGN_FILE_KINDS, readDateTime, recordCsv, type CampaignFileSummary, type CampaignSettings } from '../../src-core/index.ts'
+import { CAMPAIGN_FILE_KINDS, DEFAULT_NEPHELOMETER_ANGLES, readDateTime, recordCsv, type CampaignFileSummary, type CampaignSettings } from '../../src-core/index.ts'
 import { host } from '../host/index.ts'
 import { addFiles, acceptChanged, campaignStore, kindWords, makeSample, pointAgain, refresh, removeFile, setKind, setMark, setParameter, stopRecord } from '../campaign/session.ts'
 import { RecordCharts, recordPng, zoomControls } from '../campaign/RecordCharts.tsx'
@@ -63,6 +63,26 @@ function FileSummary(p: { f: CampaignFileSummary }) {
         {f.interval ? `, every ${f.interval}` : ''}
       </span>
       {f.ignoredColumns.length > 0 && <span data-testid="record-file-ignored">ignored columns: {f.ignoredColumns.map((c) => `“${c}”`).join(', ')}</span>}
+      {f.humidity && (
+        <span data-testid="record-file-humidity">
+          relative humidity in {f.humidity.column}: {f.humidity.rows} row{f.humidity.rows === 1 ? '' : 's'} with a value
+          {f.humidity.leftOut > 0 ? `, ${f.humidity.leftOut} value${f.humidity.leftOut === 1 ? '' : 's'} left out` : ''}
+        </span>
+      )}
+      {f.humidity && f.humidity.reasons.length > 0 && (
+        <details>
+          <summary>Why humidity values were left out</summary>
+          <ul>
+            {f.humidity.reasons.map((r, i) => (
+              <li key={i}>
+                line {r.line}
+                {r.column !== undefined ? ` column ${r.column}` : ''}: {r.reason} <em>Fix:</em> {r.fix}
+              </li>
+            ))}
+            {f.humidity.leftOut > f.humidity.reasons.length && <li>… and {f.humidity.leftOut - f.humidity.reasons.length} more</li>}
+          </ul>
+        </details>
+      )}
       <span data-testid="record-file-left-out">{f.leftOut} row{f.leftOut === 1 ? '' : 's'} left out</span>
       {f.reasons.length > 0 && (
         <details>
@@ -153,6 +173,8 @@ function Parameters(p: { c: CampaignSettings }) {
   const s = useApp()
   const c = p.c
   const hasOptical = c.files.some((f) => f.kind === 'optical')
+  const hasScattering = c.files.some((f) => f.kind === 'scattering')
+  const angles = c.truncation?.angles_deg
   return (
     <section class="record-params" aria-label="Record parameters">
       <label class="record-param">
@@ -179,6 +201,23 @@ function Parameters(p: { c: CampaignSettings }) {
         read={(v) => (v > 0 && v <= 44640 ? null : 'give a step above 0 min')}
         commit={(v) => setParameter((x) => (v === undefined ? delete x.step_s : (x.step_s = v * 60)), 'step')}
       />
+      {hasScattering && (
+        <label class="record-param" title="Multiplies the measured scattering by C = σ true / σ seen from each row's own phase function (after Anderson & Ogren 1998), as motebench series --truncation does">
+          <input
+            type="checkbox"
+            checked={!!angles}
+            data-testid="record-truncation"
+            onChange={(e) => setParameter((x) => ((e.target as HTMLInputElement).checked ? (x.truncation = { angles_deg: [...DEFAULT_NEPHELOMETER_ANGLES] as [number, number] }) : delete x.truncation), 'truncation')}
+          />
+          <span>Correct the measured scattering for truncation</span>
+        </label>
+      )}
+      {hasScattering && angles && (
+        <>
+          <ParamField label="Nephelometer sees from" unit="°" value={angles[0]} testId="record-neph-low" read={(v) => (v >= 0 && v < angles[1] && v <= 90 ? null : `give 0 to ${Math.min(90, angles[1])}°`)} commit={(v) => setParameter((x) => x.truncation && (x.truncation.angles_deg = [v!, x.truncation.angles_deg[1]]), 'neph-low')} />
+          <ParamField label="to" unit="°" value={angles[1]} testId="record-neph-high" read={(v) => (v > 90 && v <= 180 ? null : 'give above 90 to 180°')} commit={(v) => setParameter((x) => x.truncation && (x.truncation.angles_deg = [x.truncation.angles_deg[0], v!]), 'neph-high')} />
+        </>
+      )}
       {hasOptical && (
         <>
           <ParamField label="Counter index n" unit="" value={c.counter?.n} testId="record-counter-n" read={(v) => (v > 1 && v <= 3 ? null : 'give n from 1 to 3')} commit={(v) => setParameter((x) => (x.counter = { n: v!, k: x.counter?.k ?? 0, wavelength_nm: x.counter?.wavelength_nm ?? 780, angles_deg: x.counter?.angles_deg ?? [35, 120] }), 'cn')} />
@@ -329,7 +368,7 @@ export function RecordView() {
         <>
           <p class="muted" data-testid="record-summary">
             {r.times.length} rows from {r.timeText[0]} to {r.timeText[r.timeText.length - 1]}, {r.bins} bins, {r.times.length - countAbsent(r.present)} with a distribution
-            {r.gaps.size > 0 ? `, ${r.gaps.size} gap rows (${[...new Set(r.gaps.values())].join('; ')})` : ''}; composition and humidity of “{r.sample.name}”; computed in {(s.ms / 1000).toFixed(1)} s.
+            {r.gaps.size > 0 ? `, ${r.gaps.size} gap rows (${[...new Set(r.gaps.values())].join('; ')})` : ''}; {r.rhFile ? <>composition of “{r.sample.name}”, humidity recorded in {r.rhFile} (a sample made from a stretch takes its mean there)</> : <>composition and humidity of “{r.sample.name}” (no file records a humidity)</>}; computed in {(s.ms / 1000).toFixed(1)} s.
           </p>
           <Stretch />
           <Exports />

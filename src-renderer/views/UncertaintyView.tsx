@@ -49,8 +49,13 @@ const QUANTITY: Record<UncertainQuantity, string> = {
   surface_temperature: 'surface temperature (K)',
   surface_emissivity: 'surface infrared emissivity',
   layer_height: "height of the layer's middle (km)",
-  water_column: 'water-vapour column (cm)'
+  water_column: 'water-vapour column (cm)',
+  spread: 'measured bins within their spread'
 }
+
+/** The spread input a sample made from a stretch of the station record is offered: z ~ N(0, 1) spreads, every bin together. */
+const SPREAD_INPUT: UncertainInput = { quantity: 'spread', apply: 'add', distribution: { kind: 'normal', mean: 0, sd: 1 }, spread_scale: 'standard-error' }
+const hasSpread = (sample: Sample): boolean => sample.size.kind === 'bins' && !!sample.size.bins.spread
 
 const APPLY: Record<UncertainInput['apply'], string> = { factor: '× factor', add: '+ offset', set: '= value' }
 
@@ -143,7 +148,7 @@ function InputRow(p: { list: ListName; sample: Sample; j: number; input: Uncerta
   const base = inputPath(p.list, p.sample.name, p.j)
   const { components, modes } = partsOf(p.sample)
   const change = (f: (i: UncertainInput) => void, key?: string) => editList(p.list, p.sample.name, (inputs) => f(inputs[p.j]), key && `${p.j}.${key}`)
-  const quantities = p.list === 'site' ? SITE_QUANTITIES : SAMPLE_QUANTITIES
+  const quantities = p.list === 'site' ? SITE_QUANTITIES : SAMPLE_QUANTITIES.filter((q) => q !== 'spread' || hasSpread(p.sample) || x.quantity === 'spread')
   const d = x.distribution
   const names = DIST[d.kind]
   const rowProblems = [base, `${base}.quantity`, `${base}.material`, `${base}.mode`, `${base}.apply`, `${base}.distribution`, `${base}.bounds`]
@@ -166,6 +171,10 @@ function InputRow(p: { list: ListName; sample: Sample; j: number; input: Uncerta
                 if (q === 'n' || q === 'k') i.material = i.material && components.includes(i.material) ? i.material : components[0]
                 else delete i.material
                 if (q !== 'median' && q !== 'gsd' && q !== 'amount') delete i.mode
+                if (q === 'spread') {
+                  Object.assign(i, structuredClone(SPREAD_INPUT))
+                  delete i.bounds
+                } else delete i.spread_scale
               })
             }}
           >
@@ -206,6 +215,15 @@ function InputRow(p: { list: ListName; sample: Sample; j: number; input: Uncerta
                   {m.label}
                 </option>
               ))}
+            </select>
+          </label>
+        )}
+        {x.quantity === 'spread' && (
+          <label class="field" title="Standard error: the uncertainty of the stretch's mean (spread/√rows; consecutive rows are correlated, so a lower bound). Standard deviation: the stretch's variability, row to row.">
+            <span>Each bin within</span>
+            <select value={x.spread_scale ?? 'standard-error'} data-path={`${base}.spread_scale`} data-testid="spread-scale" onChange={(e) => change((i) => (i.spread_scale = (e.target as HTMLSelectElement).value as 'standard-error' | 'standard-deviation'))}>
+              <option value="standard-error">standard error of the mean</option>
+              <option value="standard-deviation">rows' standard deviation</option>
             </select>
           </label>
         )}
@@ -343,6 +361,11 @@ function InputList(p: { list: ListName; sample: Sample; inputs: UncertainInput[]
       <button type="button" class="small" data-testid={`add-${p.list}-input`} onClick={() => editList(p.list, p.sample.name, (inputs) => void inputs.push(newInput(p.list, p.sample)))}>
         Add {p.list === 'site' ? 'a site input' : 'an input'}
       </button>
+      {p.list === 'sample' && hasSpread(p.sample) && !p.inputs.some((x) => x.quantity === 'spread') && (
+        <button type="button" class="small" data-testid="add-spread-input" title="The sample's bins are the mean of a stretch of the station record, with each bin's spread kept: draw them within it" onClick={() => editList('sample', p.sample.name, (inputs) => void inputs.push(structuredClone(SPREAD_INPUT)))}>
+          Add the measured bins' spread
+        </button>
+      )}
     </fieldset>
   )
 }

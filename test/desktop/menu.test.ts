@@ -66,6 +66,17 @@ describe.each(PLATFORMS)('menu on %s', (platform) => {
     }
   })
 
+  it('offers adding instrument files to the station record in the File menu, after the sizer import', () => {
+    const { byCommand } = clickEverything(platform)
+    const item = byCommand.get('add-instrument-files')
+    expect(item?.label).toBe('Add instrument files to the station record…')
+    expect(normalised(String(item?.accelerator))).toBe(normalised('CmdOrCtrl+Shift+A'))
+    const top = menuTemplate(platform, [], { send: () => {}, openRecent: () => {} })
+    const file = top.find((t) => String(t.label).replace('&', '') === 'File')!.submenu as MenuItemConstructorOptions[]
+    const labels = file.map((i) => i.label)
+    expect(labels.indexOf('Add instrument files to the station record…')).toBe(labels.indexOf('Import sizer file…') + 1)
+  })
+
   it('puts Undo and Redo first in the Edit menu, and the component catalogue in the View menu', () => {
     const top = menuTemplate(platform, [], { send: () => {}, openRecent: () => {} })
     const submenu = (label: string) => top.find((i) => String(i.label ?? '').replace('&', '') === label)?.submenu as MenuItemConstructorOptions[]

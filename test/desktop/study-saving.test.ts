@@ -139,3 +139,35 @@ describe('the overwrite question', () => {
     expect(overwriteChosen(q.cancelId!)).toBe(false)
   })
 })
+
+describe('readInstrumentFile', () => {
+  it('gives the fingerprint of the whole text, so an edit in the middle of a long file is noticed', async () => {
+    const { readInstrumentFile } = await import('../../src-main/study-saving.ts')
+    const { fileChange, textFingerprint, wholeTextFingerprint } = await import('../../src-core/index.ts')
+    // an invented instrument file of about 260 000 characters: far more than the sampled fingerprint's two 64 Ki ends
+    const rows = Array.from({ length: 10_000 }, (_, i) => `2026-07-14T${String(Math.floor(i / 60) % 24).padStart(2, '0')}:${String(i % 60).padStart(2, '0')}:00Z,${(i % 97) + 0.5}`)
+    const text = 'time,scattering 550 nm [Mm-1]\n' + rows.join('\n') + '\n'
+    expect(text.length).toBeGreaterThan(3 * 65536)
+    const path = join(dir, 'neph.csv')
+    await writeFile(path, text)
+    const first = await readInstrumentFile(path)
+    expect(first).toMatchObject({ name: 'neph.csv', path, text })
+    expect(first.fingerprint).toBe(wholeTextFingerprint(text))
+    // one digit in the middle, same length: the ends are unchanged, so only the whole-text fingerprint sees it
+    const mid = text.indexOf(',', text.length >> 1) + 1
+    const edited = text.slice(0, mid) + (text[mid] === '9' ? '8' : '9') + text.slice(mid + 1)
+    expect(edited.length).toBe(text.length)
+    await writeFile(path, edited)
+    const second = await readInstrumentFile(path)
+    expect(textFingerprint(edited)).toBe(textFingerprint(text))
+    expect(second.fingerprint).not.toBe(first.fingerprint)
+    // as the record's session compares them: a kept whole-text fingerprint against the host's new one
+    const ref = { size: text.length, hash: first.fingerprint }
+    expect(fileChange(ref, text, first.fingerprint)).toBeUndefined()
+    expect(fileChange(ref, edited, second.fingerprint)).toBe('its contents differ')
+    expect(fileChange(ref, edited + 'x')).toMatch(/size went from \d+ to \d+ characters/)
+    // a study saved before (a sampled fingerprint) is still compared as it was made
+    expect(fileChange({ size: text.length, hash: textFingerprint(text) }, edited, second.fingerprint)).toBeUndefined()
+    expect(fileChange({ size: text.length, hash: textFingerprint(text) }, 'X' + text.slice(1), second.fingerprint)).toBe('its contents differ')
+  })
+})

@@ -1,0 +1,60 @@
+/**
+ * Relative humidity recorded in an instrument file (a sizer export's or a nephelometer's "RH" column): which header
+ * cells name it, and which cells are kept. One place for the sizer reader and the optical-file reader.
+ *
+ * A header names the humidity when it is RH, R.H., relative humidity or humidity, with "sample" before or after and
+ * an optional percent unit: "RH", "RH (%)", "rh [%]", "RH%", "sample RH", "RH sample", "Sample RH (%)",
+ * "humidity %", "Relative humidity (%)". Other units (a fraction, g/kg) are not read as percent: such a column stays
+ * an ignored one.
+ *
+ * A cell is kept when it is a number from 0 to 100 %; an empty cell (or NaN, NA) means no value; anything else,
+ * outside 0–100 % or not a number, is left out with its reason, and the row's distribution or coefficients are kept.
+ * `humidityOnRows` averages a file's values onto a campaign record's rows.
+ */
+import { stampTimeBase, TimeAverager } from './timebase.ts'
+
+const HUMIDITY_HEADER = /^(?:sample[\s_-]*)?(?:rh|r\.h\.|rel(?:ative|\.)?[\s_-]*humidity|humidity)(?:[\s_-]*sample)?(?:[\s_-]*(?:[([]\s*%\s*[)\]]|%|percent|pct))?$/i
+
+/** True when a header cell names a relative-humidity column in percent. */
+export function isHumidityHeader(cell: string): boolean {
+  return HUMIDITY_HEADER.test(cell.trim())
+}
+
+/** What is wrong with a humidity cell, or undefined when it is kept (a value) or empty (no value). */
+export function humidityProblem(cell: string, value: number): { reason: string; fix: string } | undefined {
+  const t = cell.trim()
+  if (/^(|nan|na|n\/a)$/i.test(t)) return undefined
+  if (!Number.isFinite(value)) return { reason: `the relative humidity "${t}" is not a number; the row's humidity is left out (its other values are kept)`, fix: 'Write the humidity in percent as a plain number, or leave the cell empty when there is none.' }
+  if (value < 0 || value > 100) return { reason: `the relative humidity ${t} % is outside 0–100 %; the row's humidity is left out (its other values are kept)`, fix: 'Check the humidity sensor and its column (a fraction such as 0.45 is to be written 45); leave the cell empty when there is no good value.' }
+  return undefined
+}
+
+/** The value of a humidity cell: its number from 0 to 100, else NaN (empty, or left out by humidityProblem). */
+export function humidityValue(cell: string, value: number): number {
+  return Number.isFinite(value) && value >= 0 && value <= 100 && cell.trim() !== '' ? value : NaN
+}
+
+/**
+ * A file's recorded humidity averaged onto a record's rows: per row (a step from its time to the next row's, at
+ * most `intervalMs` long: stampTimeBase), the mean of the file's values whose time falls in it; NaN where none does.
+ */
+export function humidityOnRows(rowTimesMs: ArrayLike<number>, intervalMs: number, timesMs: ArrayLike<number>, rh: ArrayLike<number>): Float64Array {
+  const n = rowTimesMs.length
+  const out = new Float64Array(n).fill(NaN)
+  if (n === 0) return out
+  const averager = new TimeAverager(stampTimeBase(rowTimesMs, intervalMs), 2)
+  const pair = new Float64Array(2)
+  for (let i = 0; i < timesMs.length; i++) {
+    const v = rh[i]
+    if (!(v === v)) continue
+    pair[0] = v
+    pair[1] = 1
+    averager.add(timesMs[i], pair)
+  }
+  const means = averager.means()
+  for (let k = 0; k < n; k++) {
+    const m = means[k]
+    if (m && m[1] > 0) out[k] = m[0] / m[1]
+  }
+  return out
+}
