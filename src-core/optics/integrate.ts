@@ -272,10 +272,12 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     let lo = seg.s.lo
     let hi = seg.s.hi
     for (let it = 0; it < 100; it++) {
-      const f = tOf(u) - t
+      // tOf(u) − t and its slope, written out to take e^u once (the same arithmetic as tOf and stretchSlope)
+      const x = ax * Math.exp(u)
+      const f = u * iu + X_STRETCH * Math.log1p(x / X_STRETCH) * ihx - t
       if (f > 0) hi = u
       else lo = u
-      let next = u - f / (iu + stretchSlope(u))
+      let next = u - f / (iu + ((x * X_STRETCH) / (X_STRETCH + x)) * ihx)
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi)
       if (Math.abs(next - u) < 1e-13 * (1 + Math.abs(u))) return next
       u = next

@@ -102,6 +102,19 @@ export function twoSidedNormalQuantile(p: number): number {
   if (!(p > 0 && p < 1)) {
     throw new InputError('tail fraction', `${String(p)} is not between 0 and 1`, 'Give a small positive fraction such as 1e-9.')
   }
+  // a computation asks for the same few tail fractions at every mode and wavelength (an uncertainty run, for
+  // every draw): each takes about 50 erfc evaluations, so the answers are kept
+  const known = quantiles.get(p)
+  if (known !== undefined) return known
+  const z = bisectQuantile(p)
+  if (quantiles.size >= 64) quantiles.clear()
+  quantiles.set(p, z)
+  return z
+}
+
+const quantiles = new Map<number, number>()
+
+function bisectQuantile(p: number): number {
   // erfc(z/√2) = p; erfc is decreasing. Bracket [0, 40].
   let lo = 0
   let hi = 40
