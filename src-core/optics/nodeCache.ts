@@ -49,6 +49,11 @@ export class NodeTable {
     return this.count
   }
 
+  /** How many nodes the table holds without growing. */
+  get capacity(): number {
+    return this.upAt.length
+  }
+
   /** Empties the table for another context, keeping its arrays (their size is what the last context needed). */
   reset(): this {
     this.index.clear()
@@ -133,9 +138,6 @@ export class NodeTable {
   }
 }
 
-/** Dropped tables kept for reuse. */
-const MAX_SPARE_TABLES = 4
-
 export class NodeCache {
   private contexts = new Map<string, NodeTable>()
   private count = 0
@@ -145,6 +147,8 @@ export class NodeCache {
    * new arrays for every one, and leave the old to the garbage collector.
    */
   private spare: NodeTable[] = []
+  /** Nodes the spare tables hold room for: at most a quarter of the limit. */
+  private spareCapacity = 0
 
   constructor(readonly limit = 400_000) {}
 
@@ -154,7 +158,9 @@ export class NodeCache {
     if (nodes) {
       this.contexts.delete(key)
     } else {
-      nodes = this.spare.pop()?.reset() ?? new NodeTable()
+      const spare = this.spare.pop()
+      if (spare) this.spareCapacity -= spare.capacity
+      nodes = spare?.reset() ?? new NodeTable()
     }
     this.contexts.set(key, nodes)
     return nodes
@@ -171,7 +177,10 @@ export class NodeCache {
       if (this.count <= this.limit * 0.75) break
       this.count -= nodes.size
       this.contexts.delete(key)
-      if (nodes.users === 0 && this.spare.length < MAX_SPARE_TABLES) this.spare.push(nodes)
+      if (nodes.users === 0 && this.spareCapacity + nodes.capacity <= this.limit / 4) {
+        this.spare.push(nodes)
+        this.spareCapacity += nodes.capacity
+      }
     }
   }
 
@@ -182,6 +191,7 @@ export class NodeCache {
   clear(): void {
     this.contexts.clear()
     this.spare.length = 0
+    this.spareCapacity = 0
     this.count = 0
   }
 }
