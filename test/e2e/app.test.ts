@@ -414,6 +414,14 @@ describe('Motebench in the browser', { timeout: 90_000 }, () => {
       expect(await findClipped(page), `view ${k}`).toEqual([])
     }
     await page.keyboard.press('Alt+1')
+    // and with each demo sample chosen (long component names, a mode with its own composition, wide tables)
+    const items = page.locator('.sample-item')
+    for (let i = 0; i < (await items.count()); i++) {
+      await items.nth(i).click()
+      await page.locator('section.editor[aria-label]').waitFor()
+      expect(await findClipped(page), `sample ${i + 1}`).toEqual([])
+    }
+    await items.first().click()
 
     // the size distribution as number, then as volume: the axis and the drawing change
     expect(await axes('size-distribution')).toMatch(/^dN\/dlogDp .* against Dry diameter Dp \(µm\) \(log scale\)/)
