@@ -22,7 +22,7 @@ import { InputError } from '../errors.ts'
 import { readableNumber } from '../numberText.ts'
 import { DEFAULT_CLOUD_FRACTION } from './constants.ts'
 import { LONGWAVE_BANDS } from './longwaveBands.ts'
-import { planckBandFlux } from './planck.ts'
+import { planckBandFluxes } from './planck.ts'
 import { thermalTwoStream, HEMISPHERIC_MEAN_DIFFUSIVITY, type ThermalLayer } from './thermalTwoStream.ts'
 import { checkRange } from './validate.ts'
 
@@ -123,6 +123,30 @@ function levelsKm(bottom: number, top: number): number[] {
   return out
 }
 
+/** The bands' edges, µm (the bands are contiguous: each band's upper edge is the next one's lower). */
+const BAND_EDGES_UM: readonly number[] = Object.freeze([LONGWAVE_BANDS[0].loUm, ...LONGWAVE_BANDS.map((b, i) => {
+  const next = LONGWAVE_BANDS[i + 1]
+  if (next && next.loUm !== b.hiUm) throw new Error(`longwave bands ${b.loUm}–${b.hiUm} and ${next.loUm}–${next.hiUm} µm are not contiguous`)
+  return b.hiUm
+})])
+
+/**
+ * Each band's blackbody flux at a temperature (planckBandFluxes over BAND_EDGES_UM), kept per temperature: the
+ * levels above the tropopause share theirs, and a map or an uncertainty run meets the same temperatures again.
+ */
+const emissionByTemperature = new Map<number, Float64Array>()
+const EMISSIONS_KEPT = 1024
+
+function bandEmissions(temperatureK: number): Float64Array {
+  let e = emissionByTemperature.get(temperatureK)
+  if (!e) {
+    if (emissionByTemperature.size >= EMISSIONS_KEPT) emissionByTemperature.clear()
+    e = planckBandFluxes(BAND_EDGES_UM, temperatureK, new Float64Array(LONGWAVE_BANDS.length))
+    emissionByTemperature.set(temperatureK, e)
+  }
+  return e
+}
+
 /**
  * The aerosol-free atmosphere of the last call (its levels' band emission and each band's fluxes): an uncertainty
  * run or a map computes many layers in the same atmosphere, and these depend on the site and the layer's place only.
@@ -173,8 +197,9 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
   let toa = 0
   let sfc = 0
   let olr = 0
+  const levelEmission = reuse ? [] : temps.map(bandEmissions)
   LONGWAVE_BANDS.forEach((band, bi) => {
-    const emission = reuse ? cleanEmission[bi] : temps.map((t) => planckBandFlux(band.loUm, band.hiUm, t))
+    const emission = reuse ? cleanEmission[bi] : levelEmission.map((e) => e[bi])
     if (!reuse) cleanEmission[bi] = emission
     const a = bands[bi]
     for (let i = 0; i < nl; i++) {

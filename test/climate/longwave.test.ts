@@ -11,6 +11,7 @@ import {
   longwaveForcing,
   netVerdict,
   planckBandFlux,
+  planckBandFluxes,
   thermalTwoStream,
   type ThermalLayer
 } from '../../src-core/index.ts'
@@ -34,6 +35,20 @@ describe('Planck band integrals', () => {
       const v = planckBandFlux(c.lo_um, c.hi_um ?? Number.POSITIVE_INFINITY, c.t_k)
       expect(Math.abs(v - c.flux_w_m2)).toBeLessThanOrEqual(1e-10 * c.flux_w_m2 + 1e-300)
     }
+  })
+  it('the fluxes of contiguous bands from their shared edges (planckBandFluxes, as the infrared forcing takes them) match the same quadrature to 1e-10', () => {
+    const edges = [LONGWAVE_BANDS[0].loUm, ...LONGWAVE_BANDS.map((b) => b.hiUm)]
+    let compared = 0
+    for (const t of [...new Set(planckRef.map((c) => c.t_k))]) {
+      const out = planckBandFluxes(edges, t, new Float64Array(LONGWAVE_BANDS.length))
+      LONGWAVE_BANDS.forEach((b, i) => {
+        const ref = planckRef.find((c) => c.t_k === t && c.lo_um === b.loUm && c.hi_um === b.hiUm)
+        if (!ref) return
+        expect(Math.abs(out[i] - ref.flux_w_m2)).toBeLessThanOrEqual(1e-10 * ref.flux_w_m2 + 1e-300)
+        compared++
+      })
+    }
+    expect(compared).toBeGreaterThanOrEqual(LONGWAVE_BANDS.length * 4)
   })
   it('the bands with the stretches below 4 µm and beyond 40 µm add up to σT⁴ (Stefan–Boltzmann, CODATA 2018 σ), from the reference integrals and from the code', () => {
     for (const t of [180, 220, 255, 288.15, 310, 350]) {
