@@ -9,6 +9,8 @@ export type { SampleOpticsOptions, SizeDistributionCurves, WavelengthBulk } from
 export { angstromExponent, angstromFitOf, angstromFit, localAngstromExponents, localAbsorptionExponents, visualRangeKm, deciview, rayleighScatteringMm, layerDepthM, AIR_SCALE_HEIGHT_M, ABSORPTION_FLOOR_MM, ABSORPTION_SHARE_MIN, VISIBLE_NM, absorptionWithheld, visibilityWithheld, deciviewWithheld, withheldText } from './metrics.ts'
 export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, siteLongwaveInputs, siteLongwaveDefaults, sampleLongwaveForcing, upscatterFunction, LAYER_TOP_PRESSURE_HPA, CUSTOM_SURFACE_EMISSIVITY } from './forcing.ts'
 export { sampleLongwaveSteps, LONGWAVE_NODES_NM, LONGWAVE_TOLERANCE } from './longwave.ts'
+export { spectralBulkSteps, SMOOTH_X } from './spectralIntegrate.ts'
+export type { SpectralBulk, SpectralOptions } from './spectralIntegrate.ts'
 export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityCurveKey, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'
 export { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
