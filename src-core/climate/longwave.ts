@@ -2,7 +2,7 @@
  * The thermal-infrared (longwave) forcing of a uniform aerosol layer: the change in outgoing infrared at the top
  * of the atmosphere and in the net infrared at the surface when the layer is put into a simple model atmosphere.
  *
- * The model: a surface of temperature T_s and grey emissivity ε (the rest reflected, Lambertian); air whose
+ * The model: a surface of temperature T_s and emissivity ε, grey or given per band (the rest reflected, Lambertian); air whose
  * temperature falls at a standard lapse rate (6.5 K km⁻¹, common practice; the U.S. Standard Atmosphere 1976's
  * value) up to the tropopause at 11 km and stays constant above, to a model top at 50 km; water vapour falling off
  * with a 2 km scale height (common practice) and pressure with an 8 km one (common practice); ozone between 15 and
@@ -74,7 +74,8 @@ export interface LongwaveForcingInput {
   /** One entry per LONGWAVE_BANDS band. */
   bands: readonly LongwaveLayerBand[]
   surfaceTemperatureK: number
-  surfaceEmissivity: number
+  /** The surface's infrared emissivity: one (grey) value, or one per LONGWAVE_BANDS band. */
+  surfaceEmissivity: number | readonly number[]
   /** Height of the layer's middle above the ground, km. */
   layerHeightKm: number
   /** The layer's depth, km (cut so that it never reaches below the ground). */
@@ -159,7 +160,12 @@ let cleanFluxes: { up: ArrayLike<number>; down: ArrayLike<number> }[] = []
 export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingResult {
   const { bands, surfaceTemperatureK: ts, surfaceEmissivity: eps, layerHeightKm: h, waterColumnCm: w } = input
   checkLongwaveInput('surface_temperature_k', ts, 'surfaceTemperatureK')
-  checkLongwaveInput('surface_emissivity', eps, 'surfaceEmissivity')
+  if (typeof eps === 'number') checkLongwaveInput('surface_emissivity', eps, 'surfaceEmissivity')
+  else {
+    if (eps.length !== LONGWAVE_BANDS.length) throw new InputError('surfaceEmissivity', `${eps.length} band emissivities were given`, `Give one emissivity, or one for each of the ${LONGWAVE_BANDS.length} infrared bands.`)
+    eps.forEach((e, i) => checkLongwaveInput('surface_emissivity', e, `surfaceEmissivity[${i}]`))
+  }
+  const epsOf = (bi: number) => (typeof eps === 'number' ? eps : eps[bi])
   checkLongwaveInput('layer_height_km', h, 'layerHeightKm')
   checkLongwaveInput('water_column_cm', w, 'waterColumnCm')
   checkRange('layerDepthKm', input.layerDepthKm, 0, 1e6, 'km')
@@ -184,7 +190,7 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
   const gas = !input.transparentGases
   const waterBelow = (zz: number) => 1 - Math.exp(-zz / WATER_SCALE_HEIGHT_KM)
   const pressure = (zz: number) => Math.exp(-zz / PRESSURE_SCALE_HEIGHT_KM)
-  const key = [ts, eps, h, w, lapse, D, bottom, top, input.transparentGases === true].join()
+  const key = [ts, typeof eps === 'number' ? eps : eps.join(' '), h, w, lapse, D, bottom, top, input.transparentGases === true].join()
   const reuse = key === cleanKey
   if (!reuse) {
     cleanKey = ''
@@ -223,9 +229,9 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
       layersWith[i] = { tau, omega: tau > 0 ? (a.omega * tauA) / tau : 0, g: a.g, emissionTop, emissionBottom }
     }
     const surfaceEmission = emission[0]
-    const clean = reuse ? cleanFluxes[bi] : thermalTwoStream({ layers: layersClean, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
+    const clean = reuse ? cleanFluxes[bi] : thermalTwoStream({ layers: layersClean, surfaceEmissivity: epsOf(bi), surfaceEmission, diffusivity: D })
     if (!reuse) cleanFluxes[bi] = { up: clean.up, down: clean.down }
-    const withLayer = thermalTwoStream({ layers: layersWith, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
+    const withLayer = thermalTwoStream({ layers: layersWith, surfaceEmissivity: epsOf(bi), surfaceEmission, diffusivity: D })
     const dToa = clean.up[0] - withLayer.up[0]
     const dSfc = withLayer.down[nl] - withLayer.up[nl] - (clean.down[nl] - clean.up[nl])
     bandToa.push(dToa)
