@@ -54,7 +54,7 @@ export type { ForcingVerdictWord, ForcingVerdictInput, ForcingVerdict, ForcingMa
 export { FORCING_CAUTION, DEFAULT_VERDICT_MARGIN_WM2, forcingVerdict, forcingMap, effectiveEmissionTemperature } from './verdict.ts'
 export type { ThinLayerCheckInput, ThinLayerCheck } from './validity.ts'
 export { THIN_LAYER_TRUSTED_SHARE, asymmetryFromUpscatter, thinLayerDepartureWarning, thinLayerCheck } from './validity.ts'
-export { blackbodyFractionBelow, planckBandFlux, planckSpectralFlux, C2_UM_K } from './planck.ts'
+export { blackbodyFractionBelow, planckBandFlux, planckBandFluxes, planckSpectralFlux, C2_UM_K } from './planck.ts'
 export type { ThermalLayer, ThermalStackInput, ThermalStackFluxes } from './thermalTwoStream.ts'
 export { thermalTwoStream, HEMISPHERIC_MEAN_DIFFUSIVITY } from './thermalTwoStream.ts'
 export type { LongwaveBand, BandParticleOptics } from './longwaveBands.ts'

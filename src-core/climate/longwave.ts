@@ -2,7 +2,7 @@
  * The thermal-infrared (longwave) forcing of a uniform aerosol layer: the change in outgoing infrared at the top
  * of the atmosphere and in the net infrared at the surface when the layer is put into a simple model atmosphere.
  *
- * The model: a surface of temperature T_s and grey emissivity ε (the rest reflected, Lambertian); air whose
+ * The model: a surface of temperature T_s and emissivity ε, grey or given per band (the rest reflected, Lambertian); air whose
  * temperature falls at a standard lapse rate (6.5 K km⁻¹, common practice; the U.S. Standard Atmosphere 1976's
  * value) up to the tropopause at 11 km and stays constant above, to a model top at 50 km; water vapour falling off
  * with a 2 km scale height (common practice) and pressure with an 8 km one (common practice); ozone between 15 and
@@ -22,7 +22,7 @@ import { InputError } from '../errors.ts'
 import { readableNumber } from '../numberText.ts'
 import { DEFAULT_CLOUD_FRACTION } from './constants.ts'
 import { LONGWAVE_BANDS } from './longwaveBands.ts'
-import { planckBandFlux } from './planck.ts'
+import { planckBandFluxes } from './planck.ts'
 import { thermalTwoStream, HEMISPHERIC_MEAN_DIFFUSIVITY, type ThermalLayer } from './thermalTwoStream.ts'
 import { checkRange } from './validate.ts'
 
@@ -74,7 +74,8 @@ export interface LongwaveForcingInput {
   /** One entry per LONGWAVE_BANDS band. */
   bands: readonly LongwaveLayerBand[]
   surfaceTemperatureK: number
-  surfaceEmissivity: number
+  /** The surface's infrared emissivity: one (grey) value, or one per LONGWAVE_BANDS band. */
+  surfaceEmissivity: number | readonly number[]
   /** Height of the layer's middle above the ground, km. */
   layerHeightKm: number
   /** The layer's depth, km (cut so that it never reaches below the ground). */
@@ -123,6 +124,30 @@ function levelsKm(bottom: number, top: number): number[] {
   return out
 }
 
+/** The bands' edges, µm (the bands are contiguous: each band's upper edge is the next one's lower). */
+const BAND_EDGES_UM: readonly number[] = Object.freeze([LONGWAVE_BANDS[0].loUm, ...LONGWAVE_BANDS.map((b, i) => {
+  const next = LONGWAVE_BANDS[i + 1]
+  if (next && next.loUm !== b.hiUm) throw new Error(`longwave bands ${b.loUm}–${b.hiUm} and ${next.loUm}–${next.hiUm} µm are not contiguous`)
+  return b.hiUm
+})])
+
+/**
+ * Each band's blackbody flux at a temperature (planckBandFluxes over BAND_EDGES_UM), kept per temperature: the
+ * levels above the tropopause share theirs, and a map or an uncertainty run meets the same temperatures again.
+ */
+const emissionByTemperature = new Map<number, Float64Array>()
+const EMISSIONS_KEPT = 1024
+
+function bandEmissions(temperatureK: number): Float64Array {
+  let e = emissionByTemperature.get(temperatureK)
+  if (!e) {
+    if (emissionByTemperature.size >= EMISSIONS_KEPT) emissionByTemperature.clear()
+    e = planckBandFluxes(BAND_EDGES_UM, temperatureK, new Float64Array(LONGWAVE_BANDS.length))
+    emissionByTemperature.set(temperatureK, e)
+  }
+  return e
+}
+
 /**
  * The aerosol-free atmosphere of the last call (its levels' band emission and each band's fluxes): an uncertainty
  * run or a map computes many layers in the same atmosphere, and these depend on the site and the layer's place only.
@@ -135,7 +160,12 @@ let cleanFluxes: { up: ArrayLike<number>; down: ArrayLike<number> }[] = []
 export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingResult {
   const { bands, surfaceTemperatureK: ts, surfaceEmissivity: eps, layerHeightKm: h, waterColumnCm: w } = input
   checkLongwaveInput('surface_temperature_k', ts, 'surfaceTemperatureK')
-  checkLongwaveInput('surface_emissivity', eps, 'surfaceEmissivity')
+  if (typeof eps === 'number') checkLongwaveInput('surface_emissivity', eps, 'surfaceEmissivity')
+  else {
+    if (eps.length !== LONGWAVE_BANDS.length) throw new InputError('surfaceEmissivity', `${eps.length} band emissivities were given`, `Give one emissivity, or one for each of the ${LONGWAVE_BANDS.length} infrared bands.`)
+    eps.forEach((e, i) => checkLongwaveInput('surface_emissivity', e, `surfaceEmissivity[${i}]`))
+  }
+  const epsOf = (bi: number) => (typeof eps === 'number' ? eps : eps[bi])
   checkLongwaveInput('layer_height_km', h, 'layerHeightKm')
   checkLongwaveInput('water_column_cm', w, 'waterColumnCm')
   checkRange('layerDepthKm', input.layerDepthKm, 0, 1e6, 'km')
@@ -160,7 +190,7 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
   const gas = !input.transparentGases
   const waterBelow = (zz: number) => 1 - Math.exp(-zz / WATER_SCALE_HEIGHT_KM)
   const pressure = (zz: number) => Math.exp(-zz / PRESSURE_SCALE_HEIGHT_KM)
-  const key = [ts, eps, h, w, lapse, D, bottom, top, input.transparentGases === true].join()
+  const key = [ts, typeof eps === 'number' ? eps : eps.join(' '), h, w, lapse, D, bottom, top, input.transparentGases === true].join()
   const reuse = key === cleanKey
   if (!reuse) {
     cleanKey = ''
@@ -173,8 +203,9 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
   let toa = 0
   let sfc = 0
   let olr = 0
+  const levelEmission = reuse ? [] : temps.map(bandEmissions)
   LONGWAVE_BANDS.forEach((band, bi) => {
-    const emission = reuse ? cleanEmission[bi] : temps.map((t) => planckBandFlux(band.loUm, band.hiUm, t))
+    const emission = reuse ? cleanEmission[bi] : levelEmission.map((e) => e[bi])
     if (!reuse) cleanEmission[bi] = emission
     const a = bands[bi]
     for (let i = 0; i < nl; i++) {
@@ -198,9 +229,9 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
       layersWith[i] = { tau, omega: tau > 0 ? (a.omega * tauA) / tau : 0, g: a.g, emissionTop, emissionBottom }
     }
     const surfaceEmission = emission[0]
-    const clean = reuse ? cleanFluxes[bi] : thermalTwoStream({ layers: layersClean, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
+    const clean = reuse ? cleanFluxes[bi] : thermalTwoStream({ layers: layersClean, surfaceEmissivity: epsOf(bi), surfaceEmission, diffusivity: D })
     if (!reuse) cleanFluxes[bi] = { up: clean.up, down: clean.down }
-    const withLayer = thermalTwoStream({ layers: layersWith, surfaceEmissivity: eps, surfaceEmission, diffusivity: D })
+    const withLayer = thermalTwoStream({ layers: layersWith, surfaceEmissivity: epsOf(bi), surfaceEmission, diffusivity: D })
     const dToa = clean.up[0] - withLayer.up[0]
     const dSfc = withLayer.down[nl] - withLayer.up[nl] - (clean.down[nl] - clean.up[nl])
     bandToa.push(dToa)

@@ -27,13 +27,27 @@ export function blackbodyFractionBelow(wavelengthUm: number, temperatureK: numbe
   if (wavelengthUm === Number.POSITIVE_INFINITY) return 1
   checkRangeOpenLow('wavelengthUm', wavelengthUm, 0, Number.MAX_VALUE, 'µm')
   checkRangeOpenLow('temperatureK', temperatureK, 0, 1e5, 'K')
-  const x = C2_UM_K / (wavelengthUm * temperatureK)
-  const c = 15 / Math.PI ** 4
+  return fractionBelow(C2_UM_K / (wavelengthUm * temperatureK))
+}
+
+const FRACTION_SCALE = 15 / Math.PI ** 4
+
+/** The blackbody fraction below λ as a function of x = c₂/(λT) (see blackbodyFractionBelow); x > 0. */
+function fractionBelow(x: number): number {
+  const c = FRACTION_SCALE
   if (x >= 1) {
+    // e^{−nx} as powers of e^{−x}: one exponential for the whole series
     const nMax = Math.ceil(45 / x) + 1
+    const q = Math.exp(-x)
+    const x2 = x * x
+    const x3 = x2 * x
+    let qn = 1
     let s = 0
     for (let n = 1; n <= nMax; n++) {
-      s += Math.exp(-n * x) * (x ** 3 / n + (3 * x * x) / n ** 2 + (6 * x) / n ** 3 + 6 / n ** 4)
+      qn *= q
+      const i = 1 / n
+      const i2 = i * i
+      s += qn * i * (x3 + 3 * x2 * i + 6 * x * i2 + 6 * i2 * i)
     }
     return Math.min(1, c * s)
   }
@@ -46,6 +60,25 @@ export function blackbodyFractionBelow(wavelengthUm: number, temperatureK: numbe
     s += (b * x ** (m + 3)) / (fact * (m + 3))
   }
   return 1 - c * s
+}
+
+/**
+ * Hemispheric blackbody flux in each of the bands between consecutive `edgesUm` (ascending, µm) at one
+ * temperature, W m⁻², into `out` (length edgesUm.length − 1): one fraction per edge, so that neighbouring bands
+ * share theirs. Equal to planckBandFlux band by band.
+ */
+export function planckBandFluxes(edgesUm: readonly number[], temperatureK: number, out: Float64Array): Float64Array {
+  checkRangeOpenLow('temperatureK', temperatureK, 0, 1e5, 'K')
+  const total = STEFAN_BOLTZMANN_WM2K4 * temperatureK ** 4
+  let below = edgesUm[0] === Number.POSITIVE_INFINITY ? 1 : fractionBelow(C2_UM_K / (edgesUm[0] * temperatureK))
+  for (let i = 1; i < edgesUm.length; i++) {
+    const e = edgesUm[i]
+    if (!(e > edgesUm[i - 1])) throw new RangeError(`planckBandFluxes: edges must ascend (${edgesUm[i - 1]}, ${e} µm)`)
+    const f = e === Number.POSITIVE_INFINITY ? 1 : fractionBelow(C2_UM_K / (e * temperatureK))
+    out[i - 1] = total * (f - below)
+    below = f
+  }
+  return out
 }
 
 /**

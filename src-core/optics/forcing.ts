@@ -57,6 +57,15 @@ export function siteLongwaveDefaults(site: Site): { surfaceTemperatureK: number;
   }
 }
 
+/**
+ * The surface type's emissivity by infrared band (SurfaceType.emissivityBands), where it has one and the site gives
+ * no emissivity of its own (a site's own value is grey), else null.
+ */
+export function siteEmissivityBands(site: Site): readonly number[] | null {
+  if (site.surface_emissivity !== undefined) return null
+  return SURFACE_TYPES.find((t) => t.id === site.surface)?.emissivityBands ?? null
+}
+
 /** The site's infrared inputs with their defaults filled in, each checked at its field with its range and reason. */
 export function siteLongwaveInputs(site: Site): { surfaceTemperatureK: number; surfaceEmissivity: number; layerHeightKm: number; waterColumnCm: number } {
   if (site.surface !== 'custom' && site.surface_emissivity === undefined) surfaceTypeById(site.surface)
@@ -75,13 +84,15 @@ export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detai
   const inputs = siteLongwaveInputs(site)
   const depthKm = optics.layer_depth_m / 1000
   const bands = lw.bands.map((b) => ({ tau: b.ext * 1e-6 * optics.layer_depth_m, omega: Math.min(1, Math.max(0, b.ssa)), g: Math.min(1, Math.max(-1, b.g)) }))
-  const r = longwaveForcing({ bands, ...inputs, layerDepthKm: depthKm, cloudFraction: site.cloud_fraction })
+  const emissivityBands = siteEmissivityBands(site)
+  const r = longwaveForcing({ bands, ...inputs, surfaceEmissivity: emissivityBands ?? inputs.surfaceEmissivity, layerDepthKm: depthKm, cloudFraction: site.cloud_fraction })
   return {
     toa: r.toaWm2,
     surface: r.surfaceWm2,
     detail: {
       surface_temperature_k: inputs.surfaceTemperatureK,
       surface_emissivity: inputs.surfaceEmissivity,
+      surface_emissivity_bands: emissivityBands ? [...emissivityBands] : null,
       layer_height_km: inputs.layerHeightKm,
       layer_depth_km: r.layerTopKm - r.layerBottomKm,
       water_column_cm: inputs.waterColumnCm,

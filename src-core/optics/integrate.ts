@@ -38,6 +38,7 @@ import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, SPHERE_DOMAIN,
 import { NODE_ABS, NODE_DUDT, NODE_EXT, NODE_FIELDS, NODE_GSCA, NODE_SCA, NODE_U, NodeCache } from './nodeCache.ts'
 import { UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, upscatterFrom } from './upscatter.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
+import { firstLatticeStep, largestGrowthFactor, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 
 /** A stretch of the size distribution: ln D from lo to hi (D in µm), with dN/dlnD (cm⁻³) there. */
 export interface SizeSegment {
@@ -87,8 +88,6 @@ export const DEFAULT_TOLERANCE = 1e-4
 
 /** Refinement levels that accumulate the angular sums at least (see the module comment). */
 const ANGULAR_LEVELS = 2
-/** Beyond this size parameter the node step grows in proportion to x (see the module comment). */
-const X_STRETCH = 100
 const upMu = UPSCATTER_SCATTERING_COSINES.nodes
 
 /** Bulk optics of one or more populations at one wavelength. */
@@ -203,15 +202,12 @@ export class OpticsWorkspace {
 
 type Settings = Required<Omit<IntegrationOptions, 'anglesDeg'>> & { anglesDeg?: ArrayLike<number> }
 
-/** Smallest lattice level whose step 2^−L fits at least this many times into a lognormal segment. */
-const MIN_LATTICE_STEPS = 4
-
 /**
  * Work between pauses of a stepped integration, in series terms of the Mie evaluations (with the angular sums
  * counted as ANGULAR_WORK terms each): about 2 ms on this project's 2-core test machine, so that a caller
  * looking for newer work between steps (the app's workers) sees it within a few milliseconds.
  */
-const STEP_WORK = 50_000
+export const STEP_WORK = 50_000
 const ANGULAR_WORK = 3
 
 /**
@@ -225,18 +221,8 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   const userKey = userTable ? Array.from(opts.anglesDeg!).join(',') : ''
   const nUser = userTable ? userTable.mu.length : 0
   const lambda2 = wavelengthUm * wavelengthUm
-  // The largest growth factor, for the node spacing (no Kelvin term, so an upper bound).
-  const gMax = cond.rhPercent > 0 && kind.kappa > 0 ? Math.cbrt(1 + (kind.kappa * cond.rhPercent) / (100 - cond.rhPercent)) : 1
-  const ax = (Math.PI * gMax) / wavelengthUm // x = ax·e^u
-  const ihx = 1 / opts.stepX
-  const iu = 1 / opts.stepLnD
-  /** s(x(u))/h_x and its derivative in u; s(x) = X ln(1 + x/X) is analytic, which the trapezoid rule needs. */
-  const stretch = (u: number) => X_STRETCH * Math.log1p((ax * Math.exp(u)) / X_STRETCH) * ihx
-  const stretchSlope = (u: number) => {
-    const x = ax * Math.exp(u)
-    return ((x * X_STRETCH) / (X_STRETCH + x)) * ihx
-  }
-  const tOf = (u: number) => u * iu + stretch(u)
+  const gMax = largestGrowthFactor(kind, cond)
+  const axis = new SizeAxis((Math.PI * gMax) / wavelengthUm, opts.stepLnD, opts.stepX) // x = ax·e^u
   const wet: WetParticle = { n: 1, k: 0, coreRatio: 0, coreN: 1, coreK: 0 }
   // Everything a node's value depends on except its position t.
   const nodes = ws.nodes.context(
@@ -246,9 +232,9 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   /** Work since the last pause (see STEP_WORK). */
   let work = 0
 
-  const segs = pop.segments.map((s) => ({ s, t0: tOf(s.lo), t1: tOf(s.hi), u: s.lo }))
+  const segs = pop.segments.map((s) => ({ s, t0: axis.t(s.lo), t1: axis.t(s.hi), u: s.lo }))
   const uTop = Math.max(...pop.segments.map((sg) => sg.hi))
-  const xTop = ax * Math.exp(uTop)
+  const xTop = axis.ax * Math.exp(uTop)
   if (xTop > SPHERE_DOMAIN.sizeParameter.max) {
     throw new InputError(
       pop.label,
@@ -265,25 +251,6 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   const angularLevels = ANGULAR_LEVELS
   let lastAngChange = Infinity
   const frozenAngles = new Sums(nUser)
-
-  /** u at t: Newton from the last node's u, safeguarded by the segment's bracket (t is increasing in u). */
-  const uAt = (seg: { s: SizeSegment; u: number }, t: number) => {
-    let u = seg.u
-    let lo = seg.s.lo
-    let hi = seg.s.hi
-    for (let it = 0; it < 100; it++) {
-      // tOf(u) − t and its slope, written out to take e^u once (the same arithmetic as tOf and stretchSlope)
-      const x = ax * Math.exp(u)
-      const f = u * iu + X_STRETCH * Math.log1p(x / X_STRETCH) * ihx - t
-      if (f > 0) hi = u
-      else lo = u
-      let next = u - f / (iu + ((x * X_STRETCH) / (X_STRETCH + x)) * ihx)
-      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi)
-      if (Math.abs(next - u) < 1e-13 * (1 + Math.abs(u))) return next
-      u = next
-    }
-    return u
-  }
 
   /** The efficiencies of the last evaluation. */
   let eff: SphereEfficiencies | null = null
@@ -309,11 +276,11 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   // Adds f(t)·weight for one node: from the cache where it holds the node, else from a Mie evaluation.
   const addNode = (seg: { s: SizeSegment; u: number }, t: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean) => {
     let i = nodes.find(t)
-    const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : uAt(seg, t)
+    const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : axis.uAt(seg, t)
     seg.u = u
     const dens = seg.s.density(u)
     if (!(dens > 0)) return
-    const dudt = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_DUDT] : 1 / (iu + stretchSlope(u))
+    const dudt = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_DUDT] : axis.dudt(u)
     const w = weight * dens * dudt
     // A node whose largest possible extinction (Q_ext < 6 at the widest growth) is below 1e-10 of the
     // previous level's total cannot matter: leave it out (whether or not its value is known, so that the
@@ -371,17 +338,10 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     }
   }
 
-  // First grid. A lognormal segment (smooth, vanishing at both ends) uses the dyadic lattice t = j·2^−L of the
-  // whole t axis, from the level L that puts at least MIN_LATTICE_STEPS steps across it: the trapezoid rule
-  // over a vanishing integrand needs no end nodes, and the same lattice serves every mode and every edit of
-  // it, so the node cache can answer. A measured bin (flat, with jumps at its edges) is split into
-  // max(2, ⌈t1 − t0⌉) equal steps from its own edges, which Richardson extrapolation needs.
-  const firstStep = segs.map((sg) => {
-    if (sg.s.flat) return (sg.t1 - sg.t0) / Math.max(2, Math.ceil(sg.t1 - sg.t0))
-    let h = opts.coarsestStep
-    while ((sg.t1 - sg.t0) / h < MIN_LATTICE_STEPS && h > 2 ** -40) h /= 2
-    return h
-  })
+  // First grid: the lattice (lognormal segments) or the bin's own edges (measured bins); see sizeLattice.ts.
+  // The same lattice serves every mode and every edit of it, so the node cache can answer.
+  const firstStep = segs.map((sg) => firstLatticeStep(sg.t0, sg.t1, sg.s.flat, opts.coarsestStep))
+  const at: LevelNodes = { base: 0, m0: 0, dm: 1, count: 0, h: 0, halfEnds: false }
   const flatSums = new Sums(nUser)
   const smoothSums = new Sums(nUser)
   // Trapezoid sums per segment class (smooth, flat), kept apart so that the flat ones can be extrapolated.
@@ -406,29 +366,8 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
         const h0 = firstStep[i]
         sg.u = sg.s.lo
         // This level's nodes in this segment: t = base + m·h for m = m0, m0 + dm, … (count of them), each weighted h.
-        // A measured bin is split from its own edges: all of t0 + k·h0 at level 0 (the two ends at half weight),
-        // then the odd multiples of h from t0. A lognormal segment takes the lattice nodes inside [t0, t1]: all
-        // multiples of h0 at level 0, the odd multiples of h after.
-        const h = h0 / (1 << lv)
-        const flat = sg.s.flat
-        const base = flat ? sg.t0 : 0
-        const dm = lv === 0 ? 1 : 2
-        let m0: number
-        let count: number
-        if (flat) {
-          const n0 = Math.round((sg.t1 - sg.t0) / h0)
-          m0 = lv === 0 ? 0 : 1
-          count = lv === 0 ? n0 + 1 : n0 << (lv - 1)
-        } else if (lv === 0) {
-          m0 = Math.ceil(sg.t0 / h0)
-          count = Math.floor(sg.t1 / h0) - m0 + 1
-        } else {
-          const k0 = Math.ceil((sg.t0 / h - 1) / 2)
-          m0 = 2 * k0 + 1
-          count = Math.floor((sg.t1 / h - 1) / 2) - k0 + 1
-        }
-        const target = flat ? freshFlat : fresh
-        const halfEnds = flat && lv === 0
+        const { base, m0, dm, count, h, halfEnds } = levelNodes(sg.t0, sg.t1, sg.s.flat, h0, lv, at)
+        const target = sg.s.flat ? freshFlat : fresh
         for (let k = 0; k < count; k++) {
           addNode(sg, base + (m0 + k * dm) * h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles, withUser)
           if (work >= STEP_WORK) {

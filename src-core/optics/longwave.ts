@@ -1,15 +1,18 @@
 /**
- * A sample's thermal-infrared optics in the longwave bands (climate/longwaveBands.ts): the same size integration
- * (bulkOpticsSteps, Mie on the same size distribution, with the water it takes up at its humidity) at each band's
- * node wavelengths, averaged over the band (bandAverage). Only σext, σsca, σabs and g: no angular sums. The
- * particles are small against these wavelengths, so each wavelength costs a fraction of a visible one.
+ * A sample's thermal-infrared optics in the longwave bands (climate/longwaveBands.ts): Mie on the same size
+ * distribution, with the water it takes up at its humidity, at each band's node wavelengths, averaged over the
+ * band (bandAverage). Only σext, σsca, σabs and g: no angular sums. The size integration runs over all the node
+ * wavelengths at once on shared nodes (spectralIntegrate.ts): the particles are small against these wavelengths,
+ * so its set-up and each node's water uptake, computed once for all of them, would otherwise cost more than the
+ * Mie series.
  */
 import { bandAverage, blackbodyFractionBelow, LONGWAVE_BANDS, LONGWAVE_WEIGHT_TEMPERATURE_K, longwaveNodeWavelengthsUm } from '../climate/index.ts'
 import { InputError } from '../errors.ts'
 import type { Material } from '../materials/index.ts'
 import type { Sample, Study } from '../study/model.ts'
-import type { OpticsWorkspace } from './integrate.ts'
-import { sampleBulkSteps, studyMaterials } from './sample.ts'
+import { OpticsWorkspace } from './integrate.ts'
+import { sampleSetting, studyMaterials } from './sample.ts'
+import { spectralBulkSteps, type SpectralBulk } from './spectralIntegrate.ts'
 import type { LongwaveBandOptics, LongwaveOptics } from './types.ts'
 
 /**
@@ -19,14 +22,15 @@ import type { LongwaveBandOptics, LongwaveOptics } from './types.ts'
 export const LONGWAVE_TOLERANCE = 1e-3
 
 /**
- * The coarsest lattice step of the infrared size integration (IntegrationOptions.coarsestStep): the particles are
- * small against these wavelengths and the integrands smooth, so a coarser first grid settles with a third fewer Mie
- * evaluations; over the demo's samples it stays within 1.5e-6 of a 1e-7 integration (as the default step does).
+ * The coarsest lattice step of the infrared size integration (as IntegrationOptions.coarsestStep): the particles are
+ * small against these wavelengths and the integrands smooth, so a coarser first grid settles with fewer Mie
+ * evaluations (test/optics/spectral.test.ts checks the result against a one-wavelength integration at 1e-7).
  */
 export const LONGWAVE_COARSEST_STEP = 2
 
 /** The nodes' wavelengths, nm, in band order. */
 export const LONGWAVE_NODES_NM: readonly number[] = Object.freeze(longwaveNodeWavelengthsUm().map((w) => Math.round(w * 1000)))
+const LONGWAVE_NODES_UM: readonly number[] = Object.freeze(LONGWAVE_NODES_NM.map((w) => w / 1000))
 
 function weight(lo: number, hi: number): number {
   const t = LONGWAVE_WEIGHT_TEMPERATURE_K
@@ -45,10 +49,13 @@ export function* sampleLongwaveSteps(
 ): Generator<void, LongwaveOptics> {
   const atNodes = { user_materials: study.user_materials, wavelengths_nm: [...LONGWAVE_NODES_NM] }
   let own: Material[]
-  let bulk
+  let bulk: SpectralBulk
   try {
     own = studyMaterials(atNodes)
-    bulk = yield* sampleBulkSteps(sample, atNodes, { upscatter: false, angularWavelengthsNm: [], tolerance: Math.max(options.tolerance ?? 0, LONGWAVE_TOLERANCE), coarsestStep: Math.max(options.coarsestStep ?? 1, LONGWAVE_COARSEST_STEP), workspace: options.workspace }, own)
+    const tolerance = Math.max(options.tolerance ?? 0, LONGWAVE_TOLERANCE)
+    const { pops, cond } = sampleSetting(sample, atNodes, { tolerance }, own)
+    const coarsestStep = Math.max(options.coarsestStep ?? 1, LONGWAVE_COARSEST_STEP)
+    bulk = yield* spectralBulkSteps(pops, LONGWAVE_NODES_UM, cond, { tolerance, coarsestStep }, options.workspace ?? new OpticsWorkspace())
   } catch (e) {
     if (e instanceof InputError) return { bands: [], withheld: `The infrared part is left out: ${e.message}` }
     throw e
@@ -57,8 +64,8 @@ export function* sampleLongwaveSteps(
   let k = 0
   for (const b of LONGWAVE_BANDS) {
     const nodes = b.nodesUm.map(() => {
-      const r = bulk[k++]
-      return { ext: r.ext, sca: r.sca, g: r.g }
+      const r = k++
+      return { ext: bulk.ext[r], sca: bulk.sca[r], g: bulk.g[r] }
     })
     const avg = bandAverage(b, nodes, weight)
     bands.push({ lo_um: b.loUm, hi_um: b.hiUm, ext: avg.ext, sca: avg.sca, abs: avg.ext - avg.sca, ssa: avg.ext > 0 ? avg.sca / avg.ext : 0, g: avg.g })

@@ -138,8 +138,51 @@ export class NodeTable {
   }
 }
 
+/**
+ * The nodes of one context of the integration over many wavelengths at once (spectralIntegrate.ts): per node u,
+ * du/dt, then at each wavelength C_ext, C_sca, C_abs and C_sca·g (µm²), in `values` at width·i. `size` counts
+ * the table in nodes of NODE_FIELDS numbers, for the cache's bound.
+ */
+export class SpectralNodeTable {
+  private readonly index = new Map<number, number>()
+  private count = 0
+  readonly width: number
+  values: Float64Array
+  constructor(readonly wavelengths: number) {
+    this.width = 2 + 4 * wavelengths
+    this.values = new Float64Array(this.width * 64)
+  }
+
+  get nodes(): number {
+    return this.count
+  }
+
+  get size(): number {
+    return this.count * Math.ceil(this.width / NODE_FIELDS)
+  }
+
+  /** The node at lattice position t, or −1. */
+  find(t: number): number {
+    return this.index.get(t) ?? -1
+  }
+
+  /** Adds the node at t (its u and du/dt set, its cross-sections to be written at width·i + 2 + 4j …); returns its number. */
+  add(t: number, u: number, dudt: number): number {
+    const i = this.count++
+    if ((i + 1) * this.width > this.values.length) {
+      const bigger = new Float64Array(2 * this.values.length)
+      bigger.set(this.values)
+      this.values = bigger
+    }
+    this.values[this.width * i] = u
+    this.values[this.width * i + 1] = dudt
+    this.index.set(t, i)
+    return i
+  }
+}
+
 export class NodeCache {
-  private contexts = new Map<string, NodeTable>()
+  private contexts = new Map<string, NodeTable | SpectralNodeTable>()
   private count = 0
   /**
    * Tables of dropped contexts, emptied and given to the next new context: a run whose contexts are never used
@@ -155,12 +198,26 @@ export class NodeCache {
   /** The nodes of one context (created empty), marked as the most recently used. */
   context(key: string): NodeTable {
     let nodes = this.contexts.get(key)
-    if (nodes) {
+    if (nodes instanceof NodeTable) {
       this.contexts.delete(key)
     } else {
+      if (nodes) this.count -= nodes.size
       const spare = this.spare.pop()
       if (spare) this.spareCapacity -= spare.capacity
       nodes = spare?.reset() ?? new NodeTable()
+    }
+    this.contexts.set(key, nodes)
+    return nodes
+  }
+
+  /** The nodes of one context of an integration over `wavelengths` wavelengths at once (created empty), marked as the most recently used. */
+  spectralContext(key: string, wavelengths: number): SpectralNodeTable {
+    let nodes = this.contexts.get(key)
+    if (nodes instanceof SpectralNodeTable && nodes.wavelengths === wavelengths) {
+      this.contexts.delete(key)
+    } else {
+      if (nodes) this.count -= nodes.size
+      nodes = new SpectralNodeTable(wavelengths)
     }
     this.contexts.set(key, nodes)
     return nodes
@@ -177,7 +234,7 @@ export class NodeCache {
       if (this.count <= this.limit * 0.75) break
       this.count -= nodes.size
       this.contexts.delete(key)
-      if (nodes.users === 0 && this.spareCapacity + nodes.capacity <= this.limit / 4) {
+      if (nodes instanceof NodeTable && nodes.users === 0 && this.spareCapacity + nodes.capacity <= this.limit / 4) {
         this.spare.push(nodes)
         this.spareCapacity += nodes.capacity
       }

@@ -234,8 +234,8 @@ export interface WavelengthBulk {
   converged: boolean
 }
 
-/** The sample's conditions and populations, as both halves of the computation see them. */
-function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: Pick<SampleOpticsOptions, 'rhPercent' | 'tolerance'>, own: Material[]) {
+/** The sample's conditions and populations, as both halves of the computation (and the infrared's) see them. */
+export function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: Pick<SampleOpticsOptions, 'rhPercent' | 'tolerance'>, own: Material[]) {
   const wavelengths = study.wavelengths_nm
   if (!wavelengths.length) throw new InputError('study: wavelengths', 'no wavelengths are given', 'Add at least one wavelength, such as 550 nm.')
   // the longest of all the study's wavelengths (not of a share of them) sets the modes' ranges, so that a

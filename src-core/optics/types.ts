@@ -122,7 +122,10 @@ export interface LongwaveOptics {
 /** The infrared part of a sample's forcing, with the site inputs it used. */
 export interface LongwaveForcingDetail {
   surface_temperature_k: number
+  /** The broadband emissivity (the site's, or its surface type's). */
   surface_emissivity: number
+  /** The surface type's emissivity in each band, used in place of the broadband one (null: grey). */
+  surface_emissivity_bands: number[] | null
   layer_height_km: number
   layer_depth_km: number
   water_column_cm: number

@@ -2,6 +2,9 @@
 import { asymmetryFromUpscatter, CUSTOM_SURFACE_EMISSIVITY, DEFAULT_LAYER_HEIGHT_KM, DEFAULT_SURFACE_TEMPERATURE_K, DEFAULT_WATER_COLUMN_CM, forcingVerdict, InputError, LONGWAVE_BANDS, LONGWAVE_METHOD, longwaveForcing, netVerdict, SOLAR_CONSTANT_WM2, thinLayerCheck, thinLayerForcing, twoStreamEquivalentUpscatter, twoStreamForcing } from '../../src-core/index.ts'
 import { need, printJson, readArgs, readNumber, UsageError } from './common.ts'
 
+/** The bands' edges in words, for the help: "4–5.5, 5.5–7.5, …". */
+const BAND_LIST = LONGWAVE_BANDS.map((b) => `${b.loUm}–${b.hiUm}`).join(', ')
+
 export const forcingHelp = `motebench forcing: global-mean direct forcing of a uniform aerosol layer, and whether it cools or warms
   --tau T               optical depth of the layer (at 550 nm), 0 to 10
   --ssa W               single-scattering albedo ω, 0 to 1
@@ -20,16 +23,20 @@ export const forcingHelp = `motebench forcing: global-mean direct forcing of a u
                         and upscatter_source (the scattering the method assumed), warnings, caution (and toa_w_m2,
                         surface_w_m2, atmosphere_w_m2 with --two-stream; two_stream_w_m2 without)
 Thermal infrared (the layer's infrared part, added to the sunlight figure for the net verdict):
-  --ir-tau T            the layer's infrared optical depth, the same in every band from 4 to 40 µm, 0 to 1000
-  --ir-ssa W            its infrared single-scattering albedo, 0 to 1 (needed with --ir-tau)
-  --ir-g G              its infrared asymmetry parameter, −1 to 1, default 0.5
+  --ir-tau T            the layer's infrared optical depth, 0 to 1000: one value, the same in every band, or
+                        ${LONGWAVE_BANDS.length} comma-separated values, one per band in this order (µm):
+                        ${BAND_LIST}
+  --ir-ssa W            its infrared single-scattering albedo, 0 to 1 (needed with --ir-tau); one value or ${LONGWAVE_BANDS.length}
+  --ir-g G              its infrared asymmetry parameter, −1 to 1, default 0.5; one value or ${LONGWAVE_BANDS.length}
   --surface-temperature K   surface temperature in kelvin, 180 to 350, default ${DEFAULT_SURFACE_TEMPERATURE_K}
   --emissivity E        surface infrared emissivity, 0.5 to 1, default ${CUSTOM_SURFACE_EMISSIVITY}
   --layer-height KM     height of the layer's middle above the ground, km, 0 to 15, default ${DEFAULT_LAYER_HEIGHT_KM}
   --layer-depth KM      depth of the layer, km, default 1
   --water-column CM     precipitable water of the column, cm, 0 to 10, default ${DEFAULT_WATER_COLUMN_CM}
   With --ir-tau the JSON adds longwave_toa_w_m2, longwave_surface_w_m2, net_toa_w_m2 (forcing_w_m2 plus
-  longwave_toa_w_m2), sunlight_verdict, dominant and longwave_inputs, and verdict is the net's.
+  longwave_toa_w_m2), sunlight_verdict, dominant and longwave_inputs (ir_tau, ir_ssa, ir_g as given: a number, or
+  a list of one per band, and longwave_bands: each band's lo_um, hi_um, tau, ssa, g as used), and verdict is the
+  net's.
 A negative forcing cools. The thin-layer estimate is checked against the two-stream layer with the same β̄: where
 they differ by more than 10 % it carries a warning. This is a first-order screening estimate, not a climate projection.`
 
@@ -49,19 +56,29 @@ const FLAG_OF: Record<string, string> = {
   layerHeightKm: '--layer-height',
   layerDepthKm: '--layer-depth',
   waterColumnCm: '--water-column',
-  'bands[0].tau': '--ir-tau',
-  'bands[0].omega': '--ir-ssa',
-  'bands[0].g': '--ir-g'
+}
+
+/** The option a band's figure came from, with the band where several were given: bands[3].tau → --ir-tau (band 4, 8.5–9.5 µm). */
+const BAND_FLAG: Record<string, string> = { tau: '--ir-tau', omega: '--ir-ssa', g: '--ir-g' }
+let perBand: Record<string, boolean> = {}
+
+function flagOf(where: string): string | undefined {
+  if (FLAG_OF[where]) return FLAG_OF[where]
+  const m = /^bands\[(\d+)\]\.(tau|omega|g)$/.exec(where)
+  if (!m) return undefined
+  const b = LONGWAVE_BANDS[Number(m[1])]
+  return perBand[m[2]] ? `${BAND_FLAG[m[2]]} (band ${Number(m[1]) + 1}, ${b.loUm}–${b.hiUm} µm)` : BAND_FLAG[m[2]]
 }
 
 export function runForcing(argv: string[]): number {
   try {
     return forcing(argv)
   } catch (e) {
-    if (e instanceof InputError && FLAG_OF[e.where]) {
+    const flag = e instanceof InputError ? flagOf(e.where) : undefined
+    if (e instanceof InputError && flag) {
       let problem = e.message.slice(e.where.length + 2)
       if (problem.endsWith(`. ${e.fix}`)) problem = problem.slice(0, -(e.fix.length + 2))
-      throw new InputError(FLAG_OF[e.where], problem, e.fix)
+      throw new InputError(flag, problem, e.fix)
     }
     throw e
   }
@@ -179,7 +196,7 @@ function forcing(argv: string[]): number {
 type ForcingValues = Record<string, string | boolean | undefined>
 
 /** The layer's infrared part from the --ir-* and site options, or null without --ir-tau. */
-function infraredPart(values: ForcingValues, cloudFraction: number): { toa: number; surface: number; inputs: Record<string, number> } | null {
+function infraredPart(values: ForcingValues, cloudFraction: number): { toa: number; surface: number; inputs: Record<string, unknown> } | null {
   const str = (k: string) => (typeof values[k] === 'string' ? (values[k] as string) : undefined)
   const site = ['ir-ssa', 'ir-g', 'surface-temperature', 'emissivity', 'layer-height', 'layer-depth', 'water-column']
   if (str('ir-tau') === undefined) {
@@ -187,21 +204,25 @@ function infraredPart(values: ForcingValues, cloudFraction: number): { toa: numb
     if (stray) throw new UsageError(`forcing: --${stray} applies to the infrared part only; give --ir-tau (and --ir-ssa) too`)
     return null
   }
-  const tau = readNumber(str('ir-tau')!, '--ir-tau')
-  const omega = readNumber(need(str('ir-ssa'), 'forcing', '--ir-ssa', '--ir-ssa 0.5 (the infrared single-scattering albedo, with --ir-tau)'), '--ir-ssa')
-  const g = readNumber(str('ir-g'), '--ir-g', 0.5)
+  const tau = readBandValues(str('ir-tau')!, '--ir-tau')
+  const omega = readBandValues(need(str('ir-ssa'), 'forcing', '--ir-ssa', '--ir-ssa 0.5 (the infrared single-scattering albedo, with --ir-tau)'), '--ir-ssa')
+  const g = readBandValues(str('ir-g') ?? '0.5', '--ir-g')
+  perBand = { tau: tau.length > 1, omega: omega.length > 1, g: g.length > 1 }
+  const at = (v: number[], i: number) => (v.length > 1 ? v[i] : v[0])
+  const bands = LONGWAVE_BANDS.map((_, i) => ({ tau: at(tau, i), omega: at(omega, i), g: at(g, i) }))
   const inputs = {
-    ir_tau: tau,
-    ir_ssa: omega,
-    ir_g: g,
+    ir_tau: tau.length > 1 ? tau : tau[0],
+    ir_ssa: omega.length > 1 ? omega : omega[0],
+    ir_g: g.length > 1 ? g : g[0],
     surface_temperature_k: readNumber(str('surface-temperature'), '--surface-temperature', DEFAULT_SURFACE_TEMPERATURE_K),
     surface_emissivity: readNumber(str('emissivity'), '--emissivity', CUSTOM_SURFACE_EMISSIVITY),
     layer_height_km: readNumber(str('layer-height'), '--layer-height', DEFAULT_LAYER_HEIGHT_KM),
     layer_depth_km: readNumber(str('layer-depth'), '--layer-depth', 1),
-    water_column_cm: readNumber(str('water-column'), '--water-column', DEFAULT_WATER_COLUMN_CM)
+    water_column_cm: readNumber(str('water-column'), '--water-column', DEFAULT_WATER_COLUMN_CM),
+    longwave_bands: LONGWAVE_BANDS.map((b, i) => ({ lo_um: b.loUm, hi_um: b.hiUm, tau: bands[i].tau, ssa: bands[i].omega, g: bands[i].g }))
   }
   const r = longwaveForcing({
-    bands: LONGWAVE_BANDS.map(() => ({ tau, omega, g })),
+    bands,
     surfaceTemperatureK: inputs.surface_temperature_k,
     surfaceEmissivity: inputs.surface_emissivity,
     layerHeightKm: inputs.layer_height_km,
@@ -210,4 +231,15 @@ function infraredPart(values: ForcingValues, cloudFraction: number): { toa: numb
     cloudFraction
   })
   return { toa: r.toaWm2, surface: r.surfaceWm2, inputs }
+}
+
+/** One number (the same in every band) or one per band, comma-separated, for an --ir-* option. */
+function readBandValues(text: string, flag: string): number[] {
+  const parts = text.split(',')
+  if (parts.length !== 1 && parts.length !== LONGWAVE_BANDS.length) {
+    throw new UsageError(
+      `forcing: ${flag} takes one value (the same in every band) or ${LONGWAVE_BANDS.length}, one per band, not ${parts.length} ("${text}"); the bands in order are ${BAND_LIST} µm`
+    )
+  }
+  return parts.map((p, i) => readNumber(p.trim(), parts.length > 1 ? `${flag} (value ${i + 1} of ${parts.length})` : flag))
 }

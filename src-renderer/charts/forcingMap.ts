@@ -12,7 +12,7 @@ export const MARKER_SIGNS: Record<MarkerShape, string> = { circle: '●', square
 
 export interface MapOverlay {
   zero: [number, number][]
-  /** The net zero line (sunlight + infrared), drawn dotted; only for a map of one sample. */
+  /** The sample's net zero line (sunlight + its infrared part), drawn dotted in its colour. */
   net?: [number, number][]
   sample: [number, number]
   stroke: string

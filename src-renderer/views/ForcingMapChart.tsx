@@ -1,6 +1,6 @@
 // The forcing map over surface albedo and ω: one sample's forcing as shading with a numeric colour scale, and
-// every shown sample's own zero line (ω = ω_crit for its own β̄ and τ) and position, each in its own line style
-// and marker shape.
+// every shown sample's own zero line (ω = ω_crit for its own β̄ and τ), its net zero line (sunlight + its infrared
+// part, dotted) and position, each in its own colour, line style and marker shape.
 import { useMemo } from 'preact/hooks'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { drawHeat, drawOverlays, MARKER_SHAPES, MARKER_SIGNS, mapScaleMax, scaleGradient, scaleTicks, type MapOverlay } from '../charts/forcingMap.ts'
@@ -19,6 +19,11 @@ function zeroAt(line: [number, number][], rs: number): number {
   return line.length ? line[line.length - 1][1] : NaN
 }
 
+/** Whether a line spans a surface albedo (a net zero line covers only the albedos where its ω lies on the map). */
+function within(line: [number, number][], rs: number): boolean {
+  return line.length > 1 && rs >= line[0][0] && rs <= line[line.length - 1][0]
+}
+
 export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; stale: boolean; height?: number }) {
   const main = p.ok[0]
   const several = p.ok.length > 1
@@ -29,15 +34,16 @@ export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; 
     const halo = p.theme === 'light' ? '#ffffff' : '#14171a'
     const overlays: MapOverlay[] = p.ok.map((x, k) => ({
       zero: x.result.map.zero_line,
-      net: several ? undefined : x.result.map.net_zero_line,
+      net: x.result.map.net_zero_line,
       sample: x.result.map.sample,
       stroke: several ? x.style.stroke : ink,
       dash: x.style.dash,
       shape: MARKER_SHAPES[k % MARKER_SHAPES.length]
     }))
+    const hasNet = (x: WithResult) => x.result.map.net_zero_line.length > 1 && x.result.forcing.longwave_toa_w_m2 !== null
     const lines: Line[] = p.ok.map((x, k) => ({
       label: several
-        ? `${x.sample.name}: its zero line (own β̄ ${fixed(x.result.forcing.upscatter_550, 3)}) and ${MARKER_SIGNS[overlays[k].shape]}`
+        ? `${x.sample.name}: its zero line (own β̄ ${fixed(x.result.forcing.upscatter_550, 3)})${hasNet(x) ? `, its net zero line dotted (infrared ${signed(x.result.forcing.longwave_toa_w_m2)} W m⁻²)` : ''} and ${MARKER_SIGNS[overlays[k].shape]}`
         : `sunlight zero line (ω = ω_crit) and this sample ${MARKER_SIGNS[overlays[k].shape]}`,
       stroke: overlays[k].stroke,
       dash: x.style.dash
@@ -62,6 +68,10 @@ export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; 
         surface: x.result.map.sample[0],
         ssa: x.result.map.sample[1],
         critical: zeroAt(x.result.map.zero_line, x.result.map.sample[0]),
+        // the net zero line as drawn: its points and its ω at the sample's surface albedo (null where it has none)
+        net_points: hasNet(x) ? x.result.map.net_zero_line.length : 0,
+        net_critical: hasNet(x) && within(x.result.map.net_zero_line, x.result.map.sample[0]) ? zeroAt(x.result.map.net_zero_line, x.result.map.sample[0]) : null,
+        infrared: x.result.forcing.longwave_toa_w_m2,
         verdict: x.result.forcing.verdict
       }))
     }
@@ -94,7 +104,7 @@ export function ForcingMapChart(p: { ok: WithResult[]; theme: 'light' | 'dark'; 
         <p class="map-scale-caption">
           W m⁻², thin-layer sunlight forcing {several ? `of “${main.sample.name}”` : 'of this layer'} at each surface albedo and ω: blue cools, brown warms.
           {!several && main.result.forcing.longwave_toa_w_m2 !== null && ` The infrared part adds ${signed(main.result.forcing.longwave_toa_w_m2)} W m⁻² everywhere on the map (it depends on neither); the net is zero on the dotted line.`}
-          {several && ' Each sample cools above its own zero line and warms below it; the shading is only the first marked sample’s.'}
+          {several && ' Each sample’s sunlight part cools above its own zero line and warms below it, and its net (sunlight + its infrared part) cools above its own dotted line; the shading is only the first marked sample’s.'}
         </p>
       </div>
     </div>

@@ -2,7 +2,7 @@
 // per-mode compositions; see ReportInputs.tsx) and results, charts, verdict, cautions, method references and the
 // software version, laid out for print (browser: print dialog; desktop: PDF).
 import { useEffect, useMemo } from 'preact/hooks'
-import { DEFAULT_VERDICT_MARGIN_WM2, LONGWAVE_METHOD, siteLongwaveDefaults, SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
+import { DEFAULT_VERDICT_MARGIN_WM2, LONGWAVE_METHOD, siteEmissivityBands, siteLongwaveDefaults, SURFACE_TYPES, type Sample } from '../../src-core/index.ts'
 import { Chart, type Line } from '../charts/Chart.tsx'
 import { lineStyle } from '../charts/palette.ts'
 import { printReport } from '../commands.ts'
@@ -166,7 +166,7 @@ export function Report() {
           <p>
             Site: {st.site.name ?? 'unnamed'}; latitude {num(st.site.latitude_deg)}°, day {st.site.day_of_year}, cloud fraction {num(st.site.cloud_fraction)}, transmittance {num(st.site.transmittance)}, surface{' '}
             {st.site.surface === 'custom' ? `custom albedo ${num(st.site.surface_albedo ?? NaN)}` : `${surface?.name ?? st.site.surface} (albedo ${surface?.albedo})`}; thermal infrared: surface temperature {num(lw.surfaceTemperatureK, 5)} K,
-            emissivity {num(lw.surfaceEmissivity, 3)}, layer centred at {num(lw.layerHeightKm, 4)} km, water-vapour column {num(lw.waterColumnCm, 3)} cm{st.site.surface_temperature_k === undefined || st.site.water_column_cm === undefined || st.site.layer_height_km === undefined || st.site.surface_emissivity === undefined ? ' (defaults where not given)' : ''}. Verdict “too close to call” within ±{num(st.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, 8)} W m⁻². Wavelengths: {st.wavelengths_nm.join(', ')} nm.
+            emissivity {num(lw.surfaceEmissivity, 3)}{siteEmissivityBands(st.site) ? ` (taken by band from the surface type: ${siteEmissivityBands(st.site)!.map((e) => num(e, 2)).join(', ')} over the 12 bands from 4 to 40 µm)` : ''}, layer centred at {num(lw.layerHeightKm, 4)} km, water-vapour column {num(lw.waterColumnCm, 3)} cm{st.site.surface_temperature_k === undefined || st.site.water_column_cm === undefined || st.site.layer_height_km === undefined || st.site.surface_emissivity === undefined ? ' (defaults where not given)' : ''}. Verdict “too close to call” within ±{num(st.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, 8)} W m⁻². Wavelengths: {st.wavelengths_nm.join(', ')} nm.
           </p>
         </header>
         <section class="report-cautions">

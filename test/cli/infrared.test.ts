@@ -38,6 +38,47 @@ describe('motebench forcing with the infrared part', () => {
   })
 })
 
+describe('motebench forcing with per-band infrared figures', () => {
+  const n = LONGWAVE_BANDS.length
+  const list = (f: (i: number) => number) => LONGWAVE_BANDS.map((_, i) => String(f(i))).join(',')
+  const site = ['--layer-height', '3', '--surface-temperature', '300', '--json']
+  it(`takes ${n} comma-separated values, one per band, and gives the library's figure for those bands`, async () => {
+    const tau = (i: number) => 0.02 + 0.01 * i
+    const ssa = (i: number) => (i % 2 ? 0.3 : 0.6)
+    const r = await runHere(runForcing, [...layer, '--ir-tau', list(tau), '--ir-ssa', list(ssa), '--ir-g', '0.4', ...site])
+    expect(r.code, r.stderr).toBe(0)
+    const f = JSON.parse(r.stdout)
+    const bands = LONGWAVE_BANDS.map((_, i) => ({ tau: tau(i), omega: ssa(i), g: 0.4 }))
+    const lib = longwaveForcing({ bands, surfaceTemperatureK: 300, surfaceEmissivity: 0.95, layerHeightKm: 3, layerDepthKm: 1, waterColumnCm: 2.5, cloudFraction: 0.6 })
+    expect(f.longwave_toa_w_m2).toBe(lib.toaWm2)
+    expect(f.longwave_inputs.ir_tau).toEqual(LONGWAVE_BANDS.map((_, i) => tau(i)))
+    expect(f.longwave_inputs.ir_g).toBe(0.4)
+    expect(f.longwave_inputs.longwave_bands.map((b: { lo_um: number; tau: number }) => [b.lo_um, b.tau])).toEqual(LONGWAVE_BANDS.map((b, i) => [b.loUm, tau(i)]))
+  })
+  it('one value in every band is the single-value form: the same figures', async () => {
+    const one = await runHere(runForcing, [...layer, '--ir-tau', '0.1', '--ir-ssa', '0.5', ...site])
+    const all = await runHere(runForcing, [...layer, '--ir-tau', list(() => 0.1), '--ir-ssa', list(() => 0.5), ...site])
+    expect(JSON.parse(all.stdout).longwave_toa_w_m2).toBe(JSON.parse(one.stdout).longwave_toa_w_m2)
+    expect(JSON.parse(all.stdout).net_toa_w_m2).toBe(JSON.parse(one.stdout).net_toa_w_m2)
+  })
+  it('refuses a wrong count with the count wanted and the bands in order, and names the band of a value out of range (exit 2)', async () => {
+    const three = await runHere(runForcing, [...layer, '--ir-tau', '0.1,0.2,0.3', '--ir-ssa', '0.5'])
+    expect(three.code).toBe(2)
+    expect(three.stderr).toMatch(new RegExp(`--ir-tau takes one value .* or ${n}, one per band, not 3`))
+    expect(three.stderr).toContain(LONGWAVE_BANDS.map((b) => `${b.loUm}–${b.hiUm}`).join(', '))
+    const bad = await runHere(runForcing, [...layer, '--ir-tau', '0.1', '--ir-ssa', list((i) => (i === 4 ? 1.5 : 0.5))])
+    expect(bad.code).toBe(2)
+    expect(bad.stderr).toMatch(/--ir-ssa \(band 5, 9\.5–10\.5 µm\)/)
+    const word = await runHere(runForcing, [...layer, '--ir-tau', list((i) => (i === 2 ? NaN : 0.1)), '--ir-ssa', '0.5'])
+    expect(word.code).toBe(2)
+    expect(word.stderr).toMatch(/--ir-tau \(value 3 of 12\): "NaN" is not a number/)
+  })
+  it("documents the bands' edges in its help", async () => {
+    const { forcingHelp } = await import('../../src-main/cli/forcing.ts')
+    for (const b of LONGWAVE_BANDS) expect(forcingHelp).toContain(`${b.loUm}–${b.hiUm}`)
+  })
+})
+
 describe('motebench study: infrared and net figures', () => {
   it("each sample's forcing carries longwave_toa_w_m2, longwave_surface_w_m2 and net_toa_w_m2 in JSON, and the CSV the same columns", async () => {
     const r = await runHere(runStudy, [demo, '--format', 'json', '--tolerance', '1e-3', '--sample', 'Quarry dust event'])

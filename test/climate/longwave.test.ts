@@ -11,6 +11,7 @@ import {
   longwaveForcing,
   netVerdict,
   planckBandFlux,
+  planckBandFluxes,
   thermalTwoStream,
   type ThermalLayer
 } from '../../src-core/index.ts'
@@ -34,6 +35,20 @@ describe('Planck band integrals', () => {
       const v = planckBandFlux(c.lo_um, c.hi_um ?? Number.POSITIVE_INFINITY, c.t_k)
       expect(Math.abs(v - c.flux_w_m2)).toBeLessThanOrEqual(1e-10 * c.flux_w_m2 + 1e-300)
     }
+  })
+  it('the fluxes of contiguous bands from their shared edges (planckBandFluxes, as the infrared forcing takes them) match the same quadrature to 1e-10', () => {
+    const edges = [LONGWAVE_BANDS[0].loUm, ...LONGWAVE_BANDS.map((b) => b.hiUm)]
+    let compared = 0
+    for (const t of [...new Set(planckRef.map((c) => c.t_k))]) {
+      const out = planckBandFluxes(edges, t, new Float64Array(LONGWAVE_BANDS.length))
+      LONGWAVE_BANDS.forEach((b, i) => {
+        const ref = planckRef.find((c) => c.t_k === t && c.lo_um === b.loUm && c.hi_um === b.hiUm)
+        if (!ref) return
+        expect(Math.abs(out[i] - ref.flux_w_m2)).toBeLessThanOrEqual(1e-10 * ref.flux_w_m2 + 1e-300)
+        compared++
+      })
+    }
+    expect(compared).toBeGreaterThanOrEqual(LONGWAVE_BANDS.length * 4)
   })
   it('the bands with the stretches below 4 µm and beyond 40 µm add up to σT⁴ (Stefan–Boltzmann, CODATA 2018 σ), from the reference integrals and from the code', () => {
     for (const t of [180, 220, 255, 288.15, 310, 350]) {
@@ -150,6 +165,25 @@ describe('infrared forcing of a layer (longwaveForcing)', () => {
       // the layer is 1 m deep: its top is 0.0065 K colder than 255 K
       expect(Math.abs(r.bandToaWm2[i] / expected - 1)).toBeLessThan(2e-4)
     })
+  })
+  it("with an emissivity per band, an opaque black layer's TOA effect in each band is ε_b F_b(T_s) − F_b(T_layer) (Kirchhoff: the surface emits ε_b of a blackbody; mpmath band integrals)", () => {
+    const eps = LONGWAVE_BANDS.map((_, i) => 0.7 + 0.025 * i)
+    const r = longwaveForcing({ ...site, surfaceEmissivity: eps, layerHeightKm: 5.1, layerDepthKm: 0, transparentGases: true, bands: grey(1000, 0, 0) })
+    const ref = (lo: number, t: number) => planckRef.find((c) => c.lo_um === lo && c.t_k === t)!.flux_w_m2
+    LONGWAVE_BANDS.forEach((b, i) => {
+      if (b.loUm < 8.5 || b.hiUm > 12.5) return
+      const expected = eps[i] * ref(b.loUm, 288.15) - ref(b.loUm, 255)
+      expect(Math.abs(r.bandToaWm2[i] / expected - 1)).toBeLessThan(2e-4)
+    })
+  })
+  it('the same emissivity in every band is the grey surface, and a wrong count of band emissivities or one out of range is refused at its band', () => {
+    const bands = grey(0.2, 0.4, 0.5)
+    const g = longwaveForcing({ ...site, surfaceEmissivity: 0.9, bands })
+    const b = longwaveForcing({ ...site, surfaceEmissivity: LONGWAVE_BANDS.map(() => 0.9), bands })
+    expect(b.toaWm2).toBe(g.toaWm2)
+    expect(b.surfaceWm2).toBe(g.surfaceWm2)
+    expect(() => longwaveForcing({ ...site, surfaceEmissivity: [0.9, 0.9], bands })).toThrow(/2 band emissivities/)
+    expect(() => longwaveForcing({ ...site, surfaceEmissivity: LONGWAVE_BANDS.map((_, i) => (i === 3 ? 0.2 : 0.9)), bands })).toThrow(/surfaceEmissivity\[3\].*outside 0\.5 to 1/)
   })
   it('the reported figures are the clear-sky ones times (1 − cloud fraction), as for the sunlight part', () => {
     const clear = longwaveForcing({ ...site, bands: grey(0.2, 0.5, 0.5) })

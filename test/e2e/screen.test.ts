@@ -91,7 +91,17 @@ describe('what the screen shows', { timeout: 120_000 }, () => {
     await page.locator('#result-panel[data-fresh="true"]').waitFor({ timeout: 90_000 })
     const wrap = page.getByTestId('forcing-map-wrap')
     await expect.poll(async () => JSON.parse((await wrap.getAttribute('data-zero-lines')) ?? '[]').length, { timeout: 60_000 }).toBe(3)
-    const lines = JSON.parse((await wrap.getAttribute('data-zero-lines')) ?? '[]') as { sample: string; shape: string; upscatter: number; critical: number; ssa: number; verdict: string }[]
+    const lines = JSON.parse((await wrap.getAttribute('data-zero-lines')) ?? '[]') as {
+      sample: string
+      shape: string
+      upscatter: number
+      critical: number
+      ssa: number
+      verdict: string
+      infrared: number | null
+      net_points: number
+      net_critical: number | null
+    }[]
     // each line is its own sample's: its ω_crit at the sample's surface albedo is the one its verdict states
     const verdicts = page.getByTestId('verdict')
     expect(await verdicts.count()).toBe(3)
@@ -101,7 +111,19 @@ describe('what the screen shows', { timeout: 120_000 }, () => {
       expect(Math.abs(lines[i].critical - crit), lines[i].sample).toBeLessThan(0.002)
       // and the marker's side of its own line is its verdict (ω above ω_crit cools: Chylek & Wong 1995)
       if (lines[i].verdict !== 'too close to call') expect(lines[i].ssa > lines[i].critical ? 'cools' : 'warms').toBe(lines[i].verdict)
+      // each compared sample's net zero line (sunlight + its infrared part) is drawn as well; the verdict rests on the
+      // net, so the marker's side of that line is the verdict, and an infrared part that warms moves the line to a
+      // higher ω (more sunlight cooling is needed to offset it: the thin-layer forcing falls as ω rises, Chylek & Wong 1995)
+      const infrared = lines[i].infrared
+      if (infrared === null) continue
+      expect(lines[i].net_points, lines[i].sample).toBeGreaterThan(1)
+      const net = lines[i].net_critical
+      if (net === null) continue
+      if (lines[i].verdict !== 'too close to call') expect(lines[i].ssa > net ? 'cools' : 'warms', lines[i].sample).toBe(lines[i].verdict)
+      if (infrared > 0.01) expect(net, lines[i].sample).toBeGreaterThan(lines[i].critical)
     }
+    expect(lines.filter((l) => l.net_critical !== null).length).toBeGreaterThanOrEqual(2)
+    expect((await page.locator('[data-chart="forcing-map"] .u-legend').textContent()) ?? '').toMatch(/net zero line dotted \(infrared [+−]/)
     expect(new Set(lines.map((l) => l.shape)).size).toBe(3)
     expect(new Set(lines.map((l) => l.upscatter)).size).toBe(3) // their own β̄, so their own lines
     expect(await page.locator('[data-chart="forcing-map"] .u-legend .u-series').count()).toBeGreaterThanOrEqual(3)

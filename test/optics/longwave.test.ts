@@ -88,6 +88,21 @@ describe('the infrared part of a sample forcing', () => {
     // it warms the surface more than the top (it sends infrared down), and offsets part of the sunlight cooling
     expect(f.longwave_surface_w_m2!).toBeGreaterThan(f.longwave_toa_w_m2!)
   })
+  it("over desert sand the surface type's emissivity by band is used (quartz's 8.5–9.5 µm dip, Salisbury & D'Aria 1992, from memory), unless the site gives its own, which is grey", () => {
+    const optics = computeSampleOptics(quarry, study)
+    const sand = { ...study.site, surface: 'desert-sand', surface_albedo: undefined, surface_emissivity: undefined }
+    const byBand = sampleForcing(optics, sand).longwave!
+    expect(byBand.surface_emissivity_bands).toHaveLength(LONGWAVE_BANDS.length)
+    const dip = LONGWAVE_BANDS.findIndex((b) => b.loUm === 8.5)
+    expect(byBand.surface_emissivity_bands![dip]).toBeLessThan(Math.min(...byBand.surface_emissivity_bands!.filter((_, i) => i !== dip)))
+    const grey = sampleForcing(optics, { ...sand, surface_emissivity: 0.9 }).longwave!
+    expect(grey.surface_emissivity_bands).toBeNull()
+    // the surface emits less in the dip, so the clean window sends less up: the figures differ, with the same sign
+    expect(byBand.clear_sky_toa_w_m2).not.toBe(grey.clear_sky_toa_w_m2)
+    expect(Math.sign(byBand.clear_sky_toa_w_m2)).toBe(Math.sign(grey.clear_sky_toa_w_m2))
+    // a grey surface type has none
+    expect(sampleForcing(optics, { ...study.site, surface: 'forest', surface_albedo: undefined, surface_emissivity: undefined }).longwave!.surface_emissivity_bands).toBeNull()
+  })
   it('refuses out-of-range infrared site inputs at their field, with the range and the reason', () => {
     const text = (site: Record<string, unknown>) => JSON.stringify({ ...study, site: { ...study.site, ...site } })
     for (const [field, value] of [['surface_temperature_k', 20], ['surface_emissivity', 1.3], ['layer_height_km', 40], ['water_column_cm', 25]] as const) {
