@@ -19,6 +19,7 @@ import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
 import type { FromRecordWorker, ToRecordWorker } from './worker.ts'
+import { warmStretchNodes } from './warm.ts'
 
 export interface HeldFile {
   name: string
@@ -241,6 +242,7 @@ async function start(force: boolean): Promise<void> {
     if (m.type === 'progress') return session.set({ share: m.share })
     stopWorker()
     if (m.type === 'failed') return session.set({ running: false, failure: m.message })
+    if (m.build.record) warmStretchNodes(m.build.record)
     session.set({ running: false, share: 1, build: m.build, ms: m.ms, failure: m.build.problem ? `${m.build.problem.message}. ${m.build.problem.fix}` : null, visible: null })
   }
   w.onerror = (e) => {

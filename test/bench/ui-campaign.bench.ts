@@ -4,7 +4,8 @@
 // timed inside the page from the chooser's change event to the last chart drawn (reading, the worker's computing,
 // the transfer and the drawing; `worker_s` is the worker's part), the page's longest task meanwhile (how long the page could not answer), a zoom's
 // redraw of every chart (key + and − on the stack, to the next frame; median of 10), a stretch of a day made into
-// a sample (to the sample's first figures), and the page's JavaScript heap (the worker's is not included).
+// a sample (in the page, from the click to the frame after its first figures; also from the test process, which
+// adds Playwright's click and polling), and the page's JavaScript heap (the worker's is not included).
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { availableParallelism, loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -89,10 +90,26 @@ export async function benchUiCampaign(): Promise<void> {
     await page.getByTestId('record-from').fill(iso(T0 + (STEPS / 2) * STEP_MS))
     await page.getByTestId('record-to').fill(iso(T0 + (STEPS / 2) * STEP_MS + 86_400_000))
     await page.getByTestId('record-mark').click()
+    // inside the page: from the button's click event to the frame after the result panel shows figures
+    const inPage = page.evaluate(
+      () =>
+        new Promise<number>((resolve) => {
+          let clicked = 0
+          const button = document.querySelector('[data-testid="record-make-sample"]')!
+          button.addEventListener('click', () => (clicked = performance.now()), { capture: true, once: true })
+          const seen = new MutationObserver(() => {
+            if (!clicked || !document.querySelector('#result-panel[data-fresh="true"], #result-panel[data-preview="true"]')) return
+            seen.disconnect()
+            requestAnimationFrame(() => resolve(performance.now() - clicked))
+          })
+          seen.observe(document.body, { subtree: true, childList: true, attributes: true, attributeFilter: ['data-fresh', 'data-preview'] })
+        })
+    )
     const t = Date.now()
     await page.getByTestId('record-make-sample').click()
     await page.locator('#result-panel[data-fresh="true"], #result-panel[data-preview="true"]').first().waitFor()
     const sampleMs = Date.now() - t
+    const sampleInPageMs = await inPage
     report('ui-campaign', {
       steps: STEPS,
       bins: BINS,
@@ -103,8 +120,9 @@ export async function benchUiCampaign(): Promise<void> {
       redraw_median_ms: Number(median(redraws).toFixed(1)),
       redraw_max_ms: Number(Math.max(...redraws).toFixed(1)),
       redraw_goal_ms: 50,
-      sample_first_figures_ms: sampleMs,
-      sample_note: 'from the click to the result panel fresh or refining, timed from the test process',
+      sample_first_figures_ms: Math.round(sampleInPageMs),
+      sample_note: 'in the page, from the click event to the frame after the result panel shows figures (fresh or quick)',
+      sample_from_test_process_ms: sampleMs,
       sample_goal_ms: 300,
       page_heap_mb: Math.round(heap / 1e6),
       memory_goal_mb: 1024,
