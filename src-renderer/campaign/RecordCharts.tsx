@@ -1,7 +1,7 @@
 // The record's stacked charts on one time axis: the size distribution as a colour map, the coefficients computed
 // and measured, their ratio, ω and g, the Ångström exponent, number and mass. Zoom and pan move every chart
-// (mouse wheel to zoom, Shift+wheel to pan; on the focused stack + − ← → and Home); a drag marks a stretch on
-// all of them; the hover read-out gives every figure at the time under the pointer. Gaps are null: lines stop.
+// (mouse wheel to zoom, Shift+wheel to pan, Shift+drag or a middle-button drag to pan; on the focused stack + − ← →
+// and Home); a plain drag marks a stretch on all of them; the hover read-out gives every figure at the time under the pointer. Gaps are null: lines stop.
 import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
@@ -10,7 +10,7 @@ import { themedAxis } from '../charts/axis.ts'
 import { lineStyle, type Theme } from '../charts/palette.ts'
 import { num } from '../format.ts'
 import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
-import { decimate, type Shown } from './decimate.ts'
+import { decimate, envelopes, type Shown } from './decimate.ts'
 import { campaignStore, setMark, setVisible } from './session.ts'
 
 interface PanelLine {
@@ -120,7 +120,8 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     const plots: uPlot[] = []
     const keys = [...new Set(list.flatMap((p) => p.lines.map((l) => l.key)))]
     const buckets = Math.max(100, Math.round(width))
-    let shown: Shown = decimate(series, keys, x0Of(series), Infinity, buckets)
+    const env = envelopes(series, keys)
+    let shown: Shown = decimate(series, keys, x0Of(series), Infinity, buckets, env)
     const dataFor = (p: Panel, d: Shown): (number | null)[][] => {
       const e = record.edgesUm
       // the map's one series only spans the diameter axis (its first two points at the ends, drawn in no colour)
@@ -217,13 +218,15 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
     let visibleTimer: ReturnType<typeof setTimeout> | undefined
     const show = (lo: number, hi: number) => {
-      shown = decimate(series, keys, lo, hi, buckets)
+      shown = decimate(series, keys, lo, hi, buckets, env)
       plots.forEach((q, i) => {
         q.batch(() => {
           q.setData(dataFor(list[i], shown) as uPlot.AlignedData, false)
           q.setScale('x', { min: lo, max: hi })
         })
       })
+      el.dataset['from'] = String(lo)
+      el.dataset['to'] = String(hi)
       // the visible range is for the CSV button: said after the zoom settles, so the page does not re-render in the redraw's frame
       clearTimeout(visibleTimer)
       visibleTimer = setTimeout(() => setVisible([lo * 1000, hi * 1000]), 250)
@@ -277,6 +280,39 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         f()
       }
     }
+    // mouse: Shift+drag or a middle-button drag pans (taken before uPlot sees it, so it marks nothing); the charts
+    // follow the pointer once a frame
+    let pan: { x: number; min: number; max: number; perPx: number; to: number; frame: number } | null = null
+    const onPanMove = (ev: MouseEvent) => {
+      if (!pan) return
+      pan.to = ev.clientX
+      if (pan.frame) return
+      pan.frame = requestAnimationFrame(panNow)
+    }
+    const panNow = () => {
+      if (!pan) return
+      pan.frame = 0
+      const by = (pan.x - pan.to) * pan.perPx
+      zoomTo(pan.min + by, pan.max + by)
+    }
+    const onPanEnd = () => {
+      if (pan?.frame) (cancelAnimationFrame(pan.frame), panNow())
+      pan = null
+      window.removeEventListener('mousemove', onPanMove)
+      window.removeEventListener('mouseup', onPanEnd)
+    }
+    const onDown = (ev: MouseEvent) => {
+      const u = plots.find((q) => q.over.contains(ev.target as Node))
+      if (!u || !(ev.button === 1 || (ev.button === 0 && ev.shiftKey))) return
+      const { min, max } = u.scales.x
+      if (min === undefined || max === undefined) return
+      ev.preventDefault()
+      ev.stopPropagation()
+      pan = { x: ev.clientX, min, max, perPx: (max - min) / Math.max(1, u.over.clientWidth), to: ev.clientX, frame: 0 }
+      window.addEventListener('mousemove', onPanMove)
+      window.addEventListener('mouseup', onPanEnd)
+    }
+    el.addEventListener('mousedown', onDown, { capture: true })
     el.addEventListener('wheel', onWheel, { passive: false })
     el.addEventListener('keydown', onKey)
     zoomControls.zoom = (a, b) => zoomTo(a / 1000, b / 1000)
@@ -298,6 +334,8 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       unsub()
       clearTimeout(visibleTimer)
       ro.disconnect()
+      onPanEnd()
+      el.removeEventListener('mousedown', onDown, { capture: true })
       el.removeEventListener('wheel', onWheel)
       el.removeEventListener('keydown', onKey)
       for (const q of plots) q.destroy()
@@ -316,7 +354,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         <span data-testid="record-colour-high">{decade(range[1])}</span>
         <span class="muted">; no colour: no distribution (a gap)</span>
       </div>
-      <div class="record-stack" ref={box} tabIndex={0} aria-label="Record charts: + and − zoom, ← → pan, Home shows the whole record; drag across to mark a stretch" data-testid="record-stack" />
+      <div class="record-stack" ref={box} tabIndex={0} aria-label="Record charts: + and − zoom, ← → pan, Home shows the whole record; drag across to mark a stretch, Shift+drag to pan" data-testid="record-stack" />
       <div class="record-readout" data-testid="record-readout" aria-live="off">
         {readout ? (
           <dl>
