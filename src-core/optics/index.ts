@@ -11,6 +11,6 @@ export { sampleForcing, sampleForcingMap, siteSurfaceAlbedo, siteLongwaveInputs,
 export { sampleLongwaveSteps, LONGWAVE_NODES_NM, LONGWAVE_TOLERANCE } from './longwave.ts'
 export { evaluateStudy, sampleResultSteps, sampleResultFromOptics, humidityCurveSteps, humidityScatteringSteps, humidityCurveFrom, humidityCurveKey, humidityGrowthCurve, HUMIDITY_CURVE_RH, HUMIDITY_CURVE_TOLERANCE, MOTEBENCH_VERSION } from './evaluate.ts'
 export type { EvaluateOptions } from './evaluate.ts'
-export { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, opticsFromBinKernels } from './binKernels.ts'
+export { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, opticsFromBinKernels, rowDNdlogD } from './binKernels.ts'
 export type { BinKernels, BinnedRow, BinnedRowEvaluator, BinLayout } from './binKernels.ts'
 export { sampleWarnings } from './warnings.ts'
