@@ -34,7 +34,8 @@ export interface Envelopes {
 export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): Envelopes {
   const n = s.x.length
   const out: Envelopes = { lines: {}, breaks: [] }
-  let below = Uint8Array.from(s.row, (r) => (r < 0 ? 1 : 0))
+  let below = new Uint8Array(n)
+  for (let i = 0; i < n; i++) below[i] = s.row[i] < 0 ? 1 : 0
   for (let m = Math.ceil(n / 2); n > 1 && below.length > 1; m = Math.ceil(m / 2)) {
     const level = new Uint8Array(m)
     for (let i = 0; i < m; i++) level[i] = below[2 * i] | (below[2 * i + 1] ?? 0)
@@ -45,9 +46,14 @@ export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): E
   for (const k of keys) {
     const v = s.values[k]
     const levels: Level[] = []
-    let min = Float64Array.from(v, (y) => (y === null ? Infinity : y))
-    let max = Float64Array.from(v, (y) => (y === null ? -Infinity : y))
-    let missing = Uint8Array.from(v, (y, i) => (y === null || s.row[i] < 0 ? 1 : 0))
+    let min = new Float64Array(n)
+    let max = new Float64Array(n)
+    let missing = new Uint8Array(n)
+    for (let i = 0; i < n; i++) {
+      const y = v[i]
+      if (y === null) (min[i] = Infinity), (max[i] = -Infinity), (missing[i] = 1)
+      else (min[i] = y), (max[i] = y), (missing[i] = s.row[i] < 0 ? 1 : 0)
+    }
     for (const br of out.breaks) {
       const m = br.length
       const lo = new Float64Array(m)
@@ -55,10 +61,15 @@ export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): E
       const gap = new Uint8Array(m)
       for (let i = 0; i < m; i++) {
         const j = 2 * i
-        const last = j + 1 < min.length
-        lo[i] = last ? Math.min(min[j], min[j + 1]) : min[j]
-        hi[i] = last ? Math.max(max[j], max[j + 1]) : max[j]
-        gap[i] = missing[j] | (last ? missing[j + 1] : 0)
+        if (j + 1 < min.length) {
+          const a = min[j]
+          const b = min[j + 1]
+          lo[i] = a < b ? a : b
+          const c = max[j]
+          const d = max[j + 1]
+          hi[i] = c > d ? c : d
+          gap[i] = missing[j] | missing[j + 1]
+        } else (lo[i] = min[j]), (hi[i] = max[j]), (gap[i] = missing[j])
       }
       levels.push({ min: lo, max: hi, missing: gap })
       min = lo
