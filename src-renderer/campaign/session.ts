@@ -93,7 +93,7 @@ export function addFiles(files: HeldFile[]): void {
     study.campaign = c
   })
   session.set({ texts, missing, changed })
-  refresh()
+  refresh(false, 0) // at once: the wait is for parameter edits typed in a row
 }
 
 /** Points a reference whose file could not be read (or changed) at a file the user chooses. */
@@ -202,9 +202,9 @@ export function stopRecord(): void {
 }
 
 /** Recomputes the record soon if what it depends on changed (files, parameters, the sample, wavelengths). */
-export function refresh(force = false): void {
+export function refresh(force = false, delayMs = 250): void {
   clearTimeout(timer)
-  timer = setTimeout(() => void start(force), 250)
+  timer = setTimeout(() => void start(force), delayMs)
 }
 
 async function start(force: boolean): Promise<void> {

@@ -93,6 +93,9 @@ export async function benchUiCampaign(): Promise<void> {
         )
       )
     }
+    // the same wait for the next frame with no work at all: what the redraw figures hold beyond the redraw itself
+    const idleFrames: number[] = []
+    for (let i = 0; i < 10; i++) idleFrames.push(await page.evaluate(() => new Promise<number>((resolve) => { const t = performance.now(); requestAnimationFrame(() => resolve(performance.now() - t)) })))
     const heap = await page.evaluate(() => (performance as unknown as { memory?: { usedJSHeapSize: number } }).memory?.usedJSHeapSize ?? NaN)
     await page.getByTestId('record-from').fill(iso(T0 + (STEPS / 2) * STEP_MS))
     await page.getByTestId('record-to').fill(iso(T0 + (STEPS / 2) * STEP_MS + 86_400_000))
@@ -128,6 +131,7 @@ export async function benchUiCampaign(): Promise<void> {
       redraw_max_ms: Number(Math.max(...redraws.map((r) => r.frame)).toFixed(1)),
       redraw_js_median_ms: Number(median(redraws.map((r) => r.js)).toFixed(1)),
       redraw_painted_median_ms: Number(median(redraws.map((r) => r.painted)).toFixed(1)),
+      idle_frame_median_ms: Number(median(idleFrames).toFixed(1)),
       redraw_goal_ms: 50,
       sample_first_figures_ms: Math.round(sampleInPageMs),
       sample_note: 'in the page, from the click event to the frame after the result panel shows figures (fresh or quick)',
