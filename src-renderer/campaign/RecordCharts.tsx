@@ -235,29 +235,48 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     if (vis) show(vis[0] / 1000, vis[1] / 1000)
 
     // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
+    // wheel events come faster than frames: they add up to one range, drawn once a frame
+    let wheelTarget: [number, number] | null = null
+    let wheelFrame = 0
+    const wheelNow = () => {
+      wheelFrame = 0
+      if (wheelTarget) zoomTo(wheelTarget[0], wheelTarget[1])
+      wheelTarget = null
+    }
     const onWheel = (ev: WheelEvent) => {
       const u = plots.find((q) => q.over.contains(ev.target as Node))
       if (!u) return
       ev.preventDefault()
-      const { min, max } = u.scales.x
-      if (min === undefined || max === undefined) return
+      const { min: shownMin, max: shownMax } = u.scales.x
+      if (shownMin === undefined || shownMax === undefined) return
+      const [min, max] = wheelTarget ?? [shownMin, shownMax]
       const span = max - min
+      let next: [number, number] | null
       if (ev.shiftKey || Math.abs(ev.deltaX) > Math.abs(ev.deltaY)) {
         const by = (Math.sign(ev.deltaX || ev.deltaY) * span) / 8
-        zoomTo(min + by, max + by)
-        return
+        next = clamped(min + by, max + by)
+      } else {
+        const box = u.over.getBoundingClientRect()
+        const at = min + ((ev.clientX - box.left) / Math.max(1, box.width)) * span
+        const f = ev.deltaY > 0 ? 1.25 : 0.8
+        next = clamped(at - (at - min) * f, at + (max - at) * f)
       }
-      const at = u.posToVal(ev.offsetX, 'x')
-      const f = ev.deltaY > 0 ? 1.25 : 0.8
-      zoomTo(at - (at - min) * f, at + (max - at) * f)
+      if (!next) return
+      wheelTarget = next
+      wheelFrame ||= requestAnimationFrame(wheelNow)
     }
-    const zoomTo = (a: number, b: number) => {
+    /** [a, b] (s) kept inside the record and wider than one step; null when it cannot be. */
+    const clamped = (a: number, b: number): [number, number] | null => {
       const span = Math.min(b - a, x1 - x0)
-      if (!(span > record.intervalMs / 1000)) return
+      if (!(span > record.intervalMs / 1000)) return null
       let lo = Math.max(x0, a)
       let hi = lo + span
       if (hi > x1) (hi = x1), (lo = x1 - span)
-      show(lo, hi)
+      return [lo, hi]
+    }
+    const zoomTo = (a: number, b: number) => {
+      const r = clamped(a, b)
+      if (r) show(r[0], r[1])
     }
     const onKey = (ev: KeyboardEvent) => {
       const u = plots[0]
@@ -335,6 +354,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       clearTimeout(visibleTimer)
       ro.disconnect()
       onPanEnd()
+      cancelAnimationFrame(wheelFrame)
       el.removeEventListener('mousedown', onDown, { capture: true })
       el.removeEventListener('wheel', onWheel)
       el.removeEventListener('keydown', onKey)

@@ -104,6 +104,11 @@ describe('station record', { timeout: 180_000 }, () => {
     // dragged left by 30 % of the plot's width: later by 30 % of the span (the plot area is the .u-over box)
     expect((panned[0] - zoomed[0]) / span).toBeCloseTo(0.3, 2)
     expect(await page.getByTestId('record-make-sample').isDisabled()).toBe(true)
+    // two wheel steps towards the reader zoom in by 0.8 each around the pointer (drawn once a frame, added up)
+    await page.mouse.move(box.x + box.width * 0.5, box.y + box.height / 2)
+    await page.mouse.wheel(0, -100)
+    await page.mouse.wheel(0, -100)
+    await expect.poll(async () => { const r = await range(); return Number(((r[1] - r[0]) / span).toFixed(3)) }).toBe(0.64)
     await page.keyboard.press('Home')
 
     // a typed stretch on the first afternoon: the sample's bins are the mean of those rows
