@@ -9,7 +9,7 @@
  *
  * - Comment lines (#) and blank lines may stand anywhere; the first other line is the header.
  * - Cells are separated by commas, semicolons or tabs (the one the header uses); "." is the decimal point;
- *   cells may be quoted (papaparse splits them).
+ *   cells may be quoted (papaparse splits a line with a quote; one without is split at the delimiter).
  * - The first column is the time stamp (its header starts with "time"); every other header cell is
  *   "QUANTITY WAVELENGTH nm", QUANTITY one of scattering, backscattering (hemispheric, 90°–180°), absorption,
  *   optionally followed by the unit in brackets: "scattering 450 nm [Mm-1]"; or, once, the sample's relative
@@ -91,8 +91,9 @@ const MISSING = /^(|nan|na|n\/a)$/i
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/
 
 function splitCells(text: string, delimiter: string): string[] {
-  const r = Papa.parse(text, { delimiter, newline: '\n', quoteChar: '"' })
-  const cells = (r.data[0] ?? []).map((c) => c.trim())
+  // a line without a quote is what papaparse would make of it split at the delimiter (about 10 times faster per row)
+  const raw = text.includes('"') ? (Papa.parse(text, { delimiter, newline: '\n', quoteChar: '"' }).data[0] ?? []) : text.split(delimiter)
+  const cells = raw.map((c) => c.trim())
   while (cells.length > 1 && cells[cells.length - 1] === '') cells.pop()
   return cells
 }

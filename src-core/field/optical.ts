@@ -23,8 +23,7 @@
 import { retrieveRefractiveIndex } from '../closure/index.ts'
 import { InputError } from '../errors.ts'
 import { truncationQuadrature, type NephelometerGeometry, type TruncationQuadrature } from '../instruments/nephelometer.ts'
-import { binOpticsKernels, bulkOpticsAt, OpticsWorkspace, resolveComposition, studyMaterials, type BinKernels, type BinLayout, type Conditions } from '../optics/index.ts'
-import { binsFromMeasurement } from '../sizes/index.ts'
+import { binOpticsKernels, bulkOpticsAt, OpticsWorkspace, resolveComposition, rowDNdlogD, studyMaterials, type BinKernels, type BinLayout, type Conditions } from '../optics/index.ts'
 import type { Sample, Study } from '../study/model.ts'
 import type { OpticalChannel, OpticalQuantity } from './optical-file.ts'
 import { stampTimeBase, stepOf, TimeAverager, type TimeBase } from './timebase.ts'
@@ -219,6 +218,8 @@ export class RowComparer {
   private readonly absWl: number[]
   private readonly absVals: Float64Array
   private readonly corrSca: Float64Array
+  /** The row's dN/dlogD, as binsFromMeasurement gives it (refusing what it refuses), without its per-row set-up. */
+  private readonly toDn: (values: ArrayLike<number>, at: number) => Float64Array
 
   constructor(
     private readonly kernels: InstrumentKernels,
@@ -233,6 +234,7 @@ export class RowComparer {
     this.abs = this.absWl.map((w) => ({ wl: w, ch: ch('absorption', w), j: j(w) }))
     this.absVals = new Float64Array(this.abs.length)
     this.corrSca = new Float64Array(this.sca.length)
+    this.toDn = rowDNdlogD(kernels.base.edgesUm, kernels.layout, kernels.base.kind.densityGcm3)
   }
 
   /**
@@ -242,7 +244,7 @@ export class RowComparer {
   compare(values: ArrayLike<number>, measured: ArrayLike<number>, out: Float64Array): Float64Array {
     const k = this.kernels
     // dN/dlogD of the row (refused as the series row refuses it: negative or non-finite values)
-    const v = dNdlogDOf(k, values)
+    const v = this.toDn(values, 0)
     const trunc = this.plan.truncation !== null
     let o = 0
     const ratio = (calc: number, meas: number) => (meas > 0 && Number.isFinite(calc) ? calc / meas : NaN)
@@ -326,7 +328,3 @@ export class RowComparer {
   }
 }
 
-function dNdlogDOf(k: InstrumentKernels, values: ArrayLike<number>): Float64Array {
-  const l = k.layout
-  return binsFromMeasurement({ diameters: l.diameters, diameterKind: l.edges ? 'edges' : 'midpoints', diameterUnit: l.diameter_unit, quantity: l.quantity, values, density: k.base.kind.densityGcm3 }).dNdlogD
-}

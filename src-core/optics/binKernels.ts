@@ -139,16 +139,14 @@ export function binnedRowWidth(k: Pick<BinKernels, 'wavelengthsNm'>): number {
 export type BinnedRowEvaluator = (values: ArrayLike<number>, at: number, out: Float64Array, outAt: number) => void
 
 /**
- * opticsFromBinKernels for many rows on the same layout, with the same arithmetic in the same order (the same
- * numbers to the last bit): the conversion of the layout's quantity to dN/dlogD uses per-bin constants
- * computed once with binsFromMeasurement's expressions, then the same dot products. A row with a non-finite or
- * negative value is handed to binsFromMeasurement, which throws its InputError.
+ * Turns rows of the layout's quantity into dN/dlogD as binsFromMeasurement does, with the same arithmetic (the same
+ * numbers to the last bit): per-bin constants computed once with its expressions, then per value v, v / dlog or
+ * (v · dlog) / (...). A row with a non-finite or negative value is handed to binsFromMeasurement, which throws its
+ * InputError. Writes into and returns one array of its own (allocates nothing per row).
  */
-export function binnedRowEvaluator(k: BinKernels, layout: BinLayout): BinnedRowEvaluator {
-  const n = k.edgesUm.length - 1
-  const e = k.edgesUm
-  const density = k.kind.densityGcm3
-  // dN/dlogD = v · mul / div per bin, as binsFromMeasurement writes it for each quantity
+export function rowDNdlogD(edgesUm: ArrayLike<number>, layout: BinLayout, density: number): (values: ArrayLike<number>, at: number) => Float64Array {
+  const n = edgesUm.length - 1
+  const e = edgesUm
   const mul = new Float64Array(n).fill(1)
   const div = new Float64Array(n).fill(1)
   const q = layout.quantity
@@ -161,8 +159,7 @@ export function binnedRowEvaluator(k: BinKernels, layout: BinLayout): BinnedRowE
     else if (q !== 'dN/dlogDp') binsFromMeasurement({ diameters: layout.diameters, diameterKind: layout.edges ? 'edges' : 'midpoints', diameterUnit: layout.diameter_unit, quantity: q, values: new Float64Array(n), density })
   }
   const v = new Float64Array(n)
-  const nw = k.wavelengthsNm.length
-  return (values, at, out, outAt) => {
+  return (values, at) => {
     for (let i = 0; i < n; i++) {
       const x = values[at + i]
       if (!(x >= 0 && x < Infinity)) {
@@ -172,6 +169,21 @@ export function binnedRowEvaluator(k: BinKernels, layout: BinLayout): BinnedRowE
       // the same expressions as binsFromMeasurement: v, v / dlog, (v · dlog) / (...)
       v[i] = q === 'dN/dlogDp' ? x : q === 'dN' ? x / div[i] : (x * mul[i]) / div[i]
     }
+    return v
+  }
+}
+
+/**
+ * opticsFromBinKernels for many rows on the same layout, with the same arithmetic in the same order (the same
+ * numbers to the last bit): the conversion to dN/dlogD is rowDNdlogD's, then the same dot products.
+ */
+export function binnedRowEvaluator(k: BinKernels, layout: BinLayout): BinnedRowEvaluator {
+  const n = k.edgesUm.length - 1
+  const density = k.kind.densityGcm3
+  const toDn = rowDNdlogD(k.edgesUm, layout, density)
+  const nw = k.wavelengthsNm.length
+  return (values, at, out, outAt) => {
+    const v = toDn(values, at)
     let o = outAt
     for (let j = 0; j < nw; j++) {
       let ext = 0

@@ -1,7 +1,7 @@
 // The record's stacked charts on one time axis: the size distribution as a colour map, the coefficients computed
 // and measured, their ratio, ω and g, the Ångström exponent, number and mass. Zoom and pan move every chart
-// (mouse wheel to zoom, Shift+wheel to pan; on the focused stack + − ← → and Home); a drag marks a stretch on
-// all of them; the hover read-out gives every figure at the time under the pointer. Gaps are null: lines stop.
+// (mouse wheel to zoom, Shift+wheel to pan, Shift+drag or a middle-button drag to pan; on the focused stack + − ← →
+// and Home); a plain drag marks a stretch on all of them; the hover read-out gives every figure at the time under the pointer. Gaps are null: lines stop.
 import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
@@ -10,7 +10,7 @@ import { themedAxis } from '../charts/axis.ts'
 import { lineStyle, type Theme } from '../charts/palette.ts'
 import { num } from '../format.ts'
 import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
-import { decimate, type Shown } from './decimate.ts'
+import { decimate, envelopes, type Shown } from './decimate.ts'
 import { campaignStore, setMark, setVisible } from './session.ts'
 
 interface PanelLine {
@@ -120,7 +120,8 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     const plots: uPlot[] = []
     const keys = [...new Set(list.flatMap((p) => p.lines.map((l) => l.key)))]
     const buckets = Math.max(100, Math.round(width))
-    let shown: Shown = decimate(series, keys, x0Of(series), Infinity, buckets)
+    const env = envelopes(series, keys)
+    let shown: Shown = decimate(series, keys, x0Of(series), Infinity, buckets, env)
     const dataFor = (p: Panel, d: Shown): (number | null)[][] => {
       const e = record.edgesUm
       // the map's one series only spans the diameter axis (its first two points at the ends, drawn in no colour)
@@ -217,13 +218,15 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
     let visibleTimer: ReturnType<typeof setTimeout> | undefined
     const show = (lo: number, hi: number) => {
-      shown = decimate(series, keys, lo, hi, buckets)
+      shown = decimate(series, keys, lo, hi, buckets, env)
       plots.forEach((q, i) => {
         q.batch(() => {
           q.setData(dataFor(list[i], shown) as uPlot.AlignedData, false)
           q.setScale('x', { min: lo, max: hi })
         })
       })
+      el.dataset['from'] = String(lo)
+      el.dataset['to'] = String(hi)
       // the visible range is for the CSV button: said after the zoom settles, so the page does not re-render in the redraw's frame
       clearTimeout(visibleTimer)
       visibleTimer = setTimeout(() => setVisible([lo * 1000, hi * 1000]), 250)
@@ -232,29 +235,48 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     if (vis) show(vis[0] / 1000, vis[1] / 1000)
 
     // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
+    // wheel events come faster than frames: they add up to one range, drawn once a frame
+    let wheelTarget: [number, number] | null = null
+    let wheelFrame = 0
+    const wheelNow = () => {
+      wheelFrame = 0
+      if (wheelTarget) zoomTo(wheelTarget[0], wheelTarget[1])
+      wheelTarget = null
+    }
     const onWheel = (ev: WheelEvent) => {
       const u = plots.find((q) => q.over.contains(ev.target as Node))
       if (!u) return
       ev.preventDefault()
-      const { min, max } = u.scales.x
-      if (min === undefined || max === undefined) return
+      const { min: shownMin, max: shownMax } = u.scales.x
+      if (shownMin === undefined || shownMax === undefined) return
+      const [min, max] = wheelTarget ?? [shownMin, shownMax]
       const span = max - min
+      let next: [number, number] | null
       if (ev.shiftKey || Math.abs(ev.deltaX) > Math.abs(ev.deltaY)) {
         const by = (Math.sign(ev.deltaX || ev.deltaY) * span) / 8
-        zoomTo(min + by, max + by)
-        return
+        next = clamped(min + by, max + by)
+      } else {
+        const box = u.over.getBoundingClientRect()
+        const at = min + ((ev.clientX - box.left) / Math.max(1, box.width)) * span
+        const f = ev.deltaY > 0 ? 1.25 : 0.8
+        next = clamped(at - (at - min) * f, at + (max - at) * f)
       }
-      const at = u.posToVal(ev.offsetX, 'x')
-      const f = ev.deltaY > 0 ? 1.25 : 0.8
-      zoomTo(at - (at - min) * f, at + (max - at) * f)
+      if (!next) return
+      wheelTarget = next
+      wheelFrame ||= requestAnimationFrame(wheelNow)
     }
-    const zoomTo = (a: number, b: number) => {
+    /** [a, b] (s) kept inside the record and wider than one step; null when it cannot be. */
+    const clamped = (a: number, b: number): [number, number] | null => {
       const span = Math.min(b - a, x1 - x0)
-      if (!(span > record.intervalMs / 1000)) return
+      if (!(span > record.intervalMs / 1000)) return null
       let lo = Math.max(x0, a)
       let hi = lo + span
       if (hi > x1) (hi = x1), (lo = x1 - span)
-      show(lo, hi)
+      return [lo, hi]
+    }
+    const zoomTo = (a: number, b: number) => {
+      const r = clamped(a, b)
+      if (r) show(r[0], r[1])
     }
     const onKey = (ev: KeyboardEvent) => {
       const u = plots[0]
@@ -277,6 +299,39 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         f()
       }
     }
+    // mouse: Shift+drag or a middle-button drag pans (taken before uPlot sees it, so it marks nothing); the charts
+    // follow the pointer once a frame
+    let pan: { x: number; min: number; max: number; perPx: number; to: number; frame: number } | null = null
+    const onPanMove = (ev: MouseEvent) => {
+      if (!pan) return
+      pan.to = ev.clientX
+      if (pan.frame) return
+      pan.frame = requestAnimationFrame(panNow)
+    }
+    const panNow = () => {
+      if (!pan) return
+      pan.frame = 0
+      const by = (pan.x - pan.to) * pan.perPx
+      zoomTo(pan.min + by, pan.max + by)
+    }
+    const onPanEnd = () => {
+      if (pan?.frame) (cancelAnimationFrame(pan.frame), panNow())
+      pan = null
+      window.removeEventListener('mousemove', onPanMove)
+      window.removeEventListener('mouseup', onPanEnd)
+    }
+    const onDown = (ev: MouseEvent) => {
+      const u = plots.find((q) => q.over.contains(ev.target as Node))
+      if (!u || !(ev.button === 1 || (ev.button === 0 && ev.shiftKey))) return
+      const { min, max } = u.scales.x
+      if (min === undefined || max === undefined) return
+      ev.preventDefault()
+      ev.stopPropagation()
+      pan = { x: ev.clientX, min, max, perPx: (max - min) / Math.max(1, u.over.clientWidth), to: ev.clientX, frame: 0 }
+      window.addEventListener('mousemove', onPanMove)
+      window.addEventListener('mouseup', onPanEnd)
+    }
+    el.addEventListener('mousedown', onDown, { capture: true })
     el.addEventListener('wheel', onWheel, { passive: false })
     el.addEventListener('keydown', onKey)
     zoomControls.zoom = (a, b) => zoomTo(a / 1000, b / 1000)
@@ -298,6 +353,9 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       unsub()
       clearTimeout(visibleTimer)
       ro.disconnect()
+      onPanEnd()
+      cancelAnimationFrame(wheelFrame)
+      el.removeEventListener('mousedown', onDown, { capture: true })
       el.removeEventListener('wheel', onWheel)
       el.removeEventListener('keydown', onKey)
       for (const q of plots) q.destroy()
@@ -316,7 +374,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         <span data-testid="record-colour-high">{decade(range[1])}</span>
         <span class="muted">; no colour: no distribution (a gap)</span>
       </div>
-      <div class="record-stack" ref={box} tabIndex={0} aria-label="Record charts: + and − zoom, ← → pan, Home shows the whole record; drag across to mark a stretch" data-testid="record-stack" />
+      <div class="record-stack" ref={box} tabIndex={0} aria-label="Record charts: + and − zoom, ← → pan, Home shows the whole record; drag across to mark a stretch, Shift+drag to pan" data-testid="record-stack" />
       <div class="record-readout" data-testid="record-readout" aria-live="off">
         {readout ? (
           <dl>

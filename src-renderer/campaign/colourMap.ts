@@ -55,14 +55,24 @@ function rowAt(r: CampaignRecord, t: number): number {
   return t < end && r.present[lo] ? lo : -1
 }
 
-/** Draws the map into the plot area of `u` (x in s, y in µm on a log scale). */
+/** The colour table as one 32-bit RGBA word per colour, in the byte order of the platform (for a Uint32Array view). */
+const PACKED: Uint32Array = (() => {
+  const out = new Uint32Array(256)
+  const bytes = new Uint8ClampedArray(out.buffer)
+  for (let i = 0; i < 256; i++) bytes.set([COLOUR_TABLE[i * 3], COLOUR_TABLE[i * 3 + 1], COLOUR_TABLE[i * 3 + 2], 255], i * 4)
+  return out
+})()
+
+/**
+ * Draws the map into the plot area of `u` (x in s, y in µm on a log scale). Each pixel column takes its row's colours
+ * bin by bin (one logarithm a bin, not a pixel), and a column of the same row as the one before copies it.
+ */
 export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, number]): void {
   const { left, top, width, height } = u.bbox
   if (width < 1 || height < 1) return
   const ratio = width / u.over.clientWidth || 1
   const img = u.ctx.createImageData(Math.round(width), Math.round(height))
-  const rows = new Int32Array(img.width)
-  for (let x = 0; x < img.width; x++) rows[x] = rowAt(r, u.posToVal(x / ratio, 'x') * 1000)
+  const w = img.width
   const e = r.edgesUm
   const binOf = new Int32Array(img.height)
   for (let y = 0; y < img.height; y++) {
@@ -72,21 +82,28 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
   }
   const [a, z] = range
   const scale = 255 / (z - a)
-  const px = img.data
-  for (let x = 0; x < img.width; x++) {
-    const row = rows[x]
-    if (row < 0) continue
+  const px = new Uint32Array(img.data.buffer)
+  const colourOfBin = new Uint32Array(r.bins)
+  let before = -1
+  for (let x = 0; x < w; x++) {
+    const row = rowAt(r, u.posToVal(x / ratio, 'x') * 1000)
+    if (row < 0) {
+      before = -1
+      continue
+    }
+    if (row === before) {
+      for (let y = 0, o = x; y < img.height; y++, o += w) px[o] = px[o - 1]
+      continue
+    }
+    before = row
     const base = row * r.bins
-    for (let y = 0; y < img.height; y++) {
-      const b = binOf[y]
-      if (b < 0) continue
+    for (let b = 0; b < r.bins; b++) {
       const v = r.dNdlogD[base + b]
-      const i = v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0
-      const o = (y * img.width + x) * 4
-      px[o] = COLOUR_TABLE[i * 3]
-      px[o + 1] = COLOUR_TABLE[i * 3 + 1]
-      px[o + 2] = COLOUR_TABLE[i * 3 + 2]
-      px[o + 3] = 255
+      colourOfBin[b] = PACKED[v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0]
+    }
+    for (let y = 0, o = x; y < img.height; y++, o += w) {
+      const b = binOf[y]
+      if (b >= 0) px[o] = colourOfBin[b]
     }
   }
   u.ctx.putImageData(img, Math.round(left), Math.round(top))

@@ -2,6 +2,10 @@
 // rows the lowest and the highest value of each line (its envelope: no peak is lost), so a redraw costs about the
 // plot's width in points, not the record's rows. A bucket with a gap (an inserted break, or a line's value missing)
 // keeps it as null, so lines still stop across gaps.
+//
+// The buckets are aligned blocks of 2^k points whose envelopes are worked out once per record (`envelopes`: each
+// level halves the one below, so all levels together hold as many values as the series), so a zoom or a pan reads
+// about 2 × `buckets` blocks per line whatever the number of rows in view.
 import type { RecordSeries, RecordSeriesName } from '../../src-core/index.ts'
 
 export interface Shown {
@@ -9,6 +13,72 @@ export interface Shown {
   /** The record row of each point (−1: a break or a bucket's envelope point of several rows, see `first`). */
   row: number[]
   values: Partial<Record<RecordSeriesName, (number | null)[]>>
+}
+
+/** One line's envelopes of aligned blocks of 2, 4, 8 … points: lowest, highest, and whether a point is missing. */
+interface Level {
+  min: Float64Array
+  max: Float64Array
+  /** 1 where the block holds a break or a missing value. */
+  missing: Uint8Array
+}
+
+export interface Envelopes {
+  /** levels[k − 1]: blocks of 2^k points. */
+  lines: Partial<Record<RecordSeriesName, Level[]>>
+  /** Per level: 1 where the block holds an inserted break. */
+  breaks: Uint8Array[]
+}
+
+/** Every level of `keys`' envelopes (about one pass over each series). */
+export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): Envelopes {
+  const n = s.x.length
+  const out: Envelopes = { lines: {}, breaks: [] }
+  let below = new Uint8Array(n)
+  for (let i = 0; i < n; i++) below[i] = s.row[i] < 0 ? 1 : 0
+  for (let m = Math.ceil(n / 2); n > 1 && below.length > 1; m = Math.ceil(m / 2)) {
+    const level = new Uint8Array(m)
+    for (let i = 0; i < m; i++) level[i] = below[2 * i] | (below[2 * i + 1] ?? 0)
+    out.breaks.push(level)
+    below = level
+    if (m === 1) break
+  }
+  for (const k of keys) {
+    const v = s.values[k]
+    const levels: Level[] = []
+    let min = new Float64Array(n)
+    let max = new Float64Array(n)
+    let missing = new Uint8Array(n)
+    for (let i = 0; i < n; i++) {
+      const y = v[i]
+      if (y === null) (min[i] = Infinity), (max[i] = -Infinity), (missing[i] = 1)
+      else (min[i] = y), (max[i] = y), (missing[i] = s.row[i] < 0 ? 1 : 0)
+    }
+    for (const br of out.breaks) {
+      const m = br.length
+      const lo = new Float64Array(m)
+      const hi = new Float64Array(m)
+      const gap = new Uint8Array(m)
+      for (let i = 0; i < m; i++) {
+        const j = 2 * i
+        if (j + 1 < min.length) {
+          const a = min[j]
+          const b = min[j + 1]
+          lo[i] = a < b ? a : b
+          const c = max[j]
+          const d = max[j + 1]
+          hi[i] = c > d ? c : d
+          gap[i] = missing[j] | missing[j + 1]
+        } else (lo[i] = min[j]), (hi[i] = max[j]), (gap[i] = missing[j])
+      }
+      levels.push({ min: lo, max: hi, missing: gap })
+      min = lo
+      max = hi
+      missing = gap
+    }
+    out.lines[k] = levels
+  }
+  return out
 }
 
 /** First index with x ≥ t (or, `after`, x > t): binary search. */
@@ -25,9 +95,9 @@ function bound(x: readonly number[], t: number, after = false): number {
 
 /**
  * The points of `keys` between x = lo and x = hi (one point beyond each end, so lines reach the edges), at most
- * about 2 × `buckets` of them.
+ * about 2 × `buckets` of them (blocks of the smallest power of two that keeps them so).
  */
-export function decimate(s: RecordSeries, keys: readonly RecordSeriesName[], lo: number, hi: number, buckets: number): Shown {
+export function decimate(s: RecordSeries, keys: readonly RecordSeriesName[], lo: number, hi: number, buckets: number, env: Envelopes): Shown {
   const a = Math.max(0, bound(s.x, lo) - 1)
   const b = Math.min(s.x.length, bound(s.x, hi, true) + 1)
   const n = b - a
@@ -39,31 +109,22 @@ export function decimate(s: RecordSeries, keys: readonly RecordSeriesName[], lo:
     for (const k of keys) out.values[k] = s.values[k].slice(a, b)
     return out
   }
-  const size = Math.ceil(n / buckets)
-  for (let start = a; start < b; start += size) {
-    const end = Math.min(b, start + size)
-    let gap = false
-    for (let i = start; i < end; i++) if (s.row[i] < 0) gap = true
+  // blocks of 2^level points, level ≥ 1, at most about `buckets` of them in [a, b)
+  const level = Math.min(env.breaks.length, Math.max(1, Math.ceil(Math.log2(n / Math.max(1, buckets - 1)))))
+  const size = 2 ** level
+  const first = Math.floor(a / size)
+  const last = Math.ceil(b / size)
+  const lines = keys.map((k) => ({ level: env.lines[k]![level - 1], col: out.values[k]! }))
+  for (let blk = first; blk < last; blk++) {
+    const start = blk * size
+    const end = Math.min(s.x.length, start + size)
     out.x.push(s.x[start], s.x[end - 1])
-    out.row.push(end - start === 1 ? s.row[start] : -1, -1)
-    for (const k of keys) {
-      const v = s.values[k]
-      let min = Infinity
-      let max = -Infinity
-      let missing = gap
-      for (let i = start; i < end; i++) {
-        const y = v[i]
-        if (y === null) {
-          missing = true
-          continue
-        }
-        if (y < min) min = y
-        if (y > max) max = y
-      }
-      const col = out.values[k]!
+    out.row.push(-1, -1)
+    for (const { level: lv, col } of lines) {
+      const min = lv.min[blk]
       if (min === Infinity) col.push(null, null)
-      else if (missing) col.push(min, null) // the line stops in this bucket
-      else col.push(min, max)
+      else if (lv.missing[blk]) col.push(min, null) // the line stops in this bucket
+      else col.push(min, lv.max[blk])
     }
   }
   return out

@@ -21,6 +21,7 @@ import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
 import type { FromRecordWorker, ToRecordWorker } from './worker.ts'
+import { warmStretchNodes } from './warm.ts'
 
 export interface HeldFile {
   name: string
@@ -99,7 +100,7 @@ export function addFiles(files: HeldFile[]): void {
     study.campaign = c
   })
   session.set({ texts, missing, changed })
-  refresh()
+  refresh(false, 0) // at once: the wait is for parameter edits typed in a row
 }
 
 /** Points a reference whose file could not be read (or changed) at a file the user chooses. */
@@ -208,9 +209,9 @@ export function stopRecord(): void {
 }
 
 /** Recomputes the record soon if what it depends on changed (files, parameters, the sample, wavelengths). */
-export function refresh(force = false): void {
+export function refresh(force = false, delayMs = 250): void {
   clearTimeout(timer)
-  timer = setTimeout(() => void start(force), 250)
+  timer = setTimeout(() => void start(force), delayMs)
 }
 
 async function start(force: boolean): Promise<void> {
@@ -249,6 +250,7 @@ async function start(force: boolean): Promise<void> {
     if (m.type === 'progress') return session.set({ share: m.share })
     stopWorker()
     if (m.type === 'failed') return session.set({ running: false, failure: m.message })
+    if (m.build.record) warmStretchNodes(m.build.record)
     session.set({ running: false, share: 1, build: m.build, ms: m.ms, failure: m.build.problem ? `${m.build.problem.message}. ${m.build.problem.fix}` : null, visible: null })
   }
   w.onerror = (e) => {

@@ -110,6 +110,7 @@ function showInbox(): void {
     changed = true
   }
   if (changed) store().set(s)
+  sendWarm()
 }
 
 /** Stops the running job at its next step (the next edit starts a new one). */
@@ -173,6 +174,11 @@ function run(): void {
     store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true })
     return
   }
+  store().set({ job: { running: true, done: 0, total: jobSteps(items.length) } })
+  opticsWorker().postMessage({ type: 'evaluate', job, items } satisfies ToWorker)
+}
+
+function opticsWorker(): Worker {
   if (!optics) {
     optics = startWorker()
     optics.onmessage = (e: MessageEvent<FromWorker>) => receive(opticsPatch, e.data)
@@ -181,8 +187,27 @@ function run(): void {
       optics = null
     }
   }
-  store().set({ job: { running: true, done: 0, total: jobSteps(items.length) } })
-  optics.postMessage({ type: 'evaluate', job, items } satisfies ToWorker)
+  return optics
+}
+
+/** A one-sample study whose nodes the caches should hold, waiting for the running job to end. */
+let warmWanted: Study | null = null
+
+/**
+ * Has the optics workers work out `study`'s one sample for their node caches only, once no job is running (a
+ * newer edit drops it, as it drops any job). The station record asks this for a sample of its bins, so that a
+ * stretch made into a sample gets its first figures as an edit does: from nodes already worked out.
+ */
+export function warmNodes(study: Study): void {
+  warmWanted = study
+  sendWarm()
+}
+
+function sendWarm(): void {
+  if (!warmWanted || store().get().job.running) return
+  job++
+  opticsWorker().postMessage({ type: 'warm', job, study: warmWanted } satisfies ToWorker)
+  warmWanted = null
 }
 
 /** Watches the document: every change of the study or of unreadable fields schedules a run. */

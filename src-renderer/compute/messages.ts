@@ -9,6 +9,11 @@ export type ToWorker =
   | { type: 'sizes'; job: number; items: { id: string; sample: Sample; userMaterials: UserMaterialSpec[] }[] }
   /** Stop the running evaluation at its next step (`job` is a new number that no evaluation carries). */
   | { type: 'cancel'; job: number }
+  /**
+   * Fill the node caches with a one-sample study's full pass and post nothing (a `warmed` message at the end):
+   * sent when nothing else runs, dropped like any job when a newer one comes.
+   */
+  | { type: 'warm'; job: number; study: Study }
 
 export type FromWorker =
   /**
@@ -19,6 +24,7 @@ export type FromWorker =
   | { type: 'failed'; job: number; id: string; key: string; message: string }
   | { type: 'progress'; job: number; done: number; total: number }
   | { type: 'finished'; job: number }
+  | { type: 'warmed'; job: number; ms: number }
   /** The curves of every sample of one `sizes` request, in one message (one update of the screen). */
   | { type: 'sizes'; job: number; curves: Record<string, SizeCurves | { error: string }> }
 

@@ -222,4 +222,19 @@ self.onmessage = (e: MessageEvent<ToWorker>) => {
   newest = m.job
   for (const w of helpers ?? []) w.postMessage({ type: 'newest', job: m.job } satisfies ToShareWorker)
   if (m.type === 'evaluate') void evaluate(m)
+  if (m.type === 'warm') void warm(m)
+}
+
+/**
+ * Works out a sample's optics for the node caches' sake alone: the samples made from stretches of the station
+ * record share its bins, composition and humidity, so each of them then finds its nodes here, as an edit does.
+ */
+async function warm(m: Extract<ToWorker, { type: 'warm' }>): Promise<void> {
+  const started = performance.now()
+  try {
+    const done = await sampleOptics(m.study, false, m.job)
+    if (done) post({ type: 'warmed', job: m.job, ms: performance.now() - started })
+  } catch {
+    // the sample made from a stretch will meet the same failure and say it
+  }
 }

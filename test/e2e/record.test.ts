@@ -84,6 +84,33 @@ describe('station record', { timeout: 180_000 }, () => {
     await page.mouse.move(box.x + box.width * 0.3, box.y + box.height / 2)
     await expect.poll(() => page.getByTestId('record-readout').textContent()).toMatch(/σext 550 nm.*Mm⁻¹.*ω/)
 
+    // Shift+drag pans: the range moves by the dragged share of the width, keeps its span, and marks nothing
+    const stack = page.getByTestId('record-stack')
+    const range = async () => stack.evaluate((el) => [Number((el as HTMLElement).dataset['from']), Number((el as HTMLElement).dataset['to'])])
+    await stack.focus()
+    for (let i = 0; i < 3; i++) await page.keyboard.press('+')
+    const zoomed = await range()
+    await page.keyboard.down('Shift')
+    await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2)
+    await page.mouse.down()
+    await page.mouse.move(box.x + box.width * 0.45, box.y + box.height / 2, { steps: 4 })
+    await page.mouse.move(box.x + box.width * 0.3, box.y + box.height / 2, { steps: 4 })
+    await page.mouse.up()
+    await page.keyboard.up('Shift')
+    await expect.poll(async () => (await range())[0]).toBeGreaterThan(zoomed[0])
+    const panned = await range()
+    const span = zoomed[1] - zoomed[0]
+    expect((panned[1] - panned[0]) / span).toBeCloseTo(1, 9)
+    // dragged left by 30 % of the plot's width: later by 30 % of the span (the plot area is the .u-over box)
+    expect((panned[0] - zoomed[0]) / span).toBeCloseTo(0.3, 2)
+    expect(await page.getByTestId('record-make-sample').isDisabled()).toBe(true)
+    // two wheel steps towards the reader zoom in by 0.8 each around the pointer (drawn once a frame, added up)
+    await page.mouse.move(box.x + box.width * 0.5, box.y + box.height / 2)
+    await page.mouse.wheel(0, -100)
+    await page.mouse.wheel(0, -100)
+    await expect.poll(async () => { const r = await range(); return Number(((r[1] - r[0]) / span).toFixed(3)) }).toBe(0.64)
+    await page.keyboard.press('Home')
+
     // a typed stretch on the first afternoon: the sample's bins are the mean of those rows
     const from = '2026-07-14T12:00:00Z'
     const to = '2026-07-14T14:00:00Z'
