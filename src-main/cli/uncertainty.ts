@@ -94,7 +94,7 @@ function prefixOf(blocks: DrawBlock[], nIn: number, from = 0): DrawBlock {
 }
 
 /** Draws per block handed to a thread. */
-const BLOCK_DRAWS = Number(process.env.BD ?? 25)
+const BLOCK_DRAWS = 25
 
 /**
  * An uncertainty run split over threads: this thread and `workers` worker threads take blocks of
