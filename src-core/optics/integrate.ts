@@ -33,12 +33,11 @@
  * +38 to +67 % of the work on the demo's coarse and humid samples (DEVELOPERS.md). The user-angle phase
  * function (drawn, not integrated) always stops at level ANGULAR_LEVELS. Ratios use σsca from the same nodes.
  */
-import { InputError } from '../errors.ts'
-import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, SPHERE_DOMAIN, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
+import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
 import { NODE_ABS, NODE_DUDT, NODE_EXT, NODE_FIELDS, NODE_GSCA, NODE_SCA, NODE_U, NodeCache } from './nodeCache.ts'
 import { UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, upscatterFrom } from './upscatter.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
-import { firstLatticeStep, largestGrowthFactor, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
+import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 
 /** A stretch of the size distribution: ln D from lo to hi (D in µm), with dN/dlnD (cm⁻³) there. */
 export interface SizeSegment {
@@ -233,15 +232,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   let work = 0
 
   const segs = pop.segments.map((s) => ({ s, t0: axis.t(s.lo), t1: axis.t(s.hi), u: s.lo }))
-  const uTop = Math.max(...pop.segments.map((sg) => sg.hi))
-  const xTop = axis.ax * Math.exp(uTop)
-  if (xTop > SPHERE_DOMAIN.sizeParameter.max) {
-    throw new InputError(
-      pop.label,
-      `its size distribution reaches diameters of ${Math.exp(uTop).toPrecision(3)} µm, where the size parameter at ${Number((wavelengthUm * 1000).toPrecision(6))} nm (${xTop.toPrecision(3)}) is beyond the ${SPHERE_DOMAIN.sizeParameter.max} this engine covers`,
-      'Narrow the mode (a smaller median or geometric standard deviation), or leave out the shortest wavelengths.'
-    )
-  }
+  largestSizeParameter(pop.label, pop.segments, axis, wavelengthUm, 'Narrow the mode (a smaller median or geometric standard deviation), or leave out the shortest wavelengths.')
   const result = new Sums(nUser)
   const prevResult = new Sums(nUser)
   const flatPrev = new Sums(nUser)

@@ -6,6 +6,8 @@
  * wavelength integrated (a = π G/λ) and s(x) = X ln(1 + x/X), X = 100 (see integrate.ts). A lognormal segment's
  * nodes are the points t = j·2^−L of a lattice fixed on the whole t axis; a measured bin is split from its own edges.
  */
+import { InputError } from '../errors.ts'
+import { SPHERE_DOMAIN } from '../mie/index.ts'
 import type { Conditions, SizeSegment } from './integrate.ts'
 import type { ParticleKind } from './particles.ts'
 
@@ -18,6 +20,23 @@ export const MIN_LATTICE_STEPS = 4
 /** The largest growth factor of a particle kind at the conditions, for the node spacing (no Kelvin term, so an upper bound). */
 export function largestGrowthFactor(kind: ParticleKind, cond: Conditions): number {
   return cond.rhPercent > 0 && kind.kappa > 0 ? Math.cbrt(1 + (kind.kappa * cond.rhPercent) / (100 - cond.rhPercent)) : 1
+}
+
+/**
+ * The largest size parameter of a population's range on `axis` (its wavelength `wavelengthUm`); an InputError
+ * naming the population when it is beyond what the sphere engine covers, with `fix`.
+ */
+export function largestSizeParameter(label: string, segments: readonly SizeSegment[], axis: SizeAxis, wavelengthUm: number, fix: string): number {
+  const uTop = Math.max(...segments.map((sg) => sg.hi))
+  const xTop = axis.ax * Math.exp(uTop)
+  if (xTop > SPHERE_DOMAIN.sizeParameter.max) {
+    throw new InputError(
+      label,
+      `its size distribution reaches diameters of ${Math.exp(uTop).toPrecision(3)} µm, where the size parameter at ${Number((wavelengthUm * 1000).toPrecision(6))} nm (${xTop.toPrecision(3)}) is beyond the ${SPHERE_DOMAIN.sizeParameter.max} this engine covers`,
+      fix
+    )
+  }
+  return xTop
 }
 
 /** The integration variable t(u) for size parameters x = ax·e^u, with first-grid steps h_u (ln D) and h_x (x). */

@@ -19,11 +19,10 @@
  * any power of the step and one change bounds it. A population with larger particles keeps the stricter rule.
  * Checked against the one-wavelength integration at a tight tolerance in test/optics/spectral.test.ts.
  */
-import { InputError } from '../errors.ts'
-import { coatedSphereEfficiencies, SPHERE_DOMAIN, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
+import { coatedSphereEfficiencies, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
 import { STEP_WORK, type Conditions, type OpticsWorkspace, type Population, type SizeSegment } from './integrate.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type WetParticle } from './particles.ts'
-import { firstLatticeStep, largestGrowthFactor, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
+import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 
 /**
  * Up to this size parameter (at the shortest wavelength, for the most grown particle of a population) the
@@ -87,15 +86,7 @@ function* integrateSpectral(pop: Population, wavelengthsUm: readonly number[], c
   const gMax = largestGrowthFactor(kind, cond)
   const shortest = Math.min(...wavelengthsUm)
   const axis = new SizeAxis((Math.PI * gMax) / shortest, 0.25, 2)
-  const uTop = Math.max(...pop.segments.map((sg) => sg.hi))
-  const xTop = axis.ax * Math.exp(uTop)
-  if (xTop > SPHERE_DOMAIN.sizeParameter.max) {
-    throw new InputError(
-      pop.label,
-      `its size distribution reaches diameters of ${Math.exp(uTop).toPrecision(3)} µm, where the size parameter at ${Number((shortest * 1000).toPrecision(6))} nm (${xTop.toPrecision(3)}) is beyond the ${SPHERE_DOMAIN.sizeParameter.max} this engine covers`,
-      'Narrow the mode (a smaller median or geometric standard deviation).'
-    )
-  }
+  const xTop = largestSizeParameter(pop.label, pop.segments, axis, shortest, 'Narrow the mode (a smaller median or geometric standard deviation).')
   const smooth = xTop <= SMOOTH_X
   const nodes = ws.nodes.spectralContext(
     JSON.stringify(['spectral', wavelengthsUm, dry, kind.coreShell, kind.fractions, kind.rule, kind.kappa, kind.phaseChange ?? null, cond]),
