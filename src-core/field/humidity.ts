@@ -13,6 +13,9 @@
  */
 import { stampTimeBase, TimeAverager } from './timebase.ts'
 
+/** A cell that means "no value": empty, NaN, NA or n/a (any case). Shared with the optical-file reader. */
+export const MISSING_CELL = /^(|nan|na|n\/a)$/i
+
 const HUMIDITY_HEADER = /^(?:sample[\s_-]*)?(?:rh|r\.h\.|rel(?:ative|\.)?[\s_-]*humidity|humidity)(?:[\s_-]*sample)?(?:[\s_-]*(?:[([]\s*%\s*[)\]]|%|percent|pct))?$/i
 
 /** True when a header cell names a relative-humidity column in percent. */
@@ -23,7 +26,7 @@ export function isHumidityHeader(cell: string): boolean {
 /** What is wrong with a humidity cell, or undefined when it is kept (a value) or empty (no value). */
 export function humidityProblem(cell: string, value: number): { reason: string; fix: string } | undefined {
   const t = cell.trim()
-  if (/^(|nan|na|n\/a)$/i.test(t)) return undefined
+  if (MISSING_CELL.test(t)) return undefined
   if (!Number.isFinite(value)) return { reason: `the relative humidity "${t}" is not a number; the row's humidity is left out (its other values are kept)`, fix: 'Write the humidity in percent as a plain number, or leave the cell empty when there is none.' }
   if (value < 0 || value > 100) return { reason: `the relative humidity ${t} % is outside 0–100 %; the row's humidity is left out (its other values are kept)`, fix: 'Check the humidity sensor and its column (a fraction such as 0.45 is to be written 45); leave the cell empty when there is no good value.' }
   return undefined

@@ -31,7 +31,7 @@
  */
 import Papa from 'papaparse/papaparse.js'
 import { InputError } from '../errors.ts'
-import { humidityProblem, humidityValue, isHumidityHeader } from './humidity.ts'
+import { humidityProblem, humidityValue, isHumidityHeader, MISSING_CELL } from './humidity.ts'
 import { MAX_HELD_ROWS } from './reader.ts'
 import { DATE_ORDER_NAMES, dateParts, orderEvidence, readClock, readDateTime, statedOrder, type DateOrder } from './time.ts'
 import { parseTimeStamp, type TimeStamp } from './timebase.ts'
@@ -87,7 +87,6 @@ export function readInstrumentTime(cell: string): TimeStamp | undefined {
 
 const HEADER_CELL = /^(scattering|backscattering|absorption)\s+(\d+(?:\.\d+)?)\s*nm\s*(?:[[(]\s*([^\])]*?)\s*[\])])?$/i
 const UNIT = /^(mm-1|mm\^-1|mm⁻¹|1\/mm|mm\^\(-1\))$/i
-const MISSING = /^(|nan|na|n\/a)$/i
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/
 
 function splitCells(text: string, delimiter: string): string[] {
@@ -243,7 +242,7 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
     for (let j = 0; j < h.channels.length; j++) {
       const ch = h.channels[j]
       const cell = cells[ch.column - 1] ?? ''
-      if (MISSING.test(cell)) values[j] = NaN
+      if (MISSING_CELL.test(cell)) values[j] = NaN
       else if (NUMBER.test(cell)) values[j] = Number(cell)
       else return reject(line, ch.column, `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
     }

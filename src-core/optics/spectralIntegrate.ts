@@ -21,6 +21,7 @@
  */
 import { coatedSphereEfficiencies, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
 import { STEP_WORK, type Conditions, type OpticsWorkspace, type Population, type SizeSegment } from './integrate.ts'
+import { NODE_FIELDS } from './nodeCache.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type WetParticle } from './particles.ts'
 import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 
@@ -191,7 +192,7 @@ function* integrateSpectral(pop: Population, wavelengthsUm: readonly number[], c
       negligibleExt = 1e-10 * smallest
     }
   } finally {
-    ws.nodes.grew(added * Math.ceil(width / 6))
+    ws.nodes.grew(added * Math.ceil(width / NODE_FIELDS))
   }
   for (let j = 0; j < n; j++) into[j] += result[j]
   return { level: Math.min(lv, opts.maxLevel), converged: lv <= opts.maxLevel, evaluations }

@@ -7,6 +7,9 @@ import { warmNodes } from '../compute/client.ts'
 import { store } from '../state/store.ts'
 
 export function warmStretchNodes(r: CampaignRecord): void {
+  // where the files record a humidity, each stretch's sample takes its own mean of it, and the node caches are kept
+  // per humidity: no sample worked out here would share a stretch's nodes
+  if (r.rh) return
   // after the charts are drawn: the mean of a year's rows takes a few tens of milliseconds on the page
   setTimeout(() => {
     let sample
