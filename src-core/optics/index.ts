@@ -1,6 +1,6 @@
 export type * from './types.ts'
 export { bulkOpticsAt, bulkOpticsSteps, OpticsWorkspace } from './integrate.ts'
-export { upwardFraction, UPSCATTER_COS_ZENITH, UPSCATTER_NODES, UPSCATTER_SCATTERING_COSINES } from './upscatter.ts'
+export { shiftToAsymmetry, upscatterFrom, upwardFraction, UPSCATTER_COS_ZENITH, UPSCATTER_NODES, UPSCATTER_SCATTERING_COSINES } from './upscatter.ts'
 export type { SizeSegment, Population, Conditions, IntegrationOptions, BulkOptics } from './integrate.ts'
 export { resolveComposition, resolveMaterial, dryIndicesAt, particleGrowth, wetParticle } from './particles.ts'
 export type { ParticleKind, DryIndices, WetParticle } from './particles.ts'

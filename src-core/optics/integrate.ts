@@ -23,19 +23,27 @@
  *
  * Upscatter. The population's S11 is summed at fixed scattering angles (upscatter.ts: 32 Gauss nodes in Θ on
  * each hemisphere), from which b, β(μ₀) and β̄ follow. Those sums converge more slowly in size than the
- * cross-sections (the S11 of one angle oscillates in x with a period near 1, against about 6 for σsca), and
- * their changes between levels understate their error on lossless coarse modes (b changed by less than 1e-4
- * while 6e-4 off). At the default tolerance they stop at level ANGULAR_LEVELS, which costs nothing beyond the
- * cross-sections: b and β̄ within 3e-5 of a reference without angular error on fine, absorbing and weakly
- * absorbing modes, 6e-4 on a lossless 1 µm mode (test/optics/upscatter.test.ts). Asked for a tighter tolerance,
- * they are refined until b and β̄ change by less than half of it between levels (1.4e-6 on that mode at 1e-5,
- * for four times the Mie evaluations). Holding them to 1e-4 at the default tolerance this way was measured at
- * +38 to +67 % of the work on the demo's coarse and humid samples (DEVELOPERS.md). The user-angle phase
- * function (drawn, not integrated) always stops at level ANGULAR_LEVELS. Ratios use σsca from the same nodes.
+ * cross-sections (the S11 of one angle oscillates in x with a period near 1, against about 6 for σsca; lossless
+ * spheres add narrow resonances), and a row of them costs about four Mie evaluations of the same sphere. Three
+ * things hold them to the tolerance at little cost:
+ * - a control variate (upscatter.ts, shiftToAsymmetry): b, β(μ₀) and β̄ are ½ − ¾μ₀g (β̄: ½ − ⅜g) plus a
+ *   remainder R from the higher odd Legendre moments. Most of their fine structure in size is in the g term,
+ *   which the cross-section integration follows to the tolerance on every node; the angular sums supply only R,
+ *   which is much smoother in size (DEVELOPERS.md has the measurements);
+ * - at the default tolerance the sums stop at level 3 (2 for a looser one: a quick pass, uncertainty draws;
+ *   at a tighter one, once R changed by less than the tolerance over two levels);
+ * - beyond level 2 a node carrying less than the tolerance's share of σsca, or one of size parameter below
+ *   SMOOTH_X, takes the mean of its two neighbours' normalised rows and g instead of its own row (whatever the
+ *   cache holds for it, so that a result does not depend on what was computed before): the control variate
+ *   puts its own g back, and the rows of the large spheres in a mode's tail, the dearest, are not computed.
+ * Measured against a reference without angular error (test/optics/upscatter.test.ts): b and β̄ within 6e-5 on
+ * fine, coarse, very coarse, absorbing and lossless modes at the default tolerance; the demo's samples' cold
+ * computation costs 0–8 % more than with the sums stopped at level 2 and no control variate (DEVELOPERS.md).
+ * The user-angle phase function (drawn, not integrated) stops at level 2. Ratios use σsca from the same nodes.
  */
 import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
 import { NODE_ABS, NODE_DUDT, NODE_EXT, NODE_FIELDS, NODE_GSCA, NODE_SCA, NODE_U, NodeCache } from './nodeCache.ts'
-import { UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, upscatterFrom } from './upscatter.ts'
+import { shiftToAsymmetry, UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, upscatterFrom } from './upscatter.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
 import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 
@@ -85,8 +93,22 @@ export interface IntegrationOptions {
 /** The relative accuracy aimed at unless another is asked for. */
 export const DEFAULT_TOLERANCE = 1e-4
 
-/** Refinement levels that accumulate the angular sums at least (see the module comment). */
-const ANGULAR_LEVELS = 2
+/**
+ * Refinement levels that accumulate the angular sums at least (see the module comment): 2 where less than the
+ * default accuracy is asked (a quick pass, uncertainty draws), 3 at the default accuracy or a tighter one.
+ */
+function angularLevelsFor(tolerance: number): number {
+  return tolerance > DEFAULT_TOLERANCE ? 2 : 3
+}
+/** Refinement levels of the angular sums on every node that carries scattering; beyond them, see addNode. */
+const FIRST_ANGULAR_LEVELS = 2
+/**
+ * Below this size parameter (at the widest growth) a sphere's phase function changes little over a step of the
+ * second level (0.31 in x at x = 5), so the nodes of later levels take their neighbours' rows (see addNode).
+ */
+const SMOOTH_X = 5
+/** Refinement levels of the phase function at the user's angles (drawn, not integrated). */
+const USER_ANGLE_LEVELS = 2
 const upMu = UPSCATTER_SCATTERING_COSINES.nodes
 
 /** Bulk optics of one or more populations at one wavelength. */
@@ -109,6 +131,14 @@ export interface BulkOptics {
   converged: boolean
 }
 
+/** A stretch of the size distribution on the lattice: t0, t1 its ends in t, u the last node's ln D. */
+interface Segment {
+  s: SizeSegment
+  t0: number
+  t1: number
+  u: number
+}
+
 /** Running sums of one population at one wavelength. */
 class Sums {
   ext = 0
@@ -116,6 +146,8 @@ class Sums {
   abs = 0
   gsca = 0
   angSca = 0
+  /** Σ weight·g·C_sca over the nodes of the angular sums (their g, for the control variate; see finishUpscatter). */
+  angG = 0
   /** σsca of the nodes in the user-angle sums (they stop refining earlier than the upscatter sums). */
   userSca = 0
   up: Float64Array
@@ -132,6 +164,7 @@ class Sums {
     this.abs = o.abs
     this.gsca = o.gsca
     this.angSca = o.angSca
+    this.angG = o.angG
     this.userSca = o.userSca
     this.up.set(o.up)
     if (this.user11 && o.user11) this.user11.set(o.user11)
@@ -147,11 +180,24 @@ interface Figures {
   g: number
   b: number
   bbar: number
+  /** b + ¾ g and β̄ + ⅜ g on the nodes of the angular sums: what the control variate takes from them. */
+  rb: number
+  rbbar: number
 }
 
-function figuresOf(s: Sums, lambda2: number): Figures {
+function figuresOf(s: Sums, lambda2: number, shift: boolean): Figures {
   const up = upscatterFrom(s.up, s.angSca, lambda2)
-  return { ext: s.ext, sca: s.sca, abs: s.abs, g: s.sca > 0 ? s.gsca / s.sca : 0, b: up.b, bbar: up.mean }
+  const g = s.sca > 0 ? s.gsca / s.sca : 0
+  const gRows = s.angSca > 0 ? s.angG / s.angSca : g
+  const rb = up.b + 0.75 * gRows
+  const rbbar = up.mean + 0.375 * gRows
+  if (shift) shiftToAsymmetry(up, gRows, g)
+  return { ext: s.ext, sca: s.sca, abs: s.abs, g, b: up.b, bbar: up.mean, rb, rbbar }
+}
+
+/** The change between two levels of what the angular sums supply (b and β̄ less their g terms). */
+function residualChange(a: Figures, b: Figures): number {
+  return Math.max(Math.abs(a.rb - b.rb), Math.abs(a.rbbar - b.rbbar))
 }
 
 function converged(a: Figures, b: Figures, tol: number, withAngles: boolean): boolean {
@@ -231,7 +277,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   /** Work since the last pause (see STEP_WORK). */
   let work = 0
 
-  const segs = pop.segments.map((s) => ({ s, t0: axis.t(s.lo), t1: axis.t(s.hi), u: s.lo }))
+  const segs: Segment[] = pop.segments.map((s) => ({ s, t0: axis.t(s.lo), t1: axis.t(s.hi), u: s.lo }))
   largestSizeParameter(pop.label, pop.segments, axis, wavelengthUm, 'Narrow the mode (a smaller median or geometric standard deviation), or leave out the shortest wavelengths.')
   const result = new Sums(nUser)
   const prevResult = new Sums(nUser)
@@ -239,7 +285,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   let anglesFrozen = !opts.upscatter
   let userFrozen = !opts.upscatter
   const frozenUser = new Sums(nUser)
-  const angularLevels = ANGULAR_LEVELS
+  const angularLevels = angularLevelsFor(opts.tolerance)
   let lastAngChange = Infinity
   const frozenAngles = new Sums(nUser)
 
@@ -264,8 +310,38 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     return 0.25 * Math.PI * dw * dw
   }
 
-  // Adds f(t)·weight for one node: from the cache where it holds the node, else from a Mie evaluation.
-  const addNode = (seg: { s: SizeSegment; u: number }, t: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean) => {
+  /**
+   * The node at lattice position tN of segment seg, with its upscatter row (each evaluated and kept where the
+   * cache lacks it): its number, or −1 where the segment holds no scattering particles there. Leaves ws.mie
+   * holding another sphere's coefficients.
+   */
+  const nodeWithRow = (seg: Segment, tN: number): number => {
+    if (tN < seg.t0 || tN > seg.t1) return -1
+    let i = nodes.find(tN)
+    let fresh = false
+    if (i < 0) {
+      const u = axis.uAt(seg, tN)
+      if (!(seg.s.density(u) > 0)) return -1
+      const area = evaluate(u)
+      const e = eff!
+      i = nodes.add(tN, u, axis.dudt(u), e.qext * area, e.qsca * area, e.qabs * area, e.qsca * area * e.g)
+      added++
+      work += e.terms
+      fresh = true
+    }
+    if (!(nodes.values[NODE_FIELDS * i + NODE_SCA] > 0)) return -1
+    if (nodes.upRow(i) < 0) {
+      if (!fresh) evaluate(nodes.values[NODE_FIELDS * i + NODE_U])
+      work += ANGULAR_WORK * eff!.terms
+      ws.upTable.accumulate(ws.mie, 1, nodes.angular, null, nodes.newUpRow(i, upMu.length))
+    }
+    return i
+  }
+
+  // Adds f(t)·weight for the node at t = base + m·h: from the cache where it holds the node, else from a Mie
+  // evaluation.
+  const addNode = (seg: Segment, base: number, m: number, h: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean) => {
+    const t = base + m * h
     let i = nodes.find(t)
     const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : axis.uAt(seg, t)
     seg.u = u
@@ -300,6 +376,29 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     if ((!withUp && !user) || w * sca < negligibleSca) return
     let upRow = withUp ? nodes.upRow(i) : -1
     let userRow = user ? nodes.userRow(i, userKey) : -1
+    // Beyond the first angular levels a node carrying less than the tolerance's share of σsca takes the mean of
+    // its two neighbours' normalised rows and g, whatever the cache holds for it (module comment); the control
+    // variate puts its own g back. Its neighbours are the previous level's nodes (base + (m ± 1)·h is how that
+    // level wrote them, to the bit).
+    if (withUp && !user && lv > FIRST_ANGULAR_LEVELS && (w * sca < interpShare || axis.ax * Math.exp(u) < SMOOTH_X)) {
+      const before = ws.evaluations
+      const a = nodeWithRow(seg, base + (m - 1) * h)
+      const b = a >= 0 ? nodeWithRow(seg, base + (m + 1) * h) : -1
+      if (ws.evaluations !== before) fresh = false
+      if (a >= 0 && b >= 0) {
+        const vals = nodes.values
+        const fa = (0.5 * w * sca) / vals[NODE_FIELDS * a + NODE_SCA]
+        const fb = (0.5 * w * sca) / vals[NODE_FIELDS * b + NODE_SCA]
+        const rows = nodes.angular
+        const rA = nodes.upRow(a)
+        const rB = nodes.upRow(b)
+        const up = sums.up
+        for (let j = 0; j < up.length; j++) up[j] += fa * rows[rA + j] + fb * rows[rB + j]
+        sums.angSca += w * sca
+        sums.angG += fa * vals[NODE_FIELDS * a + NODE_GSCA] + fb * vals[NODE_FIELDS * b + NODE_GSCA]
+        return
+      }
+    }
     if ((withUp && upRow < 0) || (user && userRow < 0)) {
       if (!fresh) evaluate(u)
       work += ANGULAR_WORK * eff!.terms
@@ -315,6 +414,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     const rows = nodes.angular
     if (withUp) {
       sums.angSca += w * sca
+      sums.angG += w * v[at + NODE_GSCA]
       const up = sums.up
       for (let j = 0; j < up.length; j++) up[j] += w * rows[upRow + j]
     }
@@ -341,6 +441,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   let lastChange = Infinity
   let negligibleExt = 0
   let negligibleSca = 0
+  let interpShare = 0
   const hasFlat = segs.some((sg) => sg.s.flat)
   // The nodes added are counted against the cache's bound even when the caller gives the work up between
   // steps (drive() in the app's workers calls return(), which runs this finally): they stay in the cache.
@@ -360,7 +461,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
         const { base, m0, dm, count, h, halfEnds } = levelNodes(sg.t0, sg.t1, sg.s.flat, h0, lv, at)
         const target = sg.s.flat ? freshFlat : fresh
         for (let k = 0; k < count; k++) {
-          addNode(sg, base + (m0 + k * dm) * h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles, withUser)
+          addNode(sg, base, m0 + k * dm, h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles, withUser)
           if (work >= STEP_WORK) {
             work = 0
             yield
@@ -374,28 +475,30 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       // Combine: smooth part as is; flat part by Richardson (S = (4 T_h − T_2h)/3) from level 1 on.
       prevResult.copyFrom(result)
       combine(result, smoothSums, flatSums, hasFlat && lv > 0 ? flatPrev : null, anglesFrozen ? frozenAngles : null, userFrozen ? frozenUser : null)
-      const figures = figuresOf(result, lambda2)
+      const figures = figuresOf(result, lambda2, opts.tolerance <= DEFAULT_TOLERANCE)
       // Stop when this level changed every figure by less than the tolerance and this change and the one before
       // add up to less than it. Where narrow resonances of weakly absorbing spheres are not resolved, the
       // changes between levels are erratic and understate the error: a single small change, or two that
       // happen to fall off geometrically, were each measured to stop the refinement early (errors up to 1e-3
       // on a 1e-4 tolerance, for lossless narrow modes at a dozen nearby wavelengths); two changes that together
       // stay under the tolerance did not.
+      // b and β̄ take part while their sums are still to be refined: not at the level where they stop anyway.
+      const judgeAngles = !anglesFrozen && !(lv >= angularLevels && opts.tolerance >= DEFAULT_TOLERANCE)
       if (lastFigures) {
-        const change = largestChange(lastFigures, figures, !anglesFrozen)
-        if (converged(lastFigures, figures, opts.tolerance, !anglesFrozen) && change + lastChange < opts.tolerance) break
+        const change = largestChange(lastFigures, figures, judgeAngles)
+        if (converged(lastFigures, figures, opts.tolerance, judgeAngles) && change + lastChange < opts.tolerance) break
         lastChange = change
       }
-      // The upscatter sums stop at level ANGULAR_LEVELS at the default tolerance (or earlier, with everything
-      // else); at a tighter one, once b and β̄ change by less than half of it (see the module comment).
-      const angChange = lastFigures ? angularChange(lastFigures, figures) : Infinity
-      if (!anglesFrozen && lv >= angularLevels && (opts.tolerance >= DEFAULT_TOLERANCE || angChange < 0.5 * opts.tolerance)) {
+      // The upscatter sums stop at level angularLevels at the default tolerance or a looser one (or earlier, with
+      // everything else); at a tighter one, once the part they supply (R) changed by less than it over two levels.
+      const angChange = lastFigures ? residualChange(lastFigures, figures) : Infinity
+      if (!anglesFrozen && lv >= angularLevels && (opts.tolerance >= DEFAULT_TOLERANCE || angChange + lastAngChange < opts.tolerance)) {
         anglesFrozen = true
         frozenAngles.copyFrom(result)
       }
-      // The phase function at the user's angles is drawn, not integrated: it stops at level ANGULAR_LEVELS
+      // The phase function at the user's angles is drawn, not integrated: it stops at level USER_ANGLE_LEVELS
       // whatever the tolerance (its cost per node grows with the number of angles).
-      if (!userFrozen && (anglesFrozen || lv >= angularLevels)) {
+      if (!userFrozen && (anglesFrozen || lv >= USER_ANGLE_LEVELS)) {
         userFrozen = true
         frozenUser.copyFrom(result)
       }
@@ -403,6 +506,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       lastFigures = figures
       negligibleExt = 1e-10 * figures.ext
       negligibleSca = 1e-8 * figures.sca
+      interpShare = opts.tolerance * figures.sca
     }
   } finally {
     nodes.users--
@@ -421,6 +525,7 @@ function scaleInto(target: Sums, factor: number, keep: boolean, fresh: Sums, wit
   target.gsca = target.gsca * f + fresh.gsca
   if (withAngles) {
     target.angSca = target.angSca * f + fresh.angSca
+    target.angG = target.angG * f + fresh.angG
     for (let j = 0; j < target.up.length; j++) target.up[j] = target.up[j] * f + fresh.up[j]
   }
   if (withUser && target.user11 && fresh.user11) {
@@ -441,9 +546,11 @@ function combine(result: Sums, smooth: Sums, flat: Sums, flatPrev: Sums | null, 
   result.gsca = smooth.gsca + r(flat.gsca, flatPrev?.gsca ?? 0)
   if (frozenUp) {
     result.angSca = frozenUp.angSca
+    result.angG = frozenUp.angG
     result.up.set(frozenUp.up)
   } else {
     result.angSca = smooth.angSca + r(flat.angSca, flatPrev?.angSca ?? 0)
+    result.angG = smooth.angG + r(flat.angG, flatPrev?.angG ?? 0)
     for (let j = 0; j < result.up.length; j++) result.up[j] = smooth.up[j] + r(flat.up[j], flatPrev?.up[j] ?? 0)
   }
   if (!result.user11) return
@@ -466,6 +573,7 @@ function addInto(into: Sums, s: Sums): void {
   into.abs += s.abs
   into.gsca += s.gsca
   into.angSca += s.angSca
+  into.angG += s.angG
   into.userSca += s.userSca
   for (let j = 0; j < into.up.length; j++) into.up[j] += s.up[j]
   if (into.user11 && s.user11) {
@@ -474,6 +582,12 @@ function addInto(into: Sums, s: Sums): void {
       into.user12![j] += s.user12![j]
     }
   }
+}
+
+/** The populations ordered by their largest size, largest first (a stable order for equal ones). */
+function byLargestFirst(populations: readonly Population[]): readonly Population[] {
+  const top = (p: Population) => p.segments.reduce((m, sg) => Math.max(m, sg.hi), -Infinity)
+  return populations.length < 2 ? populations : [...populations].sort((a, b) => top(b) - top(a))
 }
 
 /** The coarsest lattice step: a power of two from 1/64 to 64 (anything else is a programming error). */
@@ -518,7 +632,9 @@ export function* bulkOpticsSteps(populations: readonly Population[], wavelengthU
   const before = ws.evaluations
   let level = 0
   let converged = true
-  for (const pop of populations) {
+  // Largest particles first: where populations share their particles' context, the one that needs a node's
+  // angular row most (a coarse mode's tail) computes it, and the others find it (see addNode).
+  for (const pop of byLargestFirst(populations)) {
     const r = yield* integratePopulation(pop, wavelengthUm, cond, opts, ws, total)
     level = Math.max(level, r.level)
     converged &&= r.converged
@@ -527,6 +643,9 @@ export function* bulkOpticsSteps(populations: readonly Population[], wavelengthU
   // Each population's angular sums come with its own σsca from the same nodes; the total's ratio
   // uses their sum.
   const up = upscatterFrom(total.up, total.angSca, lambda2, new Float64Array(UPSCATTER_COS_ZENITH.length))
+  const g = total.sca > 0 ? total.gsca / total.sca : 0
+  // The control variate where g is held to the default accuracy or better (module comment).
+  if (opts.upscatter && total.angSca > 0 && opts.tolerance <= DEFAULT_TOLERANCE) shiftToAsymmetry(up, total.angG / total.angSca, g)
   let phase: Float64Array | null = null
   let polarization: Float64Array | null = null
   if (total.user11) {
@@ -545,7 +664,7 @@ export function* bulkOpticsSteps(populations: readonly Population[], wavelengthU
     ext: total.ext,
     sca: total.sca,
     abs: total.abs,
-    g: total.sca > 0 ? total.gsca / total.sca : 0,
+    g,
     backscatter: opts.upscatter ? up.b : NaN,
     upscatterMean: opts.upscatter ? up.mean : NaN,
     upscatter: opts.upscatter ? up.beta : up.beta.fill(NaN),

@@ -52,8 +52,11 @@ describe('integration range', () => {
         expect(Math.abs(q.sca / f.sca - 1)).toBeLessThan(1e-2)
         expect(Math.abs(q.abs - f.abs) / f.ext).toBeLessThan(1e-2)
         expect(Math.abs(q.g - f.g)).toBeLessThan(1e-2)
-        expect(Math.abs(q.backscatter_fraction / f.backscatter_fraction - 1)).toBeLessThan(1e-2)
-        expect(Math.abs(q.upscatter_fraction / f.upscatter_fraction - 1)).toBeLessThan(1e-2)
+        // b and β̄ are fractions, held like g in absolute terms (README). The quick pass's angular sums stop at
+        // level 2 without the control variate; the full pass's go further (integrate.ts), so their difference
+        // is the quick pass's own error, up to about 1e-3 on this lossless coarse sample.
+        expect(Math.abs(q.backscatter_fraction - f.backscatter_fraction)).toBeLessThan(1e-2)
+        expect(Math.abs(q.upscatter_fraction - f.upscatter_fraction)).toBeLessThan(1e-2)
       })
     })
   }
