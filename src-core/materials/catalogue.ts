@@ -161,8 +161,9 @@ const BC_ROWS: readonly Row[] = FULL_GRID.map((wl): Row => {
 // polyol (O:C = 1) with the O–H band near 3 µm, the C–H band near 3.4 µm and the strong C–O bands at 9.2–9.7 µm
 // and 11.3 µm, inside the 8–13 µm window, and broad absorption beyond 14 µm. Its limits: it has no C=O band (the
 // carbonyl and carboxyl groups of aged organics absorb near 5.8 µm), it is more oxygenated than most ambient organic
-// aerosol (O:C ≈ 0.2–0.8, Aiken et al. 2008, Environ. Sci. Technol. 42:4478, from memory), it is a liquid, and its n (1.41 at 2.5 µm) is below the 1.53 held to 2.5 µm, a step at the
-// junction between the 2.5 µm row and the copy's first row beyond it (2.503 µm).
+// aerosol (O:C ≈ 0.2–0.8, Aiken et al. 2008, Environ. Sci. Technol. 42:4478, from memory), it is a liquid, and its
+// n (1.41 at 2.5 µm) is below the 1.53 held to 2.5 µm, a step at the junction between the 2.5 µm row and the copy's
+// first row beyond it (2.503 µm).
 const OM_SRC = '1.53 + 0i, wavelength-independent over 0.2–2.5 µm (common practice)'
 const EG_OM_PUB = 'liquid ethylene glycol standing in for organic matter beyond 2.5 µm: Sani & Dell\'Oro 2014, Optical Materials 37:36 (corrigendum 2015, Optical Materials 48:281)'
 const OM_ROWS: readonly Row[] = [
