@@ -41,6 +41,8 @@ USES = [
     ('WATER_HALE', 'water-Hale.yml', 'database/data-nk/main/H2O/Hale.yml', 0.2, 40.0, 0.003, 0.0, 0.05),
     ('NACL_QUERRY', 'NaCl-Querry.yml', 'database/data-nk/main/NaCl/Querry.yml', 2.5, 40.0, 0.003, 0.002, 0.1),
     ('ILLITE_QUERRY', 'illite-Querry.yml', 'database/data-nk/other/clays/illite/Querry.yml', 2.5, 40.0, 0.02, 0.01, 0.1),
+    ('ETHYLENE_GLYCOL_SANI', 'ethylene-glycol-Sani.yml', 'database/data-nk/organic/C2H6O2 - ethylene glycol/Sani.yml', 2.5, 40.0,
+     0.003, 0.0005, 0.1),
 ]
 
 

@@ -14,7 +14,7 @@
  */
 import { InputError } from '../errors.ts'
 import { buildTableIndex, type Material, type PhaseChange } from './material.ts'
-import { ILLITE_QUERRY, NACL_QUERRY, WATER_HALE, type ReadTable } from './readTables.ts'
+import { ETHYLENE_GLYCOL_SANI, ILLITE_QUERRY, NACL_QUERRY, WATER_HALE, type ReadTable } from './readTables.ts'
 import {
   AN_IR_BEYOND, AN_IR_BEYOND_ROWS, AN_IR_ROWS, AN_IR_SRC, AS_IR_ROWS, AS_IR_SRC, BC_IR_BEYOND, BC_IR_SRC, IR_GRID,
   SA_IR_BEYOND, SA_IR_BEYOND_ROWS, SA_IR_ROWS, SA_IR_SRC, sootIndexCC1990
@@ -39,8 +39,10 @@ interface Entry {
 
 /** The standard grid (0.3–2.5 µm) for components whose source is smooth or nearly constant. */
 const GRID = [0.3, 0.35, 0.4, 0.45, 0.5, 0.55, 0.6, 0.65, 0.7, 0.8, 0.9, 1.0, 1.2, 1.5, 2.0, 2.5] as const
-/** The same grid from 0.2 µm through the thermal infrared to 40 µm. */
-const FULL_GRID = [0.2, 0.25, ...GRID, ...IR_GRID] as const
+/** The standard grid from 0.2 µm. */
+const UV_GRID = [0.2, 0.25, ...GRID] as const
+/** The same grid through the thermal infrared to 40 µm. */
+const FULL_GRID = [...UV_GRID, ...IR_GRID] as const
 
 /** Rows of a read table, each citing its publication and the database file it was read from. */
 function readRows(t: ReadTable, publication: string): Row[] {
@@ -150,13 +152,24 @@ const BC_ROWS: readonly Row[] = FULL_GRID.map((wl): Row => {
 })
 
 // ---------------------------------------------------------------------------------------------------------------
-// Organic matter (non-absorbing, "white" organic carbon): 1.53 + 0i at all wavelengths (common practice; e.g.
-// the value used for non-absorbing organics in many global models). Held through the thermal infrared as well
-// (this catalogue's assumption, and a poor one: real organic matter absorbs in the C–H band near 3.4 µm, the C=O
-// band near 5.8 µm and the C–O bands near 8–10 µm; no open table was found).
-const OM_SRC = '1.53 + 0i, wavelength-independent (common practice)'
-const OM_IR = '1.53 + 0i held beyond 2.5 µm (this catalogue\'s assumption; the infrared bands of organics are not represented)'
-const OM_ROWS: readonly Row[] = FULL_GRID.map((wl): Row => (wl <= 2.5 ? [wl, 1.53, 0] : [wl, 1.53, 0, OM_IR]))
+// Organic matter (non-absorbing, "white" organic carbon): 1.53 + 0i over 0.2–2.5 µm (common practice; e.g. the
+// value used for non-absorbing organics in many global models).
+// Beyond 2.5 µm: liquid ethylene glycol, Sani, E. & Dell'Oro, A. (2014), "Optical constants of ethylene glycol over
+// an extremely wide spectral range", Optical Materials 37:36 (corrigendum 2015, Optical Materials 48:281), read from
+// the refractiveindex.info database copy. No open table of organic aerosol itself (secondary, humic-like or
+// biomass-burning organic matter) was found there; ethylene glycol stands in for it as a small, highly oxygenated
+// polyol (O:C = 1) with the O–H band near 3 µm, the C–H band near 3.4 µm and the strong C–O bands at 9.2–9.7 µm
+// and 11.3 µm, inside the 8–13 µm window, and broad absorption beyond 14 µm. Its limits: it has no C=O band (the
+// carbonyl and carboxyl groups of aged organics absorb near 5.8 µm), it is more oxygenated than most ambient organic
+// aerosol (O:C ≈ 0.2–0.8, Aiken et al. 2008, Environ. Sci. Technol. 42:4478, from memory), it is a liquid, and its
+// n (1.41 at 2.5 µm) is below the 1.53 held to 2.5 µm, a step at the junction between the 2.5 µm row and the copy's
+// first row beyond it (2.503 µm).
+const OM_SRC = '1.53 + 0i, wavelength-independent over 0.2–2.5 µm (common practice)'
+const EG_OM_PUB = 'liquid ethylene glycol standing in for organic matter beyond 2.5 µm: Sani & Dell\'Oro 2014, Optical Materials 37:36 (corrigendum 2015, Optical Materials 48:281)'
+const OM_ROWS: readonly Row[] = [
+  ...UV_GRID.map((wl): Row => [wl, 1.53, 0]),
+  ...readRows(ETHYLENE_GLYCOL_SANI, EG_OM_PUB)
+]
 
 // ---------------------------------------------------------------------------------------------------------------
 // Brown carbon. k follows a power law k(λ) = 0.168 (λ / 0.35 µm)^−4. The anchor k = 0.168 at 350 nm is the
@@ -168,14 +181,13 @@ const OM_ROWS: readonly Row[] = FULL_GRID.map((wl): Row => (wl <= 2.5 ? [wl, 1.5
 const BRC_K350 = 0.168
 const BRC_W = 4
 const BRC_SRC = 'k = 0.168 (λ/0.35 µm)^−4: anchor Kirchstetter, Novakov & Hobbs 2004, J. Geophys. Res. 109:D21208 (from memory); exponent chosen for an absorption Ångström exponent ≈ 5 (Kirchstetter et al. 2004; Sun, Biedermann & Bond 2007, Geophys. Res. Lett. 34:L17813; from memory); n = 1.55 (common practice)'
-// Beyond 2.5 µm the power law is continued (this catalogue's assumption, and a poor one: it makes brown carbon
-// transparent in the thermal infrared, where organics have absorption bands; no open table was found).
-const BRC_IR = 'power law and n = 1.55 continued beyond 2.5 µm (this catalogue\'s assumption; the infrared bands of organics are not represented)'
+// Beyond 2.5 µm the power law's absorption has faded (k < 7e-5 at 2.5 µm) and the bands of the organic stand-in take
+// over: the ethylene glycol rows of organic matter above, n and k as read (this catalogue's assumption: brown carbon's
+// infrared bands are those of organic matter; n steps from 1.55 to 1.41 at the junction).
+const EG_BRC_PUB = 'liquid ethylene glycol standing in for brown carbon beyond 2.5 µm, where the power law\'s absorption has faded (this catalogue\'s assumption: the infrared bands of organic matter): Sani & Dell\'Oro 2014, Optical Materials 37:36 (corrigendum 2015, Optical Materials 48:281)'
 function brownCarbonRows(): Row[] {
-  return FULL_GRID.map((wl): Row => {
-    const k = BRC_K350 * Math.pow(wl / 0.35, -BRC_W)
-    return wl <= 2.5 ? [wl, 1.55, k] : [wl, 1.55, k, BRC_IR]
-  })
+  const visible = UV_GRID.map((wl): Row => [wl, 1.55, BRC_K350 * Math.pow(wl / 0.35, -BRC_W)])
+  return [...visible, ...readRows(ETHYLENE_GLYCOL_SANI, EG_BRC_PUB)]
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -310,7 +322,8 @@ const ENTRIES: readonly Entry[] = [
     densityGcm3: 1.4,
     densitySource: 'secondary organic matter ≈ 1.4 g cm⁻³ (common practice)',
     kappa: 0.1,
-    kappaSource: 'typical secondary organic aerosol, within the 0.01–0.5 range of Petters & Kreidenweis 2007, Atmos. Chem. Phys. 7:1961 (common practice)'
+    kappaSource: 'typical secondary organic aerosol, within the 0.01–0.5 range of Petters & Kreidenweis 2007, Atmos. Chem. Phys. 7:1961 (common practice)',
+    notes: 'Non-absorbing over 0.2–2.5 µm only; beyond 2.5 µm it takes the infrared bands of liquid ethylene glycol (Sani & Dell\'Oro 2014), a stand-in for organic aerosol.'
   },
   {
     id: 'brown-carbon',
@@ -320,7 +333,8 @@ const ENTRIES: readonly Entry[] = [
     densityGcm3: 1.5,
     densitySource: 'biomass-burning organic matter ≈ 1.5 g cm⁻³ (common practice)',
     kappa: 0.1,
-    kappaSource: 'biomass-burning organic aerosol, within the 0.01–0.5 range of Petters & Kreidenweis 2007, Atmos. Chem. Phys. 7:1961 (common practice)'
+    kappaSource: 'biomass-burning organic aerosol, within the 0.01–0.5 range of Petters & Kreidenweis 2007, Atmos. Chem. Phys. 7:1961 (common practice)',
+    notes: 'Beyond 2.5 µm, where the power law\'s absorption has faded, it takes the infrared bands of liquid ethylene glycol (Sani & Dell\'Oro 2014), the catalogue\'s stand-in for organic aerosol.'
   },
   {
     id: 'mineral-dust',

@@ -62,5 +62,5 @@ export function sootIndexCC1990(wavelengthUm: number): [number, number] {
   return [Math.round(n * 1e4) / 1e4, Math.round(k * 1e4) / 1e4]
 }
 
-/** Wavelengths (µm) beyond 2.5 µm at which smooth components (black carbon, organics) are tabulated. */
+/** Wavelengths (µm) beyond 2.5 µm at which a smooth component (black carbon's dispersion fit) is tabulated. */
 export const IR_GRID = [3, 3.5, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 17.5, 20, 25, 30, 35, 40] as const

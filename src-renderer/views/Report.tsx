@@ -187,7 +187,8 @@ export function Report() {
             {LONGWAVE_METHOD} The layer’s infrared optics are the same size integration at 20 wavelengths from 4 to 40 µm, averaged over 12 bands. The verdict rests on the net: the
             thin-layer sunlight figure plus the infrared figure at the top of the atmosphere. Assumptions and limits: the gases’ band transmittances are stated, rough screening values
             (the weakest part); the lapse rate, tropopause and water-vapour profile are fixed; the layer’s infrared indices of ammonium sulfate, ammonium nitrate, sulfuric acid and black carbon
-            are recalled from published tables (from memory), and organics are taken as transparent beyond 2.5 µm.
+            are recalled from published tables (from memory); organic matter and brown carbon take, beyond 2.5 µm, the bands of liquid ethylene glycol (Sani and Dell’Oro
+            2014, Optical Materials 37, 36–41), a stand-in for organic aerosol that has its C–O bands in the 8–13 µm window but no carbonyl band.
           </p>
           <ol>
             {REFERENCES.map((r, k) => (

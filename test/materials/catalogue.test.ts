@@ -173,7 +173,7 @@ describe('catalogue values against the literature', () => {
     expect(aae).toBeLessThan(6)
   })
 
-  it('organic matter: non-absorbing, n ≈ 1.53 (common practice)', () => {
+  it('organic matter: non-absorbing in sunlight, n ≈ 1.53 at 550 nm (common practice; its infrared is read-tables.test.ts\'s)', () => {
     const m = refractiveIndexAt(getMaterial('organic-matter'), 0.55)
     expect(m.n).toBeCloseTo(1.53, 10)
     expect(m.k).toBe(0)

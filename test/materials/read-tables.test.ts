@@ -30,11 +30,15 @@ function readCopy(name: string): Copy {
 
 // id, copy file, database path, author in the copy's REFERENCES, stretch of the catalogue it supplies (µm), and the
 // tolerance of the interpolation between kept rows: |Δn| <= tn, |Δk| <= tkAbs + tkRel·k (the generator's stated
-// tolerances; the copies' own precision is 0.001 in n, and 0.001 in k for the Querry 1987 tables)
+// tolerances; the copies' own precision is 0.001 in n, and 0.001 in k for the Querry 1987 tables; 0.0001 in n and
+// four figures in k for Sani & Dell'Oro 2014)
 const CASES = [
   { id: 'water', file: 'water-Hale.yml', path: 'database/data-nk/main/H2O/Hale.yml', author: 'Hale', lo: 0.2, hi: 40, tn: 0.003, tkAbs: 0, tkRel: 0.05 },
   { id: 'sea-salt', file: 'NaCl-Querry.yml', path: 'database/data-nk/main/NaCl/Querry.yml', author: 'Querry', lo: 2.5, hi: 40, tn: 0.003, tkAbs: 0.002, tkRel: 0.1 },
-  { id: 'mineral-dust', file: 'illite-Querry.yml', path: 'database/data-nk/other/clays/illite/Querry.yml', author: 'Querry', lo: 2.5, hi: 40, tn: 0.02, tkAbs: 0.01, tkRel: 0.1 }
+  { id: 'mineral-dust', file: 'illite-Querry.yml', path: 'database/data-nk/other/clays/illite/Querry.yml', author: 'Querry', lo: 2.5, hi: 40, tn: 0.02, tkAbs: 0.01, tkRel: 0.1 },
+  // ethylene glycol (Sani & Dell'Oro 2014) stands in for both organic components beyond 2.5 µm
+  { id: 'organic-matter', file: 'ethylene-glycol-Sani.yml', path: 'database/data-nk/organic/C2H6O2 - ethylene glycol/Sani.yml', author: 'Sani', lo: 2.5, hi: 40, tn: 0.003, tkAbs: 0.0005, tkRel: 0.1 },
+  { id: 'brown-carbon', file: 'ethylene-glycol-Sani.yml', path: 'database/data-nk/organic/C2H6O2 - ethylene glycol/Sani.yml', author: 'Sani', lo: 2.5, hi: 40, tn: 0.003, tkAbs: 0.0005, tkRel: 0.1 }
 ]
 
 describe('catalogue against the saved optical-constant copies (refractiveindex.info database, CC0)', () => {
