@@ -63,7 +63,8 @@ export function binOpticsKernels(
     const gsca = new Float64Array(n)
     for (let i = 0; i < n; i++) {
       const pop = { label: `bin ${i + 1}`, kind, segments: [{ lo: Math.log(edges[i]), hi: Math.log(edges[i + 1]), flat: true, density: unit }] }
-      const r = bulkOpticsAt([pop], wl / 1000, cond, { tolerance: options.tolerance }, ws)
+      // the kernels hold σext, σsca, σabs and g·σsca only: no angular sums
+      const r = bulkOpticsAt([pop], wl / 1000, cond, { tolerance: options.tolerance, upscatter: false }, ws)
       ext[i] = r.ext
       sca[i] = r.sca
       abs[i] = r.abs
