@@ -106,8 +106,10 @@ export {
   resolveFilePath,
   rebaseCampaignPaths,
   textFingerprint,
+  sampledFingerprint,
   wholeTextFingerprint,
   fileChange,
+  FINGERPRINT_SPAN,
   WHOLE_FINGERPRINT
 } from './campaign-settings.ts'
 export {

@@ -1,18 +1,23 @@
-// The campaign's record computed off the page's thread: the files' texts in, the record's typed arrays out
-// (transferred, not copied). All the work is src-core's buildCampaignRecord.
+// The campaign's record computed off the page's thread: the files in (their texts from the desktop; on a web page
+// the files themselves, read as bytes here, so the page neither decodes a year of rows nor copies its text), the
+// record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
 import { buildCampaignRecord, InputError, type CampaignBuild, type CampaignInput, type CampaignSettings, type Study } from '../../src-core/index.ts'
 
-export type ToRecordWorker = { job: number; inputs: CampaignInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
+/** A file as the page sends it: its text, or the file to read here; `size` is the text's length (the page's key). */
+export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { size: number } & ({ text: string } | { blob: Blob })
+export type ToRecordWorker = { job: number; inputs: RecordWorkerInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
 export type FromRecordWorker =
   | { job: number; type: 'progress'; share: number }
   | { job: number; type: 'done'; build: CampaignBuild; ms: number }
   | { job: number; type: 'failed'; message: string; fix: string }
 
-self.onmessage = (e: MessageEvent<ToRecordWorker>) => {
-  const { job, inputs, settings, study } = e.data
+self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
+  const { job, settings, study } = e.data
   const started = performance.now()
   const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer)
   try {
+    // the three files' bytes are fetched side by side; each is decoded as a whole (UTF-8, as File.text())
+    const inputs: CampaignInput[] = await Promise.all(e.data.inputs.map(async (i) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : await i.blob.text() })))
     let last = 0
     const build = buildCampaignRecord(inputs, settings, study, {
       onProgress: (share) => {

@@ -108,7 +108,7 @@ function Files(p: { c: CampaignSettings | undefined }) {
   const files = p.c?.files ?? []
   const add = async () => {
     const got = await host().openInstrumentFiles()
-    if (got) addFiles(got)
+    if (got) await addFiles(got)
   }
   return (
     <section class="record-files" aria-label="Instrument files">
