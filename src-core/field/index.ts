@@ -119,7 +119,7 @@ export {
   readCampaignSizer,
   readCampaignInstrument
 } from './campaign-read.ts'
-export { type CampaignRecord, type CampaignBuild, figureColumns, buildCampaignRecord } from './campaign.ts'
+export { type CampaignRecord, type CampaignBuild, figureColumns, buildCampaignRecord, chartWavelengthsNm, completeRecord, recordComplete } from './campaign.ts'
 export {
   RECORD_SERIES,
   type RecordSeriesName,

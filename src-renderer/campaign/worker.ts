@@ -19,7 +19,9 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
     // the three files' bytes are fetched side by side; each is decoded as a whole (UTF-8, as File.text())
     const inputs: CampaignInput[] = await Promise.all(e.data.inputs.map(async (i) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : await i.blob.text() })))
     let last = 0
+    // the figures at the wavelengths the charts draw; the export computes the others (recordCsv, completeRecord)
     const build = buildCampaignRecord(inputs, settings, study, {
+      figures: 'charts',
       onProgress: (share) => {
         const now = performance.now()
         if (now - last > 100) post({ job, type: 'progress', share })
