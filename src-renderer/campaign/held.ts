@@ -1,10 +1,14 @@
 // An instrument file as the page holds it: the desktop gives its text (read in the main process), the web page the
-// file itself, which the page reads only to measure it (its length, its two ends for the fingerprint and the kind)
-// and never decodes whole or copies to the worker: the record's worker reads its bytes (campaign/worker.ts).
+// file itself, which the page never decodes whole nor copies to the worker: the record's worker reads it and tells
+// the page its length, beginning and fingerprint (`measure`, campaign/worker.ts); without that worker (or when it
+// fails) the page measures the file from its bytes here.
 import { FINGERPRINT_SPAN, sampledFingerprint, textFingerprint } from '../../src-core/index.ts'
 import type { InstrumentFile } from '../../src-main/host-api.ts'
+import type { MeasuredFile } from './worker.ts'
 
 export interface HeldFile {
+  /** This session's number for the file (the worker that measured it keeps its text by it). */
+  serial: number
   name: string
   path?: string
   /** The whole text (desktop; or a web page's file that is not plain ASCII, decoded here). */
@@ -19,8 +23,12 @@ export interface HeldFile {
   fingerprint: string
 }
 
+let serials = 0
+/** A new serial for a file to hold. */
+export const nextSerial = (): number => ++serials
+
 function fromText(name: string, text: string, path?: string, whole?: string): HeldFile {
-  return { name, ...(path !== undefined ? { path } : {}), text, size: text.length, head: text.slice(0, FINGERPRINT_SPAN), fingerprint: whole ?? textFingerprint(text) }
+  return { serial: nextSerial(), name, ...(path !== undefined ? { path } : {}), text, size: text.length, head: text.slice(0, FINGERPRINT_SPAN), fingerprint: whole ?? textFingerprint(text) }
 }
 
 /** True when every byte is below 0x80 (then the text has one UTF-16 unit per byte). */
@@ -34,12 +42,14 @@ function plainAscii(bytes: Uint8Array): boolean {
 }
 
 /**
- * The file as the page keeps it. A file of plain ASCII (the instruments' exports) is measured from its bytes: its
+ * The file as the page keeps it: with what the worker measured of it (`measured`), or else measured here. A file of plain ASCII (the instruments' exports) is measured from its bytes: its
  * length is its byte count, and its two ends give the same sampled fingerprint as the decoded text would. Any other
  * (a byte-order mark, accented names in a header) is decoded here, as the whole text was before.
  */
-export async function holdFile(f: InstrumentFile): Promise<HeldFile> {
+export async function holdFile(f: InstrumentFile, measured?: MeasuredFile): Promise<HeldFile> {
   if ('text' in f) return fromText(f.name, f.text, f.path, f.fingerprint)
+  const path = f.path !== undefined ? { path: f.path } : {}
+  if (measured) return { serial: measured.serial, name: f.name, ...path, blob: f.blob, size: measured.size, head: measured.head, fingerprint: measured.fingerprint }
   const bytes = new Uint8Array(await f.blob.arrayBuffer())
   if (!plainAscii(bytes)) return fromText(f.name, new TextDecoder().decode(bytes), f.path)
   const n = bytes.length
@@ -47,5 +57,5 @@ export async function holdFile(f: InstrumentFile): Promise<HeldFile> {
   const ascii = new TextDecoder()
   const head = ascii.decode(bytes.subarray(0, headEnd))
   const tail = ascii.decode(bytes.subarray(Math.max(headEnd, n - FINGERPRINT_SPAN)))
-  return { name: f.name, ...(f.path !== undefined ? { path: f.path } : {}), blob: f.blob, size: n, head, fingerprint: sampledFingerprint(n, head, tail) }
+  return { serial: nextSerial(), name: f.name, ...path, blob: f.blob, size: n, head, fingerprint: sampledFingerprint(n, head, tail) }
 }

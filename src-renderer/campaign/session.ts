@@ -21,9 +21,9 @@ import type { InstrumentFile } from '../../src-main/host-api.ts'
 import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
-import type { FromRecordWorker, ToRecordWorker } from './worker.ts'
+import type { FromRecordWorker, MeasuredFile, RecordWorkerInput, ToRecordWorker } from './worker.ts'
 import { warmStretchNodes } from './warm.ts'
-import { holdFile, type HeldFile } from './held.ts'
+import { holdFile, nextSerial, type HeldFile } from './held.ts'
 
 export type { HeldFile }
 
@@ -76,8 +76,7 @@ export function guessKind(name: string, text: string): CampaignFileKind {
 /** Adds files to the campaign (one per kind: a file of a kind already present replaces it). */
 export async function addFiles(chosen: InstrumentFile[]): Promise<void> {
   if (chosen.length === 0) return
-  spareWorker()
-  const files = await Promise.all(chosen.map(holdFile))
+  const files = await holdFiles(chosen)
   const s = store().get()
   const texts = { ...session.get().texts }
   const missing = { ...session.get().missing }
@@ -105,7 +104,7 @@ export async function addFiles(chosen: InstrumentFile[]): Promise<void> {
 export async function pointAgain(index: number): Promise<void> {
   const chosen = await host().openInstrumentFiles()
   if (!chosen || chosen.length === 0) return
-  const f = await holdFile(chosen[0])
+  const [f] = await holdFiles(chosen.slice(0, 1))
   const s = store().get()
   const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
   const old = s.study.campaign?.files[index]?.path
@@ -201,9 +200,45 @@ function stopWorker(): void {
   worker = null
 }
 
+const newWorker = (): Worker => new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
+
 function spareWorker(): void {
   if (typeof Worker === 'undefined') return // tests of the session without a page
-  spare ??= new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
+  spare ??= newWorker()
+}
+
+/** Starts a record worker ahead (the station record shown without files yet), so that adding files need not wait for its script. */
+export const prepareRecordWorker = (): void => spareWorker()
+
+/**
+ * Holds chosen files: a web page's are measured by a record worker, which reads them (and then keeps their texts
+ * for the record it is asked for next: it becomes the spare worker), so the page reads none of a year of rows; where
+ * that worker is not there or fails, the page measures them itself (held.ts).
+ */
+async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
+  const blobs = chosen.flatMap((f) => ('blob' in f ? [{ serial: nextSerial(), blob: f.blob }] : []))
+  let measured: MeasuredFile[] | null = null
+  if (blobs.length > 0 && typeof Worker !== 'undefined') {
+    const w = spare ?? newWorker()
+    spare = null // this one is busy until it answers; a refresh meanwhile starts another
+    measured = await new Promise<MeasuredFile[] | null>((resolve) => {
+      const id = nextSerial()
+      const on = (e: MessageEvent<FromRecordWorker>) => {
+        if (e.data.type !== 'measured' || e.data.id !== id) return
+        w.removeEventListener('message', on)
+        resolve(e.data.files)
+      }
+      w.addEventListener('message', on)
+      w.addEventListener('error', () => resolve(null), { once: true })
+      w.postMessage({ type: 'measure', id, files: blobs } satisfies ToRecordWorker)
+    })
+    if (measured) {
+      ;(spare as Worker | null)?.terminate() // started meanwhile, without these texts
+      spare = w
+    } else w.terminate()
+  }
+  let b = 0
+  return Promise.all(chosen.map((f) => ('blob' in f ? holdFile(f, measured?.[b++]) : holdFile(f))))
 }
 
 /** Stops the running computation (the last record, if any, stays). */
@@ -235,13 +270,13 @@ async function start(force: boolean): Promise<void> {
     return
   }
   const { texts } = session.get()
-  const inputs: ToRecordWorker['inputs'] = c.files.filter((f) => texts[f.path]).map((f) => {
+  const inputs: RecordWorkerInput[] = c.files.filter((f) => texts[f.path]).map((f) => {
     const held = texts[f.path]
-    return { kind: f.kind, name: held.name, size: held.size, ...(held.text !== undefined ? { text: held.text } : { blob: held.blob! }) }
+    return { kind: f.kind, name: held.name, serial: held.serial, ...(held.text !== undefined ? { text: held.text } : { blob: held.blob! }) }
   })
   const sample = study.samples.find((x) => x.name === c.sample)
   // the paths are left out of the key (a save that makes them relative to the study file changes no file)
-  const key = JSON.stringify([{ ...c, files: c.files.map((f) => ({ ...f, path: '' })) }, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.size}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
+  const key = JSON.stringify([{ ...c, files: c.files.map((f) => ({ ...f, path: '' })) }, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => i.serial)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
   if (key === lastKey && !force) return
   lastKey = key
   if (!inputs.some((i) => isSizerKind(i.kind))) {
@@ -257,7 +292,7 @@ async function start(force: boolean): Promise<void> {
   session.set({ running: true, share: 0, failure: null })
   w.onmessage = (e: MessageEvent<FromRecordWorker>) => {
     const m = e.data
-    if (m.job !== mine) return
+    if (m.type === 'measured' || m.job !== mine) return
     if (m.type === 'progress') return session.set({ share: m.share })
     stopWorker()
     if (m.type === 'failed') return session.set({ running: false, failure: m.message })
@@ -269,7 +304,7 @@ async function start(force: boolean): Promise<void> {
     stopWorker()
     session.set({ running: false, failure: `The computation stopped (${e.message || 'worker failure'}). Press “Compute again”.` })
   }
-  w.postMessage({ job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
+  w.postMessage({ type: 'record', job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
 }
 
 /**
