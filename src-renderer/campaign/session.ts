@@ -152,6 +152,7 @@ export function setKind(index: number, kind: CampaignFileKind): void {
 
 /** Changes a parameter of the campaign (merged with quick successive edits of the same one). */
 export function setParameter(change: (c: CampaignSettings) => void, key: string): void {
+  spareWorker() // its script loads during the wait for more typing
   edit((study) => {
     if (study.campaign) change(study.campaign)
   }, `campaign:${key}`)
@@ -189,7 +190,11 @@ async function readReferenced(): Promise<void> {
 // The record, computed in a worker (one at a time; a newer request ends the running one).
 
 let worker: Worker | null = null
-/** A worker started ahead (when files are added or a parameter changes), so its script loads meanwhile. */
+/**
+ * A worker started ahead (the view shown without files, files added, a parameter typed), so its script loads
+ * meanwhile. Not on every change of the study (`refresh`): a stretch made into a sample would then start one while
+ * the optics workers compute the sample.
+ */
 let spare: Worker | null = null
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
@@ -251,7 +256,6 @@ export function stopRecord(): void {
 /** Recomputes the record soon if what it depends on changed (files, parameters, the sample, wavelengths). */
 export function refresh(force = false, delayMs = 250): void {
   clearTimeout(timer)
-  spareWorker()
   timer = setTimeout(() => void start(force), delayMs)
 }
 
