@@ -35,6 +35,12 @@ export interface OpenedFile {
   fingerprint?: string
 }
 
+/**
+ * An instrument file of a campaign as the host gives it: its text (desktop, which reads it in the main process),
+ * or the file itself (web page: not read on the page; the record's worker reads its bytes).
+ */
+export type InstrumentFile = OpenedFile | { name: string; path?: string; blob: Blob }
+
 /** A recovery copy found at start-up. */
 export interface RecoveryCopy {
   text: string
@@ -71,7 +77,7 @@ export interface Host {
   /** Asks for a sizer export (CSV/TSV/text). */
   openSizerFile(): Promise<OpenedFile | null>
   /** Asks for one or more instrument files of a campaign (sizers, nephelometer, absorption photometer). */
-  openInstrumentFiles(): Promise<OpenedFile[] | null>
+  openInstrumentFiles(): Promise<InstrumentFile[] | null>
   /**
    * Reads an instrument file a study refers to, by its absolute path (desktop); `missing` says why it could not
    * be read (moved, renamed, or a web page, which cannot open a file by its path).

@@ -75,7 +75,7 @@ export function App() {
     const all = [...(e.dataTransfer?.files ?? [])]
     if (store().get().view === 'record') {
       // on the station record, every dropped file joins the campaign
-      void Promise.all(all.map(async (x) => ({ name: x.name, text: await x.text() }))).then(addFiles)
+      void addFiles(all.map((x) => ({ name: x.name, blob: x })))
       return
     }
     const f = all[0]

@@ -131,7 +131,7 @@ export function readSizer(file: OpenedFile): void {
 export async function addInstrumentFiles(): Promise<void> {
   showView('record')
   const got = await host().openInstrumentFiles()
-  if (got && got.length > 0) addFiles(got)
+  if (got && got.length > 0) await addFiles(got)
 }
 
 export async function importSizer(): Promise<void> {

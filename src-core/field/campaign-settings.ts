@@ -13,7 +13,7 @@
  * }
  */
 import { z } from 'zod'
-export { fileChange, textFingerprint, wholeTextFingerprint, WHOLE_FINGERPRINT } from './fingerprint.ts'
+export { fileChange, sampledFingerprint, textFingerprint, wholeTextFingerprint, FINGERPRINT_SPAN, WHOLE_FINGERPRINT } from './fingerprint.ts'
 
 /** What an instrument file holds: a sizer's distributions (or an already merged file), or measured coefficients. */
 export const CAMPAIGN_FILE_KINDS = ['mobility', 'aerodynamic', 'optical', 'merged', 'scattering', 'absorption'] as const

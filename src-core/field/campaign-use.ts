@@ -7,7 +7,7 @@ import { InputError } from '../errors.ts'
 import { angstromExponent } from '../optics/metrics.ts'
 import type { Sample } from '../study/model.ts'
 import { CAMPAIGN_KIND_WORDS } from './campaign-settings.ts'
-import type { CampaignRecord } from './campaign.ts'
+import { angstromPairNm, completeRecord, nearestScattering, type CampaignRecord } from './campaign.ts'
 import { absorptionAt } from './optical.ts'
 
 /** The figures the record's charts draw, each at the chosen wavelength unless its name says otherwise. */
@@ -51,21 +51,19 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
   const iG = col(`g_${w}nm`)
   const iN = col('dry_number_cm-3')
   const iM = col('dry_mass_ug_m-3')
-  const at = r.wavelengthsNm.indexOf(w)
-  const pair: [number, number] = [r.wavelengthsNm[Math.max(0, at - 1)], r.wavelengthsNm[Math.min(r.wavelengthsNm.length - 1, at + 1)]]
+  const pair = angstromPairNm(r.wavelengthsNm, w)
   const iLo = col(`ext_${pair[0]}nm_Mm-1`)
   const iHi = col(`ext_${pair[1]}nm_Mm-1`)
-  const scaCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'scattering')
   const absCh = r.channels.map((c, i) => ({ c, i })).filter((x) => x.c.quantity === 'absorption')
-  const nearest = scaCh.length > 0 ? scaCh.reduce((a, b) => (Math.abs(b.c.wavelengthNm - w) < Math.abs(a.c.wavelengthNm - w) ? b : a)) : undefined
-  const iScaAt = nearest ? col(`sca_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
+  const nearest = nearestScattering(r.channels, w)
+  const iScaAt = nearest ? col(`sca_${nearest.wavelengthNm}nm_Mm-1`) : -1
   // with the truncation correction on (campaign.truncation), the corrected measured scattering (RowComparer's)
-  const iScaCorr = nearest ? col(`sca_meas_corr_${nearest.c.wavelengthNm}nm_Mm-1`) : -1
+  const iScaCorr = nearest ? col(`sca_meas_corr_${nearest.wavelengthNm}nm_Mm-1`) : -1
   const absWl = absCh.map((x) => x.c.wavelengthNm)
   const absVals = new Float64Array(absCh.length)
   const width = r.columns.length
   const nc = r.channels.length
-  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.c.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN, scatteringCorrected: iScaCorr >= 0 }
+  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN, scatteringCorrected: iScaCorr >= 0 }
   const push = (t: number, row: number) => {
     out.x.push(t / 1000)
     out.row.push(row)
@@ -83,7 +81,7 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
     v.angstrom.push(finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1])))
     v.number.push(finite(r.cells[c + iN]))
     v.mass.push(finite(r.cells[c + iM]))
-    const sm = iScaCorr >= 0 ? r.cells[c + iScaCorr] : nearest ? r.measured[row * nc + nearest.i] : NaN
+    const sm = iScaCorr >= 0 ? r.cells[c + iScaCorr] : nearest ? r.measured[row * nc + nearest.index] : NaN
     v.sca_meas.push(finite(sm))
     v.sca_ratio.push(sm > 0 ? finite(r.cells[c + iScaAt] / sm) : null)
     for (let j = 0; j < absCh.length; j++) absVals[j] = r.measured[row * nc + absCh[j].i]
@@ -206,9 +204,11 @@ export const recordCell = (v: number): string => (Number.isFinite(v) ? String(Nu
 
 /**
  * The record as CSV, in the columns and number form of `motebench series` on the same files (its "#" lines
- * first when instruments are compared): the rows with a distribution whose start lies in [fromMs, toMs].
+ * first when instruments are compared): the rows with a distribution whose start lies in [fromMs, toMs]. A record
+ * made for its charts is completed first (completeRecord: every wavelength's figures).
  */
 export function recordCsv(r: CampaignRecord, fromMs = -Infinity, toMs = Infinity): string {
+  completeRecord(r)
   const lines = r.notes.map((x) => `# ${x}`)
   lines.push(['time', ...r.columns].join(','))
   const width = r.columns.length

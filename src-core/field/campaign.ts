@@ -8,9 +8,13 @@
  *
  * A step without a full distribution is a gap: `present[k]` is 0, its reason is in `gaps`, and the columns
  * the charts read (`recordColumn`) give null there, never a number.
+ *
+ * The app asks for the figures at the wavelengths its charts draw only (`figures: 'charts'`, chartWavelengthsNm):
+ * the other wavelengths' columns stay empty until `completeRecord` fills them (the CSV export does), with the same
+ * kernels and the same arithmetic, so the same numbers as a record computed whole.
  */
 import { InputError } from '../errors.ts'
-import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinLayout } from '../optics/binKernels.ts'
+import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinKernels, type BinLayout } from '../optics/binKernels.ts'
 import { OpticsWorkspace } from '../optics/integrate.ts'
 import type { Sample, Study } from '../study/model.ts'
 import { campaignProblems, isSizerKind, type CampaignSettings } from './campaign-settings.ts'
@@ -43,12 +47,17 @@ export interface CampaignRecord {
   dNdlogD: Float64Array
   /** Bin edges, µm. */
   edgesUm: Float64Array
-  /** The computed wavelengths (the study's, the chosen one and the instruments'), ascending. */
+  /** The record's wavelengths (the study's, the chosen one and the instruments'), ascending. */
   wavelengthsNm: number[]
+  /** Those whose figure columns are computed (all, or the charts' until `completeRecord`), ascending. */
+  figuresNm: number[]
   chosenNm: number
+  /** What `completeRecord` needs to compute the other wavelengths as these were: the materials and the tolerance. */
+  userMaterials: Study['user_materials']
+  tolerance: number
   /** The columns of `cells` (as `series` names them, after its `time`): figures, then the comparison. */
   columns: string[]
-  /** rows × columns; NaN for an empty cell (gaps, rows without a measured record). */
+  /** rows × columns; NaN for an empty cell (gaps, rows without a measured record, a wavelength not in `figuresNm`). */
   cells: Float64Array
   /** Measured channels and their per-row means (rows × channels, NaN: none). */
   channels: MeasuredChannel[]
@@ -173,7 +182,12 @@ function singleRows(s: ReadSizer): Rows {
  * out; without a readable sizer there is no record (`problem` says why). Throws InputError only for what no file
  * alone is to blame for (the study's sample or composition, clocks of different forms).
  */
-export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void } = {}): CampaignBuild {
+export function buildCampaignRecord(
+  inputs: readonly CampaignInput[],
+  settings: CampaignSettings,
+  study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>,
+  options: { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void; figures?: 'all' | 'charts' } = {}
+): CampaignBuild {
   const progress = options.onProgress ?? (() => {})
   const sample = study.samples.find((s) => s.name === settings.sample)
   if (!sample) throw new InputError('campaign.sample', `no sample is named "${settings.sample}"`, 'Choose the sample whose composition and humidity the record takes.')
@@ -214,11 +228,12 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
   const wavelengthsNm = [...new Set([...base, ...instrumentWavelengths(plan)])].sort((a, b) => a - b)
 
   const ws = options.workspace ?? new OpticsWorkspace()
+  const tolerance = options.tolerance ?? 1e-4
   const studyAt = { wavelengths_nm: wavelengthsNm, user_materials: study.user_materials }
-  const kernels = binOpticsKernels(sample, studyAt, rows.layout, { tolerance: options.tolerance ?? 1e-4, workspace: ws })
+  const figuresNm = options.figures === 'charts' ? chartWavelengthsNm(wavelengthsNm, settings.wavelength_nm, channels) : wavelengthsNm
+  const kernels = binOpticsKernels(sample, { ...studyAt, wavelengths_nm: figuresNm }, rows.layout, { tolerance, workspace: ws })
   progress(0.4)
-  const evaluate = binnedRowEvaluator(kernels, rows.layout)
-  const width = binnedRowWidth(kernels)
+  const width = binnedRowWidth({ wavelengthsNm })
   const compareCols = channels.length > 0 ? comparisonColumns(plan) : []
   const columns = [...figureColumns(wavelengthsNm), ...compareCols]
   const cells = new Float64Array(n * columns.length).fill(NaN)
@@ -245,7 +260,7 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
       f.summary.notes.push(`${used} records inside the record's rows, ${alignment.outside.get(f.summary.name) ?? 0} outside them`)
       if (used === 0) f.summary.notes.push('warning: no record falls inside a sizer row: check the two clocks (times, zone)')
     })
-    const comparer = new RowComparer(instrumentKernels(sample, studyAt, rows.layout, plan, { tolerance: options.tolerance ?? 1e-4, workspace: ws }), plan)
+    const comparer = new RowComparer(instrumentKernels(sample, studyAt, rows.layout, plan, { tolerance, workspace: ws }), plan)
     const m = new Float64Array(channels.length)
     const out = new Float64Array(compareCols.length)
     const row = new Float64Array(bins)
@@ -262,13 +277,8 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
   }
   const humidity = recordedHumidity(rows.timesMs, intervalMs, instruments, sizers)
   const dNdlogD = new Float64Array(n * bins)
-  const fig = new Float64Array(width)
   progress(0.8)
-  kept.forEach((k, i) => {
-    evaluate(rows.values, k * bins, fig, 0)
-    cells.set(fig, k * columns.length)
-    if (i % 4096 === 4095) progress(0.8 + (0.2 * i) / kept.length)
-  })
+  fillFigures(kernels, rows.layout, wavelengthsNm, rows.values, bins, kept, cells, columns.length, (i) => progress(0.8 + (0.2 * i) / kept.length))
   // dN/dlogD for the colour map: the layout's quantity turned by the same kernels' conversion (number weights)
   const toDn = quantityFactors(rows.layout, kernels.kind.densityGcm3)
   for (const k of kept) for (let j = 0; j < bins; j++) dNdlogD[k * bins + j] = rows.values[k * bins + j] * toDn[j]
@@ -288,7 +298,10 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
       dNdlogD,
       edgesUm: kernels.edgesUm,
       wavelengthsNm,
+      figuresNm: [...figuresNm],
       chosenNm: settings.wavelength_nm,
+      userMaterials: study.user_materials,
+      tolerance,
       columns,
       cells,
       channels,
@@ -298,6 +311,77 @@ export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: 
       ...humidity
     }
   }
+}
+
+/**
+ * The wavelengths whose figures the record's charts draw (recordSeries): the chosen one, the computed ones on either
+ * side of it (the Ångström exponent's pair) and the nephelometer's wavelength nearest it (its ratio), ascending.
+ */
+export function chartWavelengthsNm(wavelengthsNm: readonly number[], chosenNm: number, channels: readonly MeasuredChannel[]): number[] {
+  const at = wavelengthsNm.indexOf(chosenNm)
+  const want = [chosenNm, ...angstromPairNm(wavelengthsNm, chosenNm)]
+  const sca = nearestScattering(channels, chosenNm)
+  if (sca) want.push(sca.wavelengthNm)
+  return at < 0 ? [...wavelengthsNm] : wavelengthsNm.filter((w) => want.includes(w))
+}
+
+/** The Ångström exponent's wavelengths: the record's on either side of the chosen one (the chosen one at an end). */
+export function angstromPairNm(wavelengthsNm: readonly number[], chosenNm: number): [number, number] {
+  const at = wavelengthsNm.indexOf(chosenNm)
+  return [wavelengthsNm[Math.max(0, at - 1)], wavelengthsNm[Math.min(wavelengthsNm.length - 1, at + 1)]]
+}
+
+/** The scattering channel whose wavelength is nearest the chosen one (the first of two as near), with its index. */
+export function nearestScattering(channels: readonly MeasuredChannel[], chosenNm: number): (MeasuredChannel & { index: number }) | undefined {
+  let best: (MeasuredChannel & { index: number }) | undefined
+  channels.forEach((c, index) => {
+    if (c.quantity !== 'scattering') return
+    if (!best || Math.abs(c.wavelengthNm - chosenNm) < Math.abs(best.wavelengthNm - chosenNm)) best = { ...c, index }
+  })
+  return best
+}
+
+/**
+ * Each kept row's figures at the kernels' wavelengths, written into their columns of `cells` (`figureColumns` of
+ * `allNm`: five per wavelength, then the three totals), one evaluator for every row.
+ */
+function fillFigures(kernels: BinKernels, layout: BinLayout, allNm: readonly number[], values: Float64Array, bins: number, kept: readonly number[], cells: Float64Array, stride: number, progress: (i: number) => void): void {
+  const evaluate = binnedRowEvaluator(kernels, layout)
+  const fig = new Float64Array(binnedRowWidth(kernels))
+  const to = kernels.wavelengthsNm.map((w) => 5 * allNm.indexOf(w))
+  const totals = 5 * allNm.length
+  const contiguous = to.every((c, j) => c === 5 * j) && to.length === allNm.length
+  for (let i = 0; i < kept.length; i++) {
+    const k = kept[i]
+    const row = k * stride
+    if (contiguous) evaluate(values, k * bins, cells, row)
+    else {
+      evaluate(values, k * bins, fig, 0)
+      for (let j = 0; j < to.length; j++) for (let f = 0; f < 5; f++) cells[row + to[j] + f] = fig[5 * j + f]
+      cells[row + totals] = fig[5 * to.length]
+      cells[row + totals + 1] = fig[5 * to.length + 1]
+      cells[row + totals + 2] = fig[5 * to.length + 2]
+    }
+    if (i % 4096 === 4095) progress(i)
+  }
+}
+
+/** True when every wavelength's figures are in the record's cells. */
+export const recordComplete = (r: CampaignRecord): boolean => r.figuresNm.length === r.wavelengthsNm.length
+
+/**
+ * Computes the figures of a record made for its charts at its other wavelengths (into `cells`, in place), with the
+ * sample, materials and tolerance it was made with: the same kernels at those wavelengths and the same arithmetic as
+ * a record computed whole, so the same numbers. Nothing to do for a complete record.
+ */
+export function completeRecord(r: CampaignRecord, options: { workspace?: OpticsWorkspace } = {}): void {
+  const missing = r.wavelengthsNm.filter((w) => !r.figuresNm.includes(w))
+  if (missing.length === 0) return
+  const kernels = binOpticsKernels(r.sample, { wavelengths_nm: missing, user_materials: r.userMaterials }, r.layout, { tolerance: r.tolerance, workspace: options.workspace ?? new OpticsWorkspace() })
+  const kept: number[] = []
+  for (let k = 0; k < r.present.length; k++) if (r.present[k]) kept.push(k)
+  fillFigures(kernels, r.layout, r.wavelengthsNm, r.values, r.bins, kept, r.cells, r.columns.length, () => {})
+  r.figuresNm = [...r.wavelengthsNm]
 }
 
 /** The record's humidity from the files (see CampaignRecord.rh): the nephelometer's, else the first sizer's. */

@@ -11,7 +11,7 @@
  */
 
 /** Characters of a text's beginning and of its end that `textFingerprint` reads. */
-const FINGERPRINT_SPAN = 1 << 16
+export const FINGERPRINT_SPAN = 1 << 16
 const OFFSET = 0x811c9dc5
 const PRIME = 0x01000193
 const hex = (h: number): string => (h >>> 0).toString(16).padStart(8, '0')
@@ -21,17 +21,26 @@ export const WHOLE_FINGERPRINT = 'whole:'
 
 /** FNV-1a of the length, the first and the last FINGERPRINT_SPAN characters (see above). */
 export function textFingerprint(text: string): string {
+  const n = text.length
+  const head = Math.min(n, FINGERPRINT_SPAN)
+  return sampledFingerprint(n, text.slice(0, head), text.slice(Math.max(head, n - FINGERPRINT_SPAN)))
+}
+
+/**
+ * `textFingerprint` of a text known only by its length and its two ends (the web page, which reads no more of a
+ * year of rows than that): `head` its first min(length, FINGERPRINT_SPAN) characters, `tail` the characters
+ * after those among its last FINGERPRINT_SPAN. The same number as `textFingerprint` of the whole text.
+ */
+export function sampledFingerprint(length: number, head: string, tail: string): string {
   let h = OFFSET
   const mix = (c: number) => {
     h ^= c
     h = Math.imul(h, PRIME)
   }
-  const n = text.length
-  mix(n & 0xffff)
-  mix(n >>> 16)
-  const head = Math.min(n, FINGERPRINT_SPAN)
-  for (let i = 0; i < head; i++) mix(text.charCodeAt(i))
-  for (let i = Math.max(head, n - FINGERPRINT_SPAN); i < n; i++) mix(text.charCodeAt(i))
+  mix(length & 0xffff)
+  mix(length >>> 16)
+  for (let i = 0; i < head.length; i++) mix(head.charCodeAt(i))
+  for (let i = 0; i < tail.length; i++) mix(tail.charCodeAt(i))
   return hex(h)
 }
 

@@ -106,8 +106,10 @@ export {
   resolveFilePath,
   rebaseCampaignPaths,
   textFingerprint,
+  sampledFingerprint,
   wholeTextFingerprint,
   fileChange,
+  FINGERPRINT_SPAN,
   WHOLE_FINGERPRINT
 } from './campaign-settings.ts'
 export {
@@ -117,7 +119,7 @@ export {
   readCampaignSizer,
   readCampaignInstrument
 } from './campaign-read.ts'
-export { type CampaignRecord, type CampaignBuild, figureColumns, buildCampaignRecord } from './campaign.ts'
+export { type CampaignRecord, type CampaignBuild, figureColumns, buildCampaignRecord, chartWavelengthsNm, completeRecord, recordComplete } from './campaign.ts'
 export {
   RECORD_SERIES,
   type RecordSeriesName,

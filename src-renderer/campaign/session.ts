@@ -1,6 +1,7 @@
 // The campaign in the app: the study keeps references to the instrument files and the merge parameters
 // (study.campaign, undoable and saved); this session keeps the files' texts, which files could not be read or
-// changed, the record computed from them in a worker, the marked stretch and the visible range.
+// changed, the record computed from them in a worker, the marked stretch and the visible range. A web page holds
+// the files themselves, not their texts (held.ts): the worker reads them.
 import {
   CAMPAIGN_KIND_WORDS,
   campaignProblems,
@@ -10,32 +11,24 @@ import {
   rebaseCampaignPaths,
   resolveFilePath,
   stretchSample,
-  textFingerprint,
   fileChange,
   type CampaignBuild,
   type CampaignFileKind,
   type CampaignSettings,
   type Study
 } from '../../src-core/index.ts'
+import type { InstrumentFile } from '../../src-main/host-api.ts'
 import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
-import type { FromRecordWorker, ToRecordWorker } from './worker.ts'
+import type { FromRecordWorker, MeasuredFile, RecordWorkerInput, ToRecordWorker } from './worker.ts'
 import { warmStretchNodes } from './warm.ts'
+import { holdFile, nextSerial, type HeldFile } from './held.ts'
 
-export interface HeldFile {
-  name: string
-  path?: string
-  text: string
-  /** The desktop host's fingerprint of the whole text (absent: the page makes the sampled one). */
-  fingerprint?: string
-}
-
-/** The fingerprint a reference keeps: the host's whole-text one (desktop), else the sampled one made here. */
-const fingerprintOf = (f: HeldFile): string => f.fingerprint ?? textFingerprint(f.text)
+export type { HeldFile }
 
 export interface CampaignSession {
-  /** Texts read in this session, by the path the study keeps. */
+  /** Files read in this session (their texts, or on a web page the files themselves), by the path the study keeps. */
   texts: Record<string, HeldFile>
   /** Kept paths that could not be read: why. */
   missing: Record<string, string>
@@ -64,7 +57,10 @@ function freshSettings(study: Study): CampaignSettings {
   return { files: [], sample: study.samples[i]?.name ?? study.samples[0].name, wavelength_nm: wl, shape_factor: 1 }
 }
 
-/** What a file holds, from its header: measured coefficients by their column names, sizers by their diameter unit. */
+/**
+ * What a file holds, from its header (`text`: the file's beginning is enough): measured coefficients by their
+ * column names, sizers by their diameter unit.
+ */
 export function guessKind(name: string, text: string): CampaignFileKind {
   const head = text.slice(0, 4000).toLowerCase()
   if (/^time\b.*\bscattering \d/m.test(head)) return 'scattering'
@@ -78,8 +74,9 @@ export function guessKind(name: string, text: string): CampaignFileKind {
 }
 
 /** Adds files to the campaign (one per kind: a file of a kind already present replaces it). */
-export function addFiles(files: HeldFile[]): void {
-  if (files.length === 0) return
+export async function addFiles(chosen: InstrumentFile[]): Promise<void> {
+  if (chosen.length === 0) return
+  const files = await holdFiles(chosen)
   const s = store().get()
   const texts = { ...session.get().texts }
   const missing = { ...session.get().missing }
@@ -87,9 +84,9 @@ export function addFiles(files: HeldFile[]): void {
   edit((study) => {
     const c = study.campaign ?? freshSettings(study)
     for (const f of files) {
-      const kind = guessKind(f.name, f.text)
+      const kind = guessKind(f.name, f.head)
       const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
-      const ref = { kind, path: kept, size: f.text.length, hash: fingerprintOf(f) }
+      const ref = { kind, path: kept, size: f.size, hash: f.fingerprint }
       const at = c.files.findIndex((x) => x.kind === kind)
       if (at >= 0) c.files[at] = ref
       else c.files.push(ref)
@@ -107,13 +104,13 @@ export function addFiles(files: HeldFile[]): void {
 export async function pointAgain(index: number): Promise<void> {
   const chosen = await host().openInstrumentFiles()
   if (!chosen || chosen.length === 0) return
-  const f = chosen[0]
+  const [f] = await holdFiles(chosen.slice(0, 1))
   const s = store().get()
   const kept = relativeFilePath(s.file?.path, f.path ?? f.name)
   const old = s.study.campaign?.files[index]?.path
   edit((study) => {
     const r = study.campaign?.files[index]
-    if (r) Object.assign(r, { path: kept, size: f.text.length, hash: fingerprintOf(f) })
+    if (r) Object.assign(r, { path: kept, size: f.size, hash: f.fingerprint })
   })
   const { texts, missing, changed } = session.get()
   const next = { ...texts, [kept]: f }
@@ -131,7 +128,7 @@ export function acceptChanged(index: number): void {
   if (!ref || !held) return
   edit((study) => {
     const r = study.campaign?.files[index]
-    if (r) Object.assign(r, { size: held.text.length, hash: fingerprintOf(held) })
+    if (r) Object.assign(r, { size: held.size, hash: held.fingerprint })
   })
   const c = { ...session.get().changed }
   delete c[ref.path]
@@ -155,6 +152,7 @@ export function setKind(index: number, kind: CampaignFileKind): void {
 
 /** Changes a parameter of the campaign (merged with quick successive edits of the same one). */
 export function setParameter(change: (c: CampaignSettings) => void, key: string): void {
+  spareWorker() // its script loads during the wait for more typing
   edit((study) => {
     if (study.campaign) change(study.campaign)
   }, `campaign:${key}`)
@@ -180,7 +178,7 @@ async function readReferenced(): Promise<void> {
       session.set({ missing: { ...session.get().missing, [ref.path]: got.missing } })
       continue
     }
-    session.set({ texts: { ...session.get().texts, [ref.path]: got } })
+    session.set({ texts: { ...session.get().texts, [ref.path]: await holdFile(got) } })
     const what = fileChange(ref, got.text, got.fingerprint)
     if (what) {
       session.set({ changed: { ...session.get().changed, [ref.path]: `${what} since it was added to the study` } })
@@ -192,6 +190,12 @@ async function readReferenced(): Promise<void> {
 // The record, computed in a worker (one at a time; a newer request ends the running one).
 
 let worker: Worker | null = null
+/**
+ * A worker started ahead (the view shown without files, files added, a parameter typed), so its script loads
+ * meanwhile. Not on every change of the study (`refresh`): a stretch made into a sample would then start one while
+ * the optics workers compute the sample.
+ */
+let spare: Worker | null = null
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
 let lastKey = ''
@@ -199,6 +203,47 @@ let lastKey = ''
 function stopWorker(): void {
   worker?.terminate()
   worker = null
+}
+
+const newWorker = (): Worker => new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
+
+function spareWorker(): void {
+  if (typeof Worker === 'undefined') return // tests of the session without a page
+  spare ??= newWorker()
+}
+
+/** Starts a record worker ahead (the station record shown without files yet), so that adding files need not wait for its script. */
+export const prepareRecordWorker = (): void => spareWorker()
+
+/**
+ * Holds chosen files: a web page's are measured by a record worker, which reads them (and then keeps their texts
+ * for the record it is asked for next: it becomes the spare worker), so the page reads none of a year of rows; where
+ * that worker is not there or fails, the page measures them itself (held.ts).
+ */
+async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
+  const blobs = chosen.flatMap((f) => ('blob' in f ? [{ serial: nextSerial(), blob: f.blob }] : []))
+  let measured: MeasuredFile[] | null = null
+  if (blobs.length > 0 && typeof Worker !== 'undefined') {
+    const w = spare ?? newWorker()
+    spare = null // this one is busy until it answers; a refresh meanwhile starts another
+    measured = await new Promise<MeasuredFile[] | null>((resolve) => {
+      const id = nextSerial()
+      const on = (e: MessageEvent<FromRecordWorker>) => {
+        if (e.data.type !== 'measured' || e.data.id !== id) return
+        w.removeEventListener('message', on)
+        resolve(e.data.files)
+      }
+      w.addEventListener('message', on)
+      w.addEventListener('error', () => resolve(null), { once: true })
+      w.postMessage({ type: 'measure', id, files: blobs } satisfies ToRecordWorker)
+    })
+    if (measured) {
+      ;(spare as Worker | null)?.terminate() // started meanwhile, without these texts
+      spare = w
+    } else w.terminate()
+  }
+  let b = 0
+  return Promise.all(chosen.map((f) => ('blob' in f ? holdFile(f, measured?.[b++]) : holdFile(f))))
 }
 
 /** Stops the running computation (the last record, if any, stays). */
@@ -229,10 +274,13 @@ async function start(force: boolean): Promise<void> {
     return
   }
   const { texts } = session.get()
-  const inputs = c.files.filter((f) => texts[f.path]).map((f) => ({ kind: f.kind, name: texts[f.path].name, text: texts[f.path].text }))
+  const inputs: RecordWorkerInput[] = c.files.filter((f) => texts[f.path]).map((f) => {
+    const held = texts[f.path]
+    return { kind: f.kind, name: held.name, serial: held.serial, ...(held.text !== undefined ? { text: held.text } : { blob: held.blob! }) }
+  })
   const sample = study.samples.find((x) => x.name === c.sample)
   // the paths are left out of the key (a save that makes them relative to the study file changes no file)
-  const key = JSON.stringify([{ ...c, files: c.files.map((f) => ({ ...f, path: '' })) }, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => `${i.name}:${i.text.length}`)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
+  const key = JSON.stringify([{ ...c, files: c.files.map((f) => ({ ...f, path: '' })) }, sample && { ...sample, name: '', notes: '', size: null }, study.wavelengths_nm, study.user_materials, inputs.map((i) => i.serial)]) // the refs' own fingerprints are in c (hashing the texts again would hold the page)
   if (key === lastKey && !force) return
   lastKey = key
   if (!inputs.some((i) => isSizerKind(i.kind))) {
@@ -241,12 +289,14 @@ async function start(force: boolean): Promise<void> {
   }
   stopWorker()
   const mine = ++job
-  const w = new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
+  spareWorker()
+  const w = spare!
+  spare = null
   worker = w
   session.set({ running: true, share: 0, failure: null })
   w.onmessage = (e: MessageEvent<FromRecordWorker>) => {
     const m = e.data
-    if (m.job !== mine) return
+    if (m.type === 'measured' || m.job !== mine) return
     if (m.type === 'progress') return session.set({ share: m.share })
     stopWorker()
     if (m.type === 'failed') return session.set({ running: false, failure: m.message })
@@ -258,7 +308,7 @@ async function start(force: boolean): Promise<void> {
     stopWorker()
     session.set({ running: false, failure: `The computation stopped (${e.message || 'worker failure'}). Press “Compute again”.` })
   }
-  w.postMessage({ job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
+  w.postMessage({ type: 'record', job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
 }
 
 /**

@@ -1,6 +1,6 @@
 // The host in a plain web page: a file input to open, a download to save, localStorage for the recovery copy,
 // the browser's print dialog for the report. Nothing leaves the machine.
-import type { ExportKind, Host, OpenedFile, RecoveryCopy, StartUp } from '../../src-main/host-api.ts'
+import type { ExportKind, Host, InstrumentFile, OpenedFile, RecoveryCopy, StartUp } from '../../src-main/host-api.ts'
 
 const RECOVERY_KEY = 'motebench.recovery'
 const ACCEPT: Record<'study' | 'sizer', string> = { study: '.mote,.json,application/json', sizer: '.csv,.tsv,.txt,.dat,text/csv,text/plain' }
@@ -29,8 +29,8 @@ function chooseFile(accept: string): Promise<OpenedFile | null> {
   })
 }
 
-/** The file chooser for several files; null when the user cancels. */
-function chooseFiles(accept: string): Promise<OpenedFile[] | null> {
+/** The file chooser for several files, given as they are (not read here); null when the user cancels. */
+function chooseFiles(accept: string): Promise<InstrumentFile[] | null> {
   return new Promise((resolve) => {
     const input = document.createElement('input')
     input.type = 'file'
@@ -39,7 +39,7 @@ function chooseFiles(accept: string): Promise<OpenedFile[] | null> {
     input.style.display = 'none'
     input.dataset['role'] = 'file-chooser'
     document.body.append(input)
-    const done = (v: OpenedFile[] | null) => {
+    const done = (v: InstrumentFile[] | null) => {
       input.remove()
       resolve(v)
     }
@@ -47,7 +47,7 @@ function chooseFiles(accept: string): Promise<OpenedFile[] | null> {
     input.addEventListener('change', () => {
       const list = [...(input.files ?? [])]
       if (list.length === 0) return done(null)
-      void Promise.all(list.map(async (f) => ({ name: f.name, text: await f.text() }))).then(done)
+      done(list.map((f) => ({ name: f.name, blob: f })))
     })
     input.click()
   })

@@ -3,7 +3,7 @@
 import { useState } from 'preact/hooks'
 import { CAMPAIGN_FILE_KINDS, DEFAULT_NEPHELOMETER_ANGLES, readDateTime, recordCsv, type CampaignFileSummary, type CampaignSettings } from '../../src-core/index.ts'
 import { host } from '../host/index.ts'
-import { addFiles, acceptChanged, campaignStore, kindWords, makeSample, pointAgain, refresh, removeFile, setKind, setMark, setParameter, stopRecord } from '../campaign/session.ts'
+import { addFiles, acceptChanged, prepareRecordWorker, campaignStore, kindWords, makeSample, pointAgain, refresh, removeFile, setKind, setMark, setParameter, stopRecord } from '../campaign/session.ts'
 import { RecordCharts, recordPng, zoomControls } from '../campaign/RecordCharts.tsx'
 import { fileStem } from '../format.ts'
 import { store, useApp } from '../state/store.ts'
@@ -108,7 +108,7 @@ function Files(p: { c: CampaignSettings | undefined }) {
   const files = p.c?.files ?? []
   const add = async () => {
     const got = await host().openInstrumentFiles()
-    if (got) addFiles(got)
+    if (got) await addFiles(got)
   }
   return (
     <section class="record-files" aria-label="Instrument files">
@@ -335,6 +335,7 @@ export function RecordView() {
   const c = app.study.campaign
   useEffect(() => {
     if (c) refresh()
+    else prepareRecordWorker() // its script loads while the user chooses the files
   }, [])
   const r = s.build?.record
   return (
