@@ -338,10 +338,29 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     return i
   }
 
+  // A neighbour's row share waiting for the next node (see addNode): node, its t, the share and the sums it goes to.
+  let carryNode = -1
+  let carryT = NaN
+  let carryShare = 0
+  let carrySums: Sums | null = null
+  /** Adds share·(node i's upscatter row) into sums. */
+  const addRowTimes = (sums: Sums, i: number, share: number) => {
+    const rows = nodes.angular
+    const r = nodes.upRow(i)
+    const up = sums.up
+    for (let j = 0; j < up.length; j++) up[j] += share * rows[r + j]
+  }
+  const flushCarry = () => {
+    if (carryNode < 0) return
+    addRowTimes(carrySums!, carryNode, carryShare)
+    carryNode = -1
+  }
+
   // Adds f(t)·weight for the node at t = base + m·h: from the cache where it holds the node, else from a Mie
   // evaluation.
   const addNode = (seg: Segment, base: number, m: number, h: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean) => {
     const t = base + m * h
+    if (carryNode >= 0 && carryT !== base + (m - 1) * h) flushCarry()
     let i = nodes.find(t)
     const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : axis.uAt(seg, t)
     seg.u = u
@@ -381,24 +400,36 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     // variate puts its own g back. Its neighbours are the previous level's nodes (base + (m ± 1)·h is how that
     // level wrote them, to the bit).
     if (withUp && !user && lv > FIRST_ANGULAR_LEVELS && (w * sca < interpShare || axis.ax * Math.exp(u) < SMOOTH_X)) {
+      const tA = base + (m - 1) * h
       const before = ws.evaluations
-      const a = nodeWithRow(seg, base + (m - 1) * h)
-      const b = a >= 0 ? nodeWithRow(seg, base + (m + 1) * h) : -1
+      // the left neighbour is the last node's right one when that node took its neighbours' rows too
+      const a = carryNode >= 0 && carryT === tA ? carryNode : nodeWithRow(seg, tA)
+      const tB = base + (m + 1) * h
+      const b = a >= 0 ? nodeWithRow(seg, tB) : -1
       if (ws.evaluations !== before) fresh = false
       if (a >= 0 && b >= 0) {
         const vals = nodes.values
         const fa = (0.5 * w * sca) / vals[NODE_FIELDS * a + NODE_SCA]
         const fb = (0.5 * w * sca) / vals[NODE_FIELDS * b + NODE_SCA]
-        const rows = nodes.angular
-        const rA = nodes.upRow(a)
-        const rB = nodes.upRow(b)
-        const up = sums.up
-        for (let j = 0; j < up.length; j++) up[j] += fa * rows[rA + j] + fb * rows[rB + j]
+        // A's row is added once with both shares it takes (this node's and the last one's); B's share waits for
+        // the next node, which may take B as its own left neighbour.
+        if (carryNode === a && carrySums === sums) {
+          addRowTimes(sums, a, fa + carryShare)
+          carryNode = -1
+        } else {
+          flushCarry()
+          addRowTimes(sums, a, fa)
+        }
+        carryNode = b
+        carryT = tB
+        carryShare = fb
+        carrySums = sums
         sums.angSca += w * sca
         sums.angG += fa * vals[NODE_FIELDS * a + NODE_GSCA] + fb * vals[NODE_FIELDS * b + NODE_GSCA]
         return
       }
     }
+    flushCarry()
     if ((withUp && upRow < 0) || (user && userRow < 0)) {
       if (!fresh) evaluate(u)
       work += ANGULAR_WORK * eff!.terms
@@ -468,6 +499,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
           }
         }
       }
+      flushCarry()
       // Trapezoid at this level = old trapezoid / 2 + new nodes·h (weights above already carry h).
       scaleInto(smoothSums, 0.5, lv > 0, fresh, withAngles, withUser)
       flatPrev.copyFrom(flatSums)
