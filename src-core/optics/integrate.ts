@@ -361,7 +361,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   const addNode = (seg: Segment, base: number, m: number, h: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean) => {
     const t = base + m * h
     if (carryNode >= 0 && carryT !== base + (m - 1) * h) flushCarry()
-    let i = nodes.find(t)
+    let i = nodes.findNext(t)
     const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : axis.uAt(seg, t)
     seg.u = u
     const dens = seg.s.density(u)

@@ -33,6 +33,11 @@ export const NODE_FIELDS = 6
 export class NodeTable {
   private readonly index = new Map<number, number>()
   private count = 0
+  /** Node i's position t, and the node `findNext` found last: a pass over the same lattice meets the nodes in
+   * the order they were added, so the next one is usually the one after it (a Map lookup of a double was a
+   * quarter of an edit's warm pass). */
+  private tAt = new Float64Array(64)
+  private lastFound = -1
   values = new Float64Array(NODE_FIELDS * 64)
   /** Where node i's upscatter row and chosen-angle row start in `angular` (−1: not computed). */
   private upAt = new Int32Array(64).fill(-1)
@@ -56,6 +61,7 @@ export class NodeTable {
 
   /** Empties the table for another context, keeping its arrays (their size is what the last context needed). */
   reset(): this {
+    this.lastFound = -1
     this.index.clear()
     this.keyIds.clear()
     this.count = 0
@@ -66,6 +72,15 @@ export class NodeTable {
   /** The node at lattice position t, or −1. */
   find(t: number): number {
     return this.index.get(t) ?? -1
+  }
+
+  /** find(t) for a pass along the lattice: tries the node after the one it found last first. */
+  findNext(t: number): number {
+    const g = this.lastFound + 1
+    if (g < this.count && this.tAt[g] === t) return (this.lastFound = g)
+    const i = this.index.get(t) ?? -1
+    if (i >= 0) this.lastFound = i
+    return i
   }
 
   /** Adds the node at t with its scalars; returns its number. */
@@ -80,6 +95,8 @@ export class NodeTable {
     v[at + NODE_SCA] = sca
     v[at + NODE_ABS] = abs
     v[at + NODE_GSCA] = gsca
+    this.tAt[i] = t
+    this.lastFound = i
     this.upAt[i] = -1
     this.userAt[i] = -1
     this.index.set(t, i)
@@ -114,6 +131,9 @@ export class NodeTable {
     const values = new Float64Array(NODE_FIELDS * n)
     values.set(this.values)
     this.values = values
+    const tAt = new Float64Array(n)
+    tAt.set(this.tAt)
+    this.tAt = tAt
     const grow = (a: Int32Array, fill: number) => {
       const b = new Int32Array(n).fill(fill)
       b.set(a)
