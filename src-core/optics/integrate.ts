@@ -37,8 +37,8 @@
  *   cache holds for it, so that a result does not depend on what was computed before): the control variate
  *   puts its own g back, and the rows of the large spheres in a mode's tail, the dearest, are not computed.
  * Measured against a reference without angular error (test/optics/upscatter.test.ts): b and β̄ within 6e-5 on
- * fine, coarse, very coarse, absorbing and lossless modes at the default tolerance; the demo's samples' cold
- * computation costs 0–8 % more than with the sums stopped at level 2 and no control variate (DEVELOPERS.md).
+ * fine, coarse, very coarse, absorbing and lossless modes at the default tolerance, for a few per cent more
+ * work on the demo's samples than with the sums stopped at level 2 and no control variate (DEVELOPERS.md).
  * The user-angle phase function (drawn, not integrated) stops at level 2. Ratios use σsca from the same nodes.
  */
 import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
@@ -146,7 +146,7 @@ class Sums {
   abs = 0
   gsca = 0
   angSca = 0
-  /** Σ weight·g·C_sca over the nodes of the angular sums (their g, for the control variate; see finishUpscatter). */
+  /** Σ weight·g·C_sca over the nodes of the angular sums (their g, for the control variate; see shiftToAsymmetry). */
   angG = 0
   /** σsca of the nodes in the user-angle sums (they stop refining earlier than the upscatter sums). */
   userSca = 0
@@ -310,6 +310,15 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     return 0.25 * Math.PI * dw * dw
   }
 
+  /** Evaluates the particle at u and keeps it as the node at t; returns its number (ws.mie holds its coefficients). */
+  const addEvaluated = (t: number, u: number, dudt: number): number => {
+    const area = evaluate(u)
+    const e = eff!
+    added++
+    work += e.terms
+    return nodes.add(t, u, dudt, e.qext * area, e.qsca * area, e.qabs * area, e.qsca * area * e.g)
+  }
+
   /**
    * The node at lattice position tN of segment seg, with its upscatter row (each evaluated and kept where the
    * cache lacks it): its number, or −1 where the segment holds no scattering particles there. Leaves ws.mie
@@ -322,11 +331,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     if (i < 0) {
       const u = axis.uAt(seg, tN)
       if (!(seg.s.density(u) > 0)) return -1
-      const area = evaluate(u)
-      const e = eff!
-      i = nodes.add(tN, u, axis.dudt(u), e.qext * area, e.qsca * area, e.qabs * area, e.qsca * area * e.g)
-      added++
-      work += e.terms
+      i = addEvaluated(tN, u, axis.dudt(u))
       fresh = true
     }
     if (!(nodes.values[NODE_FIELDS * i + NODE_SCA] > 0)) return -1
@@ -375,11 +380,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     if (w * 1.5 * Math.PI * dMax * dMax < negligibleExt) return
     let fresh = false
     if (i < 0) {
-      const area = evaluate(u)
-      const e = eff!
-      i = nodes.add(t, u, dudt, e.qext * area, e.qsca * area, e.qabs * area, e.qsca * area * e.g)
-      added++
-      work += e.terms
+      i = addEvaluated(t, u, dudt)
       fresh = true
     }
     const v = nodes.values

@@ -149,8 +149,7 @@ export function upscatterFrom(acc: Float64Array, sca: number, lambda2: number, o
  * is in the g term, which the size integration follows to the tolerance; R is much smoother in size. So the
  * angular sums, which stop at a coarser level, supply R and the g term is taken from the finer integration:
  * β(μ₀) += ¾ μ₀ (gRows − g), b += ¾ (gRows − g), β̄ += ⅜ (gRows − g). Where the angular sums used every node,
- * gRows = g and nothing moves. (Measured on lossless and weakly absorbing coarse modes: the error of b, β̄ left by
- * sums stopped two levels early falls by 3 to 30 times; DEVELOPERS.md.)
+ * gRows = g and nothing moves. (Where it helps and where it does not: DEVELOPERS.md.)
  */
 export function shiftToAsymmetry(up: { b: number; mean: number; beta: Float64Array }, gRows: number, g: number): void {
   const d = gRows - g
