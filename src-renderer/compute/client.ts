@@ -4,7 +4,7 @@
 // job or a cancel is a message it reads between steps of its work.
 import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
-import { jobSteps, type FromWorker, type ToWorker } from './messages.ts'
+import { COMPUTE_THREADS, jobSteps, type FromWorker, type ToWorker } from './messages.ts'
 
 /** Changes that follow a run closer than this (ms) wait this long, so fast typing starts one job, not one a key. */
 const DEBOUNCE_MS = 30
@@ -17,7 +17,8 @@ const DEBOUNCE_MS = 30
 export const STALE_GRACE_MS = 250
 
 let optics: Worker | null = null
-let sizes: Worker | null = null
+/** The optics worker's helpers (one per further processor), started with it. */
+let helpers: Worker[] = []
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
 let graceTimer: ReturnType<typeof setTimeout> | undefined
@@ -31,8 +32,20 @@ const cache = new Map<string, ShownResult>()
 /** The inputs each sample's size curves were last asked for with, so only changed samples are sent again. */
 const sizeKeys = new Map<string, string>()
 
-function startWorker(): Worker {
-  return new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-compute' })
+/**
+ * The optics worker and its helpers, all started at once (a helper started by the optics worker itself would
+ * begin loading only once that worker had loaded), each helper joined to it by a port.
+ */
+function startWorkers(): Worker {
+  const worker = new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-compute' })
+  helpers = Array.from({ length: COMPUTE_THREADS - 1 }, (_, i) => new Worker(new URL('./shareWorker.ts', import.meta.url), { type: 'module', name: `motebench-share-${i + 1}` }))
+  const ports = helpers.map((helper) => {
+    const channel = new MessageChannel()
+    helper.postMessage(null, [channel.port1])
+    return channel.port2
+  })
+  worker.postMessage({ type: 'helpers', ports } satisfies ToWorker, ports)
+  return worker
 }
 
 /** Sample keys by study (a study is never changed in place: an edit makes a new one), as every view asks for them. */
@@ -77,7 +90,7 @@ function opticsPatch(s: AppState, m: FromWorker): Partial<AppState> | null {
   return null
 }
 
-/** What a message of the size-curve worker changes in the state `s`. */
+/** What a message of the optics worker with size curves changes in the state `s` (whichever job asked for them). */
 function sizesPatch(s: AppState, m: FromWorker): Partial<AppState> | null {
   return m.type === 'sizes' ? { sizes: { ...s.sizes, ...m.curves } } : null
 }
@@ -128,10 +141,6 @@ function run(): void {
   const problems = checked.ok ? [] : checked.problems
   store().set({ problems })
 
-  if (!sizes) {
-    sizes = startWorker()
-    sizes.onmessage = (e: MessageEvent<FromWorker>) => receive(sizesPatch, e.data)
-  }
   const userMaterials = study.user_materials ?? []
   for (const id of sizeKeys.keys()) if (!s.ids.includes(id)) sizeKeys.delete(id)
   const sizeItems: Extract<ToWorker, { type: 'sizes' }>['items'] = []
@@ -144,7 +153,8 @@ function run(): void {
     sizeKeys.set(id, key)
     sizeItems.push({ id, sample, userMaterials })
   })
-  if (sizeItems.length) sizes.postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
+  // the optics worker reads this between the steps of any job it is running (a few milliseconds)
+  if (sizeItems.length) opticsWorker().postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
 
   const items: { id: string; key: string; study: Study }[] = []
   const results = { ...s.results }
@@ -180,11 +190,13 @@ function run(): void {
 
 function opticsWorker(): Worker {
   if (!optics) {
-    optics = startWorker()
-    optics.onmessage = (e: MessageEvent<FromWorker>) => receive(opticsPatch, e.data)
+    optics = startWorkers()
+    optics.onmessage = (e: MessageEvent<FromWorker>) => receive(e.data.type === 'sizes' ? sizesPatch : opticsPatch, e.data)
     optics.onerror = (e) => {
       store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true, notice: { kind: 'error', title: 'The computation stopped', lines: [e.message] } })
       optics = null
+      for (const helper of helpers) helper.terminate()
+      helpers = []
     }
   }
   return optics

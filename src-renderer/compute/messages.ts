@@ -14,6 +14,8 @@ export type ToWorker =
    * sent when nothing else runs, dropped like any job when a newer one comes.
    */
   | { type: 'warm'; job: number; study: Study }
+  /** Ports to the helpers the page started (sent once, before any job). */
+  | { type: 'helpers'; ports: MessagePort[] }
 
 export type FromWorker =
   /**
@@ -47,7 +49,10 @@ export const PREVIEW_COARSEST_STEP = 2
  */
 export const PREVIEW_WORTH_MS = 40
 
-/** From the computing worker to its helpers: compute a one-sample study at `only` (a share of its wavelengths). */
+/**
+ * From the computing worker to its helpers, through the port the page gave each helper (its first message, with the
+ * port and no data): compute a one-sample study at `only` (a share of its wavelengths).
+ */
 export type ToShareWorker =
   | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number; coarsestStep?: number }
   /** σsca at 550 nm at these humidities (points of the f(RH) curve). */

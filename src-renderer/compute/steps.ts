@@ -1,5 +1,5 @@
 // Running src-core's stepped computations inside a worker without shutting out its messages.
-import { phaseFunctionWavelengthNm } from '../../src-core/index.ts'
+import { phaseFunctionWavelengthNm } from '../../src-core/compute.ts'
 
 /** Resolves on the next turn of the event loop, after any message already waiting. */
 export function pause(): Promise<void> {

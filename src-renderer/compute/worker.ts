@@ -1,8 +1,11 @@
-// The computing worker: all physics runs here and in its helpers, through src-core's public API only.
+// The computing worker: all physics runs here and in its helpers, through src-core's public API only (its
+// computing entry, compute.ts: a script a sixth of the size of one with the whole of src-core, so the workers start
+// sooner).
 //
 // Each optics workspace lives as long as its worker, so its node cache carries every Mie evaluation from one
 // edit to the next. A sample's wavelengths are shared between this worker and its helpers (one per further
-// processor, at most three), always the same wavelengths to the same worker. Work goes in steps (a wavelength, a
+// processor, at most three; the page starts them beside this one and hands over a port to each, so that all
+// start at once), always the same wavelengths to the same worker. Work goes in steps (a wavelength, a
 // point of the f(RH) curve); between steps the workers let messages in, and a newer job or a cancel stops the
 // running one there.
 import {
@@ -11,6 +14,8 @@ import {
   humidityCurveFrom,
   humidityCurveKey,
   humidityScatteringSteps,
+  loadExpressionCompiler,
+  needsExpressionCompiler,
   OpticsWorkspace,
   sampleBulkSteps,
   sampleLongwaveSteps,
@@ -23,9 +28,9 @@ import {
   type Study,
   type UserMaterialSpec,
   type WavelengthBulk
-} from '../../src-core/index.ts'
+} from '../../src-core/compute.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { COMPUTE_THREADS, jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
 import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
@@ -33,29 +38,24 @@ const workspace = new OpticsWorkspace(NODE_CACHE_LIMIT)
 /** The newest job asked for; a running job that is not it stops at its next step. */
 let newest = -1
 
-const helperCount = COMPUTE_THREADS - 1
-let helpers: Worker[] | null = null
+/** Ports to the helpers, handed over by the page before the first job (none on a one-processor machine). */
+let helpers: MessagePort[] = []
 let request = 0
 const waiting = new Map<number, { resolve: (answer: unknown) => void; reject: (e: Error) => void }>()
 
-/** The helpers, started on first use. */
-function helperWorkers(): Worker[] {
-  if (!helpers) {
-    helpers = Array.from({ length: helperCount }, (_, i) => {
-      const w = new Worker(new URL('./shareWorker.ts', import.meta.url), { type: 'module', name: `motebench-share-${i + 1}` })
-      w.onmessage = (e: MessageEvent<FromShareWorker>) => {
-        const m = e.data
-        const p = waiting.get(m.request)
-        if (!p) return
-        waiting.delete(m.request)
-        if (m.type === 'share') p.resolve(m.bulk)
-        else if (m.type === 'humidity') p.resolve(m.sca)
-        else p.reject(new Error(m.message))
-      }
-      return w
-    })
-  }
-  return helpers
+function takeHelpers(ports: readonly MessagePort[]): void {
+  helpers = ports.map((port) => {
+    port.onmessage = (e: MessageEvent<FromShareWorker>) => {
+      const m = e.data
+      const p = waiting.get(m.request)
+      if (!p) return
+      waiting.delete(m.request)
+      if (m.type === 'share') p.resolve(m.bulk)
+      else if (m.type === 'humidity') p.resolve(m.sca)
+      else p.reject(new Error(m.message))
+    }
+    return port
+  })
 }
 
 function message(e: unknown): string {
@@ -80,7 +80,7 @@ const current = (job: number) => () => job === newest
 type Unsent<T> = T extends unknown ? Omit<T, 'request'> : never
 
 /** Sends a request to a helper; its answer (null if the job was dropped) or its failure. */
-function ask<T>(w: Worker, m: Unsent<Extract<ToShareWorker, { request: number }>>): Promise<T | null> {
+function ask<T>(w: MessagePort, m: Unsent<Extract<ToShareWorker, { request: number }>>): Promise<T | null> {
   const id = ++request
   const answer = new Promise<T | null>((resolve, reject) => waiting.set(id, { resolve: resolve as (a: unknown) => void, reject }))
   // a failure of this worker's own share leaves the helpers' answers unread: they must not count as unhandled
@@ -102,7 +102,7 @@ async function together<M, T>(mine: Generator<void, M>, theirs: Promise<T | null
 
 /** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
 async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0): Promise<SampleOptics | undefined> {
-  const workers = helperWorkers()
+  const workers = helpers
   const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
   const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
@@ -121,7 +121,7 @@ function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coa
 
 /** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */
 async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthCurve | undefined> {
-  const workers = helperWorkers()
+  const workers = helpers
   const threads = workers.length + 1
   const mineAt = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === 0)
   const theirs = workers.map((w, k) => {
@@ -205,12 +205,22 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
   post({ type: 'finished', job: m.job })
 }
 
-self.onmessage = (e: MessageEvent<ToWorker>) => {
+/** Loads the expression compiler where a study given to the workers has expression components (compute.ts leaves it out). */
+async function expressionsReady(studies: readonly Study[]): Promise<void> {
+  if (studies.some(needsExpressionCompiler)) await loadExpressionCompiler()
+}
+
+self.onmessage = async (e: MessageEvent<ToWorker>) => {
   const m = e.data
+  if (m.type === 'helpers') {
+    takeHelpers(m.ports)
+    return
+  }
   if (m.type === 'sizes') {
     const curves: Record<string, SizeCurves | { error: string }> = {}
     for (const item of m.items) {
       try {
+        await expressionsReady([{ user_materials: item.userMaterials } as Study])
         curves[item.id] = sizeCurves(item.sample, item.userMaterials)
       } catch (err) {
         curves[item.id] = { error: message(err) }
@@ -220,7 +230,15 @@ self.onmessage = (e: MessageEvent<ToWorker>) => {
     return
   }
   newest = m.job
-  for (const w of helpers ?? []) w.postMessage({ type: 'newest', job: m.job } satisfies ToShareWorker)
+  for (const w of helpers) w.postMessage({ type: 'newest', job: m.job } satisfies ToShareWorker)
+  if (m.type === 'cancel') return
+  try {
+    await expressionsReady(m.type === 'evaluate' ? m.items.map((item) => item.study) : [m.study])
+  } catch (err) {
+    if (m.type === 'evaluate') for (const item of m.items) post({ type: 'failed', job: m.job, id: item.id, key: item.key, message: message(err) })
+    return
+  }
+  if (m.job !== newest) return
   if (m.type === 'evaluate') void evaluate(m)
   if (m.type === 'warm') void warm(m)
 }

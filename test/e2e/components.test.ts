@@ -88,4 +88,33 @@ describe('own components and per-mode compositions', { timeout: 120_000 }, () =>
     await madeOf.uncheck()
     await expect.poll(() => sigmaAbs550(page), { timeout: 60_000 }).toBe(shared)
   })
+
+  test('an own component given by expressions is computed by the workers, and at 550 nm equals the same index given as a constant', async () => {
+    // The optics workers load the expression compiler only for a study that has expression components (src-core's
+    // compute.ts leaves it out); the figures must be those of the index the expressions give.
+    const page = await openApp()
+    const i = await addBlankSample(page)
+    await page.locator('[data-testid="own-components"] > summary').click()
+    await page.getByTestId('add-own-component').click()
+    await page.locator('[data-path="user_materials[0].id"]').fill('lab-soot')
+    await page.locator('[data-path="user_materials[0].name"]').fill('Lab soot')
+    await page.locator('[data-path="user_materials[0].density_g_cm3"]').fill('1.8')
+    await page.locator('[data-path="user_materials[0].index.n"]').fill('1.8')
+    await page.locator('[data-path="user_materials[0].index.k"]').fill('0.6')
+    await page.locator(`[data-path="samples[${i}].composition.components[0].material"]`).selectOption('lab-soot')
+    await waitForResults(page)
+    const constant = await sigmaAbs550(page)
+    const sigmaAbs450 = async () => shownNumber(await page.locator('[data-testid="optics-table"] tr[data-wavelength="450"] td[data-col="σabs"]').textContent())
+    const constant450 = await sigmaAbs450()
+
+    // k = 0.6 at 550 nm and larger at shorter wavelengths
+    await page.locator('[data-path="user_materials[0].index.kind"]').selectOption('expression')
+    await page.locator('[data-path="user_materials[0].index.n"]').fill('1.8')
+    await page.locator('[data-path="user_materials[0].index.k"]').fill('0.6 * 550 / wl_nm')
+    expect(await page.locator('[data-error-for^="user_materials"]').count()).toBe(0)
+    await expect.poll(sigmaAbs450, { timeout: 60_000 }).not.toBe(constant450)
+    await waitForResults(page)
+    expect(await sigmaAbs550(page)).toBe(constant)
+    expect(await sigmaAbs450()).not.toBe(constant450)
+  })
 })
