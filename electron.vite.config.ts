@@ -2,6 +2,7 @@
 import { defineConfig } from 'electron-vite'
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
+import { expressionsOnDemand } from './vite.shared.ts'
 
 const version = (JSON.parse(readFileSync(resolve(import.meta.dirname, 'package.json'), 'utf8')) as { version: string }).version
 
@@ -26,7 +27,7 @@ export default defineConfig({
     root: resolve(import.meta.dirname, 'src-renderer'),
     define: { __APP_VERSION__: JSON.stringify(version) },
     esbuild: { jsx: 'automatic', jsxImportSource: 'preact' },
-    worker: { format: 'es' },
+    worker: { format: 'es', plugins: () => [expressionsOnDemand()] },
     build: {
       outDir: 'out/renderer',
       chunkSizeWarningLimit: 2000,

@@ -2,6 +2,7 @@
 import { defineConfig } from 'vite'
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
+import { expressionsOnDemand } from './vite.shared.ts'
 
 const version = (JSON.parse(readFileSync(resolve(import.meta.dirname, 'package.json'), 'utf8')) as { version: string }).version
 
@@ -10,7 +11,7 @@ export default defineConfig({
   base: './',
   define: { __APP_VERSION__: JSON.stringify(version) },
   esbuild: { jsx: 'automatic', jsxImportSource: 'preact' },
-  worker: { format: 'es' },
+  worker: { format: 'es', plugins: () => [expressionsOnDemand()] },
   server: { host: '127.0.0.1', port: 5217, strictPort: false },
   preview: { host: '127.0.0.1', port: 5217, strictPort: false },
   build: { outDir: resolve(import.meta.dirname, 'out/web'), emptyOutDir: true, chunkSizeWarningLimit: 2000 }

@@ -5,5 +5,5 @@
  */
 export * from './optics/index.ts'
 export type * from './study/model.ts'
-// without the expression compiler: a study with expression components needs `await loadExpressionCompiler()` first
+// a bundle built without the expression compiler (mathjsExpressionsOnDemand.ts) awaits loadExpressionCompiler() for a study with expression components
 export { loadExpressionCompiler, needsExpressionCompiler } from './expressionCompiler.ts'

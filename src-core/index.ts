@@ -18,8 +18,3 @@ export * from './instruments/index.ts'
 export * from './closure/index.ts'
 export * from './field/index.ts'
 export { loadExpressionCompiler, needsExpressionCompiler } from './expressionCompiler.ts'
-
-// Expressions in user components are compiled by mathjs (expressionCompiler.ts): whoever imports this entry has it.
-import { installExpressionCompiler } from './expressionCompiler.ts'
-import { mathCompile } from './mathjsExpressions.ts'
-installExpressionCompiler(mathCompile)

@@ -2,7 +2,7 @@
  * User-defined components: a constant index, a table of already-parsed rows, or mathjs expressions of the
  * wavelength. Each is checked at the study's wavelengths when it is defined.
  */
-import { compileExpressionText } from '../expressionCompiler.ts'
+import { mathCompile } from '../mathjsExpressions.ts'
 import { InputError, requireInRange } from '../errors.ts'
 import { buildTableIndex, refractiveIndexAt, type ExpressionIndex, type IndexModel, type Material } from './material.ts'
 import { listMaterials } from './catalogue.ts'
@@ -42,7 +42,7 @@ function compileExpression(label: string, which: 'n' | 'k', text: string): (wave
   }
   let code: { evaluate: (scope?: object) => unknown }
   try {
-    code = compileExpressionText(text)
+    code = mathCompile(text)
   } catch (e) {
     const why = e instanceof Error ? e.message : String(e)
     throw new InputError(where, `"${text}" does not parse (${why})`, 'Check the brackets and operators; variables are wl_um (µm) and wl_nm (nm).')
