@@ -5,6 +5,8 @@
 // the @esbuild/<platform> package; esbuild's own install script is not needed).
 import { build } from 'esbuild'
 import { fileURLToPath } from 'node:url'
+import { readdir, rm } from 'node:fs/promises'
+import { basename, join } from 'node:path'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
 
@@ -51,6 +53,9 @@ export async function buildCli({ quiet = false } = {}) {
     logLevel: 'warning'
   })
   if (process.env.MOTEBENCH_BUILD_META) (await import('node:fs')).writeFileSync(process.env.MOTEBENCH_BUILD_META, JSON.stringify(result.metafile))
+  // chunks of earlier builds (their names carry a hash of their content) are removed once the new ones are written
+  const built = new Set(Object.keys(result.metafile.outputs).map((f) => basename(f)))
+  for (const f of await readdir(join(root, 'out/cli'))) if (f.endsWith('.mjs') && !built.has(f)) await rm(join(root, 'out/cli', f), { force: true })
   if (!quiet) process.stdout.write(`motebench: command line built into out/cli in ${Math.round(performance.now() - t0)} ms\n`)
 }
 
