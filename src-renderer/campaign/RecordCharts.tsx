@@ -98,8 +98,11 @@ export interface RecordChartsProps {
   theme: Theme
 }
 
-/** The plots of the stack, for the PNG export. */
-export const shownPlots: { plots: uPlot[]; titles: string[] } = { plots: [], titles: [] }
+/** The plots of the stack, for the PNG export (`settle` draws any chart still drawn as during a gesture). */
+export const shownPlots: { plots: uPlot[]; titles: string[]; settle: () => void } = { plots: [], titles: [], settle: () => {} }
+
+/** A zoom or pan gesture is over when no other came for this long (ms). */
+const SETTLE_MS = 200
 
 export function RecordCharts({ record, theme }: RecordChartsProps) {
   const box = useRef<HTMLDivElement>(null)
@@ -215,9 +218,47 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     }
     shownPlots.plots = plots
     shownPlots.titles = list.map((p) => p.title)
+    // While zooming or panning, lines are stroked one device pixel wide (Chromium's raster draws a line of 1.6 px
+    // with its round joins 10–20 times slower than that, and it was most of a redraw); once the gesture settles,
+    // each chart is drawn again at its own width, one chart a frame, so the settled charts are today's.
+    const full = plots.map((u) => u.series.map((s) => s.width ?? 1))
+    const thin = 1 / (window.devicePixelRatio || 1)
+    let settleTimer: ReturnType<typeof setTimeout> | undefined
+    let settleFrame = 0
+    let unsettled: uPlot[] = []
+    const gesture = () => {
+      clearTimeout(settleTimer)
+      cancelAnimationFrame(settleFrame)
+      settleFrame = 0
+      plots.forEach((u, k) => u.series.forEach((s, i) => i > 0 && (s.width = Math.min(full[k][i], thin))))
+      unsettled = plots.filter((_u, k) => !list[k].map)
+      el.dataset['settled'] = 'false'
+      settleTimer = setTimeout(() => (settleFrame = requestAnimationFrame(settleOne)), SETTLE_MS)
+    }
+    /** The next chart drawn at its own widths; the rest in the frames after. */
+    const settleOne = () => {
+      settleFrame = 0
+      const u = unsettled.shift()
+      if (u) {
+        const widths = full[plots.indexOf(u)]
+        u.series.forEach((s, i) => (s.width = widths[i]))
+        u.redraw(false)
+      }
+      if (unsettled.length) settleFrame = requestAnimationFrame(settleOne)
+      else el.dataset['settled'] = 'true'
+    }
+    /** Every chart at its own widths now (for the PNG export). */
+    shownPlots.settle = () => {
+      clearTimeout(settleTimer)
+      cancelAnimationFrame(settleFrame)
+      while (unsettled.length) settleOne()
+      el.dataset['settled'] = 'true'
+    }
+    el.dataset['settled'] = 'true'
     /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
     let visibleTimer: ReturnType<typeof setTimeout> | undefined
-    const show = (lo: number, hi: number) => {
+    const show = (lo: number, hi: number, settled = false) => {
+      if (!settled) gesture()
       shown = decimate(series, keys, lo, hi, buckets, env)
       plots.forEach((q, i) => {
         q.batch(() => {
@@ -232,7 +273,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       visibleTimer = setTimeout(() => setVisible([lo * 1000, hi * 1000]), 250)
     }
     const vis = campaignStore().get().visible
-    if (vis) show(vis[0] / 1000, vis[1] / 1000)
+    if (vis) show(vis[0] / 1000, vis[1] / 1000, true)
 
     // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
     // wheel events come faster than frames: they add up to one range, drawn once a frame
@@ -352,6 +393,9 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     return () => {
       unsub()
       clearTimeout(visibleTimer)
+      clearTimeout(settleTimer)
+      cancelAnimationFrame(settleFrame)
+      shownPlots.settle = () => {}
       ro.disconnect()
       onPanEnd()
       cancelAnimationFrame(wheelFrame)
@@ -451,6 +495,7 @@ function readoutOf(r: CampaignRecord, s: RecordSeries, i: number, row: number): 
 export function recordPng(): string | null {
   const plots = shownPlots.plots
   if (plots.length === 0) return null
+  shownPlots.settle()
   const ratio = plots[0].ctx.canvas.width / plots[0].width
   const w = plots[0].ctx.canvas.width
   const titleH = 24 * ratio
