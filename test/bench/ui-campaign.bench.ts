@@ -73,6 +73,17 @@ export async function benchUiCampaign(): Promise<void> {
     )
     // the worker's own time (reading, merging, computing), as the view states it
     const worker = Number(/computed in ([0-9.]+) s/.exec((await page.getByTestId('record-summary').textContent()) ?? '')?.[1])
+    // the charts as a user zooms them: the stack scrolled to the top of its panel (how many of them are then in view
+    // is reported: the charts out of view are redrawn when the zooming settles or they come into view)
+    const chartsInView = await page.evaluate(async () => {
+      const stack = document.querySelector('[data-testid="record-stack"]')!
+      stack.scrollIntoView({ block: 'start' })
+      await new Promise((ok) => requestAnimationFrame(() => requestAnimationFrame(ok)))
+      return [...stack.querySelectorAll('figure')].filter((f) => {
+        const r = f.getBoundingClientRect()
+        return r.bottom > 0 && r.top < innerHeight
+      }).length
+    })
     // per redraw: the JavaScript (the key's handler, run at once), to the next frame (as before), and to the frame after
     // the one that painted it (two animation frames: the paint and the compositing of the changed canvases included)
     const redraws: { js: number; frame: number; painted: number }[] = []
@@ -101,6 +112,7 @@ export async function benchUiCampaign(): Promise<void> {
       () =>
         new Promise<{ ms: number; longest: number }>((resolve) => {
           const stack = document.querySelector('[data-testid="record-stack"]') as HTMLElement
+          if (stack.dataset['settled'] === undefined) return resolve({ ms: NaN, longest: NaN }) // a build without it
           const t = performance.now()
           stack.dispatchEvent(new KeyboardEvent('keydown', { key: '+', bubbles: true }))
           let last = t
@@ -154,6 +166,7 @@ export async function benchUiCampaign(): Promise<void> {
       open_goal_s: 5,
       worker_s: worker,
       longest_task_ms: Math.round(open.longest),
+      charts_in_view: chartsInView,
       redraw_median_ms: Number(median(redraws.map((r) => r.frame)).toFixed(1)),
       redraw_max_ms: Number(Math.max(...redraws.map((r) => r.frame)).toFixed(1)),
       redraw_js_median_ms: Number(median(redraws.map((r) => r.js)).toFixed(1)),
