@@ -98,8 +98,11 @@ export interface RecordChartsProps {
   theme: Theme
 }
 
-/** The plots of the stack, for the PNG export. */
-export const shownPlots: { plots: uPlot[]; titles: string[] } = { plots: [], titles: [] }
+/** The plots of the stack, for the PNG export (`settle` draws any chart still drawn as during a gesture). */
+export const shownPlots: { plots: uPlot[]; titles: string[]; settle: () => void } = { plots: [], titles: [], settle: () => {} }
+
+/** A zoom or pan gesture is over when no other came for this long (ms). */
+const SETTLE_MS = 200
 
 export function RecordCharts({ record, theme }: RecordChartsProps) {
   const box = useRef<HTMLDivElement>(null)
@@ -211,20 +214,84 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       const u = new uPlot(opts, data as uPlot.AlignedData, holder)
       // the plotted data, for tests and the read-out: what this chart draws
       ;(fig as unknown as { plotted: unknown }).plotted = { x: series.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: series.values[l.key] })) }
+      // what it shows now, for tests: its time range and its lines' widths
+      ;(fig as unknown as { drawn: () => unknown }).drawn = () => ({ x: [u.scales.x.min, u.scales.x.max], widths: p.map ? [] : u.series.slice(1).map((s) => s.width) })
       plots.push(u)
     }
     shownPlots.plots = plots
     shownPlots.titles = list.map((p) => p.title)
+    // While zooming or panning, lines are stroked one device pixel wide (Chromium's raster draws a line of 1.6 px
+    // with its round joins 10–20 times slower than that, and it was most of a redraw), and a chart of lines out of
+    // view is left as it was (it is brought to the range when it comes into view); once the gesture settles, each
+    // chart is drawn again at its own widths and range, one chart a frame, so the settled charts are today's.
+    const full = plots.map((u) => u.series.map((s) => s.width ?? 1))
+    const thin = 1 / (window.devicePixelRatio || 1)
+    const hasLines = list.map((p) => !p.map)
+    const inView = plots.map(() => true)
+    const stale = plots.map(() => false)
+    let current: [number, number] = [x0, x1]
+    /** Chart k to the range shown. */
+    const update = (k: number) => {
+      stale[k] = false
+      const q = plots[k]
+      q.batch(() => {
+        q.setData(dataFor(list[k], shown) as uPlot.AlignedData, false)
+        q.setScale('x', { min: current[0], max: current[1] })
+      })
+    }
+    const seen = new IntersectionObserver((entries) => {
+      for (const en of entries) {
+        const k = plots.findIndex((q) => q.root.parentElement === en.target)
+        if (k < 0) continue
+        inView[k] = en.isIntersecting
+        if (inView[k] && stale[k]) update(k)
+      }
+    })
+    for (const q of plots) if (q.root.parentElement) seen.observe(q.root.parentElement)
+    let settleTimer: ReturnType<typeof setTimeout> | undefined
+    let settleFrame = 0
+    let unsettled: number[] = []
+    const gesture = () => {
+      clearTimeout(settleTimer)
+      cancelAnimationFrame(settleFrame)
+      settleFrame = 0
+      plots.forEach((u, k) => u.series.forEach((s, i) => i > 0 && (s.width = Math.min(full[k][i], thin))))
+      unsettled = plots.map((_u, k) => k).filter((k) => hasLines[k])
+      el.dataset['settled'] = 'false'
+      settleTimer = setTimeout(() => (settleFrame = requestAnimationFrame(settleNext)), SETTLE_MS)
+    }
+    /** The next chart drawn at its own widths and range. */
+    const settleOne = () => {
+      const k = unsettled.shift()
+      if (k === undefined) return
+      plots[k].series.forEach((s, i) => (s.width = full[k][i]))
+      if (stale[k]) update(k)
+      else plots[k].redraw(false)
+    }
+    /** One chart a frame. */
+    const settleNext = () => {
+      settleFrame = 0
+      settleOne()
+      if (unsettled.length) settleFrame = requestAnimationFrame(settleNext)
+      else el.dataset['settled'] = 'true'
+    }
+    /** Every chart at its own widths and range now (for the PNG export). */
+    shownPlots.settle = () => {
+      clearTimeout(settleTimer)
+      cancelAnimationFrame(settleFrame)
+      settleFrame = 0
+      while (unsettled.length) settleOne()
+      el.dataset['settled'] = 'true'
+    }
+    el.dataset['settled'] = 'true'
     /** Every chart to [lo, hi] (s): the points of that range (decimated to the width), then the scale. */
     let visibleTimer: ReturnType<typeof setTimeout> | undefined
-    const show = (lo: number, hi: number) => {
+    const show = (lo: number, hi: number, settled = false) => {
+      if (!settled) gesture()
+      current = [lo, hi]
       shown = decimate(series, keys, lo, hi, buckets, env)
-      plots.forEach((q, i) => {
-        q.batch(() => {
-          q.setData(dataFor(list[i], shown) as uPlot.AlignedData, false)
-          q.setScale('x', { min: lo, max: hi })
-        })
-      })
+      // the colour map's chart always: the hover read-out goes by its cursor
+      plots.forEach((_q, k) => (settled || inView[k] || !hasLines[k] ? update(k) : (stale[k] = true)))
       el.dataset['from'] = String(lo)
       el.dataset['to'] = String(hi)
       // the visible range is for the CSV button: said after the zoom settles, so the page does not re-render in the redraw's frame
@@ -232,7 +299,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       visibleTimer = setTimeout(() => setVisible([lo * 1000, hi * 1000]), 250)
     }
     const vis = campaignStore().get().visible
-    if (vis) show(vis[0] / 1000, vis[1] / 1000)
+    if (vis) show(vis[0] / 1000, vis[1] / 1000, true)
 
     // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
     // wheel events come faster than frames: they add up to one range, drawn once a frame
@@ -247,9 +314,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       const u = plots.find((q) => q.over.contains(ev.target as Node))
       if (!u) return
       ev.preventDefault()
-      const { min: shownMin, max: shownMax } = u.scales.x
-      if (shownMin === undefined || shownMax === undefined) return
-      const [min, max] = wheelTarget ?? [shownMin, shownMax]
+      const [min, max] = wheelTarget ?? current
       const span = max - min
       let next: [number, number] | null
       if (ev.shiftKey || Math.abs(ev.deltaX) > Math.abs(ev.deltaY)) {
@@ -279,10 +344,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       if (r) show(r[0], r[1])
     }
     const onKey = (ev: KeyboardEvent) => {
-      const u = plots[0]
-      if (!u) return
-      const { min, max } = u.scales.x
-      if (min === undefined || max === undefined) return
+      const [min, max] = current
       const span = max - min
       const mid = (min + max) / 2
       const act: Record<string, () => void> = {
@@ -323,8 +385,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     const onDown = (ev: MouseEvent) => {
       const u = plots.find((q) => q.over.contains(ev.target as Node))
       if (!u || !(ev.button === 1 || (ev.button === 0 && ev.shiftKey))) return
-      const { min, max } = u.scales.x
-      if (min === undefined || max === undefined) return
+      const [min, max] = current
       ev.preventDefault()
       ev.stopPropagation()
       pan = { x: ev.clientX, min, max, perPx: (max - min) / Math.max(1, u.over.clientWidth), to: ev.clientX, frame: 0 }
@@ -352,6 +413,10 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     return () => {
       unsub()
       clearTimeout(visibleTimer)
+      clearTimeout(settleTimer)
+      cancelAnimationFrame(settleFrame)
+      seen.disconnect()
+      shownPlots.settle = () => {}
       ro.disconnect()
       onPanEnd()
       cancelAnimationFrame(wheelFrame)
@@ -451,6 +516,7 @@ function readoutOf(r: CampaignRecord, s: RecordSeries, i: number, row: number): 
 export function recordPng(): string | null {
   const plots = shownPlots.plots
   if (plots.length === 0) return null
+  shownPlots.settle()
   const ratio = plots[0].ctx.canvas.width / plots[0].width
   const w = plots[0].ctx.canvas.width
   const titleH = 24 * ratio

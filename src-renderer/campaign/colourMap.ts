@@ -1,7 +1,8 @@
 // The record's size distribution as a time–diameter colour map: each pixel of the plot takes the row whose step
 // holds its time and the bin that holds its diameter, coloured by log₁₀ dN/dlogD on a scale of its own
 // (dark violet through blue and green to pale yellow: lightness rises steadily, so it reads in grey and for
-// colour-blind readers). Drawn as one ImageData per redraw, so its cost follows the plot's pixels, not the rows.
+// colour-blind readers). Drawn as one ImageData per redraw, so its cost follows the plot's pixels, not the rows;
+// each cell's colour is worked out once, the first time its row is drawn.
 import type uPlot from 'uplot'
 import { lastAtOrBelow, type CampaignRecord } from '../../src-core/index.ts'
 
@@ -63,9 +64,30 @@ const PACKED: Uint32Array = (() => {
   return out
 })()
 
+/** Kept between redraws: the colours by bin and pixel column (grown as needed). */
+let byBin = new Uint32Array(0)
+
+/** Each cell's colour (0–255) on the scale, worked out the first time its row is drawn (one byte a cell). */
+interface Shades {
+  range: [number, number]
+  shade: Uint8Array
+  done: Uint8Array
+}
+const shadesByRecord = new WeakMap<CampaignRecord, Shades>()
+
+function shadesOf(r: CampaignRecord, range: [number, number]): Shades {
+  let s = shadesByRecord.get(r)
+  if (!s || s.range[0] !== range[0] || s.range[1] !== range[1]) {
+    s = { range: [range[0], range[1]], shade: new Uint8Array(r.times.length * r.bins), done: new Uint8Array(r.times.length) }
+    shadesByRecord.set(r, s)
+  }
+  return s
+}
+
 /**
  * Draws the map into the plot area of `u` (x in s, y in µm on a log scale). Each pixel column takes its row's colours
- * bin by bin (one logarithm a bin, not a pixel), and a column of the same row as the one before copies it.
+ * bin by bin (one logarithm a bin, not a pixel; a column of the same row as the one before copies it), kept bin by
+ * bin across the columns, so that each pixel row of the image is one bin's run of colours, copied whole.
  */
 export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, number]): void {
   const { left, top, width, height } = u.bbox
@@ -74,6 +96,7 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
   const img = u.ctx.createImageData(Math.round(width), Math.round(height))
   const w = img.width
   const e = r.edgesUm
+  const bins = r.bins
   const binOf = new Int32Array(img.height)
   for (let y = 0; y < img.height; y++) {
     const d = u.posToVal(y / ratio, 'y')
@@ -82,29 +105,37 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
   }
   const [a, z] = range
   const scale = 255 / (z - a)
-  const px = new Uint32Array(img.data.buffer)
-  const colourOfBin = new Uint32Array(r.bins)
+  const { shade, done } = shadesOf(r, range)
+  if (byBin.length < bins * w) byBin = new Uint32Array(bins * w)
+  const cols = byBin
   let before = -1
   for (let x = 0; x < w; x++) {
     const row = rowAt(r, u.posToVal(x / ratio, 'x') * 1000)
     if (row < 0) {
+      // a gap: no colour
+      for (let b = 0, o = x; b < bins; b++, o += w) cols[o] = 0
       before = -1
       continue
     }
     if (row === before) {
-      for (let y = 0, o = x; y < img.height; y++, o += w) px[o] = px[o - 1]
+      for (let b = 0, o = x; b < bins; b++, o += w) cols[o] = cols[o - 1]
       continue
     }
     before = row
-    const base = row * r.bins
-    for (let b = 0; b < r.bins; b++) {
-      const v = r.dNdlogD[base + b]
-      colourOfBin[b] = PACKED[v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0]
+    const base = row * bins
+    if (!done[row]) {
+      for (let b = 0; b < bins; b++) {
+        const v = r.dNdlogD[base + b]
+        shade[base + b] = v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0
+      }
+      done[row] = 1
     }
-    for (let y = 0, o = x; y < img.height; y++, o += w) {
-      const b = binOf[y]
-      if (b >= 0) px[o] = colourOfBin[b]
-    }
+    for (let b = 0, o = x; b < bins; b++, o += w) cols[o] = PACKED[shade[base + b]]
+  }
+  const px = new Uint32Array(img.data.buffer)
+  for (let y = 0; y < img.height; y++) {
+    const b = binOf[y]
+    if (b >= 0) px.set(cols.subarray(b * w, b * w + w), y * w)
   }
   u.ctx.putImageData(img, Math.round(left), Math.round(top))
 }

@@ -4,7 +4,8 @@
 // timed inside the page from the chooser's change event to the last chart drawn (reading, the worker's computing,
 // the transfer and the drawing; `worker_s` is the worker's part), the page's longest task meanwhile (how long the page could not answer), a zoom's
 // redraw of every chart (key + and − on the stack, to the next frame; median of 10; also its JavaScript alone and
-// the time to the frame after the one that painted it), a stretch of a day made into
+// the time to the frame after the one that painted it; the lines are thin while zooming, and `settled_after_ms` and
+// `settle_longest_frame_ms` time their redrawing at full width once the zooming stops), a stretch of a day made into
 // a sample (in the page, from the click to the frame after its first figures; also from the test process, which
 // adds Playwright's click and polling), and the page's JavaScript heap (the worker's is not included).
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
@@ -72,6 +73,17 @@ export async function benchUiCampaign(): Promise<void> {
     )
     // the worker's own time (reading, merging, computing), as the view states it
     const worker = Number(/computed in ([0-9.]+) s/.exec((await page.getByTestId('record-summary').textContent()) ?? '')?.[1])
+    // the charts as a user zooms them: the stack scrolled to the top of its panel (how many of them are then in view
+    // is reported: the charts out of view are redrawn when the zooming settles or they come into view)
+    const chartsInView = await page.evaluate(async () => {
+      const stack = document.querySelector('[data-testid="record-stack"]')!
+      stack.scrollIntoView({ block: 'start' })
+      await new Promise((ok) => requestAnimationFrame(() => requestAnimationFrame(ok)))
+      return [...stack.querySelectorAll('figure')].filter((f) => {
+        const r = f.getBoundingClientRect()
+        return r.bottom > 0 && r.top < innerHeight
+      }).length
+    })
     // per redraw: the JavaScript (the key's handler, run at once), to the next frame (as before), and to the frame after
     // the one that painted it (two animation frames: the paint and the compositing of the changed canvases included)
     const redraws: { js: number; frame: number; painted: number }[] = []
@@ -93,6 +105,25 @@ export async function benchUiCampaign(): Promise<void> {
         )
       )
     }
+    // after a zoom the lines, drawn thin during the gesture, are drawn again at their widths once it settles (one chart
+    // a frame, 200 ms after the last zoom): the time from the key to the settled charts, and the longest frame of
+    // that settling (from the third frame after the key, so the zoom's own frame is not counted)
+    const settle = await page.evaluate(async () => {
+      const stack = document.querySelector('[data-testid="record-stack"]') as HTMLElement
+      if (stack.dataset['settled'] === undefined) return { ms: NaN, longest: NaN } // a build without it
+      const t = performance.now()
+      stack.dispatchEvent(new KeyboardEvent('keydown', { key: '+', bubbles: true }))
+      let last = t
+      let longest = 0
+      // (a loop, not a named callback: the bench's transpiler would wrap a named function in a helper the page lacks)
+      for (let frames = 1; ; frames++) {
+        const settled = stack.dataset['settled'] === 'true'
+        const now = await new Promise<number>((ok) => requestAnimationFrame(() => ok(performance.now())))
+        if (frames > 2) longest = Math.max(longest, now - last)
+        last = now
+        if (settled) return { ms: now - t, longest }
+      }
+    })
     // the same wait for the next frame with no work at all: what the redraw figures hold beyond the redraw itself
     const idleFrames: number[] = []
     for (let i = 0; i < 10; i++) idleFrames.push(await page.evaluate(() => new Promise<number>((resolve) => { const t = performance.now(); requestAnimationFrame(() => resolve(performance.now() - t)) })))
@@ -127,11 +158,14 @@ export async function benchUiCampaign(): Promise<void> {
       open_goal_s: 5,
       worker_s: worker,
       longest_task_ms: Math.round(open.longest),
+      charts_in_view: chartsInView,
       redraw_median_ms: Number(median(redraws.map((r) => r.frame)).toFixed(1)),
       redraw_max_ms: Number(Math.max(...redraws.map((r) => r.frame)).toFixed(1)),
       redraw_js_median_ms: Number(median(redraws.map((r) => r.js)).toFixed(1)),
       redraw_painted_median_ms: Number(median(redraws.map((r) => r.painted)).toFixed(1)),
       idle_frame_median_ms: Number(median(idleFrames).toFixed(1)),
+      settled_after_ms: Math.round(settle.ms),
+      settle_longest_frame_ms: Number(settle.longest.toFixed(1)),
       redraw_goal_ms: 50,
       sample_first_figures_ms: Math.round(sampleInPageMs),
       sample_note: 'in the page, from the click event to the frame after the result panel shows figures (fresh or quick)',

@@ -109,6 +109,14 @@ describe('station record', { timeout: 180_000 }, () => {
     await page.mouse.wheel(0, -100)
     await page.mouse.wheel(0, -100)
     await expect.poll(async () => { const r = await range(); return Number(((r[1] - r[0]) / span).toFixed(3)) }).toBe(0.64)
+    // once the zooming settles, every chart (those out of view too) shows that range, its lines at their own width
+    // (they are drawn thinner, and charts out of view are left, while it goes on)
+    await expect.poll(() => stack.evaluate((el) => (el as HTMLElement).dataset['settled'])).toBe('true')
+    const settled = await range()
+    const drawn = await page.locator('.record-chart').evaluateAll((figs) => figs.map((f) => (f as unknown as { drawn: () => { x: number[]; widths: number[] } }).drawn()))
+    expect(drawn.length).toBe(6)
+    for (const d of drawn) expect(d).toEqual({ x: settled, widths: d.widths.map(() => 1.6) })
+    expect(drawn.reduce((n, d) => n + d.widths.length, 0)).toBe(12) // 5 + 2 + 2 + 1 + 2 lines, none on the map
     await page.keyboard.press('Home')
 
     // a typed stretch on the first afternoon: the sample's bins are the mean of those rows
