@@ -64,11 +64,9 @@ export function thermalTwoStream(input: ThermalStackInput): ThermalStackFluxes {
   if (!(D > 0 && Number.isFinite(D))) throw new InputError('diffusivity', `${D} is not a positive number`, 'Give a diffusivity factor such as 2 (hemispheric mean) or 1.66.')
   if (!(eps >= 0 && eps <= 1)) throw new InputError('surfaceEmissivity', `${eps} is outside 0 to 1`, 'Give an emissivity from 0 to 1.')
   if (!(es >= 0 && Number.isFinite(es))) throw new InputError('surfaceEmission', `${es} is not a non-negative flux`, 'Give the band blackbody flux in W m⁻².')
-  // per layer: mode values at top and bottom [Aup, Adn, Bup, Bdn] and particular values [up, dn]
-  const top = new Float64Array(4 * n)
-  const bot = new Float64Array(4 * n)
-  const ptop = new Float64Array(2 * n)
-  const pbot = new Float64Array(2 * n)
+  // per layer: mode values at top and bottom [Aup, Adn, Bup, Bdn] and particular values [up, dn]; these and the
+  // system below in scratch arrays kept between calls (an uncertainty run solves a stack per band in every draw)
+  const { top, bot, ptop, pbot, a, rhs } = scratchFor(n)
   for (let i = 0; i < n; i++) {
     const L = layers[i]
     const t = L.tau
@@ -82,15 +80,16 @@ export function thermalTwoStream(input: ThermalStackInput): ThermalStackFluxes {
     if (w === 1) {
       // F↑ − F↓ constant, F↑ + F↓ linear in τ: modes (1, 1) and ((γ₁ + γ₂)τ ± 1)/2; no emission
       const s = g1 + g2
-      top.set([1, 1, 0.5, -0.5], j)
-      bot.set([1, 1, (s * t + 1) / 2, (s * t - 1) / 2], j)
+      set4(top, j, 1, 1, 0.5, -0.5)
+      set4(bot, j, 1, 1, (s * t + 1) / 2, (s * t - 1) / 2)
+      ptop[2 * i] = ptop[2 * i + 1] = pbot[2 * i] = pbot[2 * i + 1] = 0
       continue
     }
     const lam = Math.sqrt(Math.max(0, g1 * g1 - g2 * g2))
     const G = g2 / (g1 + lam)
     const e = Math.exp(-lam * t)
-    top.set([G, 1, e, G * e], j)
-    bot.set([G * e, e, 1, G], j)
+    set4(top, j, G, 1, e, G * e)
+    set4(bot, j, G * e, e, 1, G)
     const b0 = L.emissionTop
     const b1 = t > 0 ? (L.emissionBottom - L.emissionTop) / t : 0
     const off = b1 / (g1 + g2)
@@ -101,8 +100,6 @@ export function thermalTwoStream(input: ThermalStackInput): ThermalStackFluxes {
   }
   // unknowns x = [A₁, B₁, A₂, B₂, …]; rows: top, 2 per interface, surface
   const m = 2 * n
-  const a = new Float64Array(m * m)
-  const rhs = new Float64Array(m)
   if (n === 0) {
     return { up: Float64Array.of(eps * es), down: Float64Array.of(0) }
   }
@@ -143,6 +140,26 @@ export function thermalTwoStream(input: ThermalStackInput): ThermalStackFluxes {
   up[n] = A * bot[4 * last] + B * bot[4 * last + 2] + pbot[2 * last]
   down[n] = A * bot[4 * last + 1] + B * bot[4 * last + 3] + pbot[2 * last + 1]
   return { up, down }
+}
+
+/** The scratch arrays of thermalTwoStream, room for n layers (grown when a stack has more); the m × m matrix (m = 2n) is
+ * read from the start of `a`, zeroed here. */
+let scratch = { top: new Float64Array(0), bot: new Float64Array(0), ptop: new Float64Array(0), pbot: new Float64Array(0), a: new Float64Array(0), rhs: new Float64Array(0) }
+function scratchFor(n: number): typeof scratch {
+  const m = 2 * n
+  if (scratch.top.length < 4 * n) {
+    scratch = { top: new Float64Array(4 * n), bot: new Float64Array(4 * n), ptop: new Float64Array(2 * n), pbot: new Float64Array(2 * n), a: new Float64Array(m * m), rhs: new Float64Array(m) }
+  }
+  scratch.a.fill(0, 0, m * m)
+  scratch.rhs.fill(0, 0, m)
+  return scratch
+}
+
+function set4(x: Float64Array, j: number, v0: number, v1: number, v2: number, v3: number): void {
+  x[j] = v0
+  x[j + 1] = v1
+  x[j + 2] = v2
+  x[j + 3] = v3
 }
 
 /**

@@ -122,6 +122,19 @@ export function upscatterFunction(row: WavelengthOptics): (mu0: number) => numbe
 /** The largest optical depth at 550 nm the forcing estimate takes (the range of forcingVerdict and forcingMap). */
 export const MAX_FORCING_TAU = 10
 
+/**
+ * The solar bands of the study's wavelengths (sorted), kept for the next call with the same wavelengths: an
+ * uncertainty run asks for those of one wavelength in every draw (their blackbody fractions were a fiftieth of a
+ * draw). Read only.
+ */
+let lastBands: { key: string; bands: ReturnType<typeof solarBandWeights> } | null = null
+function solarBandsOf(sorted: readonly WavelengthOptics[]): ReturnType<typeof solarBandWeights> {
+  const centres = sorted.map((r) => r.wavelength_nm / 1000)
+  const key = centres.join(',')
+  if (lastBands?.key !== key) lastBands = { key, bands: solarBandWeights(centres) }
+  return lastBands.bands
+}
+
 /** The forcing estimate of a sample's layer at a site, with its verdict. */
 export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFAULT_VERDICT_MARGIN_WM2): SampleForcing {
   const rows = optics.wavelengths
@@ -140,7 +153,7 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
   // Spectral: each study wavelength stands for a band of the (Planck 5772 K) solar spectrum; the
   // transmittance above the layer follows the Rayleigh optical depth of the air above it.
   const sorted = [...rows].sort((a, b) => a.wavelength_nm - b.wavelength_nm)
-  const bands = solarBandWeights(sorted.map((r) => r.wavelength_nm / 1000))
+  const bands = solarBandsOf(sorted)
   const p = LAYER_TOP_PRESSURE_HPA
   const tauR550 = rayleighOpticalDepth(0.55, p)
   let spectral = 0

@@ -45,7 +45,7 @@ import { AngularTable, coatedSphereEfficiencies, CoatedWorkspace, sphereEfficien
 import { NODE_ABS, NODE_DUDT, NODE_EXT, NODE_FIELDS, NODE_GSCA, NODE_SCA, NODE_U, NodeCache } from './nodeCache.ts'
 import { shiftToAsymmetry, UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, upscatterFrom } from './upscatter.ts'
 import { addInto, combine, converged, figuresOf, largestChange, residualChange, scaleInto, Sums, type Figures } from './levelSums.ts'
-import { dryIndicesAt, particleGrowth, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
+import { dryIndicesAt, particleGrowthAt, particleGrowthSetting, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
 import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 
 /** A stretch of the size distribution: ln D from lo to hi (D in µm), with dN/dlnD (cm⁻³) there. */
@@ -212,9 +212,11 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
    * The Mie evaluation of the particle at dry ln-diameter u: its efficiencies go to `eff`, its coefficients
    * stay in ws.mie; returns its geometric cross-section (µm²).
    */
+  let growth: ReturnType<typeof particleGrowthSetting> | undefined // at the first evaluation, which throws where it is bad
   const evaluate = (u: number): number => {
     const d = Math.exp(u)
-    const gf = particleGrowth(kind, d, cond.rhPercent, cond.history, cond.temperatureK)
+    if (growth === undefined) growth = particleGrowthSetting(kind, cond.rhPercent, cond.history, cond.temperatureK)
+    const gf = particleGrowthAt(growth, d)
     wetParticle(kind, dry, gf, wet)
     const dw = d * gf
     const x = (Math.PI * dw) / wavelengthUm

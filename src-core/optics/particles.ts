@@ -16,10 +16,13 @@ import { InputError } from '../errors.ts'
 import {
   getMaterial,
   growthFactor,
+  growthFactorAt,
+  growthSetting,
   mixRefractiveIndices,
   mixtureKappa,
   refractiveIndexAt,
   type ComplexRefractiveIndex,
+  type GrowthSetting,
   type Material,
   type MixingRule,
   type PhaseChange
@@ -109,6 +112,20 @@ export function dryIndicesAt(p: ParticleKind, wavelengthUm: number): DryIndices 
 export function particleGrowth(p: ParticleKind, dryDiameterUm: number, rhPercent: number, history: 'rising' | 'falling', temperatureK: number): number {
   if (rhPercent === 0 || p.kappa === 0) return 1
   return growthFactor(dryDiameterUm, p.kappa, rhPercent, { temperatureK, phaseChange: p.phaseChange, history })
+}
+
+/**
+ * particleGrowth for many dry diameters at one humidity: what depends on the kind and the conditions only, worked
+ * out once (null where every diameter grows by 1); particleGrowthAt(setting, D) is particleGrowth(…, D) to the bit.
+ */
+export function particleGrowthSetting(p: ParticleKind, rhPercent: number, history: 'rising' | 'falling', temperatureK: number): GrowthSetting | null {
+  if (rhPercent === 0 || p.kappa === 0) return null
+  return growthSetting(p.kappa, rhPercent, { temperatureK, phaseChange: p.phaseChange, history })
+}
+
+/** Growth factor at a dry diameter (µm) for a setting from particleGrowthSetting. */
+export function particleGrowthAt(setting: GrowthSetting | null, dryDiameterUm: number): number {
+  return setting ? growthFactorAt(dryDiameterUm, setting) : 1
 }
 
 /** The rule for mixing water into the dry matrix. */

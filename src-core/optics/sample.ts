@@ -29,7 +29,7 @@ import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
 import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
 import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, type Conditions, type Population, type SizeSegment } from './integrate.ts'
 import { angstromFit, deciview, deciviewWithheld, layerDepthM, localAbsorptionExponents, localAngstromExponents, rayleighScatteringMm, visibilityWithheld, visualRangeKm } from './metrics.ts'
-import { particleGrowth, resolveComposition, type ParticleKind } from './particles.ts'
+import { particleGrowthAt, particleGrowthSetting, resolveComposition, type ParticleKind } from './particles.ts'
 import { sampleLongwaveSteps } from './longwave.ts'
 import type { AngularOptics, LongwaveOptics, SampleOptics, WavelengthOptics } from './types.ts'
 import { opticsWarnings } from './warnings.ts'
@@ -177,6 +177,7 @@ function populationVolumes(pops: SamplePopulation[], cond: Conditions): { dryVol
     const v = p.mode ? volumeConcentration(p.mode) : binVolumeConcentration(p.bins!)
     let vSum = 0
     let wetSum = 0
+    let growth: ReturnType<typeof particleGrowthSetting> | undefined // at the first point, which throws where it is bad
     for (const seg of p.segments) {
       const panels = p.mode ? 96 : 8
       const h = (seg.hi - seg.lo) / panels
@@ -185,7 +186,8 @@ function populationVolumes(pops: SamplePopulation[], cond: Conditions): { dryVol
           const u = seg.lo + (i + off) * h
           const d = Math.exp(u)
           const dv = seg.density(u) * d * d * d
-          const gf = particleGrowth(p.kind, d, cond.rhPercent, cond.history, cond.temperatureK)
+          if (growth === undefined) growth = particleGrowthSetting(p.kind, cond.rhPercent, cond.history, cond.temperatureK)
+          const gf = particleGrowthAt(growth, d)
           vSum += dv
           wetSum += dv * gf * gf * gf
         }

@@ -109,6 +109,8 @@ export interface UncertaintyPlan {
   own: Material[]
   /** Latin hypercube permutations, one per input. */
   strata: Uint32Array[] | null
+  /** The unperturbed sample's optics at 550 nm with its infrared band optics (what the next two come from). */
+  nominal: SampleOptics
   /** Optics of the unperturbed sample when no input changes the optics (site inputs only). */
   fixedOptics: SampleOptics | null
   /** The unperturbed sample's infrared band optics and wet volume, which the draws scale (see the module note). */
@@ -465,8 +467,10 @@ function spreadSigmas(values: readonly number[], spread: readonly number[], divi
 /**
  * Prepares a run for one sample of a study: its uncertain inputs (the study's settings for that sample plus
  * the site's, unless `options.inputs` replaces them) and the run settings (options override the document).
+ * `nominal`, the `nominal` of a plan made from the same study, sample and options (a worker thread is sent
+ * the main thread's), is used instead of computing the unperturbed sample's optics again.
  */
-export function planUncertainty(study: Study, sampleName: string, options: UncertaintyRunOptions = {}): UncertaintyPlan {
+export function planUncertainty(study: Study, sampleName: string, options: UncertaintyRunOptions = {}, nominal?: SampleOptics): UncertaintyPlan {
   const settings = readUncertaintySettings(study.uncertainty)
   const sample = study.samples.find((s) => s.name === sampleName)
   if (!sample) throw new InputError('uncertainty: sample', `the study has no sample "${sampleName}"`, `Use one of: ${study.samples.map((s) => `"${s.name}"`).join(', ')}.`)
@@ -498,18 +502,19 @@ export function planUncertainty(study: Study, sampleName: string, options: Uncer
   if (sampling === 'latin-hypercube') strata = inputs.map((_, j) => randomPermutation(draws, new Xoshiro128(seed, j, 1)))
   const plan: UncertaintyPlan = {
     sample, site: study.site, study: { user_materials: study.user_materials }, inputs, draws, seed, sampling, precision, minDraws,
-    marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata, fixedOptics: null, longwaveBase: null
+    marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata,
+    nominal: nominal ?? nominalOptics({ study: { user_materials: study.user_materials }, own }, copyJson(sample), new OpticsWorkspace()),
+    fixedOptics: null, longwaveBase: null
   }
-  const nominal = nominalOptics(plan, copyJson(sample), new OpticsWorkspace())
-  if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = nominal
-  else if (nominal.longwave) plan.longwaveBase = { optics: nominal.longwave, wetVolume: nominal.wet_volume_um3_cm3 }
+  if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = plan.nominal
+  else if (plan.nominal.longwave) plan.longwaveBase = { optics: plan.nominal.longwave, wetVolume: plan.nominal.wet_volume_um3_cm3 }
   return plan
 }
 
 // ---------------------------------------------------------------------------------------------------------------
 // Draws
 
-function perturbedMaterials(plan: UncertaintyPlan, index: DrawState['index']): Material[] {
+function perturbedMaterials(plan: Pick<UncertaintyPlan, 'own'>, index: DrawState['index']): Material[] {
   if (!index.size) return plan.own
   const extra: Material[] = []
   for (const [id, ops] of index) {
@@ -548,7 +553,7 @@ export function drawWorkspace(): OpticsWorkspace {
 }
 
 /** The unperturbed sample's optics at 550 nm, with its infrared band optics. */
-function nominalOptics(plan: UncertaintyPlan, sample: Sample, ws: OpticsWorkspace): SampleOptics {
+function nominalOptics(plan: Pick<UncertaintyPlan, 'study' | 'own'>, sample: Sample, ws: OpticsWorkspace): SampleOptics {
   return computeSampleOptics(
     sample,
     { wavelengths_nm: [UNCERTAINTY_WAVELENGTH_NM], user_materials: plan.study.user_materials },

@@ -1,10 +1,14 @@
 // The motebench command line. Each command reads its arguments, calls src-core's public API and prints.
 import { runGuarded, UsageError } from './common.ts'
+import { startUncertaintyWorkersEarly } from './uncertainty-args.ts'
+import { dropEarly } from './workers/early.ts'
 
 /** A command: its one-line summary here, its help and code loaded only when it is run (a quicker start). */
 interface Command {
   summary: string
   load: () => Promise<{ help: string; run: (argv: string[]) => number | Promise<number> }>
+  /** Called with the arguments before `load`: starts what can start while the command's code loads. */
+  early?: (argv: string[]) => void
 }
 
 const commands: Record<string, Command> = {
@@ -19,7 +23,7 @@ const commands: Record<string, Command> = {
   study: { summary: "evaluate a study: every sample's optics, figures and forcing", load: async () => { const m = await import('./study.ts'); return { help: m.studyHelp, run: m.runStudy } } },
   series: { summary: 'optics of every distribution of a sizer time series', load: async () => { const m = await import('./series.ts'); return { help: m.seriesHelp, run: m.runSeries } } },
   merge: { summary: 'several sizers (mobility, aerodynamic, optical) merged into one volume-equivalent distribution', load: async () => { const m = await import('./merge.ts'); return { help: m.mergeHelp, run: m.runMerge } } },
-  uncertainty: { summary: "Monte Carlo uncertainty of a sample's 550 nm optics and forcing", load: async () => { const m = await import('./uncertainty.ts'); return { help: m.uncertaintyHelp, run: m.runUncertaintyCommand } } },
+  uncertainty: { summary: "Monte Carlo uncertainty of a sample's 550 nm optics and forcing", load: async () => { const m = await import('./uncertainty.ts'); return { help: m.uncertaintyHelp, run: m.runUncertaintyCommand } }, early: startUncertaintyWorkersEarly },
   closure: { summary: 'effective refractive index from a size distribution and optical measurements', load: async () => { const m = await import('./closure.ts'); return { help: m.closureHelp, run: m.runClosure } } },
   truncation: { summary: "nephelometer angular-truncation correction from the particles' phase function", load: async () => { const m = await import('./truncation.ts'); return { help: m.truncationHelp, run: m.runTruncation } } },
   join: { summary: "the outputs of a run's shards (--shard K/N) as the run's one output", load: async () => { const m = await import('./join.ts'); return { help: m.joinHelp, run: m.runJoin } } },
@@ -44,8 +48,10 @@ async function main(argv: string[]): Promise<number> {
   }
   const command = commands[name]
   if (!command) throw new UsageError(`unknown command "${name}"; known: ${Object.keys(commands).join(', ')}`)
+  const asksHelp = rest.includes('--help') || rest.includes('-h')
+  if (!asksHelp) command.early?.(rest)
   const { help, run } = await command.load()
-  if (rest.includes('--help') || rest.includes('-h')) {
+  if (asksHelp) {
     process.stdout.write(help + '\n')
     return 0
   }
@@ -53,3 +59,4 @@ async function main(argv: string[]): Promise<number> {
 }
 
 process.exitCode = await runGuarded(() => main(process.argv.slice(2)))
+dropEarly()

@@ -1,7 +1,6 @@
 // motebench uncertainty: Monte Carlo propagation of a sample's input uncertainties to its 550 nm optics and forcing,
 // split over worker threads.
 import { readFile, rename, unlink, writeFile } from 'node:fs/promises'
-import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
 import type { Worker } from 'node:worker_threads'
 import {
@@ -28,8 +27,11 @@ import {
 } from '../../src-core/index.ts'
 import { formatNumber, printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
 import { readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
+import { UNCERTAINTY_ARGS, uncertaintyWorkerCount, wholeArg } from './uncertainty-args.ts'
 import { drawsHead, drawsRows, readDraws } from './uncertainty-draws.ts'
+import { takeEarly } from './workers/early.ts'
 import { startCliWorker } from './workers/start.ts'
+import type { ToUncertaintyWorker } from './workers/uncertainty-worker.ts'
 
 export const uncertaintyHelp = `motebench uncertainty FILE.mote --sample NAME: Monte Carlo uncertainty of a sample's 550 nm optics and forcing
   FILE.mote             a study whose "uncertainty" settings list the sample's uncertain inputs:
@@ -76,8 +78,8 @@ export interface ParallelOptions {
 const FORCING = UNCERTAINTY_FIGURES.findIndex((f) => f.key === UNCERTAINTY_VERDICT_FIGURE)
 
 /** Starts one uncertainty worker thread (built JavaScript when the command line is built; see workers/start.ts). */
-export function startUncertaintyWorker(workerData: unknown): Worker {
-  return startCliWorker('uncertainty-worker', workerData)
+export function startUncertaintyWorker(): Worker {
+  return startCliWorker('uncertainty-worker', undefined)
 }
 
 /** Contiguous draws from `from` among the received blocks. */
@@ -93,13 +95,30 @@ function prefixOf(blocks: DrawBlock[], nIn: number, from = 0): DrawBlock {
   return mergeDrawBlocks(take, nIn)
 }
 
-/** Draws per block handed to a thread. */
+/** Draws per block handed to a thread, and the fewest in the last blocks (see drawBlocks). */
 const BLOCK_DRAWS = 25
+const LAST_BLOCK_DRAWS = 4
 
 /**
- * An uncertainty run split over threads: this thread and `workers` worker threads take blocks of
- * BLOCK_DRAWS draws in order as they become free (this thread starts at once; a worker joins when it has
- * loaded, which takes a second or more). The early stop is judged on the draws from 0 in order at fixed
+ * The blocks of draws [from, to) for `threads` threads: BLOCK_DRAWS each, smaller towards the end (a quarter of
+ * what is left per thread, at least LAST_BLOCK_DRAWS), so that the threads finish close together (a whole block
+ * at the end left the other thread idle for up to 25 draws).
+ */
+export function drawBlocks(from: number, to: number, threads: number): [number, number][] {
+  const blocks: [number, number][] = []
+  for (let s = from; s < to; ) {
+    const size = Math.max(LAST_BLOCK_DRAWS, Math.min(BLOCK_DRAWS, Math.ceil((to - s) / (4 * threads))))
+    const e = Math.min(to, s + size)
+    blocks.push([s, e])
+    s = e
+  }
+  return blocks
+}
+
+/**
+ * An uncertainty run split over threads: this thread and `workers` worker threads take blocks of draws
+ * (drawBlocks) in order as they become free (this thread starts at once; a worker joins when it has loaded and
+ * planned: started by main.ts while this thread loads the command, it is ready about when this thread's plan is). The early stop is judged on the draws from 0 in order at fixed
  * checkpoints, so the result is the same for any number of workers (and the same as `runUncertainty`).
  */
 export async function runUncertaintyInWorkers(study: Study, sampleName: string, options: UncertaintyRunOptions, parallel: ParallelOptions): Promise<UncertaintyResult> {
@@ -115,8 +134,7 @@ export async function runUncertaintyInWorkers(study: Study, sampleName: string, 
 export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleName: string, options: UncertaintyRunOptions, parallel: ParallelOptions, range: [number, number] = [0, plan.draws]): Promise<{ block: DrawBlock; status: UncertaintyStatus }> {
   const nIn = plan.inputs.length
   const [from, to] = range
-  const chunks: [number, number][] = []
-  for (let s = from; s < to; s += BLOCK_DRAWS) chunks.push([s, Math.min(to, s + BLOCK_DRAWS)])
+  const chunks = drawBlocks(from, to, 1 + Math.max(0, parallel.workers))
   const nWorkers = Math.max(0, Math.min(parallel.workers, chunks.length - 1))
   const blocks: DrawBlock[] = []
   let status: UncertaintyStatus = 'completed'
@@ -156,10 +174,18 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
     const give = (w: Worker) => {
       if (finished || nextChunk >= chunks.length) return
       const [start, end] = chunks[nextChunk++]
-      w.postMessage({ type: 'draws', start, end })
+      w.postMessage({ type: 'draws', start, end } satisfies ToUncertaintyWorker)
+    }
+    // the workers main.ts started while the command loaded (workers/early.ts), then new ones
+    let early: Worker[]
+    try {
+      early = takeEarly('uncertainty-worker', nWorkers)
+    } catch (e) {
+      finish(e)
+      return
     }
     for (let k = 0; k < nWorkers; k++) {
-      const w = startUncertaintyWorker({ study, sampleName, options })
+      const w = early[k] ?? startUncertaintyWorker()
       workers.push(w)
       w.on('message', (m: { type: string; start: number; count: number; inputs: Float64Array; outputs: Float64Array; input?: boolean; where?: string; fix?: string; message?: string }) => {
         if (finished) return
@@ -180,6 +206,7 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
       w.on('exit', (code) => {
         if (!finished && code !== 0) finish(new Error(`uncertainty worker stopped with exit code ${code}`))
       })
+      w.postMessage({ type: 'plan', study, sampleName, options, nominal: plan.nominal } satisfies ToUncertaintyWorker)
     }
     // This thread works too, one block at a time, yielding between blocks for messages and Ctrl-C.
     const ws = drawWorkspace()
@@ -203,33 +230,10 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
 }
 
 export async function runUncertaintyCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = readArgs(
-    'uncertainty',
-    argv,
-    {
-      sample: { type: 'string' },
-      draws: { type: 'string' },
-      seed: { type: 'string' },
-      lhs: { type: 'boolean', default: false },
-      precision: { type: 'string' },
-      'min-draws': { type: 'string' },
-      workers: { type: 'string' },
-      json: { type: 'boolean', default: false },
-      shard: { type: 'string' },
-      out: { type: 'string' },
-      'save-draws': { type: 'string' },
-      'from-draws': { type: 'string' }
-    },
-    true
-  )
+  const { values, positionals } = readArgs('uncertainty', argv, UNCERTAINTY_ARGS, true)
   if (positionals.length !== 1) throw new UsageError('uncertainty: give one study file, for example "motebench uncertainty demo.mote --sample \'Winter wood smoke\'"')
   if (values.sample === undefined) throw new UsageError('uncertainty: --sample is required, for example --sample "Winter wood smoke"')
-  const whole = (text: string | undefined, flag: string, lo: number) => {
-    if (text === undefined) return undefined
-    const v = readNumber(text, flag)
-    if (!Number.isInteger(v) || v < lo) throw new UsageError(`${flag}: "${text}" is not a whole number of at least ${lo}`)
-    return v
-  }
+  const whole = wholeArg
   const file = positionals[0]
   const parsed = parseStudy(await readFile(file, 'utf8'), basename(file))
   if (!parsed.ok) {
@@ -243,7 +247,7 @@ export async function runUncertaintyCommand(argv: string[]): Promise<number> {
     precision: values.precision === undefined ? undefined : readNumber(values.precision, '--precision'),
     minDraws: whole(values['min-draws'], '--min-draws', 1)
   }
-  const workers = whole(values.workers, '--workers', 0) ?? Math.min(7, availableParallelism() - 1)
+  const workers = uncertaintyWorkerCount(values.workers)
   const shard = readShard(values.shard, 'uncertainty')
   if (values.out !== undefined && !shard) throw new UsageError('uncertainty: --out is for the draws of a --shard K/N; the report goes to standard output (--save-draws FILE keeps every draw)')
   const sharded = shard !== undefined || values['save-draws'] !== undefined || values['from-draws'] !== undefined

@@ -4,6 +4,8 @@ import {
   KELVIN_TERM_CONSTANTS,
   getMaterial,
   growthFactor,
+  growthFactorAt,
+  growthSetting,
   mixRefractiveIndices,
   mixtureKappa,
   refractiveIndexAt,
@@ -174,5 +176,27 @@ describe('mixture κ, water fraction and wet index', () => {
     expect(wet.n).toBeCloseTo(viaMix.n, 14)
     // linear volume mixing: n = f_w n_w + (1 − f_w) n_d (common practice)
     expect(wet.n).toBeCloseTo(fw * water.n + (1 - fw) * dry.n, 12)
+  })
+})
+
+describe('growthSetting / growthFactorAt (one humidity, many diameters)', () => {
+  it('a setting reused over many diameters gives growthFactor to the bit, in any order (it keeps nothing between calls)', () => {
+    const salt = getMaterial('ammonium-sulfate').phaseChange
+    const cases = [
+      { kappa: 0.61, rh: 85, options: {} },
+      { kappa: 0.1, rh: 99.5, options: { temperatureK: 263 } },
+      { kappa: 1.2, rh: 40, options: NO_KELVIN },
+      { kappa: 0.61, rh: 60, options: { phaseChange: salt, history: 'falling' as const } },
+      { kappa: 0.61, rh: 60, options: { phaseChange: salt, history: 'rising' as const } },
+      { kappa: 0, rh: 90, options: {} },
+      { kappa: 0.3, rh: 0, options: {} }
+    ]
+    const diameters = [0.003, 0.01, 0.0317, 0.1, 0.35, 1, 4.2, 10, 0.02, 0.003]
+    for (const c of cases) {
+      const setting = growthSetting(c.kappa, c.rh, c.options)
+      for (const d of diameters) expect(growthFactorAt(d, setting)).toBe(growthFactor(d, c.kappa, c.rh, c.options))
+    }
+    expect(() => growthFactorAt(-1, growthSetting(0.5, 80))).toThrow(InputError)
+    expect(() => growthSetting(0.5, 100)).toThrow(/saturation/)
   })
 })
