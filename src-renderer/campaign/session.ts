@@ -21,7 +21,7 @@ import type { InstrumentFile } from '../../src-main/host-api.ts'
 import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
-import type { FromRecordWorker, MeasuredFile, PartnerPlan, RecordWorkerInput, ToRecordWorker } from './worker.ts'
+import type { FromRecordWorker, MeasuredFile, RecordWorkerInput, ToRecordWorker } from './worker.ts'
 import { warmStretchNodes } from './warm.ts'
 import { holdFile, nextSerial, type HeldFile } from './held.ts'
 
@@ -196,9 +196,6 @@ let worker: Worker | null = null
  * the optics workers compute the sample.
  */
 let spare: Worker | null = null
-/** The record worker's partner, which reads part of the files beside it (worker.ts), and its spare (its texts decoded by `hold`). */
-let partner: Worker | null = null
-let sparePartner: Worker | null = null
 let job = 0
 let timer: ReturnType<typeof setTimeout> | undefined
 let lastKey = ''
@@ -206,8 +203,6 @@ let lastKey = ''
 function stopWorker(): void {
   worker?.terminate()
   worker = null
-  partner?.terminate()
-  partner = null
 }
 
 const newWorker = (): Worker => new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
@@ -215,29 +210,6 @@ const newWorker = (): Worker => new Worker(new URL('./worker.ts', import.meta.ur
 function spareWorker(): void {
   if (typeof Worker === 'undefined') return // tests of the session without a page
   spare ??= newWorker()
-  sparePartner ??= newWorker()
-}
-
-/**
- * The share of a sizer file the record's worker reads itself: half, with half the measured files (of the bench's
- * year, the sizer's reading is about 2.4 s of processor and each measured file's about 0.4 s); its partner reads the
- * rest of each.
- */
-const SIZER_SHARE = 0.5
-/** Files smaller than this are read whole by the record's worker (worker.ts, sizerCut). */
-const SPLIT_CHARS = 4_000_000
-
-/**
- * What the partner reads: the rest of the largest sizer file held as a file (a desktop's sizer text is not copied to
- * a second worker) and the first half of the measured files (all of them when no sizer file is cut).
- */
-function partnerPlan(inputs: RecordWorkerInput[], sizes: Map<number, number>): PartnerPlan | null {
-  const measured = inputs.filter((i) => !isSizerKind(i.kind)).map((i) => i.serial)
-  const sizers = inputs.filter((i) => isSizerKind(i.kind) && 'blob' in i && (sizes.get(i.serial) ?? 0) >= SPLIT_CHARS)
-  const largest = sizers.sort((a, b) => (sizes.get(b.serial) ?? 0) - (sizes.get(a.serial) ?? 0))[0]
-  const instruments = largest ? measured.slice(0, Math.ceil(measured.length / 2)) : measured
-  if (!largest && instruments.length === 0) return null
-  return { ...(largest ? { split: { serial: largest.serial, share: SIZER_SHARE } } : {}), instruments }
 }
 
 /** Starts a record worker ahead (the station record shown without files yet), so that adding files need not wait for its script. */
@@ -252,9 +224,6 @@ async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
   const blobs = chosen.flatMap((f) => ('blob' in f ? [{ serial: nextSerial(), blob: f.blob }] : []))
   let measured: MeasuredFile[] | null = null
   if (blobs.length > 0 && typeof Worker !== 'undefined') {
-    // the partner decodes them meanwhile, for the part of the reading it will be given
-    sparePartner ??= newWorker()
-    sparePartner.postMessage({ type: 'hold', files: blobs } satisfies ToRecordWorker)
     const w = spare ?? newWorker()
     spare = null // this one is busy until it answers; a refresh meanwhile starts another
     measured = await new Promise<MeasuredFile[] | null>((resolve) => {
@@ -324,11 +293,6 @@ async function start(force: boolean): Promise<void> {
   const w = spare!
   spare = null
   worker = w
-  const p = sparePartner
-  sparePartner = null
-  const plan = p && partnerPlan(inputs, new Map(c.files.filter((f) => texts[f.path]).map((f) => [texts[f.path].serial, texts[f.path].size])))
-  if (p && !plan) p.terminate()
-  partner = plan ? p : null
   session.set({ running: true, share: 0, failure: null })
   w.onmessage = (e: MessageEvent<FromRecordWorker>) => {
     const m = e.data
@@ -344,18 +308,7 @@ async function start(force: boolean): Promise<void> {
     stopWorker()
     session.set({ running: false, failure: `The computation stopped (${e.message || 'worker failure'}). Press “Compute again”.` })
   }
-  const studyPart = { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm }
-  if (partner && plan) {
-    const { port1, port2 } = new MessageChannel()
-    const its = new Set([plan.split?.serial, ...plan.instruments])
-    partner.onerror = (e) => {
-      // the record's worker reads what the partner did not hand over
-      e.preventDefault()
-      if (job === mine) w.postMessage({ type: 'partner-lost' } satisfies ToRecordWorker)
-    }
-    partner.postMessage({ type: 'read', inputs: inputs.filter((i) => its.has(i.serial)), port: port2, plan } satisfies ToRecordWorker, [port2])
-    w.postMessage({ type: 'record', job: mine, inputs, settings: c, study: studyPart, partner: { port: port1, plan } } satisfies ToRecordWorker, [port1])
-  } else w.postMessage({ type: 'record', job: mine, inputs, settings: c, study: studyPart } satisfies ToRecordWorker)
+  w.postMessage({ type: 'record', job: mine, inputs, settings: c, study: { samples: [structuredClone(sample!)], user_materials: study.user_materials, wavelengths_nm: study.wavelengths_nm } } satisfies ToRecordWorker)
 }
 
 /**
