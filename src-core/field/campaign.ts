@@ -177,36 +177,61 @@ function singleRows(s: ReadSizer): Rows {
   }
 }
 
+/** A campaign's files as read (readCampaignFiles): every file's summary, and those that could be read. */
+export interface CampaignFiles {
+  files: CampaignFileSummary[]
+  sizers: ReadSizer[]
+  instruments: ReadInstrument[]
+}
+
+type RecordOptions = { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void; figures?: 'all' | 'charts' }
+
 /**
  * The record of a campaign from its files' texts. A file that cannot be read is refused in its summary and left
  * out; without a readable sizer there is no record (`problem` says why). Throws InputError only for what no file
- * alone is to blame for (the study's sample or composition, clocks of different forms).
+ * alone is to blame for (the study's sample or composition, clocks of different forms). The reading
+ * (readCampaignFiles) and the record made from what was read (campaignRecord) are also there apart, for readers
+ * that share the files (the app's workers).
  */
-export function buildCampaignRecord(
-  inputs: readonly CampaignInput[],
-  settings: CampaignSettings,
-  study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>,
-  options: { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void; figures?: 'all' | 'charts' } = {}
-): CampaignBuild {
-  const progress = options.onProgress ?? (() => {})
+export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: RecordOptions = {}): CampaignBuild {
+  checkCampaign(inputs, settings, study)
+  const read = readCampaignFiles(inputs, settings)
+  options.onProgress?.(0.2)
+  return campaignRecord(read, settings, study, options)
+}
+
+/** Throws InputError when the campaign cannot be made whatever its files hold: no such sample, a parameter missing. */
+export function checkCampaign(inputs: readonly Pick<CampaignInput, 'kind' | 'name'>[], settings: CampaignSettings, study: Pick<Study, 'samples'>): Sample {
   const sample = study.samples.find((s) => s.name === settings.sample)
   if (!sample) throw new InputError('campaign.sample', `no sample is named "${settings.sample}"`, 'Choose the sample whose composition and humidity the record takes.')
   // what the merge needs, for the files given (the settings' own file list may lag behind)
   const problem = campaignProblems({ ...settings, files: inputs.map((i) => ({ kind: i.kind, path: i.name })) }, [sample.name])[0]
   if (problem) throw new InputError(problem.path, problem.message, problem.fix)
-  const sizers: ReadSizer[] = []
-  const instruments: ReadInstrument[] = []
-  const files: CampaignFileSummary[] = []
-  for (const input of inputs) {
-    const r = isSizerKind(input.kind) ? readCampaignSizer(input, settings.density_g_cm3) : readCampaignInstrument(input)
-    files.push(r.summary)
-    if (!r.summary.ok) continue
-    if ('table' in r) sizers.push(r as ReadSizer)
-    else instruments.push(r as ReadInstrument)
-  }
-  progress(0.2)
+  return sample
+}
+
+/** Each file read on its own (a file that cannot be read is refused in its summary). */
+export function readCampaignFiles(inputs: readonly CampaignInput[], settings: Pick<CampaignSettings, 'density_g_cm3'>): CampaignFiles {
+  const read: CampaignFiles = { files: [], sizers: [], instruments: [] }
+  for (const input of inputs) addCampaignFile(read, isSizerKind(input.kind) ? readCampaignSizer(input, settings.density_g_cm3) : readCampaignInstrument(input))
+  return read
+}
+
+/** Adds a file's reading (in the files' order): its summary, and the file itself when it could be read. */
+export function addCampaignFile(read: CampaignFiles, r: ReadSizer | ReadInstrument | { summary: CampaignFileSummary }): void {
+  read.files.push(r.summary)
+  if (!r.summary.ok) return
+  if ('table' in r) read.sizers.push(r)
+  else if ('records' in r) read.instruments.push(r)
+}
+
+/** The record from the campaign's files as read (the second half of buildCampaignRecord). */
+export function campaignRecord(read: CampaignFiles, settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: RecordOptions = {}): CampaignBuild {
+  const progress = options.onProgress ?? (() => {})
+  const sample = checkCampaign(read.files, settings, study)
+  const { files, sizers, instruments } = read
   if (sizers.length === 0) {
-    const any = inputs.some((i) => isSizerKind(i.kind))
+    const any = files.some((f) => isSizerKind(f.kind))
     return { files, problem: any ? { message: 'no sizer file could be read', fix: 'Fix the sizer file as its summary says, or point at the right file.' } : { message: 'the campaign has no sizer file yet', fix: 'Add a mobility, aerodynamic or optical sizer export, or a merged size distribution.' } }
   }
   const rows = sizers.length > 1 ? mergedRows(sizers, settings) : singleRows(sizers[0])

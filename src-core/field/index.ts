@@ -116,10 +116,32 @@ export {
   type CampaignInput,
   type CampaignFileSummary,
   type LeftOutRow,
+  type ReadInstrument,
+  type ReadSizer,
+  type SizerPart,
+  type LineCut,
   readCampaignSizer,
-  readCampaignInstrument
+  readCampaignInstrument,
+  readSizerPart,
+  sizerCut,
+  partsJoin,
+  finishSizer
 } from './campaign-read.ts'
-export { type CampaignRecord, type CampaignBuild, figureColumns, buildCampaignRecord, chartWavelengthsNm, completeRecord, recordComplete } from './campaign.ts'
+export { type PackedInstrument, type PackedSizerPart, packedBuffers, packInstrument, packSizerPart, unpackInstrument, unpackSizerPart } from './campaign-pack.ts'
+export {
+  type CampaignRecord,
+  type CampaignBuild,
+  type CampaignFiles,
+  figureColumns,
+  buildCampaignRecord,
+  checkCampaign,
+  readCampaignFiles,
+  addCampaignFile,
+  campaignRecord,
+  chartWavelengthsNm,
+  completeRecord,
+  recordComplete
+} from './campaign.ts'
 export {
   RECORD_SERIES,
   type RecordSeriesName,

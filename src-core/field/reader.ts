@@ -66,6 +66,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
   const zero = options.negatives === 'zero'
   const file = options.fileName
   const onRecord = options.onRecord ?? (() => {})
+  const rowsFrom = options.rowsFrom ?? 0
   let lineNo = 0
   let buffered = 0
   let buffer: { line: number; text: string }[] | undefined = []
@@ -200,6 +201,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
   }
 
   const processRow = (line: number, text: string): void => {
+    if (line < rowsFrom) return
     const h = det!.header
     const s = splitter!
     if (s.split(text) === 0) return
@@ -340,8 +342,11 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     get header() {
       return det?.header
     },
-    push(text: string): void {
-      lineNo++
+    get orderPending() {
+      return held !== undefined
+    },
+    push(text: string, at?: number): void {
+      lineNo = at ?? lineNo + 1
       if (lineNo === 1 && text.charCodeAt(0) === 0xfeff) text = text.slice(1)
       if (buffer) {
         buffer.push({ line: lineNo, text })

@@ -122,12 +122,14 @@ export interface SizerSummary extends SizerHeader {
 }
 
 export interface SizerReader {
-  /** One line of the file, without its line break. */
-  push(line: string): void
+  /** One line of the file, without its line break; `lineNo` numbers it (and the lines after it) when lines were skipped. */
+  push(line: string, lineNo?: number): void
   /** No more lines: reads what is left, returns the summary. Throws InputError when no table was found. */
   end(): SizerSummary
   /** Known once enough lines were seen to recognise the table. */
   readonly header: SizerHeader | undefined
+  /** True while rows are held back because the date order is not known yet. */
+  readonly orderPending: boolean
 }
 
 export interface SizerReaderOptions extends SizerOptions {
@@ -136,4 +138,9 @@ export interface SizerReaderOptions extends SizerOptions {
   maxKeptRejections?: number
   /** Hand every record the same `values` array, overwritten by the next row (the callee copies what it keeps). */
   reuseBuffer?: boolean
+  /**
+   * Read no row on a line before this one (a later part of a file: the table is recognised from the file's first
+   * lines as a whole reader recognises it, then the part's lines are pushed with their numbers).
+   */
+  rowsFrom?: number
 }
