@@ -30,13 +30,8 @@ async function addBlankSample(page: Page): Promise<number> {
   return 5
 }
 
-describe('own components and per-mode compositions', { timeout: 120_000 }, () => {
-  test('an own constant-index component chosen for a sample changes σabs; a bad k is marked at its field', async () => {
-    const page = await openApp()
-    const i = await addBlankSample(page)
-    const before = await sigmaAbs550(page)
-    expect(Number.isFinite(before)).toBe(true)
-
+/** Opens the study's own components and adds "Lab soot": density 1.8 g cm⁻³, m = 1.8 + 0.6i at every wavelength. */
+async function addLabSoot(page: Page): Promise<void> {
     await page.locator('[data-testid="own-components"] > summary').click()
     await page.getByTestId('add-own-component').click()
     await page.locator('[data-path="user_materials[0].id"]').fill('lab-soot')
@@ -44,6 +39,16 @@ describe('own components and per-mode compositions', { timeout: 120_000 }, () =>
     await page.locator('[data-path="user_materials[0].density_g_cm3"]').fill('1.8')
     await page.locator('[data-path="user_materials[0].index.n"]').fill('1.8')
     await page.locator('[data-path="user_materials[0].index.k"]').fill('0.6')
+}
+
+describe('own components and per-mode compositions', { timeout: 120_000 }, () => {
+  test('an own constant-index component chosen for a sample changes σabs; a bad k is marked at its field', async () => {
+    const page = await openApp()
+    const i = await addBlankSample(page)
+    const before = await sigmaAbs550(page)
+    expect(Number.isFinite(before)).toBe(true)
+
+    await addLabSoot(page)
     expect(await page.locator('[data-error-for^="user_materials[0]"]').count()).toBe(0)
 
     const component = page.locator(`[data-path="samples[${i}].composition.components[0].material"]`)
@@ -90,17 +95,11 @@ describe('own components and per-mode compositions', { timeout: 120_000 }, () =>
   })
 
   test('an own component given by expressions is computed by the workers, and at 550 nm equals the same index given as a constant', async () => {
-    // The optics workers load the expression compiler only for a study that has expression components (src-core's
-    // compute.ts leaves it out); the figures must be those of the index the expressions give.
+    // The optics workers are built without the expression compiler and load it only for a study that has
+    // expression components (vite.shared.ts); the figures must be those of the index the expressions give.
     const page = await openApp()
     const i = await addBlankSample(page)
-    await page.locator('[data-testid="own-components"] > summary').click()
-    await page.getByTestId('add-own-component').click()
-    await page.locator('[data-path="user_materials[0].id"]').fill('lab-soot')
-    await page.locator('[data-path="user_materials[0].name"]').fill('Lab soot')
-    await page.locator('[data-path="user_materials[0].density_g_cm3"]').fill('1.8')
-    await page.locator('[data-path="user_materials[0].index.n"]').fill('1.8')
-    await page.locator('[data-path="user_materials[0].index.k"]').fill('0.6')
+    await addLabSoot(page)
     await page.locator(`[data-path="samples[${i}].composition.components[0].material"]`).selectOption('lab-soot')
     await waitForResults(page)
     const constant = await sigmaAbs550(page)
