@@ -1,6 +1,6 @@
 // The computing worker: all physics runs here and in its helpers, through src-core's public API only (its
-// computing entry, compute.ts: a script a sixth of the size of one with the whole of src-core, so the workers start
-// sooner).
+// computing entry, compute.ts; the build leaves mathjs out of these two workers, vite.shared.ts: their scripts are a
+// sixth of the size, so they start sooner).
 //
 // Each optics workspace lives as long as its worker, so its node cache carries every Mie evaluation from one
 // edit to the next. A sample's wavelengths are shared between this worker and its helpers (one per further
@@ -102,10 +102,9 @@ async function together<M, T>(mine: Generator<void, M>, theirs: Promise<T | null
 
 /** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
 async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0): Promise<SampleOptics | undefined> {
-  const workers = helpers
-  const shares = wavelengthShares(study.wavelengths_nm, workers.length + 1)
+  const shares = wavelengthShares(study.wavelengths_nm, helpers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
-  const theirs = workers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
+  const theirs = helpers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
   if (holdMs > 0) await new Promise((resolve) => setTimeout(resolve, holdMs))
   const parts = await together(ownShare(study, shares[0], grid), theirs, job)
   if (!parts) return undefined
@@ -121,10 +120,9 @@ function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coa
 
 /** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */
 async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthCurve | undefined> {
-  const workers = helpers
-  const threads = workers.length + 1
+  const threads = helpers.length + 1
   const mineAt = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === 0)
-  const theirs = workers.map((w, k) => {
+  const theirs = helpers.map((w, k) => {
     const humidities = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === k + 1)
     return humidities.length ? ask<number[]>(w, { type: 'humidity', job, study, humidities }) : Promise.resolve([])
   })
@@ -205,7 +203,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
   post({ type: 'finished', job: m.job })
 }
 
-/** Loads the expression compiler where a study given to the workers has expression components (compute.ts leaves it out). */
+/** Loads the expression compiler where a study given to the workers has expression components (the build leaves it out: vite.shared.ts). */
 async function expressionsReady(studies: readonly Study[]): Promise<void> {
   if (studies.some(needsExpressionCompiler)) await loadExpressionCompiler()
 }

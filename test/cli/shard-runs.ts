@@ -1,7 +1,9 @@
 // Shared by the shard tests: the three commands' arguments on small inputs, a study with uncertain inputs, and
 // running a command whole and in N shards put together by `motebench join`.
-import { readFile, writeFile } from 'node:fs/promises'
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { afterAll, beforeAll } from 'vitest'
 import { demoStudy } from '../../src-core/index.ts'
 import { UNCERTAINTY_DEMO_INPUTS } from '../bench/uncertainty.bench.ts'
 import { repo, run } from './helpers.ts'
@@ -21,6 +23,20 @@ export async function uncertainStudy(dir: string): Promise<string> {
   const path = join(dir, 'uncertain.mote')
   await writeFile(path, JSON.stringify(study))
   return path
+}
+
+/**
+ * For a test file: a temporary folder holding uncertainStudy's study, made before its tests and removed after them.
+ * The returned object's `dir` and `study` are set once the tests run.
+ */
+export function uncertainStudyFolder(prefix: string): { dir: string; study: string } {
+  const here = { dir: '', study: '' }
+  beforeAll(async () => {
+    here.dir = await mkdtemp(join(tmpdir(), prefix))
+    here.study = await uncertainStudy(here.dir)
+  })
+  afterAll(() => rm(here.dir, { recursive: true, force: true }))
+  return here
 }
 
 /** The output file of the whole run (`--out` or `--save-draws`), and its exit code. */

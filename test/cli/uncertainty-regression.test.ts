@@ -10,35 +10,26 @@
 //   fixtures/uncertainty-regression.draws.csv: the draws file of --draws 150 --seed 4 --precision 0 --workers 0
 //     --save-draws FILE without its first line (the title names the run's fingerprint): every draw's variates
 //     and figures in shortest round-trip precision.
-import { mkdtemp, readFile, rm } from 'node:fs/promises'
-import { tmpdir } from 'node:os'
+import { readFile } from 'node:fs/promises'
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { repo, run } from './helpers.ts'
-import { uncertainStudy } from './shard-runs.ts'
+import { uncertainStudyFolder } from './shard-runs.ts'
 
-let dir: string
-let study: string
-beforeAll(async () => {
-  dir = await mkdtemp(join(tmpdir(), 'motebench-uncertainty-regression-'))
-  study = await uncertainStudy(dir)
-})
-afterAll(async () => {
-  await rm(dir, { recursive: true, force: true })
-})
+const folder = uncertainStudyFolder('motebench-uncertainty-regression-')
 
 const fixture = (name: string) => readFile(join(repo, 'test/cli/fixtures', name), 'utf8')
 
 describe('motebench uncertainty: same draws as before the draws were made faster', () => {
   it('the JSON report of 300 draws (two threads) is the recorded one byte for byte', { timeout: 120_000 }, async () => {
-    const r = await run(['uncertainty', study, '--sample', 'Winter wood smoke', '--draws', '300', '--seed', '11', '--precision', '0', '--workers', '1', '--json'])
+    const r = await run(['uncertainty', folder.study, '--sample', 'Winter wood smoke', '--draws', '300', '--seed', '11', '--precision', '0', '--workers', '1', '--json'])
     expect(r.code, r.stderr).toBe(0)
     expect(r.stdout).toBe(await fixture('uncertainty-regression.expected.json'))
   })
 
   it("every draw's variates and figures (150 draws, full precision) are the recorded ones", { timeout: 120_000 }, async () => {
-    const out = join(dir, 'draws.csv')
-    const r = await run(['uncertainty', study, '--sample', 'Winter wood smoke', '--draws', '150', '--seed', '4', '--precision', '0', '--workers', '0', '--save-draws', out])
+    const out = join(folder.dir, 'draws.csv')
+    const r = await run(['uncertainty', folder.study, '--sample', 'Winter wood smoke', '--draws', '150', '--seed', '4', '--precision', '0', '--workers', '0', '--save-draws', out])
     expect(r.code, r.stderr).toBe(0)
     const lines = (await readFile(out, 'utf8')).split('\n')
     expect(lines.slice(1).join('\n')).toBe(await fixture('uncertainty-regression.draws.csv'))

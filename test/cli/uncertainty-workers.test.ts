@@ -2,25 +2,14 @@
 // byte for byte whatever --workers (draw i's random numbers come from the seed and i alone, so how the draws are
 // split into blocks and shared among the threads cannot change them), with and without the early stop; the workers
 // main.ts starts before the command loads (workers/early.ts) do not keep a failed or a small run from ending.
-import { mkdtemp, rm } from 'node:fs/promises'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { drawBlocks } from '../../src-main/cli/uncertainty.ts'
 import { expectOneLine, run } from './helpers.ts'
-import { uncertainStudy } from './shard-runs.ts'
+import { uncertainStudyFolder } from './shard-runs.ts'
 
-let dir: string
-let study: string
-beforeAll(async () => {
-  dir = await mkdtemp(join(tmpdir(), 'motebench-uncertainty-workers-'))
-  study = await uncertainStudy(dir)
-})
-afterAll(async () => {
-  await rm(dir, { recursive: true, force: true })
-})
+const folder = uncertainStudyFolder('motebench-uncertainty-workers-')
 
-const args = (...more: string[]) => ['uncertainty', study, '--sample', 'Winter wood smoke', ...more]
+const args = (...more: string[]) => ['uncertainty', folder.study, '--sample', 'Winter wood smoke', ...more]
 
 describe('drawBlocks', () => {
   it('covers the draws once, in order, in blocks of 25 that shrink towards the end (at least 4)', () => {
@@ -60,7 +49,7 @@ describe('uncertainty over worker threads', () => {
     expect(bad.code).toBe(2)
     expectOneLine(bad.stderr)
     expect(bad.stderr).toMatch(/--seed/)
-    const noSample = await run(['uncertainty', study, '--sample', 'No such sample', '--workers', '2'])
+    const noSample = await run(['uncertainty', folder.study, '--sample', 'No such sample', '--workers', '2'])
     expect(noSample.code).toBe(2)
     expect(noSample.stderr).toMatch(/no sample "No such sample"/)
     const one = await run(args('--draws', '1', '--workers', '2', '--json'))
