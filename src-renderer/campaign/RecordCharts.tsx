@@ -3,6 +3,7 @@
 // (mouse wheel to zoom, Shift+wheel to pan, Shift+drag or a middle-button drag to pan; on the focused stack + − ← →
 // and Home); a plain drag marks a stretch on all of them; the hover read-out gives every figure at the time under the pointer. Gaps are null: lines stop.
 import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
+import { bevelJoins } from '../charts/bevelJoins.ts'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
 import { lastAtOrBelow, recordSeries, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
@@ -212,10 +213,12 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
         }
       }
       const u = new uPlot(opts, data as uPlot.AlignedData, holder)
+      // a dense line's round joins were most of a settled chart's frame (charts/bevelJoins.ts)
+      if (!p.map) bevelJoins(u.ctx)
       // the plotted data, for tests and the read-out: what this chart draws
       ;(fig as unknown as { plotted: unknown }).plotted = { x: series.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: series.values[l.key] })) }
       // what it shows now, for tests: its time range and its lines' widths
-      ;(fig as unknown as { drawn: () => unknown }).drawn = () => ({ x: [u.scales.x.min, u.scales.x.max], widths: p.map ? [] : u.series.slice(1).map((s) => s.width) })
+      ;(fig as unknown as { drawn: () => unknown }).drawn = () => ({ x: [u.scales.x.min, u.scales.x.max], widths: p.map ? [] : u.series.slice(1).map((s) => s.width), join: p.map ? null : u.ctx.lineJoin })
       plots.push(u)
     }
     shownPlots.plots = plots

@@ -113,9 +113,10 @@ describe('station record', { timeout: 180_000 }, () => {
     // (they are drawn thinner, and charts out of view are left, while it goes on)
     await expect.poll(() => stack.evaluate((el) => (el as HTMLElement).dataset['settled'])).toBe('true')
     const settled = await range()
-    const drawn = await page.locator('.record-chart').evaluateAll((figs) => figs.map((f) => (f as unknown as { drawn: () => { x: number[]; widths: number[] } }).drawn()))
+    const drawn = await page.locator('.record-chart').evaluateAll((figs) => figs.map((f) => (f as unknown as { drawn: () => { x: number[]; widths: number[]; join: string | null } }).drawn()))
     expect(drawn.length).toBe(6)
-    for (const d of drawn) expect(d).toEqual({ x: settled, widths: d.widths.map(() => 1.6) })
+    // lines at their widths, and uPlot's round joins drawn bevelled (charts/bevelJoins.ts) on every chart of lines
+    for (const d of drawn) expect(d).toEqual({ x: settled, widths: d.widths.map(() => 1.6), join: d.widths.length ? 'bevel' : null })
     expect(drawn.reduce((n, d) => n + d.widths.length, 0)).toBe(12) // 5 + 2 + 2 + 1 + 2 lines, none on the map
     await page.keyboard.press('Home')
 
