@@ -10,6 +10,9 @@ export interface AveragedRecords {
   /** Times (as in the records) of the first and last record taken. */
   firstTime: string
   lastTime: string
+  /** The relative humidity recorded in the records taken (a file with a humidity column): the sum of the values and how many records have one. */
+  rhSum: number
+  rhRows: number
 }
 
 /**
@@ -27,6 +30,8 @@ export function averageRecords(records: readonly SizerRecord[], range: { fromMs?
   let count = 0
   let firstTime = ''
   let lastTime = ''
+  let rhSum = 0
+  let rhRows = 0
   for (let i = i0; i <= i1; i++) {
     const r = records[i]
     if (byTime && !(r.timeMs >= lo && r.timeMs <= hi)) continue
@@ -35,10 +40,14 @@ export function averageRecords(records: readonly SizerRecord[], range: { fromMs?
     if (count === 0) firstTime = r.time
     lastTime = r.time
     count++
+    if (r.rh !== undefined && r.rh === r.rh) {
+      rhSum += r.rh
+      rhRows++
+    }
   }
   if (!sum || count === 0) {
     throw new InputError('time range', 'no distribution of the file lies in the chosen range', 'Widen the range so that it holds at least one row of the file.')
   }
   const values = Array.from(sum, (s) => s / count)
-  return { values, count, firstTime, lastTime }
+  return { values, count, firstTime, lastTime, rhSum, rhRows }
 }

@@ -8,6 +8,7 @@ import { angstromExponent } from '../optics/metrics.ts'
 import type { Sample } from '../study/model.ts'
 import { CAMPAIGN_KIND_WORDS } from './campaign-settings.ts'
 import { angstromPairNm, completeRecord, nearestScattering, type CampaignRecord } from './campaign.ts'
+import { recordedHumidity, type SampleHumidity } from './humidity.ts'
 import { absorptionAt } from './optical.ts'
 
 /** The figures the record's charts draw, each at the chosen wavelength unless its name says otherwise. */
@@ -114,7 +115,7 @@ export interface StretchSample {
   /** Rows in the stretch without a distribution (gaps), left out of the mean. */
   gapRows: number
   /** Where the sample's humidity came from: the files (the mean recorded over `rows` of the rows taken) or the study's sample. */
-  humidity: { from: 'files'; file: string; rows: number; percent: number } | { from: 'study'; percent: number; why: string }
+  humidity: SampleHumidity
 }
 
 /**
@@ -182,9 +183,8 @@ export function stretchSample(r: CampaignRecord, fromMs: number, toMs: number): 
  * The humidity of a stretch's sample: the mean of the humidity recorded in the files over the rows taken (those
  * with a distribution and a recorded value), rounded to 0.1 %; else the campaign sample's, saying why.
  */
-function stretchHumidity(r: CampaignRecord, first: number, last: number): StretchSample['humidity'] {
-  const own = r.sample.rh_percent
-  if (!r.rh || !r.rhFile) return { from: 'study', percent: own, why: 'no file of the campaign records a humidity' }
+function stretchHumidity(r: CampaignRecord, first: number, last: number): SampleHumidity {
+  if (!r.rh || !r.rhFile) return { from: 'study', percent: r.sample.rh_percent, why: 'no file of the campaign records a humidity' }
   let sum = 0
   let rows = 0
   for (let k = first; k <= last; k++) {
@@ -193,10 +193,7 @@ function stretchHumidity(r: CampaignRecord, first: number, last: number): Stretc
     sum += v
     rows++
   }
-  if (rows === 0) return { from: 'study', percent: own, why: `${r.rhFile} records no humidity in these rows` }
-  const mean = Math.round((sum / rows) * 10) / 10
-  if (!(mean < 100)) return { from: 'study', percent: own, why: `the humidity recorded in ${r.rhFile} averages ${mean} % here, not below 100 % (cloud, not aerosol)` }
-  return { from: 'files', file: r.rhFile, rows, percent: mean }
+  return recordedHumidity(r.rhFile, sum, rows, r.sample.rh_percent)
 }
 
 /** A number as `motebench series` writes it: 7 significant digits, empty when not finite. */

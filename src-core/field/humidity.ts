@@ -61,3 +61,19 @@ export function humidityOnRows(rowTimesMs: ArrayLike<number>, intervalMs: number
   }
   return out
 }
+
+/** Where a sample made from measured rows takes its humidity: the files' record, or the sample it starts from. */
+export type SampleHumidity = { from: 'files'; file: string; rows: number; percent: number } | { from: 'study'; percent: number; why: string }
+
+/**
+ * The humidity of a sample made from measured rows: the mean of the values `file` recorded over them (`sum` of
+ * `rows` values), rounded to 0.1 %, unless no row records one, or the mean is not below 100 % (cloud, not
+ * aerosol: the growth laws hold below saturation); then `own`, the humidity of the sample it starts from, with
+ * why. One rule for a stretch of the station record and for the mean of a sizer file's rows.
+ */
+export function recordedHumidity(file: string, sum: number, rows: number, own: number): SampleHumidity {
+  if (rows === 0) return { from: 'study', percent: own, why: `${file} records no humidity in these rows` }
+  const mean = Math.round((sum / rows) * 10) / 10
+  if (!(mean < 100)) return { from: 'study', percent: own, why: `the humidity recorded in ${file} averages ${mean} % here, not below 100 % (cloud, not aerosol)` }
+  return { from: 'files', file, rows, percent: mean }
+}

@@ -8,10 +8,12 @@ import {
   InputError,
   parseSizerText,
   readDateTime,
+  recordedHumidity,
   SizerChoiceNeeded,
   sizerRecordToBins,
   type BinQuantityName,
   type DateOrder,
+  type SampleHumidity,
   type SizerOptions,
   type SizerTable
 } from '../../src-core/index.ts'
@@ -90,6 +92,20 @@ export function SizerDialog(p: { pending: PendingSizer; onClose: () => void }) {
       }
     }
   }
+  // The humidity the sample takes: where the file records one (a humidity column), the mean over the rows taken
+  // (the station record's rule, recordedHumidity), unless the user keeps the selected sample's own.
+  const [useFileRh, setUseFileRh] = useState(true)
+  const selected = store().get()
+  const own = selected.study.samples[selected.ids.indexOf(selected.selected)]?.rh_percent ?? blankSample('').rh_percent
+  let fileRh: SampleHumidity | undefined
+  if (t?.humidityColumn) {
+    if (!many || take === 'one') {
+      const v = t.records[many ? record : 0]?.rh
+      fileRh = recordedHumidity(p.pending.name, v !== undefined && v === v ? v : 0, v !== undefined && v === v ? 1 : 0, own)
+    } else if (mean) fileRh = recordedHumidity(p.pending.name, mean.rhSum, mean.rhRows, own)
+  }
+  const takesRh = fileRh?.from === 'files' && useFileRh ? fileRh : undefined
+
   const blocked = !t ? 'The file cannot be read with these choices.' : t.records.length === 0 ? 'No row of the file can be read.' : t.layout !== 'time-rows' && t.rejected.length ? 'The distribution has bad rows (listed above); fix the file, or choose to set negative values to 0 if those are the problem.' : rangeError
 
   const apply = () => {
@@ -108,15 +124,22 @@ export function SizerDialog(p: { pending: PendingSizer; onClose: () => void }) {
       label = m.count === 1 ? m.firstTime : `mean ${span}`
     }
     const s = store().get()
+    const rhNote = takesRh ? ` Humidity ${takesRh.percent} %: the mean relative humidity recorded in the file over ${takesRh.rows} of the rows taken.` : ''
     if (target === 'replace') {
-      editSample(s.selected, (x) => (x.size = { kind: 'bins', bins }))
+      editSample(s.selected, (x) => {
+        x.size = { kind: 'bins', bins }
+        if (takesRh) {
+          x.rh_percent = takesRh.percent
+          x.notes = `${x.notes ? `${x.notes}\n` : ''}Measured bins from ${bins.source ?? p.pending.name}.${rhNote}`
+        }
+      })
     } else {
       const i = s.ids.indexOf(s.selected)
       const id = newId()
       edit((study, ids) => {
         const base = study.samples[i] ?? blankSample('')
         const name = `${stem}${label ? ` ${label}` : ''}`
-        study.samples.push({ ...structuredClone(base), name, notes: `Measured bins from ${bins.source ?? p.pending.name}.`, size: { kind: 'bins', bins } })
+        study.samples.push({ ...structuredClone(base), name, notes: `Measured bins from ${bins.source ?? p.pending.name}.${rhNote}`, size: { kind: 'bins', bins }, ...(takesRh ? { rh_percent: takesRh.percent } : {}) })
         ids.push(id)
       })
       store().set({ selected: id })
@@ -259,6 +282,32 @@ export function SizerDialog(p: { pending: PendingSizer; onClose: () => void }) {
               ))}
             </select>
           </label>
+        </fieldset>
+      )}
+      {t?.humidityColumn && fileRh && (
+        <fieldset data-testid="sizer-humidity">
+          <legend>Humidity</legend>
+          {fileRh.from === 'files' ? (
+            <label class="sizer-rh">
+              <input type="checkbox" checked={useFileRh} onChange={(e) => setUseFileRh((e.target as HTMLInputElement).checked)} data-testid="sizer-use-rh" /> take the humidity the file
+              records in “{t.humidityColumn.name}” (column {t.humidityColumn.column}): <strong data-testid="sizer-rh">{fileRh.percent} %</strong>, the mean over{' '}
+              {fileRh.rows} of the rows taken; otherwise the sample keeps {own} %
+            </label>
+          ) : (
+            <p data-testid="sizer-rh-none">
+              The file has a humidity column (“{t.humidityColumn.name}”), but {fileRh.why}: the sample keeps {own} %.
+            </p>
+          )}
+          {t.humidityRejected.length > 0 && (
+            <ul class="sizer-left-out" data-testid="sizer-rh-left-out">
+              {t.humidityRejected.slice(0, 5).map((r, k) => (
+                <li key={k}>
+                  line {r.line}, column {r.column}: {r.reason}
+                </li>
+              ))}
+              {t.humidityRejected.length > 5 && <li>… and {t.humidityRejected.length - 5} more</li>}
+            </ul>
+          )}
         </fieldset>
       )}
       <fieldset>

@@ -86,4 +86,33 @@ describe('sizer import dialog', { timeout: 90_000 }, () => {
     // the panel shows 5 significant digits
     shown.forEach((s, j) => expect(Math.abs(Number(s) / mean[j] - 1)).toBeLessThan(1e-4))
   })
+  test('a file that records the humidity gives the new sample the mean over the rows taken, or, unticked, the sample keeps its own', async () => {
+    const page = await openApp()
+    // an invented mobility sizer export: 4 rows at 5 min with a humidity column (one cell outside 0–100 %)
+    const d = [20, 40, 80, 160, 320]
+    const rows = ['62', '64', '130', '66'].map((rh, i) => `2024-05-01T00:${String(5 * i).padStart(2, '0')}:00Z,${rh},${d.map((x) => 1000 + 10 * i + x).join(',')}`)
+    const path = join(scratch, 'with-rh.csv')
+    await writeFile(path, `units: nm\nquantity: dN/dlogDp\ntime,RH (%),${d.join(',')}\n${rows.join('\n')}\n`)
+    const samples = await page.locator('.sample-item').count()
+    await importFile(page, path)
+    // 62, 64 and 66 are kept (130 % is left out, listed with its line): mean 64 over 3 of the 4 rows
+    expect(await text(page, 'sizer-rh')).toBe('64 %')
+    expect(await text(page, 'sizer-humidity')).toMatch(/“RH \(%\)” \(column 2\).*3 of the rows taken/)
+    expect(await text(page, 'sizer-rh-left-out')).toMatch(/line 6, column 2: the relative humidity 130 % is outside 0–100 %/)
+    // the first two rows only: mean 63
+    await page.getByTestId('sizer-to').fill('2024-05-01T00:05:00Z')
+    await expect.poll(() => text(page, 'sizer-rh')).toBe('63 %')
+    await page.getByTestId('sizer-apply').click()
+    await page.getByTestId('bins-panel').waitFor()
+    const field = page.locator('[data-path$=".rh_percent"]').first()
+    expect(await field.inputValue()).toBe('63')
+    // again, all rows (64 % recorded) but unticked: the new sample keeps the selected one's 63 %
+    await importFile(page, path)
+    expect(await text(page, 'sizer-rh')).toBe('64 %')
+    await page.getByTestId('sizer-use-rh').uncheck()
+    if (process.env.MOTEBENCH_SHOT) await page.screenshot({ path: process.env.MOTEBENCH_SHOT })
+    await page.getByTestId('sizer-apply').click()
+    await expect.poll(() => page.locator('.sample-item').count()).toBe(samples + 2)
+    expect(await field.inputValue()).toBe('63')
+  })
 })

@@ -3,7 +3,7 @@
 // a stretch as the mean over its rows, its notes saying which file it came from; the study's humidity otherwise.
 // Every file here is invented for the test.
 import { describe, expect, it } from 'vitest'
-import { buildCampaignRecord, demoStudy, isHumidityHeader, parseOpticalText, parseSizerText, stretchSample, type CampaignInput, type CampaignSettings } from '../../src-core/index.ts'
+import { averageRecords, buildCampaignRecord, demoStudy, isHumidityHeader, parseOpticalText, parseSizerText, recordedHumidity, stretchSample, type CampaignInput, type CampaignSettings } from '../../src-core/index.ts'
 
 const BINS = [10, 15, 22, 33, 50, 75, 110, 165, 250, 370]
 const stamp = (min: number) => new Date(Date.UTC(2026, 6, 14, 10, min)).toISOString().replace('.000Z', 'Z')
@@ -95,5 +95,25 @@ describe('the humidity of a sample made from a stretch', () => {
     const s = stretchSample(r, r.times[0], r.times[5])
     expect(s.sample.rh_percent).toBe(studyRh)
     expect(s.sample.notes).toMatch(/no file of the campaign records a humidity/)
+  })
+
+  it('gives the mean of a sizer file\'s rows (the import dialog) the mean humidity of those rows that record one', () => {
+    // rows 40, 42, 44, 150 (left out), '' and n/a: the whole file records 3 values, mean 42
+    const t = parseSizerText(sizerText(SIZER_RH), { fileName: 'mob.csv' })
+    const all = averageRecords(t.records)
+    expect([all.count, all.rhRows, all.rhSum]).toEqual([6, 3, 126])
+    expect(recordedHumidity('mob.csv', all.rhSum, all.rhRows, studyRh)).toEqual({ from: 'files', file: 'mob.csv', rows: 3, percent: 42 })
+    // the rows from 10:05 to 10:15 record 42 and 44; from 10:20 on, none
+    const some = averageRecords(t.records, { fromMs: Date.UTC(2026, 6, 14, 10, 5), toMs: Date.UTC(2026, 6, 14, 10, 15) })
+    expect(recordedHumidity('mob.csv', some.rhSum, some.rhRows, studyRh)).toMatchObject({ from: 'files', rows: 2, percent: 43 })
+    const none = averageRecords(t.records, { fromMs: Date.UTC(2026, 6, 14, 10, 20) })
+    expect(none.rhRows).toBe(0)
+    expect(recordedHumidity('mob.csv', none.rhSum, none.rhRows, studyRh)).toEqual({ from: 'study', percent: studyRh, why: 'mob.csv records no humidity in these rows' })
+  })
+
+  it('keeps the sample\'s own humidity where the recorded mean is not below 100 % (cloud, not aerosol: common practice)', () => {
+    expect(recordedHumidity('f.csv', 2 * 99.96, 2, 55)).toEqual({ from: 'study', percent: 55, why: 'the humidity recorded in f.csv averages 100 % here, not below 100 % (cloud, not aerosol)' })
+    // rounded to 0.1 % as the rows' mean: 99.94 stays below
+    expect(recordedHumidity('f.csv', 99.94, 1, 55)).toEqual({ from: 'files', file: 'f.csv', rows: 1, percent: 99.9 })
   })
 })
