@@ -3,7 +3,7 @@
 import { readFile } from 'node:fs/promises'
 import { basename } from 'node:path'
 import { parseSizerText, retrieveRefractiveIndex, sizerRecordToBins, type ClosureMeasurement, type ClosureResult } from '../../src-core/index.ts'
-import { formatNumber, printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { formatNumber, printJson, printTable, readArgs, readNumber, readPair, UsageError } from './common.ts'
 import { readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 
 export const closureHelp = `motebench closure: effective refractive index n + ik from a size distribution and optical measurements
@@ -30,10 +30,7 @@ export function readMeasurements(text: string, flag: string): ClosureMeasurement
 }
 
 function readRange(text: string | undefined, flag: string, fallback: [number, number]): [number, number] {
-  if (text === undefined) return fallback
-  const parts = text.split(':')
-  if (parts.length !== 2) throw new UsageError(`${flag}: "${text}" is not LO:HI`)
-  return [readNumber(parts[0], flag), readNumber(parts[1], flag)]
+  return text === undefined ? fallback : readPair(text, { command: 'closure', flag, form: 'LO:HI', example: flag === '--n-range' ? '1.3:1.8' : '0:1' })
 }
 
 export async function runClosure(argv: string[]): Promise<number> {

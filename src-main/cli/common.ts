@@ -66,6 +66,16 @@ export function readNumber(text: string | undefined, flag: string, fallback?: nu
   return v
 }
 
+/**
+ * Two values written A:B (a range LO:HI, a pair of angles), each read by `read` (a plain number by default): the
+ * one reading of that form for every command, so each says the same when it is not two values.
+ */
+export function readPair<T = number>(text: string, where: { command: string; flag: string; form?: 'A:B' | 'LO:HI'; example: string }, read: (part: string, flag: string) => T = readNumber as (part: string, flag: string) => T): [T, T] {
+  const parts = text.split(':')
+  if (parts.length !== 2) throw new UsageError(`${where.command}: ${where.flag} "${text}" is not ${where.form ?? 'A:B'}, e.g. ${where.example}`)
+  return [read(parts[0], where.flag), read(parts[1], where.flag)]
+}
+
 /** "start:step:end" or a comma list, in degrees. */
 export function readAngles(text: string, flag = '--angles'): number[] {
   const parts = text.split(':')

@@ -34,7 +34,7 @@ import {
   type SizerInput,
   type SizerKind
 } from '../../src-core/index.ts'
-import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, readArgs, readInteger, readNumber, UsageError } from './common.ts'
+import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, readArgs, readInteger, readNumber, readPair, UsageError } from './common.ts'
 import { readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 
 export const mergeHelp = `motebench merge --mobility FILE --aerodynamic FILE --density RHO --out FILE: several sizers as one distribution
@@ -162,10 +162,7 @@ async function accumulate(f: FileRead, averager: TimeAverager): Promise<void> {
 
 function readRange(text: string | undefined, flag: string, unit: 'nm' | 'um'): [number, number] | undefined {
   if (text === undefined) return undefined
-  const parts = text.split(':')
-  if (parts.length !== 2) throw new UsageError(`merge: ${flag} "${text}" is not LO:HI, e.g. ${unit === 'nm' ? '10nm:600nm' : '0.7um:20um'}`)
-  const lo = parseLength(parts[0], flag, unit)
-  const hi = parseLength(parts[1], flag, unit)
+  const [lo, hi] = readPair(text, { command: 'merge', flag, form: 'LO:HI', example: unit === 'nm' ? '10nm:600nm' : '0.7um:20um' }, (part) => parseLength(part, flag, unit))
   if (!(hi > lo)) throw new UsageError(`merge: ${flag} "${text}": the upper diameter must exceed the lower`)
   return [lo, hi]
 }
@@ -210,11 +207,10 @@ export async function runMerge(argv: string[]): Promise<number> {
     if (values.m === undefined || values.wavelength === undefined || values.angles === undefined) {
       throw new UsageError('merge: --optical needs --m (the sample index), --wavelength (the laser) and --angles (collection angles), e.g. --m 1.53+0.01i --wavelength 780nm --angles 35:120')
     }
-    const angles = values.angles.split(':')
-    if (angles.length !== 2) throw new UsageError(`merge: --angles "${values.angles}" is not A:B, e.g. 35:120`)
+    const angles = readPair(values.angles, { command: 'merge', flag: '--angles', example: '35:120' })
     optical = {
       index: parseComplexIndex(values.m, '--m'),
-      geometry: { wavelengthNm: parseLength(values.wavelength, '--wavelength', 'nm') * 1000, lowDeg: readNumber(angles[0], '--angles'), highDeg: readNumber(angles[1], '--angles') }
+      geometry: { wavelengthNm: parseLength(values.wavelength, '--wavelength', 'nm') * 1000, lowDeg: angles[0], highDeg: angles[1] }
     }
   }
   const ranges: Record<SizerKind, [number, number] | undefined> = {

@@ -1,6 +1,6 @@
 // motebench rebin: optical particle counter bin edges (PSL calibration) mapped to true diameters for another index.
 import { getMaterial, parseComplexIndex, parseLength, rebinOpcEdges, refractiveIndexAt, type RebinResult } from '../../src-core/index.ts'
-import { printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { printJson, printTable, readArgs, readNumber, readPair, UsageError } from './common.ts'
 
 export const rebinHelp = `motebench rebin: optical particle counter bins from calibration diameters to true diameters
   --edges LIST          the counter's bin edges as calibrated, ascending, comma-separated; a bare number is
@@ -33,16 +33,15 @@ export function runRebin(argv: string[]): number {
   if ((values.m === undefined) === (values.material === undefined)) throw new UsageError('rebin: give the sample index by --m N+Ki or --material ID (one of them)')
   const wavelengthUm = parseLength(values.wavelength, '--wavelength', 'nm')
   const edges = values.edges.split(',').map((e) => parseLength(e, '--edges', 'um'))
-  const angles = values.angles.split(':')
-  if (angles.length !== 2) throw new UsageError(`rebin: --angles "${values.angles}" is not A:B, e.g. 35:120`)
+  const angles = readPair(values.angles, { command: 'rebin', flag: '--angles', example: '35:120' })
   const index = values.m !== undefined ? parseComplexIndex(values.m, '--m') : refractiveIndexAt(getMaterial(values.material!), wavelengthUm)
   const result = rebinOpcEdges(
     edges,
     index,
     {
       wavelengthNm: wavelengthUm * 1000,
-      lowDeg: readNumber(angles[0], '--angles'),
-      highDeg: readNumber(angles[1], '--angles'),
+      lowDeg: angles[0],
+      highDeg: angles[1],
       calibrationIndex: values['calibration-m'] === undefined ? undefined : parseComplexIndex(values['calibration-m'], '--calibration-m')
     },
     { searchFactor: values['search-factor'] === undefined ? undefined : readNumber(values['search-factor'], '--search-factor') }

@@ -33,7 +33,7 @@ import {
   type UserMaterialSpec,
   type OpticalRejection
 } from '../../src-core/index.ts'
-import { readNumber, UsageError } from './common.ts'
+import { readPair, UsageError } from './common.ts'
 
 export const seriesOpticalHelp = `  --scattering FILE     measured scattering (and hemispheric backscattering) coefficients beside the sizer:
                         "# units: Mm-1", then a header time,scattering 450 nm,backscattering 450 nm,...
@@ -82,10 +82,9 @@ async function* fileLines(path: string): AsyncGenerator<string> {
   }
 }
 
-function readPair(text: string, flag: string): [number, number] {
-  const parts = text.split(':')
-  if (parts.length !== 2) throw new UsageError(`series: ${flag} "${text}" is not A:B, e.g. ${flag === '--neph-angles' ? '7:170' : '10:25'}`)
-  return [readNumber(parts[0], flag), readNumber(parts[1], flag)]
+/** An A:B option of series (the nephelometer's angles, ...). */
+function readSeriesPair(text: string, flag: string): [number, number] {
+  return readPair(text, { command: 'series', flag, example: flag === '--neph-angles' ? '7:170' : '10:25' })
 }
 
 /** What series adds to each row: extra columns, header comments, the cells of a row and the summary. */
@@ -113,8 +112,8 @@ export async function prepareSeriesOptical(
   if (args['neph-angles'] !== undefined && !args.truncation) throw new UsageError('series: --neph-angles gives the angles of the truncation correction: add --truncation')
   if (args['closure-sd'] !== undefined && !args.closure) throw new UsageError('series: --closure-sd gives the uncertainties of the closure: add --closure')
   if ((args.truncation || args['neph-angles'] !== undefined) && args.scattering === undefined) throw new UsageError('series: --truncation corrects measured scattering: give --scattering FILE')
-  const angles = readPair(args['neph-angles'] ?? DEFAULT_NEPHELOMETER_ANGLES.join(':'), '--neph-angles')
-  const sd = readPair(args['closure-sd'] ?? '10:25', '--closure-sd')
+  const angles = readSeriesPair(args['neph-angles'] ?? DEFAULT_NEPHELOMETER_ANGLES.join(':'), '--neph-angles')
+  const sd = readSeriesPair(args['closure-sd'] ?? '10:25', '--closure-sd')
   if (!(sd[0] > 0 && sd[1] > 0)) throw new UsageError('series: --closure-sd gives percentages above 0, e.g. 10:25')
 
   // 1. The sizer rows' times: the time base.

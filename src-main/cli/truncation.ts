@@ -13,7 +13,7 @@ import {
   type Sample,
   type Study
 } from '../../src-core/index.ts'
-import { printJson, printTable, readArgs, readNumber, UsageError } from './common.ts'
+import { printJson, printTable, readArgs, readNumber, readPair, UsageError } from './common.ts'
 import { readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 
 export const truncationHelp = `motebench truncation: nephelometer truncation correction C = σ_true/σ_measured
@@ -46,9 +46,8 @@ export async function runTruncation(argv: string[]): Promise<number> {
   })
   if (values.wavelength === undefined) throw new UsageError('truncation: --wavelength is required, for example --wavelength 550nm')
   const wavelengthNm = parseLength(values.wavelength, '--wavelength', 'nm') * 1000
-  const angles = (values.angles ?? '7:170').split(':')
-  if (angles.length !== 2) throw new UsageError(`truncation: --angles "${values.angles}" is not A:B, e.g. 7:170`)
-  const geometry: NephelometerGeometry = { lowDeg: readNumber(angles[0], '--angles'), highDeg: readNumber(angles[1], '--angles') }
+  const angles = readPair(values.angles ?? '7:170', { command: 'truncation', flag: '--angles', example: '7:170' })
+  const geometry: NephelometerGeometry = { lowDeg: angles[0], highDeg: angles[1] }
   if (values.response !== undefined) {
     const pairs = values.response.split(',').map((p) => {
       const [a, w, extra] = p.split(':')

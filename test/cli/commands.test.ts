@@ -245,3 +245,23 @@ describe('motebench forcing', () => {
     }
   })
 })
+
+describe('A:B and LO:HI options', () => {
+  it('every command refuses a value that is not two values with one line, the form and an example (exit 2)', async () => {
+    const { runClosure } = await import('../../src-main/cli/closure.ts')
+    const { runRebin } = await import('../../src-main/cli/rebin.ts')
+    const { runTruncation } = await import('../../src-main/cli/truncation.ts')
+    const { runMerge } = await import('../../src-main/cli/merge.ts')
+    const cases: [(argv: string[]) => Promise<number> | number, string[], RegExp][] = [
+      [runClosure, ['--sizer', 'resources/sizer-single-comma.csv', '--sca', '550:40±2', '--n-range', '1.3'], /^motebench: closure: --n-range "1\.3" is not LO:HI, e\.g\. 1\.3:1\.8\n$/],
+      [runRebin, ['--edges', '0.3,0.5,0.7', '--m', '1.5+0i', '--wavelength', '633nm', '--angles', '35:90:120'], /^motebench: rebin: --angles "35:90:120" is not A:B, e\.g\. 35:120\n$/],
+      [runTruncation, ['--study', 'resources/demo.mote', '--sample', 'Quarry dust event', '--wavelength', '550nm', '--angles', '7'], /^motebench: truncation: --angles "7" is not A:B, e\.g\. 7:170\n$/],
+      [runMerge, ['--mobility', 'resources/field/valley-mobility.csv', '--aerodynamic', 'resources/field/valley-aerodynamic.csv', '--density', '1.8', '--out', 'never-written.csv', '--mobility-range', '10nm-600nm'], /^motebench: merge: --mobility-range "10nm-600nm" is not LO:HI, e\.g\. 10nm:600nm\n$/]
+    ]
+    for (const [command, args, message] of cases) {
+      const r = await runHere(command, args)
+      expect(r.code, args.join(' ')).toBe(2)
+      expect(r.stderr, args.join(' ')).toMatch(message)
+    }
+  })
+})
