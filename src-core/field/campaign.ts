@@ -24,7 +24,7 @@ import { mergedMidpointsNm } from './output.ts'
 import { binsFromMeasurement } from '../sizes/index.ts'
 import { comparisonColumns, instrumentKernels, instrumentWavelengths, MeasuredAlignment, RowComparer, type ComparisonPlan, type MeasuredChannel } from './optical.ts'
 import { comparisonNotes } from './optical-summary.ts'
-import { humidityOnRows } from './humidity.ts'
+import { humidityComparisonNote, humidityOnRows, HumidityTally } from './humidity.ts'
 import { formatDuration, formatTimeStamp, regularTimeBase, TimeAverager, typicalInterval } from './timebase.ts'
 export interface CampaignRecord {
   /** The sample that gives composition, humidity and layer. */
@@ -298,9 +298,13 @@ export function campaignRecord(read: CampaignFiles, settings: CampaignSettings, 
       cells.set(out, k * columns.length + width)
       if (i % 4096 === 4095) progress(0.6 + (0.2 * i) / kept.length)
     })
-    notes = comparisonNotes(plan, { intervalText: formatDuration(Math.round(intervalMs)), files: instruments.map((f) => f.summary.name) })
+    const neph = instruments.find((f) => f.summary.kind === 'scattering' && f.summary.ok)
+    const tally = new HumidityTally()
+    for (const rec of neph?.records ?? []) tally.add(rec.rh)
+    const humidity = neph && humidityComparisonNote(neph.summary.name, tally, sample.rh_percent)
+    notes = comparisonNotes(plan, { intervalText: formatDuration(Math.round(intervalMs)), files: instruments.map((f) => f.summary.name), humidity })
   }
-  const humidity = recordedHumidity(rows.timesMs, intervalMs, instruments, sizers)
+  const humidity = humidityOnRecordRows(rows.timesMs, intervalMs, instruments, sizers)
   const dNdlogD = new Float64Array(n * bins)
   progress(0.8)
   fillFigures(kernels, rows.layout, wavelengthsNm, rows.values, bins, kept, cells, columns.length, (i) => progress(0.8 + (0.2 * i) / kept.length))
@@ -410,7 +414,7 @@ export function completeRecord(r: CampaignRecord, options: { workspace?: OpticsW
 }
 
 /** The record's humidity from the files (see CampaignRecord.rh): the nephelometer's, else the first sizer's. */
-function recordedHumidity(rowTimesMs: number[], intervalMs: number, instruments: ReadInstrument[], sizers: ReadSizer[]): { rh?: Float64Array; rhFile?: string } {
+function humidityOnRecordRows(rowTimesMs: number[], intervalMs: number, instruments: ReadInstrument[], sizers: ReadSizer[]): { rh?: Float64Array; rhFile?: string } {
   for (const f of instruments) {
     if (f.summary.kind !== 'scattering' || !f.summary.ok || !f.summary.humidity?.rows) continue
     const rh = humidityOnRows(rowTimesMs, intervalMs, f.records.map((r) => r.ms), f.records.map((r) => r.rh ?? NaN))

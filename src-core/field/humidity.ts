@@ -77,3 +77,31 @@ export function recordedHumidity(file: string, sum: number, rows: number, own: n
   if (!(mean < 100)) return { from: 'study', percent: own, why: `the humidity recorded in ${file} averages ${mean} % here, not below 100 % (cloud, not aerosol)` }
   return { from: 'files', file, rows, percent: mean }
 }
+
+/** The humidity values of an instrument file, counted as they are read: how many, their sum, lowest and highest. */
+export class HumidityTally {
+  rows = 0
+  sum = 0
+  min = Infinity
+  max = -Infinity
+  /** One record's humidity (NaN or undefined: none). */
+  add(v: number | undefined): void {
+    if (v === undefined || !(v === v)) return
+    this.rows++
+    this.sum += v
+    if (v < this.min) this.min = v
+    if (v > this.max) this.max = v
+  }
+}
+
+/**
+ * The note a comparison of computed with measured scattering carries when the nephelometer's file records the
+ * humidity it measured at: the rows are computed at the sample's humidity, so where the two differ the ratios
+ * include the particles' growth between them (a nephelometer is usually run dried, below 40 %: common practice).
+ * Undefined when the file records none. The same words in `motebench series` and the station record's export.
+ */
+export function humidityComparisonNote(file: string, t: HumidityTally, samplePercent: number): string | undefined {
+  if (t.rows === 0) return undefined
+  const r1 = (v: number) => Math.round(v * 10) / 10
+  return `humidity: the rows are computed at the sample's ${samplePercent} %; ${file} recorded ${r1(t.sum / t.rows)} % on average (${r1(t.min)} to ${r1(t.max)} %, ${t.rows} records), so where they differ the scattering ratios include the particles' growth between the two humidities`
+}

@@ -153,4 +153,4 @@ export {
   recordCell,
   recordCsv
 } from './campaign-use.ts'
-export { isHumidityHeader, humidityProblem, humidityOnRows, recordedHumidity, type SampleHumidity } from './humidity.ts'
+export { isHumidityHeader, humidityProblem, humidityOnRows, recordedHumidity, HumidityTally, humidityComparisonNote, type SampleHumidity } from './humidity.ts'

@@ -71,7 +71,7 @@ export class RatioCollector {
 }
 
 /** The comment lines an output with a comparison starts with (without the leading "# "). */
-export function comparisonNotes(plan: ComparisonPlan, o: { intervalText: string; files: string[] }): string[] {
+export function comparisonNotes(plan: ComparisonPlan, o: { intervalText: string; files: string[]; humidity?: string }): string[] {
   const notes = [
     `measured: ${o.files.join(', ')}; coefficients in Mm-1; each sizer row's measured value is the mean of the records stamped inside [row time, row time + ${o.intervalText}) (cut at the next row); an empty cell: no measured record in that interval (never filled)`,
     'ratio: computed/measured (computed from the row at the sample composition and humidity, at the instrument wavelengths); empty where the measured value is missing or not above 0'
@@ -81,6 +81,7 @@ export function comparisonNotes(plan: ComparisonPlan, o: { intervalText: string;
       `truncation: measured scattering multiplied by C = sigma_true/sigma_seen for a nephelometer seeing ${plan.truncation.lowDeg} to ${plan.truncation.highDeg} deg (ideal sin response; backscattering 90 to ${plan.truncation.highDeg} deg) from the row's own computed phase function (after Anderson & Ogren 1998); _meas_corr columns are the corrected values and the ratios use them`
     )
   } else notes.push('truncation: not corrected (the measured scattering is compared as it is; --truncation corrects it)')
+  if (o.humidity) notes.push(o.humidity)
   if (planWavelengths(plan, 'absorption').length > 0 && planWavelengths(plan, 'scattering').length > 0) {
     const one = planWavelengths(plan, 'absorption').length === 1
     notes.push(

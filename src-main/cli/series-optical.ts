@@ -15,6 +15,8 @@ import {
   createSizerReader,
   DEFAULT_NEPHELOMETER_ANGLES,
   formatDuration,
+  HumidityTally,
+  humidityComparisonNote,
   InputError,
   instrumentKernels,
   instrumentWavelengths,
@@ -175,6 +177,7 @@ export async function prepareSeriesOptical(
   const alignment = new MeasuredAlignment(times, channels, interval)
   const noneInside: string[] = []
   const leftOut: { name: string; rejected: OpticalRejection[]; count: number }[] = []
+  const nephHumidity = new HumidityTally() // the --scattering file's recorded humidity, for the notes
   for (let i = 0; i < files.length; i++) {
     const f = files[i]
     const p = pending[i]
@@ -187,6 +190,7 @@ export async function prepareSeriesOptical(
           throw new InputError(`${p.name} line ${rec.line} column 1`, `the time ${rec.time} ${rec.zoned ? 'has a zone' : 'has no zone'} but the sizer's times ${sizerZoned ? 'have one' : 'have none'}, so the clocks cannot be aligned`, 'Write both files\' times in the same form (both in UTC with Z, or both without a zone on the same clock).')
         }
         alignment.add(rec.ms, p.first, rec.values, p.name)
+        if (f.flag === '--scattering') nephHumidity.add(rec.rh)
       }
     })
     for await (const line of fileLines(f.path)) r.push(line)
@@ -201,7 +205,8 @@ export async function prepareSeriesOptical(
     closure: args.closure ? { scatteringSd: sd[0] / 100, absorptionSd: sd[1] / 100 } : null
   }
   const intervalText = formatDuration(interval ?? 0)
-  const notes = comparisonNotes(plan, { intervalText, files: pending.map((p) => p.name) })
+  const humidity = args.scattering === undefined ? undefined : humidityComparisonNote(basename(args.scattering), nephHumidity, o.sample.rh_percent)
+  const notes = comparisonNotes(plan, { intervalText, files: pending.map((p) => p.name), humidity })
   const ws = new OpticsWorkspace()
   const measured = new Float64Array(channels.length)
   let comparer: RowComparer | undefined

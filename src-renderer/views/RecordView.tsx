@@ -369,7 +369,7 @@ export function RecordView() {
         <>
           <p class="muted" data-testid="record-summary">
             {r.times.length} rows from {r.timeText[0]} to {r.timeText[r.timeText.length - 1]}, {r.bins} bins, {r.times.length - countAbsent(r.present)} with a distribution
-            {r.gaps.size > 0 ? `, ${r.gaps.size} gap rows (${[...new Set(r.gaps.values())].join('; ')})` : ''}; {r.rhFile ? <>composition of “{r.sample.name}”, humidity recorded in {r.rhFile} (a sample made from a stretch takes its mean there)</> : <>composition and humidity of “{r.sample.name}” (no file records a humidity)</>}; computed in {(s.ms / 1000).toFixed(1)} s.
+            {r.gaps.size > 0 ? `, ${r.gaps.size} gap rows (${[...new Set(r.gaps.values())].join('; ')})` : ''}; computed at the composition and humidity of “{r.sample.name}” ({r.sample.rh_percent} %){r.rhFile ? <>; {r.rhFile} records the humidity it measured at (a sample made from a stretch takes its mean there)</> : <> (no file records a humidity)</>}; computed in {(s.ms / 1000).toFixed(1)} s.
           </p>
           <Stretch />
           <Exports />

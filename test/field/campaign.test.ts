@@ -2,7 +2,7 @@
 // invented valley files (resources/field), a stretch of it made into a sample, and its CSV against `motebench
 // series` on the file `motebench merge` writes from the same files.
 import { readFileSync } from 'node:fs'
-import { mkdtemp, readFile, rm } from 'node:fs/promises'
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -229,6 +229,31 @@ describe('the record as CSV against motebench series', () => {
     // the "#" lines name the files by path in series; compare the table
     const table = (lines: string[]) => lines.filter((l) => !l.startsWith('#'))
     expect(table(ours)).toEqual(table(theirs))
+  }, 120_000)
+
+  it("says, in the same words, at what humidity the rows are computed and what the nephelometer recorded", async () => {
+    // the demo's nephelometer file with an RH column added: 30 % rising by 0.1 % a record (invented)
+    const lines = readFileSync(demoPath('valley-nephelometer.csv'), 'utf8').trimEnd().split('\n')
+    let k = 0
+    const withRh = lines.map((l) => (l.startsWith('#') ? l : l.startsWith('time') ? `${l},RH (%)` : `${l},${(30 + 0.1 * k++).toFixed(1)}`)).join('\n') + '\n'
+    const neph = join(dir, 'neph-rh.csv')
+    await writeFile(neph, withRh)
+    const merged = join(dir, 'merged-rh.csv')
+    expect((await runHere(runMerge, ['--mobility', demoPath('valley-mobility.csv'), '--aerodynamic', demoPath('valley-aerodynamic.csv'), '--density', '1.8', '--shape-factor', '1', '--out', merged])).code).toBe(0)
+    const st = study()
+    const files = [input('mobility', 'valley-mobility.csv'), input('aerodynamic', 'valley-aerodynamic.csv'), { kind: 'scattering' as const, name: 'neph-rh.csv', text: withRh }]
+    const r = buildCampaignRecord(files, settings(), st).record!
+    const out = join(dir, 'record-rh.csv')
+    const s = await runHere(runSeries, [merged, '--study', join(repo, 'resources/demo.mote'), '--sample', 'Quarry dust event', '--wavelengths', r.wavelengthsNm.join(','), '--scattering', neph, '--workers', '1', '--out', out])
+    expect(s.code, s.stderr).toBe(1)
+    const note = (text: string) => text.split('\n').filter((l) => l.startsWith('# humidity:'))
+    const rh = st.samples.find((x) => x.name === 'Quarry dust event')!.rh_percent
+    // k records from 30.0 %: mean 30 + 0.05 (k − 1), highest 30 + 0.1 (k − 1)
+    const mean = Math.round((30 + 0.05 * (k - 1)) * 10) / 10
+    const top = Math.round((30 + 0.1 * (k - 1)) * 10) / 10
+    const expected = [`# humidity: the rows are computed at the sample's ${rh} %; neph-rh.csv recorded ${mean} % on average (30 to ${top} %, ${k} records), so where they differ the scattering ratios include the particles' growth between the two humidities`]
+    expect(note(recordCsv(r))).toEqual(expected)
+    expect(note(await readFile(out, 'utf8'))).toEqual(expected)
   }, 120_000)
 })
 
