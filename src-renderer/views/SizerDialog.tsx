@@ -100,8 +100,8 @@ export function SizerDialog(p: { pending: PendingSizer; onClose: () => void }) {
   let fileRh: SampleHumidity | undefined
   if (t?.humidityColumn) {
     if (!many || take === 'one') {
-      const v = t.records[many ? record : 0]?.rh
-      fileRh = recordedHumidity(p.pending.name, v !== undefined && v === v ? v : 0, v !== undefined && v === v ? 1 : 0, own)
+      const v = t.records[many ? record : 0]?.rh ?? NaN
+      fileRh = v === v ? recordedHumidity(p.pending.name, v, 1, own) : recordedHumidity(p.pending.name, 0, 0, own)
     } else if (mean) fileRh = recordedHumidity(p.pending.name, mean.rhSum, mean.rhRows, own)
   }
   const takesRh = fileRh?.from === 'files' && useFileRh ? fileRh : undefined
