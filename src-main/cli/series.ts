@@ -22,12 +22,14 @@ import {
   type SizerRejection
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
-import { atomicFileOutput, csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { atomicFileOutput, csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
+import { takeEarly } from './workers/early.ts'
+import { seriesWorkerCount } from './series-early.ts'
 import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp, type SeriesExtra } from './series-optical.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
@@ -279,8 +281,11 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     notify()
   }
 
+  // workers started by main.ts while this command loaded (workers/early.ts), then any more asked for
+  const early = takeEarly('series-worker', o.workers)
   for (let i = 0; i < o.workers; i++) {
-    const worker = startCliWorker('series-worker', setup)
+    const worker = early[i] ?? startCliWorker('series-worker', undefined)
+    worker.postMessage({ type: 'setup', setup } satisfies ToWorker)
     const entry = { worker, inFlight: 0 }
     worker.on('message', (m: FromWorker) => onMessage(entry, m))
     worker.on('error', (e) => fail(new Error(`a worker thread failed: ${e.message}`)))
@@ -295,6 +300,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     fileName: o.fileName,
     onBadRow: o.onBadRow,
     maxKeptRejections: KEPT_REASONS,
+    // the values are copied into the block (and the extra cells made from them) before the next row is read
+    reuseBuffer: true,
     onRecord: (record) => {
       if (o.shard && (record.line < o.shard.firstLine || record.line > o.shard.lastLine)) return
       shardRecords++
@@ -473,7 +480,7 @@ export async function runSeries(argv: string[]): Promise<number> {
   if (values.sample === undefined) throw new UsageError('series: --sample is required: the name of a sample of the study')
   const policy = values['on-bad-row'] ?? 'skip'
   if (policy !== 'skip' && policy !== 'stop') throw new UsageError(`series: --on-bad-row "${policy}" is not skip or stop`)
-  const workers = readInteger(values.workers, '--workers', 1, 64, Math.max(1, availableParallelism() - 1))
+  const workers = seriesWorkerCount(values.workers)
   const tolerance = readTolerance(values.tolerance, 1e-4)
   const sizer: SeriesRunOptions['sizer'] = readSizerFlags('series', values)
 
