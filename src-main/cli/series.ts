@@ -53,13 +53,13 @@ file say how they were made comparable). A summary goes to standard error; a pro
 Exit status 0, 1 when rows were skipped (of the sizer file or of an instrument file), 2 for bad input.`
 
 /**
- * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; about
- * 3 MB: enough for the reading to go on while the workers integrate the bins' kernels), and text gathered before
- * it is written.
+ * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 8,192
+ * rows, about 7 MB of values at 100 bins: enough for the reading to go on while the workers integrate the bins'
+ * kernels, 0.1–0.3 s, rather than wait for them), and text gathered before it is written.
  */
 const BLOCK_ROWS = 256
 const BLOCKS_PER_WORKER = 3
-const BLOCKS_AHEAD = 16
+const BLOCKS_AHEAD = 32
 const WRITE_CHARS = 1 << 20
 /** Reasons kept for the summary (the counts go on). */
 const KEPT_REASONS = 1000
@@ -439,18 +439,35 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
 
 /**
  * The lines of a text stream in batches (one per chunk read), split as node:readline splits them (at \r\n, \n or
- * a lone \r; no empty last line after a final line break), without an event and a promise per line.
+ * a lone \r; no empty last line after a final line break), without an event and a promise per line. A chunk
+ * without a carriage return is cut at each \n by indexOf (about a fifth less time than a split by a regular
+ * expression, in a micro-benchmark on this machine); one with a carriage return goes character by character.
  */
 export async function* fileLines(stream: AsyncIterable<string> & Readable): AsyncGenerator<string[]> {
   let rest = ''
   for await (const chunk of stream) {
-    let text = rest + chunk
+    const text = rest + chunk
     // a \r at the end may be the first half of \r\n: keep it for the next chunk
-    const keep = text.endsWith('\r') ? 1 : 0
-    const parts = text.slice(0, text.length - keep).split(/\r\n|\n|\r/)
-    rest = parts.pop()! + (keep ? '\r' : '')
-    text = ''
-    if (parts.length > 0) yield parts
+    const to = text.charCodeAt(text.length - 1) === 13 ? text.length - 1 : text.length
+    const lines: string[] = []
+    let at = 0
+    const r = text.indexOf('\r')
+    if (r < 0 || r >= to) {
+      for (let end = text.indexOf('\n'); end >= 0; end = text.indexOf('\n', at)) {
+        lines.push(text.slice(at, end))
+        at = end + 1
+      }
+    } else {
+      for (let end = at; end < to; end++) {
+        const c = text.charCodeAt(end)
+        if (c !== 10 && c !== 13) continue
+        lines.push(text.slice(at, end))
+        if (c === 13 && end + 1 < to && text.charCodeAt(end + 1) === 10) end++
+        at = end + 1
+      }
+    }
+    rest = text.slice(at)
+    if (lines.length > 0) yield lines
   }
   if (rest.endsWith('\r')) rest = rest.slice(0, -1)
   if (rest !== '') yield [rest]
