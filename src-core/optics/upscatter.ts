@@ -57,7 +57,7 @@ export function upwardFraction(mu: number, mu0: number, s0 = Math.sqrt(1 - mu0 *
  * polynomial interpolating f on each hemisphere's nodes. Written as Σ_j w_j f_j Σ_l (l+½) P_l(t_j) m_l, with
  * t the node's position on [−1, 1] and m_l = ∫ P_l(t) F sinΘ dΘ (Gauss nodes are orthogonal for the
  * Lagrange basis: ℓ_j(t) = w_j Σ_{l<n} (l+½) P_l(t_j) P_l(t) for the rule's unit weights w_j). Made on first
- * use (about 20 ms; a thread that never needs it, such as the command line's reading thread, does not pay it).
+ * use (some 0.025 s of a thread's start at a load; the command line's reading thread never needs it).
  */
 let kernelTable: Float64Array | undefined
 const upscatterKernel = (): Float64Array => (kernelTable ??= makeKernel())
