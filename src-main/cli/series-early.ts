@@ -1,6 +1,6 @@
 // What main.ts reads of `motebench series`'s arguments before the command's code loads: the number of worker
 // threads, to start them at once (workers/early.ts), so that they load their modules while this thread loads the
-// command's, reads the study and the file's first rows. A light module: no src-core.
+// command's, reads the study and the file's first rows. A light module: only what main.ts loads anyway.
 import { availableParallelism } from 'node:os'
 import { parseArgs } from 'node:util'
 import { readInteger } from './common.ts'
