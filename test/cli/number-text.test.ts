@@ -5,7 +5,7 @@ import { createInterface } from 'node:readline'
 import { Readable } from 'node:stream'
 import { describe, expect, it } from 'vitest'
 import { sevenDigits } from '../../src-main/cli/number-text.ts'
-import { fileLines } from '../../src-main/cli/series.ts'
+import { fileLines } from '../../src-main/cli/file-lines.ts'
 
 const reference = (v: number) => String(Number(v.toPrecision(7)))
 
