@@ -5,13 +5,14 @@
  * The app's optics workers are built with mathjsExpressionsOnDemand.ts in its place (over half a megabyte less
  * to load when they start: see expressionCompiler.ts); `loadExpressionCompiler` is for them, and does nothing here.
  */
-import { all, create, type EvalFunction, type MathJsInstance } from 'mathjs'
+import type { EvalFunction, MathJsInstance } from 'mathjs'
+import { makeAll } from './mathjsAll.ts'
 
 let expressions: MathJsInstance | undefined
 
 /** mathjs's compile(text): an expression evaluated later with a scope. */
 export function mathCompile(text: string): EvalFunction {
-  return (expressions ??= create(all)).compile(text)
+  return (expressions ??= makeAll()).compile(text)
 }
 
 /** Makes mathCompile ready (here it always is). */

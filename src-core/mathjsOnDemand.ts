@@ -5,11 +5,12 @@
  * only what is used, and the work is done when a unit or complex number is first read. Expressions (which may
  * call any mathjs function) have their own instance: see mathjsExpressions.ts.
  */
-import { complexDependencies, create, unitDependencies, type MathJsInstance, type Unit } from 'mathjs'
+import type { MathJsInstance, Unit } from 'mathjs'
+import { makeQuantities } from './mathjsQuantities.ts'
 
 let quantities: MathJsInstance | undefined
 
-const forQuantities = (): MathJsInstance => (quantities ??= create({ unitDependencies, complexDependencies }))
+const forQuantities = (): MathJsInstance => (quantities ??= makeQuantities())
 
 /** mathjs's unit(text): a quantity with a unit ("120 nm"). */
 export function mathUnit(text: string): Unit {

@@ -12,7 +12,7 @@
  *   "density_g_cm3": 1.8, "shape_factor": 1, "step_s": 300
  * }
  */
-import { z } from 'zod'
+import * as z from 'zod'
 export { fileChange, sampledFingerprint, textFingerprint, wholeTextFingerprint, FINGERPRINT_SPAN, WHOLE_FINGERPRINT } from './fingerprint.ts'
 
 /** What an instrument file holds: a sizer's distributions (or an already merged file), or measured coefficients. */

@@ -56,9 +56,13 @@ export function upwardFraction(mu: number, mu0: number, s0 = Math.sqrt(1 - mu0 *
  * Product-integration weights, row i for μ₀_i: Σ_j K[i][j] f(Θ_j) = ∫ ℓf(Θ) F(cos Θ, μ₀_i) sin Θ dΘ, with ℓf the
  * polynomial interpolating f on each hemisphere's nodes. Written as Σ_j w_j f_j Σ_l (l+½) P_l(t_j) m_l, with
  * t the node's position on [−1, 1] and m_l = ∫ P_l(t) F sinΘ dΘ (Gauss nodes are orthogonal for the
- * Lagrange basis: ℓ_j(t) = w_j Σ_{l<n} (l+½) P_l(t_j) P_l(t) for the rule's unit weights w_j).
+ * Lagrange basis: ℓ_j(t) = w_j Σ_{l<n} (l+½) P_l(t_j) P_l(t) for the rule's unit weights w_j). Made on first
+ * use (some 0.025 s of a thread's start at a load; the command line's reading thread never needs it).
  */
-const kernel = (() => {
+let kernelTable: Float64Array | undefined
+const upscatterKernel = (): Float64Array => (kernelTable ??= makeKernel())
+
+function makeKernel(): Float64Array {
   const unit = gaussLegendre(HALF)
   const graded = gaussLegendre(64)
   const k = new Float64Array(UPSCATTER_COS_ZENITH.length * 2 * HALF)
@@ -102,7 +106,7 @@ const kernel = (() => {
     }
   })
   return k
-})()
+}
 
 const upScratch = new Float64Array(UPSCATTER_COS_ZENITH.length)
 
@@ -130,6 +134,7 @@ export function upscatterFrom(acc: Float64Array, sca: number, lambda2: number, o
   const z = norm * scale
   const s = z > 1 ? scale / z : scale
   const n = acc.length
+  const kernel = upscatterKernel()
   for (let i = 0; i < UPSCATTER_COS_ZENITH.length; i++) {
     let v = 0
     const row = i * n

@@ -7,7 +7,7 @@
  * relations between values (fractions summing to 1, ascending wavelengths, material ids, bin counts, the
  * surface). The second pass reads the raw document defensively, so it also runs when the first found problems.
  */
-import { z } from 'zod'
+import * as z from 'zod'
 import { InputError } from '../errors.ts'
 import { readableBeside } from '../numberText.ts'
 import { defineUserMaterial, listMaterials } from '../materials/index.ts'

@@ -13,7 +13,7 @@
  *   "site": { "inputs": [ { "quantity": "surface_albedo", "apply": "set", "distribution": { "kind": "uniform", "lo": 0.1, "hi": 0.3 } } ] }
  * }
  */
-import { z } from 'zod'
+import * as z from 'zod'
 import { MAX_GSD } from '../sizes/index.ts'
 
 /** A distribution of the drawn number (the variate): a factor, an offset or the value itself (see `apply`). */

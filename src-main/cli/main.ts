@@ -1,5 +1,6 @@
 // The motebench command line. Each command reads its arguments, calls src-core's public API and prints.
 import { runGuarded, UsageError } from './common.ts'
+import { startSeriesWorkersEarly } from './series-early.ts'
 import { startUncertaintyWorkersEarly } from './uncertainty-args.ts'
 import { dropEarly } from './workers/early.ts'
 
@@ -21,7 +22,7 @@ const commands: Record<string, Command> = {
   population: { summary: 'bulk optics of lognormal modes of one composition', load: async () => { const m = await import('./population.ts'); return { help: m.populationHelp, run: m.runPopulation } } },
   forcing: { summary: 'direct-forcing estimate and verdict of a uniform layer', load: async () => { const m = await import('./forcing.ts'); return { help: m.forcingHelp, run: m.runForcing } } },
   study: { summary: "evaluate a study: every sample's optics, figures and forcing", load: async () => { const m = await import('./study.ts'); return { help: m.studyHelp, run: m.runStudy } } },
-  series: { summary: 'optics of every distribution of a sizer time series', load: async () => { const m = await import('./series.ts'); return { help: m.seriesHelp, run: m.runSeries } } },
+  series: { summary: 'optics of every distribution of a sizer time series', load: async () => { const m = await import('./series.ts'); return { help: m.seriesHelp, run: m.runSeries } }, early: startSeriesWorkersEarly },
   merge: { summary: 'several sizers (mobility, aerodynamic, optical) merged into one volume-equivalent distribution', load: async () => { const m = await import('./merge.ts'); return { help: m.mergeHelp, run: m.runMerge } } },
   uncertainty: { summary: "Monte Carlo uncertainty of a sample's 550 nm optics and forcing", load: async () => { const m = await import('./uncertainty.ts'); return { help: m.uncertaintyHelp, run: m.runUncertaintyCommand } }, early: startUncertaintyWorkersEarly },
   closure: { summary: 'effective refractive index from a size distribution and optical measurements', load: async () => { const m = await import('./closure.ts'); return { help: m.closureHelp, run: m.runClosure } } },

@@ -9,7 +9,6 @@ import { createReadStream } from 'node:fs'
 import { stat } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
-import type { Readable } from 'node:stream'
 import type { Worker } from 'node:worker_threads'
 import {
   createSizerReader,
@@ -22,12 +21,15 @@ import {
   type SizerRejection
 } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
-import { atomicFileOutput, csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readInteger, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { atomicFileOutput, csvCell, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
+import { fileLines } from './file-lines.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
+import { takeEarly } from './workers/early.ts'
+import { seriesWorkerCount } from './series-early.ts'
 import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp, type SeriesExtra } from './series-optical.ts'
 
 export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAME: optics of every distribution of a sizer time series
@@ -51,13 +53,13 @@ file say how they were made comparable). A summary goes to standard error; a pro
 Exit status 0, 1 when rows were skipped (of the sizer file or of an instrument file), 2 for bad input.`
 
 /**
- * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; about
- * 3 MB: enough for the reading to go on while the workers integrate the bins' kernels), and text gathered before
- * it is written.
+ * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 8,192
+ * rows, about 7 MB of values at 100 bins: enough for the reading to go on while the workers integrate the bins'
+ * kernels, 0.1–0.3 s, rather than wait for them), and text gathered before it is written.
  */
 const BLOCK_ROWS = 256
 const BLOCKS_PER_WORKER = 3
-const BLOCKS_AHEAD = 16
+const BLOCKS_AHEAD = 32
 const WRITE_CHARS = 1 << 20
 /** Reasons kept for the summary (the counts go on). */
 const KEPT_REASONS = 1000
@@ -279,8 +281,11 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     notify()
   }
 
+  // workers started by main.ts while this command loaded (workers/early.ts), then any more asked for
+  const early = takeEarly('series-worker', o.workers)
   for (let i = 0; i < o.workers; i++) {
-    const worker = startCliWorker('series-worker', setup)
+    const worker = early[i] ?? startCliWorker('series-worker', undefined)
+    worker.postMessage({ type: 'setup', setup } satisfies ToWorker)
     const entry = { worker, inFlight: 0 }
     worker.on('message', (m: FromWorker) => onMessage(entry, m))
     worker.on('error', (e) => fail(new Error(`a worker thread failed: ${e.message}`)))
@@ -295,6 +300,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     fileName: o.fileName,
     onBadRow: o.onBadRow,
     maxKeptRejections: KEPT_REASONS,
+    // the values are copied into the block (and the extra cells made from them) before the next row is read
+    reuseBuffer: true,
     onRecord: (record) => {
       if (o.shard && (record.line < o.shard.firstLine || record.line > o.shard.lastLine)) return
       shardRecords++
@@ -430,25 +437,6 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
   return lines.join('\n') + '\n'
 }
 
-/**
- * The lines of a text stream in batches (one per chunk read), split as node:readline splits them (at \r\n, \n or
- * a lone \r; no empty last line after a final line break), without an event and a promise per line.
- */
-export async function* fileLines(stream: AsyncIterable<string> & Readable): AsyncGenerator<string[]> {
-  let rest = ''
-  for await (const chunk of stream) {
-    let text = rest + chunk
-    // a \r at the end may be the first half of \r\n: keep it for the next chunk
-    const keep = text.endsWith('\r') ? 1 : 0
-    const parts = text.slice(0, text.length - keep).split(/\r\n|\n|\r/)
-    rest = parts.pop()! + (keep ? '\r' : '')
-    text = ''
-    if (parts.length > 0) yield parts
-  }
-  if (rest.endsWith('\r')) rest = rest.slice(0, -1)
-  if (rest !== '') yield [rest]
-}
-
 export async function runSeries(argv: string[]): Promise<number> {
   const { values, positionals } = readArgs(
     'series',
@@ -473,7 +461,7 @@ export async function runSeries(argv: string[]): Promise<number> {
   if (values.sample === undefined) throw new UsageError('series: --sample is required: the name of a sample of the study')
   const policy = values['on-bad-row'] ?? 'skip'
   if (policy !== 'skip' && policy !== 'stop') throw new UsageError(`series: --on-bad-row "${policy}" is not skip or stop`)
-  const workers = readInteger(values.workers, '--workers', 1, 64, Math.max(1, availableParallelism() - 1))
+  const workers = seriesWorkerCount(values.workers)
   const tolerance = readTolerance(values.tolerance, 1e-4)
   const sizer: SeriesRunOptions['sizer'] = readSizerFlags('series', values)
 

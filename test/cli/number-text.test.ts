@@ -5,7 +5,7 @@ import { createInterface } from 'node:readline'
 import { Readable } from 'node:stream'
 import { describe, expect, it } from 'vitest'
 import { sevenDigits } from '../../src-main/cli/number-text.ts'
-import { fileLines } from '../../src-main/cli/series.ts'
+import { fileLines } from '../../src-main/cli/file-lines.ts'
 
 const reference = (v: number) => String(Number(v.toPrecision(7)))
 
@@ -52,5 +52,19 @@ describe('fileLines', () => {
       expect(ours, `chunks of ${size}`).toEqual(viaReadline)
     }
     expect(viaReadline).toHaveLength(10)
+  })
+
+  it('gives the same lines for a file without carriage returns (lines sliced from each chunk, joined across chunks)', async () => {
+    const text = 'units: nm\n\ntime,10,20\n2024-01-01T00:00:00Z,1,2\n2024-01-01T00:01:00Z,3,4\n\nlast,5,6\n'
+    const viaReadline: string[] = []
+    for await (const l of createInterface({ input: Readable.from([text]), crlfDelay: Infinity })) viaReadline.push(l)
+    for (const size of [1, 2, 3, 5, 7, 11, 1000]) {
+      const chunks: string[] = []
+      for (let i = 0; i < text.length; i += size) chunks.push(text.slice(i, i + size))
+      const ours: string[] = []
+      for await (const batch of fileLines(Readable.from(chunks))) ours.push(...batch)
+      expect(ours, `chunks of ${size}`).toEqual(viaReadline)
+    }
+    expect(viaReadline).toHaveLength(7)
   })
 })

@@ -1,16 +1,23 @@
-// Worker thread of `motebench series`: integrates the bins' kernels once, then turns each block of rows it is sent
-// into CSV text (see series-row.ts) and posts it back with the block's number.
+// Worker thread of `motebench series`: given the series' setup (a message, or workerData), integrates the bins'
+// kernels once the layout comes, then turns each block of rows it is sent into CSV text (see series-row.ts) and
+// posts it back with the block's number. It may be started before the main thread has read the study
+// (workers/early.ts): it loads its modules meanwhile and waits for the setup.
 import { parentPort, workerData } from 'node:worker_threads'
 import { SeriesBlockComputer, type BinLayout, type BlockResult, type SeriesSetup } from '../series-row.ts'
 
-export type ToWorker = { type: 'layout'; layout: BinLayout } | { type: 'block'; id: number; times: string[]; values: Float64Array; bins: number }
+export type ToWorker =
+  | { type: 'setup'; setup: SeriesSetup }
+  | { type: 'layout'; layout: BinLayout }
+  | { type: 'block'; id: number; times: string[]; values: Float64Array; bins: number }
 export type FromWorker = { type: 'ready' } | ({ type: 'block'; id: number } & BlockResult)
 
 const port = parentPort!
-const computer = new SeriesBlockComputer(workerData as SeriesSetup)
+let computer = workerData ? new SeriesBlockComputer(workerData as SeriesSetup) : null
 
 port.on('message', (m: ToWorker) => {
-  if (m.type === 'layout') computer.useLayout(m.layout)
+  if (m.type === 'setup') computer = new SeriesBlockComputer(m.setup)
+  else if (!computer) throw new Error(`series worker: "${m.type}" before the setup`)
+  else if (m.type === 'layout') computer.useLayout(m.layout)
   else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
 })
 port.postMessage({ type: 'ready' } satisfies FromWorker)
