@@ -19,7 +19,9 @@
  * Richardson extrapolation (Simpson's rule). A level is accepted when every figure (σext, σsca, σabs relative
  * to σext, g, and b, β̄ while they are refined) changed by less than the tolerance, and this change and the one
  * before add up to less than it: where narrow resonances are not resolved, single changes are erratic and
- * understate the error (the tests compare with much finer integrations, at many nearby wavelengths).
+ * understate the error (the tests compare with much finer integrations, at many nearby wavelengths). Beyond
+ * level 3 a lognormal segment is refined by panels (panels.ts): only where its integral still changes, the other
+ * panels' new nodes filled in by a cubic-exact subdivision, so that the grid stays uniform.
  *
  * Upscatter. The population's S11 is summed at fixed scattering angles (upscatter.ts: 32 Gauss nodes in Θ on
  * each hemisphere), from which b, β(μ₀) and β̄ follow. Those sums converge more slowly in size than the
@@ -47,6 +49,7 @@ import { shiftToAsymmetry, UPSCATTER_COS_ZENITH, UPSCATTER_SCATTERING_COSINES, u
 import { addInto, combine, converged, figuresOf, largestChange, residualChange, scaleInto, Sums, type Figures } from './levelSums.ts'
 import { dryIndicesAt, particleGrowthAt, particleGrowthSetting, wetParticle, type ParticleKind, type WetParticle } from './particles.ts'
 import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
+import { PanelBuffers, SegmentPanels, settlePanels, SETTLE_FROM_LEVEL, SETTLED_SHARE } from './panels.ts'
 
 /** A stretch of the size distribution: ln D from lo to hi (D in µm), with dN/dlnD (cm⁻³) there. */
 export interface SizeSegment {
@@ -89,6 +92,11 @@ export interface IntegrationOptions {
    * them only σext, σsca, σabs and g are computed (b, β̄ and β(μ₀) are NaN), at a fraction of the cost.
    */
   upscatter?: boolean
+  /**
+   * Refine by panels beyond the first levels (panels.ts); default true. False refines every level over the whole
+   * range, as before panels were introduced (the tests compare the two).
+   */
+  panels?: boolean
 }
 
 /** The relative accuracy aimed at unless another is asked for. */
@@ -148,6 +156,8 @@ export class OpticsWorkspace {
   /** Every node's cross-sections, kept for the next computation with the same particles (see nodeCache.ts). */
   nodes: NodeCache
   evaluations = 0
+  /** Node-value arrays of the refinement by panels, reused from one integration to the next. */
+  panelBuffers = new PanelBuffers()
   constructor(nodeLimit?: number) {
     this.nodes = new NodeCache(nodeLimit)
   }
@@ -262,6 +272,8 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     return i
   }
 
+  /** The integrand (dN/dt·C: σext, σsca, σabs, g·σsca) at the last node addNode visited (0 where it left it out). */
+  const nodeF = new Float64Array(4)
   // A neighbour's row share waiting for the next node (see addNode): node, its t, the share and the sums it goes to.
   let carryNode = -1
   let carryT = NaN
@@ -284,6 +296,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   // evaluation.
   const addNode = (seg: Segment, base: number, m: number, h: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean) => {
     const t = base + m * h
+    nodeF[0] = nodeF[1] = nodeF[2] = nodeF[3] = 0
     if (carryNode >= 0 && carryT !== base + (m - 1) * h) flushCarry()
     let i = nodes.findNext(t)
     const u = i >= 0 ? nodes.values[NODE_FIELDS * i + NODE_U] : axis.uAt(seg, t)
@@ -305,6 +318,11 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
     const v = nodes.values
     const at = NODE_FIELDS * i
     const sca = v[at + NODE_SCA]
+    const f = dens * dudt
+    nodeF[0] = f * v[at + NODE_EXT]
+    nodeF[1] = f * sca
+    nodeF[2] = f * v[at + NODE_ABS]
+    nodeF[3] = f * v[at + NODE_GSCA]
     sums.ext += w * v[at + NODE_EXT]
     sums.sca += w * sca
     sums.abs += w * v[at + NODE_ABS]
@@ -394,6 +412,9 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
   let negligibleSca = 0
   let interpShare = 0
   const hasFlat = segs.some((sg) => sg.s.flat)
+  // Refinement by panels (panels.ts) of the lognormal segments; the settled panels' changes so far.
+  const panels = segs.map((sg) => (sg.s.flat || !opts.panels ? null : new SegmentPanels(sg.t0, sg.t1, ws.panelBuffers)))
+  let settledChange = 0
   // The nodes added are counted against the cache's bound even when the caller gives the work up between
   // steps (drive() in the app's workers calls return(), which runs this finally): they stay in the cache.
   nodes.users++
@@ -411,8 +432,21 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
         // This level's nodes in this segment: t = base + m·h for m = m0, m0 + dm, … (count of them), each weighted h.
         const { base, m0, dm, count, h, halfEnds } = levelNodes(sg.t0, sg.t1, sg.s.flat, h0, lv, at)
         const target = sg.s.flat ? freshFlat : fresh
+        const pan = panels[i]
+        pan?.begin(h, lv === 0)
         for (let k = 0; k < count; k++) {
-          addNode(sg, base, m0 + k * dm, h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles, withUser)
+          const m = m0 + k * dm
+          if (pan?.anySettled && pan.settled[pan.panelOf(base + m * h)]) {
+            // a settled panel: the node by subdivision (no Mie evaluation), weighted h like any lattice node
+            pan.interpolate(m, nodeF)
+            target.ext += h * nodeF[0]
+            target.sca += h * nodeF[1]
+            target.abs += h * nodeF[2]
+            target.gsca += h * nodeF[3]
+            continue
+          }
+          addNode(sg, base, m, h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles, withUser)
+          pan?.put(m, base + m * h, h, lv === 0, nodeF[0], nodeF[1], nodeF[2], nodeF[3])
           if (work >= STEP_WORK) {
             work = 0
             yield
@@ -428,6 +462,7 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       prevResult.copyFrom(result)
       combine(result, smoothSums, flatSums, hasFlat && lv > 0 ? flatPrev : null, anglesFrozen ? frozenAngles : null, userFrozen ? frozenUser : null)
       const figures = figuresOf(result, lambda2, opts.tolerance <= DEFAULT_TOLERANCE)
+      for (const pan of panels) pan?.end(figures.ext, figures.sca, figures.g)
       // Stop when this level changed every figure by less than the tolerance and this change and the one before
       // add up to less than it. Where narrow resonances of weakly absorbing spheres are not resolved, the
       // changes between levels are erratic and understate the error: a single small change, or two that
@@ -456,11 +491,14 @@ function* integratePopulation(pop: Population, wavelengthUm: number, cond: Condi
       }
       lastAngChange = angChange
       lastFigures = figures
+      // Beyond the uniform levels, panels whose changes are small settle (panels.ts).
+      if (lv >= SETTLE_FROM_LEVEL && anglesFrozen && userFrozen) settledChange = settlePanels(panels, settledChange, SETTLED_SHARE * opts.tolerance)
       negligibleExt = 1e-10 * figures.ext
       negligibleSca = 1e-8 * figures.sca
       interpShare = opts.tolerance * figures.sca
     }
   } finally {
+    for (const pan of panels) pan?.release()
     nodes.users--
     ws.nodes.grew(added)
   }
@@ -509,6 +547,7 @@ export function* bulkOpticsSteps(populations: readonly Population[], wavelengthU
     stepX: options.stepX ?? 2,
     coarsestStep: coarsestStepOf(options.coarsestStep),
     upscatter: options.upscatter ?? true,
+    panels: options.panels ?? true,
     anglesDeg: options.anglesDeg
   }
   const nUser = opts.upscatter && opts.anglesDeg ? opts.anglesDeg.length : 0

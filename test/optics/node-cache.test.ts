@@ -54,14 +54,17 @@ describe('node cache', () => {
     expect(evaluations(humid)).toBe(evaluations(humidCold))
   })
 
-  it('a quick pass on a coarser lattice costs the full pass after it nothing extra, and is within its tolerance', () => {
-    // the quick pass's nodes (coarsest step 2) are nodes of the full pass (step 1): reused, not evaluated again
+  it('a quick pass on a coarser lattice costs the full pass after it little extra, and is within its tolerance', () => {
+    // the quick pass's nodes (coarsest step 2) are nodes of the full pass's lattice (step 1): those the full pass
+    // visits are reused, not evaluated again (two thirds of them here, as before the refinement by panels, which
+    // made the full pass 2.4 times cheaper on this sample)
     const ws = new OpticsWorkspace()
     const quick = computeSampleOptics(coastal, study, { workspace: ws, tolerance: 1e-2, coarsestStep: 2 })
     const full = computeSampleOptics(coastal, study, { workspace: ws })
     const cold = computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace() })
     expectSameFigures(full, cold)
-    expect(evaluations(quick) + evaluations(full)).toBeLessThanOrEqual(1.02 * evaluations(cold))
+    expect(evaluations(cold) - evaluations(full)).toBeGreaterThan(0.6 * evaluations(quick))
+    expect(evaluations(quick) + evaluations(full)).toBeLessThanOrEqual(1.03 * evaluations(cold))
     quick.wavelengths.forEach((w, i) => {
       expect(Math.abs(w.ext / cold.wavelengths[i].ext - 1)).toBeLessThan(1e-2)
       expect(Math.abs(w.g - cold.wavelengths[i].g)).toBeLessThan(1e-2)
