@@ -6,7 +6,6 @@ import {
   CAMPAIGN_KIND_WORDS,
   campaignProblems,
   isSizerKind,
-  parseSizerText,
   relativeFilePath,
   rebaseCampaignPaths,
   resolveFilePath,
@@ -24,8 +23,10 @@ import { createStore, newId, store } from '../state/store.ts'
 import type { FromRecordWorker, MeasuredFile, RecordWorkerInput, ToRecordWorker } from './worker.ts'
 import { warmStretchNodes } from './warm.ts'
 import { holdFile, nextSerial, type HeldFile } from './held.ts'
+import { guessKind } from './kind.ts'
 
 export type { HeldFile }
+export { guessKind }
 
 export interface CampaignSession {
   /** Files read in this session (their texts, or on a web page the files themselves), by the path the study keeps. */
@@ -55,22 +56,6 @@ function freshSettings(study: Study): CampaignSettings {
   const i = Math.max(0, s.ids.indexOf(s.selected))
   const wl = study.wavelengths_nm.reduce((a, b) => (Math.abs(b - 550) < Math.abs(a - 550) ? b : a), study.wavelengths_nm[0] ?? 550)
   return { files: [], sample: study.samples[i]?.name ?? study.samples[0].name, wavelength_nm: wl, shape_factor: 1 }
-}
-
-/**
- * What a file holds, from its header (`text`: the file's beginning is enough): measured coefficients by their
- * column names, sizers by their diameter unit.
- */
-export function guessKind(name: string, text: string): CampaignFileKind {
-  const head = text.slice(0, 4000).toLowerCase()
-  if (/^time\b.*\bscattering \d/m.test(head)) return 'scattering'
-  if (/^time\b.*\babsorption \d/m.test(head)) return 'absorption'
-  if (/volume-equivalent|merged size distribution/.test(head) || /merged/i.test(name)) return 'merged'
-  try {
-    return parseSizerText(text.slice(0, 20000).split(/\r?\n/).slice(0, 60).join('\n'), { fileName: name }).diameterUnit === 'um' ? 'aerodynamic' : 'mobility'
-  } catch {
-    return 'mobility'
-  }
 }
 
 /** Adds files to the campaign (one per kind: a file of a kind already present replaces it). */
@@ -221,7 +206,7 @@ export const prepareRecordWorker = (): void => spareWorker()
  * that worker is not there or fails, the page measures them itself (held.ts).
  */
 async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
-  const blobs = chosen.flatMap((f) => ('blob' in f ? [{ serial: nextSerial(), blob: f.blob }] : []))
+  const blobs = chosen.flatMap((f) => ('blob' in f ? [{ serial: nextSerial(), name: f.name, blob: f.blob }] : []))
   let measured: MeasuredFile[] | null = null
   if (blobs.length > 0 && typeof Worker !== 'undefined') {
     const w = spare ?? newWorker()

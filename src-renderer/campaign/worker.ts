@@ -2,8 +2,12 @@
 // the files themselves, read as bytes here, so the page neither decodes a year of rows nor copies its text), the
 // record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
 // A web page's files are measured here first (`measure`: the text's length, beginning and sampled fingerprint, what
-// the study's reference keeps), and their texts kept for the record asked of this worker next.
-import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, textFingerprint, type CampaignBuild, type CampaignInput, type CampaignSettings, type Study } from '../../src-core/index.ts'
+// the study's reference keeps), and their texts kept for the record asked of this worker next. They are read ahead
+// too, as the kind the page will guess for them (kind.ts): a measured file as soon as it is decoded, while the other
+// files' bytes still come, and a sizer file once the page has its measures, while it sets the record up; the record
+// takes what was read as the kind it is asked for (buildCampaignRecord's `ahead`), the same as reading it then.
+import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, textFingerprint, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
+import { guessKind } from './kind.ts'
 
 /** A file as the page sends it: its text, or the file (read here, or already by `measure`); `serial` is the page's. */
 export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { serial: number } & ({ text: string } | { blob: Blob })
@@ -11,7 +15,7 @@ export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { serial: number }
 export type MeasuredFile = { serial: number; size: number; head: string; fingerprint: string }
 export type ToRecordWorker =
   | { type: 'record'; job: number; inputs: RecordWorkerInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
-  | { type: 'measure'; id: number; files: { serial: number; blob: Blob }[] }
+  | { type: 'measure'; id: number; files: { serial: number; name: string; blob: Blob }[] }
 export type FromRecordWorker =
   | { job: number; type: 'progress'; share: number }
   | { job: number; type: 'done'; build: CampaignBuild; ms: number }
@@ -28,32 +32,52 @@ const readText = async (blob: Blob): Promise<string> => new TextDecoder().decode
 
 /** Texts read by `measure`, by the page's serial. */
 const read = new Map<number, string>()
+/** Files read ahead (by the page's serial): as the kind guessed for them. */
+const ahead = new Map<number, ReadAhead>()
+
+/** Reads a file ahead as the kind the page will guess for it; a fault here is left for the record's own reading to meet. */
+function readAhead(serial: number, name: string, text: string, sizers: boolean): void {
+  const kind = guessKind(name, text.slice(0, FINGERPRINT_SPAN))
+  if (isSizerKind(kind) !== sizers) return
+  try {
+    ahead.set(serial, sizers ? { kind, name, part: readSizerPart({ kind, name, text }) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text }) })
+  } catch {
+    ahead.delete(serial)
+  }
+}
 
 const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer)
 
 self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
   const d = e.data
   if (d.type === 'measure') {
-    // each file's bytes fetched side by side and decoded whole
+    // each file's bytes fetched side by side and decoded whole; a measured file read at once (the sizer's bytes,
+    // many more, are still coming meanwhile)
     const files = await Promise.all(
-      d.files.map(async ({ serial, blob }) => {
+      d.files.map(async ({ serial, name, blob }) => {
         const text = await readText(blob)
         read.set(serial, text)
+        readAhead(serial, name, text, false)
         return { serial, size: text.length, head: text.slice(0, FINGERPRINT_SPAN), fingerprint: textFingerprint(text) }
       })
     )
     post({ type: 'measured', id: d.id, files })
+    // the sizers read while the page adds the files and asks for the record (its message waits for this)
+    for (const { serial, name } of d.files) readAhead(serial, name, read.get(serial)!, true)
     return
   }
   const { job, settings, study } = d
   const started = performance.now()
   try {
     const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : (read.get(i.serial) ?? (await readText(i.blob))) })))
+    const readFirst = d.inputs.map((i) => ahead.get(i.serial))
     read.clear()
+    ahead.clear()
     let last = 0
     // the figures at the wavelengths the charts draw; the export computes the others (recordCsv, completeRecord)
     const build = buildCampaignRecord(inputs, settings, study, {
       figures: 'charts',
+      ahead: readFirst,
       onProgress: (share) => {
         const now = performance.now()
         if (now - last > 100) post({ job, type: 'progress', share })
