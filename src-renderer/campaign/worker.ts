@@ -1,26 +1,22 @@
 // The campaign's record computed off the page's thread: the files in (their texts from the desktop; on a web page
-// the files themselves, read as bytes here, so the page neither decodes a year of rows nor copies its text), the
-// record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
-// A web page's files are measured here first (`measure`: the text's length, beginning and sampled fingerprint, what
-// the study's reference keeps), and their texts kept for the record asked of this worker next. They are read ahead
-// too, as the kind the page will guess for them (kind.ts): a measured file as soon as it is decoded, while the other
-// files' bytes still come, and a sizer file once the page has its measures, while it sets the record up; the record
-// takes what was read as the kind it is asked for (buildCampaignRecord's `ahead`), the same as reading it then.
-import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, textFingerprint, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
+// their bytes, read once by the page and moved here, so the page neither decodes a year of rows nor copies its
+// text), the record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
+// A web page's files are decoded here as their bytes come (`bytes`), kept for the record asked of this worker next,
+// and read ahead as the kind the page guesses for them (kind.ts) while the page's other files are still being read
+// and while it adds the files and asks for the record; the record takes what was read as the kind it is asked for
+// (buildCampaignRecord's `ahead`), the same as reading it then.
+import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
 import { guessKind } from './kind.ts'
 
-/** A file as the page sends it: its text, or the file (read here, or already by `measure`); `serial` is the page's. */
+/** A file as the page sends it: its text, or the file (read here unless its bytes came first); `serial` is the page's. */
 export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { serial: number } & ({ text: string } | { blob: Blob })
-/** What `measure` tells of a file: as held.ts measures it on the page. */
-export type MeasuredFile = { serial: number; size: number; head: string; fingerprint: string }
 export type ToRecordWorker =
   | { type: 'record'; job: number; inputs: RecordWorkerInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
-  | { type: 'measure'; id: number; files: { serial: number; name: string; blob: Blob }[] }
+  | { type: 'bytes'; serial: number; name: string; bytes: ArrayBuffer }
 export type FromRecordWorker =
   | { job: number; type: 'progress'; share: number }
   | { job: number; type: 'done'; build: CampaignBuild; ms: number }
   | { job: number; type: 'failed'; message: string; fix: string }
-  | { type: 'measured'; id: number; files: MeasuredFile[] }
 
 /**
  * A file's text: its bytes decoded as UTF-8 (a byte-order mark dropped, as File.text() does). Not File.text(): in
@@ -30,17 +26,16 @@ export type FromRecordWorker =
  */
 const readText = async (blob: Blob): Promise<string> => new TextDecoder().decode(await blob.arrayBuffer())
 
-/** Texts read by `measure`, by the page's serial. */
+/** Texts decoded from the page's bytes, by the page's serial. */
 const read = new Map<number, string>()
 /** Files read ahead (by the page's serial): as the kind guessed for them. */
 const ahead = new Map<number, ReadAhead>()
 
 /** Reads a file ahead as the kind the page will guess for it; a fault here is left for the record's own reading to meet. */
-function readAhead(serial: number, name: string, text: string, sizers: boolean): void {
+function readAhead(serial: number, name: string, text: string): void {
   const kind = guessKind(name, text.slice(0, FINGERPRINT_SPAN))
-  if (isSizerKind(kind) !== sizers) return
   try {
-    ahead.set(serial, sizers ? { kind, name, part: readSizerPart({ kind, name, text }) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text }) })
+    ahead.set(serial, isSizerKind(kind) ? { kind, name, part: readSizerPart({ kind, name, text }) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text }) })
   } catch {
     ahead.delete(serial)
   }
@@ -50,20 +45,10 @@ const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as un
 
 self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
   const d = e.data
-  if (d.type === 'measure') {
-    // each file's bytes fetched side by side and decoded whole; a measured file read at once (the sizer's bytes,
-    // many more, are still coming meanwhile)
-    const files = await Promise.all(
-      d.files.map(async ({ serial, name, blob }) => {
-        const text = await readText(blob)
-        read.set(serial, text)
-        readAhead(serial, name, text, false)
-        return { serial, size: text.length, head: text.slice(0, FINGERPRINT_SPAN), fingerprint: textFingerprint(text) }
-      })
-    )
-    post({ type: 'measured', id: d.id, files })
-    // the sizers read while the page adds the files and asks for the record (its message waits for this)
-    for (const { serial, name } of d.files) readAhead(serial, name, read.get(serial)!, true)
+  if (d.type === 'bytes') {
+    const text = new TextDecoder().decode(d.bytes)
+    read.set(d.serial, text)
+    readAhead(d.serial, d.name, text)
     return
   }
   const { job, settings, study } = d
