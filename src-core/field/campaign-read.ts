@@ -123,10 +123,13 @@ function refused(kind: CampaignFileKind, name: string, e: InputError): CampaignF
   return { kind, name, ok: false, error: { where: e.where, problem, fix: e.fix }, rows: 0, bins: 0, channels: [], firstTime: '', lastTime: '', interval: '', ignoredColumns: [], leftOut: 0, reasons: [], notes: [] }
 }
 
-/** Reads a sizer file; an InputError comes back as a refused summary, never thrown. */
-export function readCampaignSizer(input: CampaignInput, density?: number): ReadSizer | { summary: CampaignFileSummary } {
+/**
+ * Reads a sizer file; an InputError comes back as a refused summary, never thrown. `read`: its lines as
+ * `readSizerPart(input)` read them already (the app's worker reads a file while it waits for the record's settings).
+ */
+export function readCampaignSizer(input: CampaignInput, density?: number, read?: SizerPart): ReadSizer | { summary: CampaignFileSummary } {
   try {
-    return finishSizer(input, [readSizerPart(input)], density)
+    return finishSizer(input, [read ?? readSizerPart(input)], density)
   } catch (e) {
     if (e instanceof InputError) return { summary: refused(input.kind, input.name, e) }
     throw e

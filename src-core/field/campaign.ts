@@ -17,8 +17,8 @@ import { InputError } from '../errors.ts'
 import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinKernels, type BinLayout } from '../optics/binKernels.ts'
 import { OpticsWorkspace } from '../optics/integrate.ts'
 import type { Sample, Study } from '../study/model.ts'
-import { campaignProblems, isSizerKind, type CampaignSettings } from './campaign-settings.ts'
-import { readCampaignInstrument, readCampaignSizer, type CampaignFileSummary, type CampaignInput, type ReadInstrument, type ReadSizer } from './campaign-read.ts'
+import { campaignProblems, isSizerKind, type CampaignFileKind, type CampaignSettings } from './campaign-settings.ts'
+import { readCampaignInstrument, readCampaignSizer, type CampaignFileSummary, type CampaignInput, type ReadInstrument, type ReadSizer, type SizerPart } from './campaign-read.ts'
 import { planMerge, mergeStep, type SizerInput } from './merge.ts'
 import { mergedMidpointsNm } from './output.ts'
 import { binsFromMeasurement } from '../sizes/index.ts'
@@ -187,15 +187,22 @@ export interface CampaignFiles {
 type RecordOptions = { tolerance?: number; workspace?: OpticsWorkspace; onProgress?: (share: number) => void; figures?: 'all' | 'charts' }
 
 /**
+ * A file read ahead, before the record was asked for (the app's worker reads the files it measured while the page
+ * sets the record up): a sizer's lines (`readSizerPart`), or a measured file as `readCampaignInstrument` read it as
+ * that kind. Taken once: the record takes over its arrays and summary.
+ */
+export type ReadAhead = { kind: CampaignFileKind; name: string; part: SizerPart } | { kind: CampaignFileKind; name: string; instrument: ReturnType<typeof readCampaignInstrument> }
+
+/**
  * The record of a campaign from its files' texts. A file that cannot be read is refused in its summary and left
  * out; without a readable sizer there is no record (`problem` says why). Throws InputError only for what no file
  * alone is to blame for (the study's sample or composition, clocks of different forms). The reading
  * (readCampaignFiles) and the record made from what was read (campaignRecord) are also there apart, for readers
  * that share the files (the app's workers).
  */
-export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: RecordOptions = {}): CampaignBuild {
+export function buildCampaignRecord(inputs: readonly CampaignInput[], settings: CampaignSettings, study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'>, options: RecordOptions & { ahead?: readonly (ReadAhead | undefined)[] } = {}): CampaignBuild {
   checkCampaign(inputs, settings, study)
-  const read = readCampaignFiles(inputs, settings)
+  const read = readCampaignFiles(inputs, settings, options.ahead)
   options.onProgress?.(0.2)
   return campaignRecord(read, settings, study, options)
 }
@@ -210,10 +217,17 @@ export function checkCampaign(inputs: readonly Pick<CampaignInput, 'kind' | 'nam
   return sample
 }
 
-/** Each file read on its own (a file that cannot be read is refused in its summary). */
-export function readCampaignFiles(inputs: readonly CampaignInput[], settings: Pick<CampaignSettings, 'density_g_cm3'>): CampaignFiles {
+/**
+ * Each file read on its own (a file that cannot be read is refused in its summary). `ahead[i]`: input i read
+ * already (ReadAhead), used when it was read as the same kind under the same name.
+ */
+export function readCampaignFiles(inputs: readonly CampaignInput[], settings: Pick<CampaignSettings, 'density_g_cm3'>, ahead: readonly (ReadAhead | undefined)[] = []): CampaignFiles {
   const read: CampaignFiles = { files: [], sizers: [], instruments: [] }
-  for (const input of inputs) addCampaignFile(read, isSizerKind(input.kind) ? readCampaignSizer(input, settings.density_g_cm3) : readCampaignInstrument(input))
+  inputs.forEach((input, i) => {
+    const a = ahead[i]?.kind === input.kind && ahead[i]?.name === input.name ? ahead[i] : undefined
+    if (isSizerKind(input.kind)) addCampaignFile(read, readCampaignSizer(input, settings.density_g_cm3, a && 'part' in a ? a.part : undefined))
+    else addCampaignFile(read, a && 'instrument' in a ? a.instrument : readCampaignInstrument(input))
+  })
   return read
 }
 

@@ -132,6 +132,7 @@ export {
   type CampaignRecord,
   type CampaignBuild,
   type CampaignFiles,
+  type ReadAhead,
   figureColumns,
   buildCampaignRecord,
   checkCampaign,

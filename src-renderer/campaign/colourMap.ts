@@ -37,11 +37,13 @@ export const colourCss = (share: number): string => {
  * the lowest colour), so that the tails of the bins do not flatten the map.
  */
 export function colourRange(r: CampaignRecord): [number, number] {
-  const v: number[] = []
   const step = Math.max(1, Math.floor(r.dNdlogD.length / 200_000))
-  for (let i = 0; i < r.dNdlogD.length; i += step) if (r.dNdlogD[i] > 0) v.push(Math.log10(r.dNdlogD[i]))
-  if (v.length === 0) return [0, 1]
-  v.sort((a, b) => a - b)
+  const all = new Float64Array(Math.ceil(r.dNdlogD.length / step))
+  let n = 0
+  for (let i = 0; i < r.dNdlogD.length; i += step) if (r.dNdlogD[i] > 0) all[n++] = Math.log10(r.dNdlogD[i])
+  if (n === 0) return [0, 1]
+  // a typed array's own numeric sort (the values are finite): the order a comparison of numbers gives, much quicker
+  const v = all.subarray(0, n).sort()
   const hi = v[Math.floor(0.995 * (v.length - 1))]
   const lo = Math.max(v[Math.floor(0.01 * (v.length - 1))], hi - 5)
   return hi > lo ? [Math.floor(lo * 2) / 2, Math.ceil(hi * 2) / 2] : [lo - 1, lo + 1]

@@ -43,18 +43,37 @@ export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): E
     below = level
     if (m === 1) break
   }
+  const row = s.row
   for (const k of keys) {
     const v = s.values[k]
     const levels: Level[] = []
-    let min = new Float64Array(n)
-    let max = new Float64Array(n)
-    let missing = new Uint8Array(n)
-    for (let i = 0; i < n; i++) {
-      const y = v[i]
-      if (y === null) (min[i] = Infinity), (max[i] = -Infinity), (missing[i] = 1)
-      else (min[i] = y), (max[i] = y), (missing[i] = s.row[i] < 0 ? 1 : 0)
+    if (out.breaks.length === 0) {
+      out.lines[k] = levels
+      continue
     }
-    for (const br of out.breaks) {
+    // blocks of 2 straight from the points (a point: its value as lowest and highest, or missing; a null is missing
+    // with lowest Infinity and highest −Infinity), then each level from the one below
+    const m1 = out.breaks[0].length
+    let min = new Float64Array(m1)
+    let max = new Float64Array(m1)
+    let missing = new Uint8Array(m1)
+    for (let i = 0; i < m1; i++) {
+      const j = 2 * i
+      const a = v[j]
+      const aMin = a === null ? Infinity : a
+      const aMax = a === null ? -Infinity : a
+      const aGap = a === null || row[j] < 0 ? 1 : 0
+      if (j + 1 < n) {
+        const b = v[j + 1]
+        const bMin = b === null ? Infinity : b
+        const bMax = b === null ? -Infinity : b
+        min[i] = aMin < bMin ? aMin : bMin
+        max[i] = aMax > bMax ? aMax : bMax
+        missing[i] = aGap | (b === null || row[j + 1] < 0 ? 1 : 0)
+      } else (min[i] = aMin), (max[i] = aMax), (missing[i] = aGap)
+    }
+    levels.push({ min, max, missing })
+    for (const br of out.breaks.slice(1)) {
       const m = br.length
       const lo = new Float64Array(m)
       const hi = new Float64Array(m)

@@ -1,13 +1,12 @@
 // An instrument file as the page holds it: the desktop gives its text (read in the main process), the web page the
-// file itself, which the page never decodes whole nor copies to the worker: the record's worker reads it and tells
-// the page its length, beginning and fingerprint (`measure`, campaign/worker.ts); without that worker (or when it
-// fails) the page measures the file from its bytes here.
+// file itself, whose bytes the page reads once and measures here (a plain-ASCII file without decoding it: its length,
+// beginning and sampled fingerprint) and then hands, moved rather than copied, to the record's worker, which decodes
+// and reads them (campaign/worker.ts); the page decodes none of a year of rows.
 import { FINGERPRINT_SPAN, sampledFingerprint, textFingerprint } from '../../src-core/index.ts'
 import type { InstrumentFile } from '../../src-main/host-api.ts'
-import type { MeasuredFile } from './worker.ts'
 
 export interface HeldFile {
-  /** This session's number for the file (the worker that measured it keeps its text by it). */
+  /** This session's number for the file (the worker given its bytes keeps its text by it). */
   serial: number
   name: string
   path?: string
@@ -42,15 +41,18 @@ function plainAscii(bytes: Uint8Array): boolean {
 }
 
 /**
- * The file as the page keeps it: with what the worker measured of it (`measured`), or else measured here. A file of plain ASCII (the instruments' exports) is measured from its bytes: its
- * length is its byte count, and its two ends give the same sampled fingerprint as the decoded text would. Any other
- * (a byte-order mark, accented names in a header) is decoded here, as the whole text was before.
+ * The file as the page keeps it, measured here. A file of plain ASCII (the instruments' exports) is measured from its
+ * bytes: its length is its byte count, and its two ends give the same sampled fingerprint as the decoded text would.
+ * Any other (a byte-order mark, accented names in a header) is decoded here, as the whole text was before.
  */
-export async function holdFile(f: InstrumentFile, measured?: MeasuredFile): Promise<HeldFile> {
+export async function holdFile(f: InstrumentFile): Promise<HeldFile> {
   if ('text' in f) return fromText(f.name, f.text, f.path, f.fingerprint)
+  return holdBytes(f, new Uint8Array(await f.blob.arrayBuffer()))
+}
+
+/** `holdFile` of a chosen file whose bytes were read (the caller may then hand them to a record worker). */
+export function holdBytes(f: { name: string; path?: string; blob: Blob }, bytes: Uint8Array): HeldFile {
   const path = f.path !== undefined ? { path: f.path } : {}
-  if (measured) return { serial: measured.serial, name: f.name, ...path, blob: f.blob, size: measured.size, head: measured.head, fingerprint: measured.fingerprint }
-  const bytes = new Uint8Array(await f.blob.arrayBuffer())
   if (!plainAscii(bytes)) return fromText(f.name, new TextDecoder().decode(bytes), f.path)
   const n = bytes.length
   const headEnd = Math.min(n, FINGERPRINT_SPAN)

@@ -6,7 +6,6 @@ import {
   CAMPAIGN_KIND_WORDS,
   campaignProblems,
   isSizerKind,
-  parseSizerText,
   relativeFilePath,
   rebaseCampaignPaths,
   resolveFilePath,
@@ -21,11 +20,13 @@ import type { InstrumentFile } from '../../src-main/host-api.ts'
 import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
-import type { FromRecordWorker, MeasuredFile, RecordWorkerInput, ToRecordWorker } from './worker.ts'
+import type { FromRecordWorker, RecordWorkerInput, ToRecordWorker } from './worker.ts'
 import { warmStretchNodes } from './warm.ts'
-import { holdFile, nextSerial, type HeldFile } from './held.ts'
+import { holdBytes, holdFile, type HeldFile } from './held.ts'
+import { guessKind } from './kind.ts'
 
 export type { HeldFile }
+export { guessKind }
 
 export interface CampaignSession {
   /** Files read in this session (their texts, or on a web page the files themselves), by the path the study keeps. */
@@ -55,22 +56,6 @@ function freshSettings(study: Study): CampaignSettings {
   const i = Math.max(0, s.ids.indexOf(s.selected))
   const wl = study.wavelengths_nm.reduce((a, b) => (Math.abs(b - 550) < Math.abs(a - 550) ? b : a), study.wavelengths_nm[0] ?? 550)
   return { files: [], sample: study.samples[i]?.name ?? study.samples[0].name, wavelength_nm: wl, shape_factor: 1 }
-}
-
-/**
- * What a file holds, from its header (`text`: the file's beginning is enough): measured coefficients by their
- * column names, sizers by their diameter unit.
- */
-export function guessKind(name: string, text: string): CampaignFileKind {
-  const head = text.slice(0, 4000).toLowerCase()
-  if (/^time\b.*\bscattering \d/m.test(head)) return 'scattering'
-  if (/^time\b.*\babsorption \d/m.test(head)) return 'absorption'
-  if (/volume-equivalent|merged size distribution/.test(head) || /merged/i.test(name)) return 'merged'
-  try {
-    return parseSizerText(text.slice(0, 20000).split(/\r?\n/).slice(0, 60).join('\n'), { fileName: name }).diameterUnit === 'um' ? 'aerodynamic' : 'mobility'
-  } catch {
-    return 'mobility'
-  }
 }
 
 /** Adds files to the campaign (one per kind: a file of a kind already present replaces it). */
@@ -216,34 +201,27 @@ function spareWorker(): void {
 export const prepareRecordWorker = (): void => spareWorker()
 
 /**
- * Holds chosen files: a web page's are measured by a record worker, which reads them (and then keeps their texts
- * for the record it is asked for next: it becomes the spare worker), so the page reads none of a year of rows; where
- * that worker is not there or fails, the page measures them itself (held.ts).
+ * Holds chosen files: a web page's bytes are read here once, measured (held.ts) and moved to a record worker, which
+ * decodes and reads them ahead (and becomes the spare worker, asked for the record next), so the page decodes none
+ * of a year of rows; without workers (tests of the session) the files are only measured.
  */
 async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
-  const blobs = chosen.flatMap((f) => ('blob' in f ? [{ serial: nextSerial(), blob: f.blob }] : []))
-  let measured: MeasuredFile[] | null = null
-  if (blobs.length > 0 && typeof Worker !== 'undefined') {
-    const w = spare ?? newWorker()
-    spare = null // this one is busy until it answers; a refresh meanwhile starts another
-    measured = await new Promise<MeasuredFile[] | null>((resolve) => {
-      const id = nextSerial()
-      const on = (e: MessageEvent<FromRecordWorker>) => {
-        if (e.data.type !== 'measured' || e.data.id !== id) return
-        w.removeEventListener('message', on)
-        resolve(e.data.files)
-      }
-      w.addEventListener('message', on)
-      w.addEventListener('error', () => resolve(null), { once: true })
-      w.postMessage({ type: 'measure', id, files: blobs } satisfies ToRecordWorker)
+  if (!chosen.some((f) => 'blob' in f) || typeof Worker === 'undefined') return Promise.all(chosen.map((f) => holdFile(f)))
+  const w = spare ?? newWorker()
+  spare = null // this one is busy until the files are held; a refresh meanwhile starts another
+  const held = await Promise.all(
+    chosen.map(async (f) => {
+      if (!('blob' in f)) return holdFile(f)
+      const bytes = await f.blob.arrayBuffer()
+      const h = holdBytes(f, new Uint8Array(bytes))
+      // a plain-ASCII file's bytes moved (not copied) to the worker, which decodes them and reads the file ahead
+      if (h.text === undefined) w.postMessage({ type: 'bytes', serial: h.serial, name: h.name, bytes } satisfies ToRecordWorker, [bytes])
+      return h
     })
-    if (measured) {
-      ;(spare as Worker | null)?.terminate() // started meanwhile, without these texts
-      spare = w
-    } else w.terminate()
-  }
-  let b = 0
-  return Promise.all(chosen.map((f) => ('blob' in f ? holdFile(f, measured?.[b++]) : holdFile(f))))
+  )
+  ;(spare as Worker | null)?.terminate() // started meanwhile, without these texts
+  spare = w
+  return held
 }
 
 /** Stops the running computation (the last record, if any, stays). */
@@ -296,7 +274,7 @@ async function start(force: boolean): Promise<void> {
   session.set({ running: true, share: 0, failure: null })
   w.onmessage = (e: MessageEvent<FromRecordWorker>) => {
     const m = e.data
-    if (m.type === 'measured' || m.job !== mine) return
+    if (m.job !== mine) return
     if (m.type === 'progress') return session.set({ share: m.share })
     stopWorker()
     if (m.type === 'failed') return session.set({ running: false, failure: m.message })

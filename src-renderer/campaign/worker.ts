@@ -1,22 +1,22 @@
 // The campaign's record computed off the page's thread: the files in (their texts from the desktop; on a web page
-// the files themselves, read as bytes here, so the page neither decodes a year of rows nor copies its text), the
-// record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
-// A web page's files are measured here first (`measure`: the text's length, beginning and sampled fingerprint, what
-// the study's reference keeps), and their texts kept for the record asked of this worker next.
-import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, textFingerprint, type CampaignBuild, type CampaignInput, type CampaignSettings, type Study } from '../../src-core/index.ts'
+// their bytes, read once by the page and moved here, so the page neither decodes a year of rows nor copies its
+// text), the record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
+// A web page's files are decoded here as their bytes come (`bytes`), kept for the record asked of this worker next,
+// and read ahead as the kind the page guesses for them (kind.ts) while the page's other files are still being read
+// and while it adds the files and asks for the record; the record takes what was read as the kind it is asked for
+// (buildCampaignRecord's `ahead`), the same as reading it then.
+import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
+import { guessKind } from './kind.ts'
 
-/** A file as the page sends it: its text, or the file (read here, or already by `measure`); `serial` is the page's. */
+/** A file as the page sends it: its text, or the file (read here unless its bytes came first); `serial` is the page's. */
 export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { serial: number } & ({ text: string } | { blob: Blob })
-/** What `measure` tells of a file: as held.ts measures it on the page. */
-export type MeasuredFile = { serial: number; size: number; head: string; fingerprint: string }
 export type ToRecordWorker =
   | { type: 'record'; job: number; inputs: RecordWorkerInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
-  | { type: 'measure'; id: number; files: { serial: number; blob: Blob }[] }
+  | { type: 'bytes'; serial: number; name: string; bytes: ArrayBuffer }
 export type FromRecordWorker =
   | { job: number; type: 'progress'; share: number }
   | { job: number; type: 'done'; build: CampaignBuild; ms: number }
   | { job: number; type: 'failed'; message: string; fix: string }
-  | { type: 'measured'; id: number; files: MeasuredFile[] }
 
 /**
  * A file's text: its bytes decoded as UTF-8 (a byte-order mark dropped, as File.text() does). Not File.text(): in
@@ -26,34 +26,43 @@ export type FromRecordWorker =
  */
 const readText = async (blob: Blob): Promise<string> => new TextDecoder().decode(await blob.arrayBuffer())
 
-/** Texts read by `measure`, by the page's serial. */
+/** Texts decoded from the page's bytes, by the page's serial. */
 const read = new Map<number, string>()
+/** Files read ahead (by the page's serial): as the kind guessed for them. */
+const ahead = new Map<number, ReadAhead>()
+
+/** Reads a file ahead as the kind the page will guess for it; a fault here is left for the record's own reading to meet. */
+function readAhead(serial: number, name: string, text: string): void {
+  const kind = guessKind(name, text.slice(0, FINGERPRINT_SPAN))
+  try {
+    ahead.set(serial, isSizerKind(kind) ? { kind, name, part: readSizerPart({ kind, name, text }) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text }) })
+  } catch {
+    ahead.delete(serial)
+  }
+}
 
 const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer)
 
 self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
   const d = e.data
-  if (d.type === 'measure') {
-    // each file's bytes fetched side by side and decoded whole
-    const files = await Promise.all(
-      d.files.map(async ({ serial, blob }) => {
-        const text = await readText(blob)
-        read.set(serial, text)
-        return { serial, size: text.length, head: text.slice(0, FINGERPRINT_SPAN), fingerprint: textFingerprint(text) }
-      })
-    )
-    post({ type: 'measured', id: d.id, files })
+  if (d.type === 'bytes') {
+    const text = new TextDecoder().decode(d.bytes)
+    read.set(d.serial, text)
+    readAhead(d.serial, d.name, text)
     return
   }
   const { job, settings, study } = d
   const started = performance.now()
   try {
     const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : (read.get(i.serial) ?? (await readText(i.blob))) })))
+    const readFirst = d.inputs.map((i) => ahead.get(i.serial))
     read.clear()
+    ahead.clear()
     let last = 0
     // the figures at the wavelengths the charts draw; the export computes the others (recordCsv, completeRecord)
     const build = buildCampaignRecord(inputs, settings, study, {
       figures: 'charts',
+      ahead: readFirst,
       onProgress: (share) => {
         const now = performance.now()
         if (now - last > 100) post({ job, type: 'progress', share })

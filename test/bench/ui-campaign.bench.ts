@@ -2,7 +2,8 @@
 // campaign of MOTEBENCH_BENCH_CAMPAIGN_STEPS (default 100,000) 5-minute steps of 100 bins (one merged
 // size-distribution file) with a nephelometer and an absorption photometer file is added through the file chooser;
 // timed inside the page from the chooser's change event to the last chart drawn (reading, the worker's computing,
-// the transfer and the drawing; `worker_s` is the worker's part), the page's longest task meanwhile (how long the page could not answer), a zoom's
+// the transfer and the drawing; `worker_s` is the worker's part from the record's request on: files the worker read
+// ahead of it, as their bytes came, are not in it), the page's longest task meanwhile (how long the page could not answer), a zoom's
 // redraw of every chart (key + and − on the stack, to the next frame; median of 10; also its JavaScript alone and
 // the time to the frame after the one that painted it; the lines are thin while zooming, and `settled_after_ms` and
 // `settle_longest_frame_ms` time their redrawing at full width once the zooming stops), a stretch of a day made into
@@ -71,7 +72,7 @@ export async function benchUiCampaign(): Promise<void> {
           })
         )
     )
-    // the worker's own time (reading, merging, computing), as the view states it
+    // the worker's own time from the record's request (merging, computing, the reading not done ahead), as the view states it
     const worker = Number(/computed in ([0-9.]+) s/.exec((await page.getByTestId('record-summary').textContent()) ?? '')?.[1])
     // the charts as a user zooms them: the stack scrolled to the top of its panel (how many of them are then in view
     // is reported: the charts out of view are redrawn when the zooming settles or they come into view)

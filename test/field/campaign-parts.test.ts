@@ -7,7 +7,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { finishSizer, partsJoin, readCampaignInstrument, readCampaignSizer, readSizerPart, sizerCut, type CampaignInput } from '../../src-core/field/campaign-read.ts'
 import { packInstrument, packSizerPart, unpackInstrument, unpackSizerPart } from '../../src-core/field/campaign-pack.ts'
-import { addCampaignFile, buildCampaignRecord, campaignRecord, demoStudy, type CampaignFiles, type CampaignSettings } from '../../src-core/index.ts'
+import { addCampaignFile, buildCampaignRecord, campaignRecord, demoStudy, type CampaignFiles, type CampaignSettings, type ReadAhead } from '../../src-core/index.ts'
 import { repo } from '../cli/helpers.ts'
 
 const demo = (name: string): CampaignInput => ({ kind: 'mobility', name, text: readFileSync(join(repo, 'resources/field', name), 'utf8') })
@@ -171,5 +171,41 @@ describe('the record from files read in parts', () => {
     expect(firstDifference(b.rh, a.rh)).toBe(-1)
     expect(Array.from(b.present)).toEqual(Array.from(a.present))
     expect([b.timeText, b.columns, b.notes, b.gaps, b.figuresNm]).toEqual([a.timeText, a.columns, a.notes, a.gaps, a.figuresNm])
+  })
+
+  it('is the same with files read ahead (the app’s worker), and a file read ahead as another kind is read again', () => {
+    const study = demoStudy()
+    const settings: CampaignSettings = { files: [], sample: study.samples[0].name, wavelength_nm: 550, shape_factor: 1 }
+    const text = (name: string) => readFileSync(join(repo, 'resources/field', name), 'utf8')
+    const inputs: CampaignInput[] = [demo('campaign-mobility.csv'), { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') }, { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }]
+    const whole = buildCampaignRecord(inputs, settings, study, { figures: 'charts' })
+    const compare = (got: ReturnType<typeof buildCampaignRecord>) => {
+      const a = whole.record!
+      const b = got.record!
+      expect(got.files).toEqual(whole.files)
+      for (const k of ['times', 'values', 'dNdlogD', 'edgesUm', 'cells', 'measured'] as const) expect(firstDifference(b[k], a[k])).toBe(-1)
+      expect(Array.from(b.present)).toEqual(Array.from(a.present))
+      expect([b.timeText, b.columns, b.notes, b.gaps, b.figuresNm, b.channels]).toEqual([a.timeText, a.columns, a.notes, a.gaps, a.figuresNm, a.channels])
+    }
+    const ahead = (): ReadAhead[] => [
+      { kind: 'mobility', name: inputs[0].name, part: readSizerPart(inputs[0]) },
+      { kind: 'scattering', name: inputs[1].name, instrument: readCampaignInstrument(inputs[1]) },
+      { kind: 'absorption', name: inputs[2].name, instrument: readCampaignInstrument(inputs[2]) }
+    ]
+    compare(buildCampaignRecord(inputs, settings, study, { figures: 'charts', ahead: ahead() }))
+    // what was read ahead is what the record takes (here a sizer part of the file's first 100 lines only)
+    const short = { ...inputs[0], text: inputs[0].text.split('\n').slice(0, 100).join('\n') }
+    expect(buildCampaignRecord(inputs, settings, study, { figures: 'charts', ahead: [{ kind: 'mobility', name: inputs[0].name, part: readSizerPart(short) }] }).record!.times.length).toBeLessThan(whole.record!.times.length)
+    // read ahead as other kinds (or under another name): not taken
+    const wrong = ahead()
+    wrong[0] = { ...wrong[0], kind: 'merged' }
+    wrong[1] = { kind: 'absorption', name: inputs[1].name, instrument: readCampaignInstrument({ ...inputs[1], kind: 'absorption' }) }
+    wrong[2] = { ...wrong[2], name: 'another.csv' }
+    compare(buildCampaignRecord(inputs, settings, study, { figures: 'charts', ahead: wrong }))
+    // a refused file read ahead keeps its summary
+    const bad = { ...inputs[2], text: 'time,absorption 520 nm\n' }
+    const refused = buildCampaignRecord([inputs[0], bad], settings, study, { figures: 'charts' })
+    expect(buildCampaignRecord([inputs[0], bad], settings, study, { figures: 'charts', ahead: [undefined, { kind: 'absorption', name: bad.name, instrument: readCampaignInstrument(bad) }] }).files).toEqual(refused.files)
+    expect(refused.files[1].ok).toBe(false)
   })
 })

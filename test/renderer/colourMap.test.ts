@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest'
 import type uPlot from 'uplot'
 import type { CampaignRecord } from '../../src-core/index.ts'
-import { COLOUR_TABLE, drawColourMap } from '../../src-renderer/campaign/colourMap.ts'
+import { COLOUR_TABLE, colourRange, drawColourMap } from '../../src-renderer/campaign/colourMap.ts'
 
 const BINS = 12
 const EDGES = Float64Array.from({ length: BINS + 1 }, (_, i) => 0.01 * 10 ** (i / 6)) // 0.01–1 µm
@@ -90,4 +90,26 @@ describe('the record colour map', () => {
       expect(coloured).toBeGreaterThan((w * h) / 3) // the check saw coloured pixels, not only transparent ones
     })
   }
+})
+
+describe('the colour scale’s ends', () => {
+  it('are those the code before found (the sampled values sorted as numbers by a comparison)', () => {
+    const before = (r: CampaignRecord): [number, number] => {
+      const v: number[] = []
+      const step = Math.max(1, Math.floor(r.dNdlogD.length / 200_000))
+      for (let i = 0; i < r.dNdlogD.length; i += step) if (r.dNdlogD[i] > 0) v.push(Math.log10(r.dNdlogD[i]))
+      if (v.length === 0) return [0, 1]
+      v.sort((a, b) => a - b)
+      const hi = v[Math.floor(0.995 * (v.length - 1))]
+      const lo = Math.max(v[Math.floor(0.01 * (v.length - 1))], hi - 5)
+      return hi > lo ? [Math.floor(lo * 2) / 2, Math.ceil(hi * 2) / 2] : [lo - 1, lo + 1]
+    }
+    for (const rows of [1, 40, 3000, 40_000]) {
+      const r = record(rows)
+      // some cells empty, negative or missing, as a record's may be
+      for (let i = 0; i < r.dNdlogD.length; i += 11) r.dNdlogD[i] = i % 3 === 0 ? NaN : i % 3 === 1 ? -5 : 1
+      expect(colourRange(r)).toEqual(before(r))
+    }
+    expect(colourRange(record(0))).toEqual([0, 1])
+  })
 })

@@ -67,4 +67,54 @@ describe('decimating a long record for drawing', () => {
       }
     }
   })
+
+  it('builds the envelopes the code before built (every level of the points copied first), bit for bit', () => {
+    // the code before, kept here: level 0 a copy of the points, each level from the one below
+    const before = (s: RecordSeries) => {
+      const v = s.values.ext
+      const n = v.length
+      let min = new Float64Array(n)
+      let max = new Float64Array(n)
+      let missing = new Uint8Array(n)
+      for (let i = 0; i < n; i++) {
+        const y = v[i]
+        if (y === null) (min[i] = Infinity), (max[i] = -Infinity), (missing[i] = 1)
+        else (min[i] = y), (max[i] = y), (missing[i] = s.row[i] < 0 ? 1 : 0)
+      }
+      const levels: { min: Float64Array; max: Float64Array; missing: Uint8Array }[] = []
+      for (let m = Math.ceil(n / 2); n > 1; m = Math.ceil(m / 2)) {
+        const lo = new Float64Array(m)
+        const hi = new Float64Array(m)
+        const gap = new Uint8Array(m)
+        for (let i = 0; i < m; i++) {
+          const j = 2 * i
+          if (j + 1 < min.length) {
+            const a = min[j]
+            const b = min[j + 1]
+            lo[i] = a < b ? a : b
+            const c = max[j]
+            const d = max[j + 1]
+            hi[i] = c > d ? c : d
+            gap[i] = missing[j] | missing[j + 1]
+          }
+          else (lo[i] = min[j]), (hi[i] = max[j]), (gap[i] = missing[j])
+        }
+        levels.push({ min: lo, max: hi, missing: gap })
+        ;[min, max, missing] = [lo, hi, gap]
+        if (m === 1) break
+      }
+      return levels
+    }
+    for (const n of [1, 2, 3, 7, 64, 1000, 12_345]) {
+      const s = series(n, (i) => (i % 97 === 5 ? null : i % 13 === 0 ? -0 : i % 13 === 1 ? 0 : Math.sin(i / 7) * Math.cos(i / 131)), Math.floor(n / 2))
+      const got = envelopes(s, ['ext']).lines.ext!
+      const want = before(s)
+      expect(got.length).toBe(want.length)
+      got.forEach((g, k) => {
+        expect(new Uint8Array(g.min.buffer)).toEqual(new Uint8Array(want[k].min.buffer))
+        expect(new Uint8Array(g.max.buffer)).toEqual(new Uint8Array(want[k].max.buffer))
+        expect(g.missing).toEqual(want[k].missing)
+      })
+    }
+  })
 })
