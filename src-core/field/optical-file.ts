@@ -139,6 +139,16 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
   let rejectedCount = 0
   const humidityRejected: OpticalRejection[] = []
   let humidityRejectedCount = 0
+  /** A row's humidity cell: its value from 0 to 100 %, else NaN, a cell outside that listed with its reason. */
+  const humidityCell = (cell: string, line: number, column: number): number => {
+    const v = NUMBER.test(cell) ? Number(cell) : NaN
+    const p = humidityProblem(cell, v)
+    if (p) {
+      humidityRejectedCount++
+      if (humidityRejected.length < MAX_KEPT_OPTICAL_REJECTIONS) humidityRejected.push({ line, column, ...p })
+    }
+    return humidityValue(cell, v)
+  }
   let width = 0
   const reject = (line: number, column: number, reason: string, fix: string): void => {
     rejectedCount++
@@ -252,17 +262,7 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
       else if (NUMBER.test(cell)) values[j] = Number(cell)
       else return reject(line, ch.column, `"${cell}" (${ch.quantity} ${ch.wavelengthNm} nm) is not a number`, 'Give the coefficient in Mm⁻¹ with "." as the decimal point, or leave the cell empty for no data.')
     }
-    let rh: number | undefined
-    if (h.humidityColumn !== undefined) {
-      const cell = cells[h.humidityColumn - 1] ?? ''
-      const v = NUMBER.test(cell) ? Number(cell) : NaN
-      const p = humidityProblem(cell, v)
-      if (p) {
-        humidityRejectedCount++
-        if (humidityRejected.length < MAX_KEPT_OPTICAL_REJECTIONS) humidityRejected.push({ line, column: h.humidityColumn, ...p })
-      }
-      rh = humidityValue(cell, v)
-    }
+    const rh = h.humidityColumn === undefined ? undefined : humidityCell(cells[h.humidityColumn - 1] ?? '', line, h.humidityColumn)
     if (zoned === undefined) zoned = t.zoned
     else if (zoned !== t.zoned) throw new InputError(at(line, 1), `the time stamp "${cells[0]}" ${t.zoned ? 'has a zone' : 'has no zone'} unlike the file's first one`, 'Give every time stamp of the file the same form (all with a zone such as Z or +01:00, or all without).')
     if (!(t.ms > lastMs)) throw new InputError(at(line, 1), `the time ${cells[0]} does not follow the row before it`, 'Sort the rows by time and remove repeated times.')
@@ -333,18 +333,8 @@ export function createOpticalReader(options: OpticalReaderOptions): OpticalReade
         values[j] = v
       }
     }
-    let rh: number | undefined
-    if (h.humidityColumn !== undefined) {
-      const k = h.humidityColumn - 1
-      const cell = k < n ? text.slice(starts[k], ends[k]) : ''
-      const v = NUMBER.test(cell) ? Number(cell) : NaN
-      const p = humidityProblem(cell, v)
-      if (p) {
-        humidityRejectedCount++
-        if (humidityRejected.length < MAX_KEPT_OPTICAL_REJECTIONS) humidityRejected.push({ line, column: h.humidityColumn, ...p })
-      }
-      rh = humidityValue(cell, v)
-    }
+    const hk = h.humidityColumn === undefined ? -1 : h.humidityColumn - 1
+    const rh = hk < 0 ? undefined : humidityCell(hk < n ? text.slice(starts[hk], ends[hk]) : '', line, hk + 1)
     if (zoned === undefined) zoned = tz
     lastMs = ms
     count++
