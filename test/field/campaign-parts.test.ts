@@ -7,7 +7,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { finishSizer, partsJoin, readCampaignInstrument, readCampaignSizer, readSizerPart, sizerCut, type CampaignInput } from '../../src-core/field/campaign-read.ts'
 import { packInstrument, packSizerPart, unpackInstrument, unpackSizerPart } from '../../src-core/field/campaign-pack.ts'
-import { addCampaignFile, buildCampaignRecord, campaignRecord, demoStudy, type CampaignFiles, type CampaignSettings, type ReadAhead } from '../../src-core/index.ts'
+import { addCampaignFile, buildCampaignRecord, campaignRecord, demoStudy, type CampaignBuild, type CampaignFiles, type CampaignSettings, type ReadAhead } from '../../src-core/index.ts'
 import { repo } from '../cli/helpers.ts'
 
 const demo = (name: string): CampaignInput => ({ kind: 'mobility', name, text: readFileSync(join(repo, 'resources/field', name), 'utf8') })
@@ -148,13 +148,29 @@ describe('a part or a measured file handed to another worker (campaign-pack.ts)'
   })
 })
 
+/** The invented campaign's three files (mobility sizer, nephelometer, absorption) and their record in one piece. */
+function demoCampaign() {
+  const study = demoStudy()
+  const settings: CampaignSettings = { files: [], sample: study.samples[0].name, wavelength_nm: 550, shape_factor: 1 }
+  const text = (name: string) => readFileSync(join(repo, 'resources/field', name), 'utf8')
+  const inputs: CampaignInput[] = [demo('campaign-mobility.csv'), { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') }, { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }]
+  return { study, settings, inputs, whole: buildCampaignRecord(inputs, settings, study, { figures: 'charts' }) }
+}
+
+/** `got` is the record `whole` is, bit for bit: its summaries, arrays, texts and channels. */
+function expectSameRecord(got: CampaignBuild, whole: CampaignBuild): void {
+  const a = whole.record!
+  const b = got.record!
+  expect(got.files).toEqual(whole.files)
+  for (const k of ['times', 'values', 'dNdlogD', 'edgesUm', 'cells', 'measured'] as const) expect(firstDifference(b[k], a[k])).toBe(-1)
+  expect(firstDifference(b.rh, a.rh)).toBe(-1)
+  expect(Array.from(b.present)).toEqual(Array.from(a.present))
+  expect([b.timeText, b.columns, b.notes, b.gaps, b.figuresNm, b.channels]).toEqual([a.timeText, a.columns, a.notes, a.gaps, a.figuresNm, a.channels])
+}
+
 describe('the record from files read in parts', () => {
   it('is the record buildCampaignRecord makes, bit for bit', () => {
-    const study = demoStudy()
-    const settings: CampaignSettings = { files: [], sample: study.samples[0].name, wavelength_nm: 550, shape_factor: 1 }
-    const text = (name: string) => readFileSync(join(repo, 'resources/field', name), 'utf8')
-    const inputs: CampaignInput[] = [demo('campaign-mobility.csv'), { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') }, { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }]
-    const whole = buildCampaignRecord(inputs, settings, study, { figures: 'charts' })
+    const { study, settings, inputs, whole } = demoCampaign()
     const cut = sizerCut(inputs[0], 0.5, 0)!
     const files: CampaignFiles = { files: [], sizers: [], instruments: [] }
     addCampaignFile(files, finishSizer(inputs[0], [readSizerPart(inputs[0], undefined, cut.from), unpackSizerPart(structuredClone(packSizerPart(readSizerPart(inputs[0], cut))))]))
@@ -163,30 +179,12 @@ describe('the record from files read in parts', () => {
       if (!('records' in r)) throw new Error(`${i.name} was refused`)
       addCampaignFile(files, unpackInstrument(structuredClone(packInstrument(r))))
     }
-    const parts = campaignRecord(files, settings, study, { figures: 'charts' })
-    const a = whole.record!
-    const b = parts.record!
-    expect(parts.files).toEqual(whole.files)
-    for (const k of ['times', 'values', 'dNdlogD', 'edgesUm', 'cells', 'measured'] as const) expect(firstDifference(b[k], a[k])).toBe(-1)
-    expect(firstDifference(b.rh, a.rh)).toBe(-1)
-    expect(Array.from(b.present)).toEqual(Array.from(a.present))
-    expect([b.timeText, b.columns, b.notes, b.gaps, b.figuresNm]).toEqual([a.timeText, a.columns, a.notes, a.gaps, a.figuresNm])
+    expectSameRecord(campaignRecord(files, settings, study, { figures: 'charts' }), whole)
   })
 
   it('is the same with files read ahead (the app’s worker), and a file read ahead as another kind is read again', () => {
-    const study = demoStudy()
-    const settings: CampaignSettings = { files: [], sample: study.samples[0].name, wavelength_nm: 550, shape_factor: 1 }
-    const text = (name: string) => readFileSync(join(repo, 'resources/field', name), 'utf8')
-    const inputs: CampaignInput[] = [demo('campaign-mobility.csv'), { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') }, { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }]
-    const whole = buildCampaignRecord(inputs, settings, study, { figures: 'charts' })
-    const compare = (got: ReturnType<typeof buildCampaignRecord>) => {
-      const a = whole.record!
-      const b = got.record!
-      expect(got.files).toEqual(whole.files)
-      for (const k of ['times', 'values', 'dNdlogD', 'edgesUm', 'cells', 'measured'] as const) expect(firstDifference(b[k], a[k])).toBe(-1)
-      expect(Array.from(b.present)).toEqual(Array.from(a.present))
-      expect([b.timeText, b.columns, b.notes, b.gaps, b.figuresNm, b.channels]).toEqual([a.timeText, a.columns, a.notes, a.gaps, a.figuresNm, a.channels])
-    }
+    const { study, settings, inputs, whole } = demoCampaign()
+    const compare = (got: CampaignBuild) => expectSameRecord(got, whole)
     const ahead = (): ReadAhead[] => [
       { kind: 'mobility', name: inputs[0].name, part: readSizerPart(inputs[0]) },
       { kind: 'scattering', name: inputs[1].name, instrument: readCampaignInstrument(inputs[1]) },
