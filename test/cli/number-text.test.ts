@@ -40,31 +40,27 @@ describe('sevenDigits', () => {
 })
 
 describe('fileLines', () => {
-  it('splits text into the lines node:readline gives, whatever the chunks (\\n, \\r\\n, a lone \\r, blank lines, no final break)', async () => {
-    const text = 'units: nm\r\nquantity: dN\r\n\r\ntime,10,20\n2024-01-01,1,2\r2024-01-02,3,4\r\n\n\n2024-01-03,5,6\r\nlast,7,8'
+  /** Checks that fileLines, fed `text` in chunks of each size, gives the lines node:readline gives; returns those lines. */
+  async function sameLinesAsReadline(text: string, sizes: number[]): Promise<string[]> {
     const viaReadline: string[] = []
     for await (const l of createInterface({ input: Readable.from([text]), crlfDelay: Infinity })) viaReadline.push(l)
-    for (const size of [1, 2, 3, 5, 7, 1000]) {
+    for (const size of sizes) {
       const chunks: string[] = []
       for (let i = 0; i < text.length; i += size) chunks.push(text.slice(i, i + size))
       const ours: string[] = []
       for await (const batch of fileLines(Readable.from(chunks))) ours.push(...batch)
       expect(ours, `chunks of ${size}`).toEqual(viaReadline)
     }
-    expect(viaReadline).toHaveLength(10)
+    return viaReadline
+  }
+
+  it('splits text into the lines node:readline gives, whatever the chunks (\\n, \\r\\n, a lone \\r, blank lines, no final break)', async () => {
+    const text = 'units: nm\r\nquantity: dN\r\n\r\ntime,10,20\n2024-01-01,1,2\r2024-01-02,3,4\r\n\n\n2024-01-03,5,6\r\nlast,7,8'
+    expect(await sameLinesAsReadline(text, [1, 2, 3, 5, 7, 1000])).toHaveLength(10)
   })
 
   it('gives the same lines for a file without carriage returns (lines sliced from each chunk, joined across chunks)', async () => {
     const text = 'units: nm\n\ntime,10,20\n2024-01-01T00:00:00Z,1,2\n2024-01-01T00:01:00Z,3,4\n\nlast,5,6\n'
-    const viaReadline: string[] = []
-    for await (const l of createInterface({ input: Readable.from([text]), crlfDelay: Infinity })) viaReadline.push(l)
-    for (const size of [1, 2, 3, 5, 7, 11, 1000]) {
-      const chunks: string[] = []
-      for (let i = 0; i < text.length; i += size) chunks.push(text.slice(i, i + size))
-      const ours: string[] = []
-      for await (const batch of fileLines(Readable.from(chunks))) ours.push(...batch)
-      expect(ours, `chunks of ${size}`).toEqual(viaReadline)
-    }
-    expect(viaReadline).toHaveLength(7)
+    expect(await sameLinesAsReadline(text, [1, 2, 3, 5, 7, 11, 1000])).toHaveLength(7)
   })
 })
