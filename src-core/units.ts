@@ -143,6 +143,62 @@ export function parseLength(text: string, where: string, defaultUnit?: 'nm' | 'u
   return readLength(text, where, typeof defaultUnit === 'string' ? { defaultUnit } : (defaultUnit ?? {})).um
 }
 
+/** How a mode's amount is given, and the unit a bare number is in (the study's: number_cm3, volume_um3_cm3, mass_ug_m3). */
+export type AmountKind = 'number' | 'volume' | 'mass'
+
+/** Each amount's unit: as mathjs reads it, as the field shows it, and other units it may be typed in. */
+export const AMOUNT_UNITS: Record<AmountKind, { math: string; shown: string; what: string; others: string }> = {
+  number: { math: 'cm^-3', shown: 'cm⁻³', what: 'a number concentration', others: '"6e9 m⁻³" or "6000 /cm3"' },
+  volume: { math: 'um^3/cm^3', shown: 'µm³ cm⁻³', what: 'a volume concentration', others: '"3e-6 cm³ m⁻³" or "3 um3/cm3"' },
+  mass: { math: 'ug/m^3', shown: 'µg m⁻³', what: 'a mass concentration', others: '"0.14 mg/m3" or "500 ng m⁻³"' }
+}
+
+const SUPERSCRIPTS: Record<string, string> = { '⁻': '-', '⁰': '0', '¹': '1', '²': '2', '³': '3', '⁴': '4', '⁵': '5', '⁶': '6', '⁷': '7', '⁸': '8', '⁹': '9' }
+
+/** "µg m⁻³" as mathjs reads it: "ug m^-3" (superscripts and "cm-3" to ^, µ to u, the "#" of a count dropped). */
+function amountUnitText(unit: string): string {
+  return normaliseUnitText(unit)
+    .replace(/[⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+/g, (s) => `^${[...s].map((c) => SUPERSCRIPTS[c]).join('')}`)
+    .replace(/([a-z])-(\d)/gi, '$1^-$2')
+    .replace(/^#\s*/, '')
+}
+
+/** A number (digits with group separators, a decimal part, an exponent) and what follows it. */
+const AMOUNT_SPLIT = /^([+\-\u2212\u2013]?(?:\d[\d,\s\u00a0\u2009\u202f]*(?:\.\d*)?|\.\d+)(?:e[+\-\u2212]?\d+)?)(.*)$/i
+
+/**
+ * An amount of particles typed by a person, in the unit of `kind` (cm⁻³, µm³ cm⁻³ or µg m⁻³). A bare number is
+ * in that unit, the one the field shows; a number written with a unit is converted (mathjs): "0.14 mg/m3" is
+ * 140 µg m⁻³, "6e9 m⁻³" is 6000 cm⁻³. Refused with the reason: no value, a unit of another quantity, below zero.
+ * `written` says whether a unit was typed.
+ */
+export function readAmount(text: string, where: string, kind: AmountKind): { value: number; written: boolean } {
+  const u = AMOUNT_UNITS[kind]
+  const t = text.trim()
+  if (t === '') throw new InputError(where, 'no value was given', `Type ${u.what} in ${u.shown}, for example 1500.`)
+  const split = AMOUNT_SPLIT.exec(t)
+  const unit = split ? split[2].trim() : ''
+  let value: number
+  if (unit === '' || unit === '%') value = parseNumber(t, where)
+  else {
+    const n = parseNumber(split![1], where)
+    let q: Unit
+    try {
+      q = mathUnit(`${n} ${amountUnitText(unit)}`)
+    } catch {
+      throw new InputError(where, `"${unit}" in "${t}" is not a unit`, `Give ${u.what}: a number alone is in ${u.shown}; a unit may be written, e.g. ${u.others}.`)
+    }
+    try {
+      // 12 significant digits: the unit factors' round-off (1 mg/m3 is 999.9999999999999 µg/m3) is no one's value
+      value = Number(q.toNumber(u.math).toPrecision(12))
+    } catch {
+      throw new InputError(where, `"${t}" is not ${u.what}`, `Give ${u.what}: a number alone is in ${u.shown}; a unit may be written, e.g. ${u.others}.`)
+    }
+  }
+  if (!(value >= 0)) throw new InputError(where, `${t} is below zero`, `Give ${u.what} of zero or more.`)
+  return { value, written: unit !== '' && unit !== '%' }
+}
+
 /** A temperature typed by a person, in K. A bare number is taken in kelvin; "25 degC", "25 °C" and "77 degF" are converted. */
 export function parseTemperature(text: string, where: string): number {
   const t = normaliseUnitText(text)

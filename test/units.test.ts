@@ -1,7 +1,7 @@
 // Reading what people type: numbers, lengths, temperatures, complex indices and wavelength lists; and numbers
 // written back to people in messages.
 import { describe, expect, it } from 'vitest'
-import { InputError, parseComplexIndex, parseLength, parseNumber, parseTemperature, parseWavelengthList, readableBeside, readableNumber, readLength } from '../src-core/index.ts'
+import { InputError, parseComplexIndex, parseLength, parseNumber, parseTemperature, parseWavelengthList, readableBeside, readableNumber, readAmount, readLength } from '../src-core/index.ts'
 
 describe('typed quantities (SI prefixes and the kelvin–Celsius offset, common practice)', () => {
   it('reads lengths in µm with units or a default unit', () => {
@@ -129,5 +129,45 @@ describe('numbers in messages, as a person reads them (SI digit grouping, common
     expect(readableBeside(0.99999, 1)).toBe('0.99999')
     expect(readableBeside(1.00004, 1)).toBe('1.00004')
     expect(readableBeside(24753.82, 0, 10)).toBe('24\u202f754')
+  })
+})
+
+describe('typed amounts of particles: a bare number is in the unit shown, a written unit is converted (SI: 1 mg = 1000 µg, 1 m³ = 10⁶ cm³)', () => {
+  const value = (text: string, kind: 'number' | 'volume' | 'mass') => readAmount(text, 'amount', kind)
+
+  it('reads a bare number in the field unit, with the usual number rules', () => {
+    expect(value('22', 'mass')).toEqual({ value: 22, written: false })
+    expect(value('9,000', 'number')).toEqual({ value: 9000, written: false })
+    expect(value('1.5e3', 'number')).toEqual({ value: 1500, written: false })
+    expect(() => value('1,5', 'mass')).toThrow(/ambiguous/)
+    expect(() => value('', 'mass')).toThrow(/no value/)
+  })
+
+  it('converts a mass concentration typed in mg m⁻³ or ng m⁻³ to µg m⁻³', () => {
+    expect(value('0.14 mg/m3', 'mass')).toEqual({ value: 140, written: true })
+    expect(value('0.14 mg m⁻³', 'mass').value).toBe(140)
+    expect(value('500 ng/m^3', 'mass').value).toBe(0.5)
+    expect(value('22 µg m⁻³', 'mass')).toEqual({ value: 22, written: true })
+  })
+
+  it('converts a number concentration typed per m³ or per cm³ in any common spelling', () => {
+    expect(value('6e9 m⁻³', 'number').value).toBe(6000)
+    expect(value('6000 /cm3', 'number').value).toBe(6000)
+    expect(value('6000 cm-3', 'number').value).toBe(6000)
+    expect(value('6000 #/cm3', 'number').value).toBe(6000)
+    expect(value('12 500 cm⁻³', 'number').value).toBe(12500)
+  })
+
+  it('converts a volume concentration (1 cm³ m⁻³ = 10¹² µm³ per 10⁶ cm³ = 10⁶ µm³ cm⁻³)', () => {
+    expect(value('3 um3/cm3', 'volume').value).toBe(3)
+    expect(value('3e-6 cm³ m⁻³', 'volume').value).toBe(3)
+  })
+
+  it('refuses a unit of another quantity, a word, and a negative amount, naming the unit a bare number is in', () => {
+    expect(() => value('22 ug', 'mass')).toThrow(/not a mass concentration.*µg m⁻³/)
+    expect(() => value('0.14 mg/m3', 'number')).toThrow(/not a number concentration/)
+    expect(() => value('22 bananas', 'mass')).toThrow(InputError)
+    expect(() => value('-5 ug/m3', 'mass')).toThrow(/below zero/)
+    expect(() => value('22 %', 'mass')).toThrow(/percent/)
   })
 })

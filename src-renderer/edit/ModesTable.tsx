@@ -1,6 +1,6 @@
 // The lognormal modes of a sample: amount (by number, volume or mass), median diameter and GSD, and what each is
 // made of: the sample's composition, or one of its own (modes of different compositions form an external mixture).
-import { MAX_MEDIAN_UM, type ModeSpec, type UserMaterialSpec } from '../../src-core/index.ts'
+import { MAX_MEDIAN_UM, readAmount, type ModeSpec, type UserMaterialSpec } from '../../src-core/index.ts'
 import { CompositionEditor } from './CompositionEditor.tsx'
 import { num } from '../format.ts'
 import { LengthField } from './LengthField.tsx'
@@ -15,6 +15,9 @@ export const BY = {
   mass: { label: 'mass', amount: 'M', unit: 'µg m⁻³', median: 'MMD', key: 'mass_ug_m3', fresh: 10 }
 } as const
 
+/** Units an amount may also be typed in, for the field's tooltip. */
+const AMOUNT_EXAMPLE = { number: '6e9 m⁻³, 6000 /cm3', volume: '3 um3/cm3', mass: '0.14 mg/m3, 500 ng/m3' } as const
+
 export const amountOf = (m: ModeSpec): number => (m.by === 'number' ? m.number_cm3 : m.by === 'volume' ? m.volume_um3_cm3 : m.mass_ug_m3)
 
 export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; userMaterials: UserMaterialSpec[] }) {
@@ -27,7 +30,7 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
           <tr>
             <th scope="col">Mode</th>
             <th scope="col" title="How the mode's amount is given">Given by</th>
-            <th scope="col" title="Number (cm⁻³), volume (µm³ cm⁻³) or mass (µg m⁻³) concentration">Amount</th>
+            <th scope="col" title="Number (cm⁻³), volume (µm³ cm⁻³) or mass (µg m⁻³) concentration; a number alone is in the unit the cell shows, or type a unit (0.14 mg/m3, 6e9 m⁻³)">Amount</th>
             <th scope="col" title="Median diameter: count (CMD), volume (VMD) or mass (MMD) median; a number alone is in the unit the cell shows (nm or µm), or type a unit (150 nm, 2.5 µm)">
               Median D
             </th>
@@ -84,15 +87,16 @@ export function ModesTable(p: { id: string; index: number; modes: ModeSpec[]; us
                     <option value="mass">mass</option>
                   </select>
                 </td>
-                <td>
+                <td class="amount">
                   <Field
                     bare
                     path={`${path}.${by.key}`}
                     label={`Mode ${j + 1} ${by.amount} in ${by.unit}`}
                     value={amountOf(m)}
-                    read={readNumber(`${by.label} concentration`)}
+                    read={(t) => readAmount(t, `${by.label} concentration`, m.by).value}
                     write={(v) => num(v, 6)}
                     hint={by.unit}
+                    title={`A number alone is in ${by.unit}, the unit shown; type a unit to give it in another (${AMOUNT_EXAMPLE[m.by]}).`}
                     commit={(v) =>
                       editSample(p.id, (s) => {
                         if (s.size.kind !== 'modes') return

@@ -85,6 +85,24 @@ describe('Typed values in the editor', { timeout: 120_000 }, () => {
     expect((await saved(page, 'crossed.mote')).samples[0].size.modes[0].median_um).toBeCloseTo(1.5, 12)
   })
 
+  test('an amount shows its unit under the number; a bare number is in it, a typed unit is converted (1 m³ = 10⁶ cm³, common practice)', async () => {
+    const page = await openApp({ wait: false })
+    const unitOf = (path: string) => page.locator(`td.amount:has([data-path="${path}"]) .hint`)
+    // the demo's Aitken mode is given by number: its cell says cm⁻³
+    expect(await unitOf(AMOUNT).isVisible()).toBe(true)
+    expect(await unitOf(AMOUNT).textContent()).toBe('cm⁻³')
+    await type(page, AMOUNT, '6e9 m⁻³')
+    expect(await cell(page, AMOUNT).inputValue()).toBe('6000')
+    expect((await saved(page, 'per-m3.mote')).samples[0].size.modes[0].number_cm3).toBe(6000)
+    // a mass typed per cubic metre in mg is not a number concentration: refused at the field, the model unchanged
+    await type(page, AMOUNT, '0.14 mg/m3')
+    const error = page.locator(`[data-error-for="${AMOUNT}"]`)
+    await error.waitFor()
+    expect(await error.textContent()).toMatch(/not a number concentration.*cm⁻³/)
+    readable(await messages(page))
+    expect((await saved(page, 'refused.mote')).samples[0].size.modes[0].number_cm3).toBe(6000)
+  })
+
   test('"1e9 nm" is refused in nm, stays as typed, and the model keeps the last good value', async () => {
     const page = await openApp({ wait: false })
     await type(page, MEDIAN, '1e9 nm')
