@@ -43,7 +43,7 @@ export interface CampaignRecord {
   bins: number
   /** rows × bins, in the layout's quantity (0 in gaps). */
   values: Float64Array
-  /** rows × bins, dN/dlogD (cm⁻³) for the colour map (0 in gaps). */
+  /** rows × bins, dN/dlogD (cm⁻³) for the colour map (0 in gaps); the array `values` itself when the layout is in dN/dlogD already (read only, both). */
   dNdlogD: Float64Array
   /** Bin edges, µm. */
   edgesUm: Float64Array
@@ -55,9 +55,13 @@ export interface CampaignRecord {
   /** What `completeRecord` needs to compute the other wavelengths as these were: the materials and the tolerance. */
   userMaterials: Study['user_materials']
   tolerance: number
-  /** The columns of `cells` (as `series` names them, after its `time`): figures, then the comparison. */
+  /**
+   * The columns of `cells` (as `series` names them, after its `time`): figures at `figuresNm`, then the comparison.
+   * A record made for its charts has the charts' wavelengths' figure columns only; completeRecord lays the cells out
+   * again with every wavelength's, in `series`' order.
+   */
   columns: string[]
-  /** rows × columns; NaN for an empty cell (gaps, rows without a measured record, a wavelength not in `figuresNm`). */
+  /** rows × columns; NaN for an empty cell (gaps, rows without a measured record). */
   cells: Float64Array
   /** Measured channels and their per-row means (rows × channels, NaN: none). */
   channels: MeasuredChannel[]
@@ -272,9 +276,11 @@ export function campaignRecord(read: CampaignFiles, settings: CampaignSettings, 
   const figuresNm = options.figures === 'charts' ? chartWavelengthsNm(wavelengthsNm, settings.wavelength_nm, channels) : wavelengthsNm
   const kernels = binOpticsKernels(sample, { ...studyAt, wavelengths_nm: figuresNm }, rows.layout, { tolerance, workspace: ws })
   progress(0.4)
-  const width = binnedRowWidth({ wavelengthsNm })
+  // the columns of the wavelengths computed (all, or the charts' until completeRecord adds the others): a year's
+  // cells at 16 wavelengths would be 78 MB, at the charts' 3 or 4 about 26 MB
+  const width = binnedRowWidth({ wavelengthsNm: figuresNm })
   const compareCols = channels.length > 0 ? comparisonColumns(plan) : []
-  const columns = [...figureColumns(wavelengthsNm), ...compareCols]
+  const columns = [...figureColumns(figuresNm), ...compareCols]
   const cells = new Float64Array(n * columns.length).fill(NaN)
   const measured = new Float64Array(n * channels.length).fill(NaN)
 
@@ -319,12 +325,9 @@ export function campaignRecord(read: CampaignFiles, settings: CampaignSettings, 
     notes = comparisonNotes(plan, { intervalText: formatDuration(Math.round(intervalMs)), files: instruments.map((f) => f.summary.name), humidity })
   }
   const humidity = humidityOnRecordRows(rows.timesMs, intervalMs, instruments, sizers)
-  const dNdlogD = new Float64Array(n * bins)
   progress(0.8)
-  fillFigures(kernels, rows.layout, wavelengthsNm, rows.values, bins, kept, cells, columns.length, (i) => progress(0.8 + (0.2 * i) / kept.length))
-  // dN/dlogD for the colour map: the layout's quantity turned by the same kernels' conversion (number weights)
-  const toDn = quantityFactors(rows.layout, kernels.kind.densityGcm3)
-  for (const k of kept) for (let j = 0; j < bins; j++) dNdlogD[k * bins + j] = rows.values[k * bins + j] * toDn[j]
+  fillFigures(kernels, rows.layout, figuresNm, rows.values, bins, kept, cells, columns.length, (i) => progress(0.8 + (0.2 * i) / kept.length))
+  const dNdlogD = mapValues(rows.layout, kernels.kind.densityGcm3, rows.values, n, bins, kept)
   return {
     files,
     record: {
@@ -413,17 +416,27 @@ function fillFigures(kernels: BinKernels, layout: BinLayout, allNm: readonly num
 export const recordComplete = (r: CampaignRecord): boolean => r.figuresNm.length === r.wavelengthsNm.length
 
 /**
- * Computes the figures of a record made for its charts at its other wavelengths (into `cells`, in place), with the
- * sample, materials and tolerance it was made with: the same kernels at those wavelengths and the same arithmetic as
- * a record computed whole, so the same numbers. Nothing to do for a complete record.
+ * Computes the figures of a record made for its charts at its other wavelengths, with the sample, materials and
+ * tolerance it was made with: the cells laid out again with every wavelength's columns (`series`' order), the
+ * computed ones copied, the others from the same kernels at those wavelengths and the same arithmetic as a record
+ * computed whole, so the same numbers. Nothing to do for a complete record.
  */
 export function completeRecord(r: CampaignRecord, options: { workspace?: OpticsWorkspace } = {}): void {
   const missing = r.wavelengthsNm.filter((w) => !r.figuresNm.includes(w))
   if (missing.length === 0) return
   const kernels = binOpticsKernels(r.sample, { wavelengths_nm: missing, user_materials: r.userMaterials }, r.layout, { tolerance: r.tolerance, workspace: options.workspace ?? new OpticsWorkspace() })
+  const n = r.present.length
+  const columns = [...figureColumns(r.wavelengthsNm), ...r.columns.slice(figureColumns(r.figuresNm).length)]
+  const w = r.columns.length
+  const width = columns.length
+  const cells = new Float64Array(n * width).fill(NaN)
+  const to = r.columns.map((name) => columns.indexOf(name))
+  for (let k = 0; k < n; k++) for (let c = 0; c < w; c++) cells[k * width + to[c]] = r.cells[k * w + c]
   const kept: number[] = []
-  for (let k = 0; k < r.present.length; k++) if (r.present[k]) kept.push(k)
-  fillFigures(kernels, r.layout, r.wavelengthsNm, r.values, r.bins, kept, r.cells, r.columns.length, () => {})
+  for (let k = 0; k < n; k++) if (r.present[k]) kept.push(k)
+  fillFigures(kernels, r.layout, r.wavelengthsNm, r.values, r.bins, kept, cells, width, () => {})
+  r.columns = columns
+  r.cells = cells
   r.figuresNm = [...r.wavelengthsNm]
 }
 
@@ -439,6 +452,20 @@ function humidityOnRecordRows(rowTimesMs: number[], intervalMs: number, instrume
     return { rh: humidityOnRows(rowTimesMs, intervalMs, s.timesMs, s.rh), rhFile: s.summary.name }
   }
   return {}
+}
+
+/**
+ * dN/dlogD for the colour map: the layout's quantity turned by the same kernels' conversion (number weights), 0 in
+ * the gaps. A layout in dN/dlogD already (every factor exactly 1, as in a merged file) gives the values themselves:
+ * v × 1 is v to the last bit, and a year's copy (80 MB) is not made. Fresh memory is dear here: touching it
+ * the first time cost about 6 ms a megabyte on the machine measured (DEVELOPERS.md).
+ */
+function mapValues(layout: BinLayout, density: number, values: Float64Array, n: number, bins: number, kept: readonly number[]): Float64Array {
+  const toDn = quantityFactors(layout, density)
+  if (toDn.every((f) => f === 1) && values.length === n * bins) return values
+  const dNdlogD = new Float64Array(n * bins)
+  for (const k of kept) for (let j = 0; j < bins; j++) dNdlogD[k * bins + j] = values[k * bins + j] * toDn[j]
+  return dNdlogD
 }
 
 /** Per bin, the factor that turns a value of the layout's quantity into dN/dlogD (binsFromMeasurement's own conversion). */

@@ -70,7 +70,8 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
       }
     })
     const r = build.record
-    const transfer = r ? [r.times.buffer, r.present.buffer, r.values.buffer, r.dNdlogD.buffer, r.cells.buffer, r.measured.buffer] : []
+    // (a set: dNdlogD may be the values themselves, and a buffer listed twice cannot be transferred)
+    const transfer = r ? [...new Set([r.times.buffer, r.present.buffer, r.values.buffer, r.dNdlogD.buffer, r.cells.buffer, r.measured.buffer])] : []
     post({ job, type: 'done', build, ms: performance.now() - started }, transfer as Transferable[])
   } catch (err) {
     if (err instanceof InputError) post({ job, type: 'failed', message: err.message, fix: err.fix })
