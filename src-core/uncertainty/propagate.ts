@@ -115,7 +115,15 @@ export interface UncertaintyPlan {
   fixedOptics: SampleOptics | null
   /** The unperturbed sample's infrared band optics and wet volume, which the draws scale (see the module note). */
   longwaveBase: { optics: LongwaveOptics; wetVolume: number } | null
+  /**
+   * True when an input changes what a node's value depends on besides its size (OWN_CONTEXT_QUANTITIES), so that
+   * every draw has its own node contexts: the draws' workspace then recycles its node tables after each draw.
+   */
+  ownContexts: boolean
 }
+
+/** Quantities that change a particle's indices, water uptake or make-up (its node context, see nodeCache.ts). */
+const OWN_CONTEXT_QUANTITIES: readonly UncertainInput['quantity'][] = ['n', 'k', 'density', 'kappa', 'rh']
 
 /** Draws start..start+count−1: the variates (count × inputs) and the figures (count × UNCERTAINTY_FIGURES). */
 export interface DrawBlock {
@@ -504,7 +512,8 @@ export function planUncertainty(study: Study, sampleName: string, options: Uncer
     sample, site: study.site, study: { user_materials: study.user_materials }, inputs, draws, seed, sampling, precision, minDraws,
     marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata,
     nominal: nominal ?? nominalOptics({ study: { user_materials: study.user_materials }, own }, copyJson(sample), new OpticsWorkspace()),
-    fixedOptics: null, longwaveBase: null
+    fixedOptics: null, longwaveBase: null,
+    ownContexts: inputs.some((r) => OWN_CONTEXT_QUANTITIES.includes(r.spec.quantity))
   }
   if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = plan.nominal
   else if (plan.nominal.longwave) plan.longwaveBase = { optics: plan.nominal.longwave, wetVolume: plan.nominal.wet_volume_um3_cm3 }
@@ -632,6 +641,9 @@ export function computeDraws(plan: UncertaintyPlan, start: number, end: number, 
     const optics = plan.fixedOptics ?? drawOptics(plan, state.sample, state.index, workspace)
     const forcing = sampleForcing(optics, state.site, plan.marginWm2)
     recordFigures(optics, forcing, outputs, done * N_OUT)
+    // this draw's nodes will not serve another: their tables serve the next draw (a result does not depend on
+    // what the node cache held before, integrate.ts)
+    if (plan.ownContexts) workspace.nodes.recycle()
     done++
   }
   return { start, count: done, inputs: inputs.subarray(0, done * nIn), outputs: outputs.subarray(0, done * N_OUT) }
