@@ -76,4 +76,4 @@ export {
 } from './longwave.ts'
 export { EMISSIVITY_SOURCE } from './surfaces.ts'
 export type { NetVerdictInput, NetVerdict } from './netVerdict.ts'
-export { netVerdict } from './netVerdict.ts'
+export { netForcing, netVerdict } from './netVerdict.ts'

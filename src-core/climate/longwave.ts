@@ -225,8 +225,15 @@ export function longwaveForcing(input: LongwaveForcingInput): LongwaveForcingRes
       const tau = tauGas + tauA
       const emissionTop = emission[nl - i]
       const emissionBottom = emission[nl - i - 1]
-      layersClean[i] = { tau: tauGas, omega: 0, g: 0, emissionTop, emissionBottom }
-      layersWith[i] = { tau, omega: tau > 0 ? (a.omega * tauA) / tau : 0, g: a.g, emissionTop, emissionBottom }
+      // the clean layers only where the clean fluxes are not kept from the last call; the layers of one band
+      // serve the next (thermalTwoStream reads them during its call only)
+      if (!reuse) layersClean[i] = { tau: tauGas, omega: 0, g: 0, emissionTop, emissionBottom }
+      const L = (layersWith[i] ??= { tau: 0, omega: 0, g: 0, emissionTop: 0, emissionBottom: 0 })
+      L.tau = tau
+      L.omega = tau > 0 ? (a.omega * tauA) / tau : 0
+      L.g = a.g
+      L.emissionTop = emissionTop
+      L.emissionBottom = emissionBottom
     }
     const surfaceEmission = emission[0]
     const clean = reuse ? cleanFluxes[bi] : thermalTwoStream({ layers: layersClean, surfaceEmissivity: epsOf(bi), surfaceEmission, diffusivity: D })

@@ -31,10 +31,8 @@ function fmt(x: number): string {
 const effect = (x: number) => (x < 0 ? 'cooling' : x > 0 ? 'warming' : 'no effect')
 
 export function netVerdict(input: NetVerdictInput): NetVerdict {
-  checkFinite('sunlightWm2', input.sunlightWm2)
-  checkFinite('infraredWm2', input.infraredWm2)
+  const net = netForcing(input.sunlightWm2, input.infraredWm2)
   checkRange('marginWm2', input.marginWm2, 0, 1e4, 'W m⁻²')
-  const net = input.sunlightWm2 + input.infraredWm2
   const verdict: ForcingVerdictWord = Math.abs(net) < input.marginWm2 ? 'too close to call' : net < 0 ? 'cools' : 'warms'
   const dominant = Math.abs(input.infraredWm2) > Math.abs(input.sunlightWm2) ? 'infrared' : 'sunlight'
   const explanation =
@@ -42,4 +40,11 @@ export function netVerdict(input: NetVerdictInput): NetVerdict {
     `and thermal infrared ${fmt(input.infraredWm2)} W m⁻² (${effect(input.infraredWm2)}); the ${dominant} part dominates` +
     (verdict === 'too close to call' ? `, and the net is within the margin of ${fmt(input.marginWm2)} W m⁻².` : '.')
   return { verdict, netWm2: net, dominant, explanation }
+}
+
+/** The net forcing, sunlight + infrared (W m⁻²), each part checked finite: the number netVerdict judges. */
+export function netForcing(sunlightWm2: number, infraredWm2: number): number {
+  checkFinite('sunlightWm2', sunlightWm2)
+  checkFinite('infraredWm2', infraredWm2)
+  return sunlightWm2 + infraredWm2
 }

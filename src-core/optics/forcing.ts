@@ -11,6 +11,7 @@ import {
   DEFAULT_WATER_COLUMN_CM,
   LONGWAVE_METHOD,
   longwaveForcing,
+  netForcing,
   netVerdict,
   DEFAULT_VERDICT_MARGIN_WM2,
   forcingMap,
@@ -77,8 +78,8 @@ export function siteLongwaveInputs(site: Site): { surfaceTemperatureK: number; s
   return { surfaceTemperatureK, surfaceEmissivity, layerHeightKm, waterColumnCm }
 }
 
-/** The infrared part of a sample's forcing from its band optics and the site, or the reason it is left out. */
-export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detail: LongwaveForcingDetail; toa: number; surface: number } | { withheld: string } {
+/** The infrared computation of sampleLongwaveForcing, before its detail is written out. */
+function longwaveOf(optics: SampleOptics, site: Site): { withheld: string } | { inputs: ReturnType<typeof siteLongwaveInputs>; emissivityBands: readonly number[] | null; bands: { tau: number; omega: number; g: number }[]; r: ReturnType<typeof longwaveForcing> } {
   const lw = optics.longwave
   if (!lw || !lw.bands.length) return { withheld: lw?.withheld ?? 'The infrared part was not computed for these optics.' }
   const inputs = siteLongwaveInputs(site)
@@ -86,6 +87,15 @@ export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detai
   const bands = lw.bands.map((b) => ({ tau: b.ext * 1e-6 * optics.layer_depth_m, omega: Math.min(1, Math.max(0, b.ssa)), g: Math.min(1, Math.max(-1, b.g)) }))
   const emissivityBands = siteEmissivityBands(site)
   const r = longwaveForcing({ bands, ...inputs, surfaceEmissivity: emissivityBands ?? inputs.surfaceEmissivity, layerDepthKm: depthKm, cloudFraction: site.cloud_fraction })
+  return { inputs, emissivityBands, bands, r }
+}
+
+/** The infrared part of a sample's forcing from its band optics and the site, or the reason it is left out. */
+export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detail: LongwaveForcingDetail; toa: number; surface: number } | { withheld: string } {
+  const lw = optics.longwave
+  const c = longwaveOf(optics, site)
+  if ('withheld' in c) return c
+  const { inputs, emissivityBands, bands, r } = c
   return {
     toa: r.toaWm2,
     surface: r.surfaceWm2,
@@ -99,7 +109,7 @@ export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detai
       layer_temperature_k: r.layerTemperatureK,
       clear_sky_toa_w_m2: r.clearSkyToaWm2,
       clear_sky_surface_w_m2: r.clearSkySurfaceWm2,
-      bands: lw.bands.map((b, i) => ({ lo_um: b.lo_um, hi_um: b.hi_um, tau: bands[i].tau, ssa: bands[i].omega, g: bands[i].g, toa_w_m2: r.bandToaWm2[i] })),
+      bands: lw!.bands.map((b, i) => ({ lo_um: b.lo_um, hi_um: b.hi_um, tau: bands[i].tau, ssa: bands[i].omega, g: bands[i].g, toa_w_m2: r.bandToaWm2[i] })),
       method: LONGWAVE_METHOD
     }
   }
@@ -135,8 +145,8 @@ function solarBandsOf(sorted: readonly WavelengthOptics[]): ReturnType<typeof so
   return lastBands.bands
 }
 
-/** The forcing estimate of a sample's layer at a site, with its verdict. */
-export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFAULT_VERDICT_MARGIN_WM2): SampleForcing {
+/** What every forcing figure of a sample starts from: its optics at 550 nm and the site's surface. */
+function forcingSetting(optics: SampleOptics, site: Site) {
   const rows = optics.wavelengths
   const at550 = (pick: (r: WavelengthOptics) => number) => valueAt(rows, 550, pick)
   const tau = at550((r) => r.optical_depth)
@@ -149,6 +159,75 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
   const surfaceAlbedo = siteSurfaceAlbedo(site)
   const common = { transmittance: site.transmittance, cloudFraction: site.cloud_fraction }
   const thin = thinLayerForcing({ tau, omega, upscatter, surfaceAlbedo, ...common })
+  return { rows, tau, omega, g, upscatter, surfaceAlbedo, common, thin }
+}
+
+type ForcingSetting = ReturnType<typeof forcingSetting>
+
+/** The row at 550 nm, else the nearest (the first of two as near, in wavelength order). */
+function row550Of(rows: readonly WavelengthOptics[]): WavelengthOptics {
+  return rows.find((r) => r.wavelength_nm === 550) ?? [...rows].sort((a, b) => a.wavelength_nm - b.wavelength_nm).reduce((a, b) => (Math.abs(b.wavelength_nm - 550) < Math.abs(a.wavelength_nm - 550) ? b : a))
+}
+
+/** The thin-layer forcing through the site's day. */
+function dailyForcing(f: ForcingSetting, site: Site) {
+  return dailyMeanThinLayerForcing({
+    tau: f.tau,
+    omega: f.omega,
+    upscatter: upscatterFunction(row550Of(f.rows)),
+    surfaceAlbedo: f.surfaceAlbedo,
+    ...f.common,
+    latitudeDeg: site.latitude_deg,
+    dayOfYear: site.day_of_year
+  })
+}
+
+/** The two-stream layer at μ₀ = 0.5 with the global-mean insolation. */
+function twoStreamOf(f: ForcingSetting) {
+  // the same β̄ as the thin-layer form, so that the two compare like with like (twoStream.ts)
+  return twoStreamForcing({
+    tau: f.tau,
+    omega: f.omega,
+    asymmetry: Math.min(0.99, Math.max(0, f.g)),
+    upscatter: f.upscatter,
+    cosZenith: 0.5,
+    surfaceAlbedo: f.surfaceAlbedo,
+    incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4,
+    ...f.common
+  })
+}
+
+/** The forcing figures an uncertainty draw records: sampleForcing's, to the bit, without its texts and the rest. */
+export interface SampleForcingFigures {
+  thin_layer_w_m2: number
+  daily_mean_w_m2: number
+  two_stream_toa_w_m2: number
+  /** null where the infrared part is left out. */
+  longwave_toa_w_m2: number | null
+  net_toa_w_m2: number
+}
+
+/**
+ * The figures of sampleForcing that a Monte Carlo draw keeps (the same operations on the same numbers), without
+ * the verdict's and the infrared detail's texts, the spectral figure and the warnings, which a draw does not report.
+ */
+export function sampleForcingFigures(optics: SampleOptics, site: Site): SampleForcingFigures {
+  const f = forcingSetting(optics, site)
+  const lw = longwaveOf(optics, site)
+  const infrared = 'withheld' in lw ? null : lw.r.toaWm2
+  return {
+    thin_layer_w_m2: f.thin.forcingWm2,
+    daily_mean_w_m2: dailyForcing(f, site).forcingWm2,
+    two_stream_toa_w_m2: twoStreamOf(f).toaWm2,
+    longwave_toa_w_m2: infrared,
+    net_toa_w_m2: netForcing(f.thin.forcingWm2, infrared ?? 0)
+  }
+}
+
+/** The forcing estimate of a sample's layer at a site, with its verdict. */
+export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFAULT_VERDICT_MARGIN_WM2): SampleForcing {
+  const f = forcingSetting(optics, site)
+  const { rows, tau, omega, g, upscatter, surfaceAlbedo, common, thin } = f
 
   // Spectral: each study wavelength stands for a band of the (Planck 5772 K) solar spectrum; the
   // transmittance above the layer follows the Rayleigh optical depth of the air above it.
@@ -170,27 +249,8 @@ export function sampleForcing(optics: SampleOptics, site: Site, marginWm2 = DEFA
     }).forcingWm2
   })
 
-  const row550 = rows.find((r) => r.wavelength_nm === 550) ?? sorted.reduce((a, b) => (Math.abs(b.wavelength_nm - 550) < Math.abs(a.wavelength_nm - 550) ? b : a))
-  const daily = dailyMeanThinLayerForcing({
-    tau,
-    omega,
-    upscatter: upscatterFunction(row550),
-    surfaceAlbedo,
-    ...common,
-    latitudeDeg: site.latitude_deg,
-    dayOfYear: site.day_of_year
-  })
-  // the same β̄ as the thin-layer form, so that the two compare like with like (twoStream.ts)
-  const two = twoStreamForcing({
-    tau,
-    omega,
-    asymmetry: Math.min(0.99, Math.max(0, g)),
-    upscatter,
-    cosZenith: 0.5,
-    surfaceAlbedo,
-    incidentFluxWm2: SOLAR_CONSTANT_WM2 / 4,
-    ...common
-  })
+  const daily = dailyForcing(f, site)
+  const two = twoStreamOf(f)
   const verdict = forcingVerdict({ tau, omega, surfaceAlbedo, upscatter, ...common, marginWm2 })
   const flip = thin.flipSurfaceAlbedo
   const departure = thinLayerDepartureWarning(thin.forcingWm2, two.toaWm2, tau, verdict.marginWm2)

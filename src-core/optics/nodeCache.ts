@@ -265,6 +265,23 @@ export class NodeCache {
     return this.count
   }
 
+  /**
+   * Drops every context, handing its table (when no integration is using it) to the next new contexts, whatever
+   * the spare tables' bound: for a caller whose contexts are never used again (an uncertainty draw with its own
+   * humidity or indices), which thus computes draw after draw in the same few tables instead of allocating and
+   * growing new ones (contexts dropped by `grew` in batches of a quarter of the limit were mostly not kept).
+   */
+  recycle(): void {
+    for (const nodes of this.contexts.values()) {
+      if (nodes instanceof NodeTable && nodes.users === 0) {
+        this.spare.push(nodes)
+        this.spareCapacity += nodes.capacity
+      }
+    }
+    this.contexts.clear()
+    this.count = 0
+  }
+
   clear(): void {
     this.contexts.clear()
     this.spare.length = 0

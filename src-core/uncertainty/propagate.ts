@@ -2,7 +2,8 @@
  * Monte Carlo propagation of input uncertainty through a sample's optics at 550 nm and its forcing.
  *
  * Each draw copies the sample and the site, perturbs the uncertain inputs by their drawn variates, and
- * computes `computeSampleOptics` (550 nm only, tolerance 1e-3, no angular output) and `sampleForcing`.
+ * computes `computeSampleOptics` (550 nm only, tolerance 1e-3, no angular output) and `sampleForcing`'s figures
+ * (`sampleForcingFigures`: the same numbers without the texts a draw does not report).
  *
  * The infrared part: the band optics (20 wavelengths over 4–40 µm) are integrated once, for the unperturbed
  * sample, and each draw scales their coefficients by its wet volume over the unperturbed one. Particles are small
@@ -27,8 +28,9 @@
 import { InputError } from '../errors.ts'
 import { DEFAULT_VERDICT_MARGIN_WM2, LONGWAVE_INPUT_RANGES } from '../climate/index.ts'
 import { getMaterial, refractiveIndexAt, type Material } from '../materials/index.ts'
-import { computeSampleOptics, OpticsWorkspace, resolveComposition, resolveMaterial, sampleForcing, siteLongwaveInputs, siteSurfaceAlbedo, studyMaterials } from '../optics/index.ts'
-import type { LongwaveOptics, SampleForcing, SampleOptics } from '../optics/types.ts'
+import { computeSampleOptics, OpticsWorkspace, resolveComposition, resolveMaterial, sampleForcingFigures, siteLongwaveInputs, siteSurfaceAlbedo, studyMaterials } from '../optics/index.ts'
+import type { LongwaveOptics, SampleOptics } from '../optics/types.ts'
+import type { SampleForcingFigures } from '../optics/forcing.ts'
 import { MAX_GSD } from '../sizes/index.ts'
 import type { Composition, Sample, Site, Study } from '../study/model.ts'
 import { normalCdf, normalQuantile, randomPermutation, Xoshiro128 } from './random.ts'
@@ -115,7 +117,15 @@ export interface UncertaintyPlan {
   fixedOptics: SampleOptics | null
   /** The unperturbed sample's infrared band optics and wet volume, which the draws scale (see the module note). */
   longwaveBase: { optics: LongwaveOptics; wetVolume: number } | null
+  /**
+   * True when an input changes what a node's value depends on besides its size (OWN_CONTEXT_QUANTITIES), so that
+   * every draw has its own node contexts: the draws' workspace then recycles its node tables after each draw.
+   */
+  ownContexts: boolean
 }
+
+/** Quantities that change a particle's indices, water uptake or make-up (its node context, see nodeCache.ts). */
+const OWN_CONTEXT_QUANTITIES: readonly UncertainInput['quantity'][] = ['n', 'k', 'density', 'kappa', 'rh']
 
 /** Draws start..start+count−1: the variates (count × inputs) and the figures (count × UNCERTAINTY_FIGURES). */
 export interface DrawBlock {
@@ -504,7 +514,8 @@ export function planUncertainty(study: Study, sampleName: string, options: Uncer
     sample, site: study.site, study: { user_materials: study.user_materials }, inputs, draws, seed, sampling, precision, minDraws,
     marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata,
     nominal: nominal ?? nominalOptics({ study: { user_materials: study.user_materials }, own }, copyJson(sample), new OpticsWorkspace()),
-    fixedOptics: null, longwaveBase: null
+    fixedOptics: null, longwaveBase: null,
+    ownContexts: inputs.some((r) => OWN_CONTEXT_QUANTITIES.includes(r.spec.quantity))
   }
   if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = plan.nominal
   else if (plan.nominal.longwave) plan.longwaveBase = { optics: plan.nominal.longwave, wetVolume: plan.nominal.wet_volume_um3_cm3 }
@@ -580,7 +591,7 @@ function drawOptics(plan: UncertaintyPlan, sample: Sample, index: DrawState['ind
 }
 
 /** The figures of one computed draw, in UNCERTAINTY_FIGURES order, into `out` at `offset`. */
-function recordFigures(optics: SampleOptics, forcing: SampleForcing, out: Float64Array, offset: number): void {
+function recordFigures(optics: SampleOptics, forcing: SampleForcingFigures, out: Float64Array, offset: number): void {
   const r = optics.wavelengths[0]
   out[offset] = r.ext
   out[offset + 1] = r.sca
@@ -591,7 +602,7 @@ function recordFigures(optics: SampleOptics, forcing: SampleForcing, out: Float6
   out[offset + 6] = r.optical_depth
   out[offset + 7] = forcing.thin_layer_w_m2
   out[offset + 8] = forcing.daily_mean_w_m2
-  out[offset + 9] = forcing.two_stream.toa_w_m2
+  out[offset + 9] = forcing.two_stream_toa_w_m2
   out[offset + 10] = forcing.longwave_toa_w_m2 ?? 0
   out[offset + 11] = forcing.net_toa_w_m2
 }
@@ -630,8 +641,11 @@ export function computeDraws(plan: UncertaintyPlan, start: number, end: number, 
       plan.inputs[j].apply(state, v, i)
     }
     const optics = plan.fixedOptics ?? drawOptics(plan, state.sample, state.index, workspace)
-    const forcing = sampleForcing(optics, state.site, plan.marginWm2)
+    const forcing = sampleForcingFigures(optics, state.site)
     recordFigures(optics, forcing, outputs, done * N_OUT)
+    // this draw's nodes will not serve another: their tables serve the next draw (a result does not depend on
+    // what the node cache held before, integrate.ts)
+    if (plan.ownContexts) workspace.nodes.recycle()
     done++
   }
   return { start, count: done, inputs: inputs.subarray(0, done * nIn), outputs: outputs.subarray(0, done * N_OUT) }
@@ -733,7 +747,7 @@ export interface UncertaintyResult {
 export function centralFigures(plan: UncertaintyPlan, workspace = drawWorkspace()): Float64Array {
   const optics = plan.fixedOptics ?? drawOptics(plan, plan.sample, new Map(), workspace)
   const out = new Float64Array(N_OUT)
-  recordFigures(optics, sampleForcing(optics, plan.site, plan.marginWm2), out, 0)
+  recordFigures(optics, sampleForcingFigures(optics, plan.site), out, 0)
   return out
 }
 

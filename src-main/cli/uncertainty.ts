@@ -117,8 +117,9 @@ export function drawBlocks(from: number, to: number, threads: number): [number, 
 
 /**
  * An uncertainty run split over threads: this thread and `workers` worker threads take blocks of draws
- * (drawBlocks) in order as they become free (this thread starts at once; a worker joins when it has loaded and
- * planned: started by main.ts while this thread loads the command, it is ready about when this thread's plan is). The early stop is judged on the draws from 0 in order at fixed
+ * (drawBlocks) in order as they become free, through a shared counter (this thread starts at once; a worker joins
+ * when it has loaded and planned: started by main.ts while this thread loads the command, it is ready about when
+ * this thread's plan is). The early stop is judged on the draws from 0 in order at fixed
  * checkpoints, so the result is the same for any number of workers (and the same as `runUncertainty`).
  */
 export async function runUncertaintyInWorkers(study: Study, sampleName: string, options: UncertaintyRunOptions, parallel: ParallelOptions): Promise<UncertaintyResult> {
@@ -146,8 +147,13 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
     for (let i = 0; i < prefix.count; i++) if (prefix.outputs[i * UNCERTAINTY_FIGURES.length + FORCING] > 0) warm++
     parallel.onProgress({ done: prefix.count, total: plan.draws, warm: prefix.count ? warm / prefix.count : NaN, standardError: prefix.count ? stoppingStandardError(warm, prefix.count) : NaN })
   }
+  // The draws in order from the first are put together after each block only where something looks at them.
+  const watch = parallel.onProgress !== undefined || (plan.sampling !== 'latin-hypercube' && plan.precision > 0 && from === 0)
+  let received = 0
   /** After a block arrives: true when the run has what it needs. */
   const judge = (): boolean => {
+    received += blocks[blocks.length - 1].count
+    if (!watch) return received >= to - from
     const prefix = prefixOf(blocks, nIn, from)
     progress(prefix)
     const stop = earlyStopPoint(plan, prefix)
@@ -159,8 +165,16 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
     return prefix.count >= to - from
   }
 
+  // The blocks, taken in order by whichever thread is free: this one and the workers each take the next through a
+  // shared counter (a worker does not wait for this thread, which reads messages only between its own blocks).
+  const blockEnds = new Int32Array(2 * chunks.length)
+  chunks.forEach(([s, e], b) => blockEnds.set([s, e], 2 * b))
+  const next = new Int32Array(new SharedArrayBuffer(4))
+  const take = (): [number, number] | null => {
+    const b = Atomics.add(next, 0, 1)
+    return b < chunks.length ? chunks[b] : null
+  }
   await new Promise<void>((resolve, reject) => {
-    let nextChunk = 0
     let finished = false
     const workers: Worker[] = []
     const finish = (err?: unknown) => {
@@ -171,11 +185,6 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
       else resolve()
     }
     parallel.cancel?.then(() => finish())
-    const give = (w: Worker) => {
-      if (finished || nextChunk >= chunks.length) return
-      const [start, end] = chunks[nextChunk++]
-      w.postMessage({ type: 'draws', start, end } satisfies ToUncertaintyWorker)
-    }
     // the workers main.ts started while the command loaded (workers/early.ts), then new ones
     let early: Worker[]
     try {
@@ -189,11 +198,9 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
       workers.push(w)
       w.on('message', (m: { type: string; start: number; count: number; inputs: Float64Array; outputs: Float64Array; input?: boolean; where?: string; fix?: string; message?: string }) => {
         if (finished) return
-        if (m.type === 'ready') give(w)
-        else if (m.type === 'block') {
+        if (m.type === 'block') {
           blocks.push({ start: m.start, count: m.count, inputs: m.inputs, outputs: m.outputs })
           if (judge()) finish()
-          else give(w)
         } else if (m.type === 'error') {
           if (m.input) {
             const e = new InputError(m.where ?? 'uncertainty', 'a draw failed', m.fix ?? '')
@@ -206,14 +213,13 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
       w.on('exit', (code) => {
         if (!finished && code !== 0) finish(new Error(`uncertainty worker stopped with exit code ${code}`))
       })
-      w.postMessage({ type: 'plan', study, sampleName, options, nominal: plan.nominal } satisfies ToUncertaintyWorker)
+      w.postMessage({ type: 'plan', study, sampleName, options, nominal: plan.nominal, blocks: blockEnds, next } satisfies ToUncertaintyWorker)
     }
     // This thread works too, one block at a time, yielding between blocks for messages and Ctrl-C.
     const ws = drawWorkspace()
     const own = async () => {
-      while (!finished && nextChunk < chunks.length) {
-        const [start, end] = chunks[nextChunk++]
-        blocks.push(computeDraws(plan, start, end, ws))
+      for (let c = take(); !finished && c; c = take()) {
+        blocks.push(computeDraws(plan, c[0], c[1], ws))
         if (judge()) return finish()
         await new Promise((r) => setImmediate(r))
       }

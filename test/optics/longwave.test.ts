@@ -6,6 +6,7 @@ import {
   finish,
   parseStudy,
   sampleForcing,
+  sampleForcingFigures,
   sampleLongwaveSteps,
   type Sample,
   type Study
@@ -74,6 +75,21 @@ describe('the infrared part of a sample forcing', () => {
     const word = Math.abs(f.net_toa_w_m2) < f.margin_w_m2 ? 'too close to call' : f.net_toa_w_m2 < 0 ? 'cools' : 'warms'
     expect(f.verdict).toBe(word)
     expect(f.explanation).toMatch(/Net .* sunlight .* thermal infrared/)
+  })
+  it('sampleForcingFigures (what an uncertainty draw keeps) gives the figures of sampleForcing to the bit, with and without the infrared part', () => {
+    const optics = computeSampleOptics(quarry, study)
+    const withheld = { ...optics, longwave: undefined }
+    for (const o of [optics, withheld]) {
+      const full = sampleForcing(o, study.site, study.verdict_margin_w_m2)
+      expect(sampleForcingFigures(o, study.site)).toEqual({
+        thin_layer_w_m2: full.thin_layer_w_m2,
+        daily_mean_w_m2: full.daily_mean_w_m2,
+        two_stream_toa_w_m2: full.two_stream.toa_w_m2,
+        longwave_toa_w_m2: full.longwave_toa_w_m2,
+        net_toa_w_m2: full.net_toa_w_m2
+      })
+    }
+    expect(sampleForcing(withheld, study.site).longwave_toa_w_m2).toBeNull()
   })
   it('a coarse dust layer at 3 km over a hot desert warms in the infrared by a few to about twenty W m⁻² per unit visible AOD (clear sky)', () => {
     // Published satellite estimates of Saharan dust's clear-sky infrared TOA effect run from a few to about 20 W m⁻²

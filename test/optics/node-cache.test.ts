@@ -94,6 +94,23 @@ describe('node cache', () => {
     expectSameFigures(computeSampleOptics(other, study, { workspace: small }), computeSampleOptics(other, study, { workspace: new OpticsWorkspace() }))
   })
 
+  it('after recycle() (every context dropped, its tables handed on), the next computations give the cold figures', () => {
+    // an uncertainty draw with its own humidity recycles its tables for the next draw (propagate.ts): the rows and
+    // nodes the tables held must not show in the next results, nor the dropped contexts be found again
+    const ws = new OpticsWorkspace()
+    computeSampleOptics(coastal, study, { workspace: ws })
+    ws.nodes.recycle()
+    expect(ws.nodes.size).toBe(0)
+    const humid = { ...coastal, rh_percent: coastal.rh_percent + 3 }
+    const warm = computeSampleOptics(humid, study, { workspace: ws })
+    const cold = computeSampleOptics(humid, study, { workspace: new OpticsWorkspace() })
+    expect(warm.wavelengths).toEqual(cold.wavelengths)
+    ws.nodes.recycle()
+    const again = computeSampleOptics(coastal, study, { workspace: ws })
+    expect(again.wavelengths).toEqual(computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace() }).wavelengths)
+    expect(evaluations(again)).toBe(evaluations(computeSampleOptics(coastal, study, { workspace: new OpticsWorkspace() })))
+  })
+
   it('a paused integration keeps its nodes while another computation on the workspace drops its context', () => {
     const small = new OpticsWorkspace(500)
     const paused = sampleOpticsSteps(coastal, study, { workspace: small })

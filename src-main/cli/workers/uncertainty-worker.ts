@@ -1,19 +1,27 @@
-// Worker thread of `motebench uncertainty`: computes blocks of draws of one plan on request.
-// Messages in: first { type: 'plan', study, sampleName, options, nominal } (the plan is rebuilt here from the study,
-// planning being deterministic, with the main thread's optics of the unperturbed sample instead of computing them
-// again), then { type: 'draws', start, end }. Out: { type: 'ready' } once planned, { type: 'block', start, count,
-// inputs, outputs } (buffers transferred) or { type: 'error', ... }. It may be started before the main thread has
-// read the study (workers/early.ts): it loads its modules meanwhile and waits for the plan.
+// Worker thread of `motebench uncertainty`: computes blocks of draws of one plan, taking them itself.
+// Message in: { type: 'plan', study, sampleName, options, nominal, blocks, next } (the plan is rebuilt here from the
+// study, planning being deterministic, with the main thread's optics of the unperturbed sample instead of computing
+// them again; `blocks` the run's blocks of draws as [start, end) pairs, `next` a shared counter of the blocks taken
+// by any thread). The worker then takes blocks (Atomics.add on `next`) until none is left, without waiting for the
+// main thread, which computes blocks too and reads messages only between its own. Out: { type: 'block', start,
+// count, inputs, outputs } (buffers transferred) or { type: 'error', ... }. It may be started before the main thread
+// has read the study (workers/early.ts): it loads its modules meanwhile and waits for the plan.
 import { parentPort } from 'node:worker_threads'
-import { computeDraws, drawWorkspace, InputError, planUncertainty, type OpticsWorkspace, type SampleOptics, type Study, type UncertaintyPlan, type UncertaintyRunOptions } from '../../../src-core/index.ts'
+import { computeDraws, drawWorkspace, InputError, planUncertainty, type SampleOptics, type Study, type UncertaintyRunOptions } from '../../../src-core/index.ts'
 
-export type ToUncertaintyWorker =
-  | { type: 'plan'; study: Study; sampleName: string; options: UncertaintyRunOptions; nominal: SampleOptics }
-  | { type: 'draws'; start: number; end: number }
+export type ToUncertaintyWorker = {
+  type: 'plan'
+  study: Study
+  sampleName: string
+  options: UncertaintyRunOptions
+  nominal: SampleOptics
+  /** Blocks of draws: start and end (exclusive) of block b at 2b and 2b + 1. */
+  blocks: Int32Array
+  /** One Int32 on a SharedArrayBuffer: the next block any thread may take. */
+  next: Int32Array
+}
 
 const port = parentPort!
-let plan: UncertaintyPlan | null = null
-let ws: OpticsWorkspace | null = null
 
 function fail(e: unknown): void {
   if (e instanceof InputError) port.postMessage({ type: 'error', input: true, where: e.where, fix: e.fix, message: e.message })
@@ -21,18 +29,17 @@ function fail(e: unknown): void {
 }
 
 port.on('message', (m: ToUncertaintyWorker) => {
+  if (m.type !== 'plan') return
   try {
-    if (m.type === 'plan') {
-      plan = planUncertainty(m.study, m.sampleName, m.options, m.nominal)
-      ws = drawWorkspace()
-      port.postMessage({ type: 'ready' })
-      return
+    const plan = planUncertainty(m.study, m.sampleName, m.options, m.nominal)
+    const ws = drawWorkspace()
+    const nBlocks = m.blocks.length / 2
+    for (let b = Atomics.add(m.next, 0, 1); b < nBlocks; b = Atomics.add(m.next, 0, 1)) {
+      const d = computeDraws(plan, m.blocks[2 * b], m.blocks[2 * b + 1], ws)
+      const inputs = d.inputs.slice()
+      const outputs = d.outputs.slice()
+      port.postMessage({ type: 'block', start: d.start, count: d.count, inputs, outputs }, [inputs.buffer, outputs.buffer])
     }
-    if (m.type !== 'draws' || !plan || !ws) return
-    const b = computeDraws(plan, m.start, m.end, ws)
-    const inputs = b.inputs.slice()
-    const outputs = b.outputs.slice()
-    port.postMessage({ type: 'block', start: b.start, count: b.count, inputs, outputs }, [inputs.buffer, outputs.buffer])
   } catch (e) {
     fail(e)
   }
