@@ -1,10 +1,13 @@
 // Messages between the UI and the computing worker.
-import type { Sample, SampleResult, Study, UserMaterialSpec, WavelengthBulk } from '../../src-core/index.ts'
+import type { LongwaveOptics, Sample, SampleResult, Study, UserMaterialSpec, WavelengthBulk } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
 
 export type ToWorker =
-  /** Evaluate each item's one-sample study in turn, reporting each result as it is done. */
-  | { type: 'evaluate'; job: number; items: { id: string; key: string; study: Study }[] }
+  /**
+   * Evaluate each item's one-sample study in turn, reporting each result as it is done. `quick: false`: no quick
+   * pass for this item (a sample not on screen; see EvaluateItem).
+   */
+  | { type: 'evaluate'; job: number; items: EvaluateItem[] }
   /** Size-distribution curves of samples (fast). */
   | { type: 'sizes'; job: number; items: { id: string; sample: Sample; userMaterials: UserMaterialSpec[] }[] }
   /** Stop the running evaluation at its next step (`job` is a new number that no evaluation carries). */
@@ -16,6 +19,19 @@ export type ToWorker =
   | { type: 'warm'; job: number; study: Study }
   /** Ports to the helpers the page started (sent once, before any job). */
   | { type: 'helpers'; ports: MessagePort[] }
+
+/**
+ * One sample of an evaluation. `quick` false leaves out the quick first pass: the page asks it for the samples of a
+ * job of several that are not on screen (neither selected nor compared), whose quick figures nobody would see; their
+ * full figures then come sooner (the quick pass costs the coastal demo sample about a sixth of its full pass, and
+ * the figures' forcing and the page's drawing of them more).
+ */
+export interface EvaluateItem {
+  id: string
+  key: string
+  study: Study
+  quick?: boolean
+}
 
 export type FromWorker =
   /**
@@ -54,15 +70,18 @@ export const PREVIEW_WORTH_MS = 40
  * port and no data): compute a one-sample study at `only` (a share of its wavelengths).
  */
 export type ToShareWorker =
-  | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number; coarsestStep?: number }
+  | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number; coarsestStep?: number; longwave?: boolean }
   /** σsca at 550 nm at these humidities (points of the f(RH) curve). */
   | { type: 'humidity'; job: number; request: number; study: Study; humidities: number[] }
   /** A newer job: drop anything older at its next step. */
   | { type: 'newest'; job: number }
 
-/** `bulk` and `sca` are null when the job was dropped for a newer one. */
+/**
+ * `bulk` and `sca` are null when the job was dropped for a newer one. `longwave`: the sample's thermal-infrared
+ * band optics, when the share asked for them (`longwave: true`, with the same tolerance and coarsest step).
+ */
 export type FromShareWorker =
-  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null }
+  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null; longwave?: LongwaveOptics }
   | { type: 'humidity'; request: number; sca: number[] | null }
   | { type: 'share-failed'; request: number; message: string }
 
