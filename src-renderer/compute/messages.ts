@@ -1,5 +1,5 @@
 // Messages between the UI and the computing worker.
-import type { LongwaveOptics, Sample, SampleResult, Study, UserMaterialSpec, WavelengthBulk } from '../../src-core/index.ts'
+import type { Sample, SampleResult, Study, UserMaterialSpec, WavelengthBulk } from '../../src-core/index.ts'
 import type { SizeCurves } from '../state/store.ts'
 
 export type ToWorker =
@@ -70,18 +70,15 @@ export const PREVIEW_WORTH_MS = 40
  * port and no data): compute a one-sample study at `only` (a share of its wavelengths).
  */
 export type ToShareWorker =
-  | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number; coarsestStep?: number; longwave?: boolean }
+  | { type: 'share'; job: number; request: number; study: Study; only: number[]; tolerance?: number; coarsestStep?: number }
   /** σsca at 550 nm at these humidities (points of the f(RH) curve). */
   | { type: 'humidity'; job: number; request: number; study: Study; humidities: number[] }
   /** A newer job: drop anything older at its next step. */
   | { type: 'newest'; job: number }
 
-/**
- * `bulk` and `sca` are null when the job was dropped for a newer one. `longwave`: the sample's thermal-infrared
- * band optics, when the share asked for them (`longwave: true`, with the same tolerance and coarsest step).
- */
+/** `bulk` and `sca` are null when the job was dropped for a newer one. */
 export type FromShareWorker =
-  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null; longwave?: LongwaveOptics }
+  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null }
   | { type: 'humidity'; request: number; sca: number[] | null }
   | { type: 'share-failed'; request: number; message: string }
 

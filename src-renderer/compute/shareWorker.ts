@@ -1,8 +1,7 @@
-// A helper of the computing worker: the size integration of one sample at a share of the study's wavelengths (the
-// first helper also its thermal-infrared bands, which the computing worker would otherwise add to its own share), or
-// at a share of the humidities of its f(RH) curve, with its own optics workspace (and node cache) kept across jobs.
+// A helper of the computing worker: the size integration of one sample at a share of the study's wavelengths,
+// or at a share of the humidities of its f(RH) curve, with its own optics workspace (and node cache) kept across jobs.
 // The page starts it and sends it a port to the computing worker, which is where its work comes from.
-import { humidityScatteringSteps, loadExpressionCompiler, needsExpressionCompiler, OpticsWorkspace, sampleBulkSteps, sampleLongwaveSteps, type LongwaveOptics, type WavelengthBulk } from '../../src-core/compute.ts'
+import { humidityScatteringSteps, loadExpressionCompiler, needsExpressionCompiler, OpticsWorkspace, sampleBulkSteps } from '../../src-core/compute.ts'
 import { NODE_CACHE_LIMIT, type FromShareWorker, type ToShareWorker } from './messages.ts'
 import { drive } from './steps.ts'
 
@@ -23,8 +22,8 @@ async function work(m: ToShareWorker, post: (m: FromShareWorker) => void): Promi
   try {
     if (needsExpressionCompiler(m.study)) await loadExpressionCompiler()
     if (m.type === 'share') {
-      const done = await drive(shareSteps(m), live)
-      post({ type: 'share', request: m.request, bulk: done?.bulk ?? null, ...(done?.longwave ? { longwave: done.longwave } : {}) })
+      const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, coarsestStep: m.coarsestStep, workspace }), live)
+      post({ type: 'share', request: m.request, bulk: bulk ?? null })
     } else {
       const sca = await drive(humidityScatteringSteps(m.study, 0, m.humidities, workspace), live)
       post({ type: 'humidity', request: m.request, sca: sca ?? null })
@@ -32,12 +31,4 @@ async function work(m: ToShareWorker, post: (m: FromShareWorker) => void): Promi
   } catch (err) {
     post({ type: 'share-failed', request: m.request, message: err instanceof Error ? err.message : String(err) })
   }
-}
-
-/** A share of a sample's wavelengths, then (if asked) its thermal-infrared bands, on the same grid. */
-function* shareSteps(m: Extract<ToShareWorker, { type: 'share' }>): Generator<void, { bulk: WavelengthBulk[]; longwave?: LongwaveOptics }> {
-  const grid = { tolerance: m.tolerance, coarsestStep: m.coarsestStep }
-  const bulk = yield* sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, ...grid, workspace })
-  if (!m.longwave) return { bulk }
-  return { bulk, longwave: yield* sampleLongwaveSteps(m.study.samples[0], m.study, { ...grid, workspace }) }
 }

@@ -22,7 +22,6 @@ import {
   sampleResultFromOptics,
   sizeDistributionCurves,
   type HumidityGrowthCurve,
-  type LongwaveOptics,
   type SampleOptics,
   type SampleResult,
   type Sample,
@@ -51,7 +50,7 @@ function takeHelpers(ports: readonly MessagePort[]): void {
       const p = waiting.get(m.request)
       if (!p) return
       waiting.delete(m.request)
-      if (m.type === 'share') p.resolve(m.bulk && { bulk: m.bulk, longwave: m.longwave })
+      if (m.type === 'share') p.resolve(m.bulk)
       else if (m.type === 'humidity') p.resolve(m.sca)
       else p.reject(new Error(m.message))
     }
@@ -101,36 +100,22 @@ async function together<M, T>(mine: Generator<void, M>, theirs: Promise<T | null
   return { mine: own, theirs: rest as T[] }
 }
 
-/** A helper's part of a sample's optics. */
-interface SharePart {
-  bulk: WavelengthBulk[]
-  longwave?: LongwaveOptics
-}
-
-/**
- * A one-sample study's optics, full or quick, its wavelengths shared with the helpers. The thermal-infrared bands
- * (35–50 ms of the coarse demo samples' full passes in Node) go to the first helper, if it has a share: this worker
- * also works out each result's forcing and posts it, so the helpers used to wait for it at the end of each pass.
- */
+/** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
 async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0): Promise<SampleOptics | undefined> {
   const shares = wavelengthShares(study.wavelengths_nm, helpers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
-  const helperLongwave = helpers.length > 0 && shares[1].length > 0
-  const theirs = helpers.map((w, k) =>
-    shares[k + 1].length ? ask<SharePart>(w, { type: 'share', job, study, only: shares[k + 1], ...grid, ...(k === 0 && helperLongwave ? { longwave: true } : {}) }) : Promise.resolve({ bulk: [] })
-  )
+  const theirs = helpers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
   if (holdMs > 0) await new Promise((resolve) => setTimeout(resolve, holdMs))
-  const parts = await together(ownShare(study, shares[0], grid, !helperLongwave), theirs, job)
+  const parts = await together(ownShare(study, shares[0], grid), theirs, job)
   if (!parts) return undefined
-  const longwave = helperLongwave ? parts.theirs[0].longwave : parts.mine.longwave
-  return assembleSampleOptics(study.samples[0], study, [...parts.mine.bulk, ...parts.theirs.flatMap((p) => p.bulk)], { longwave })
+  return assembleSampleOptics(study.samples[0], study, [...parts.mine.bulk, ...parts.theirs.flat()], { longwave: parts.mine.longwave })
 }
 
-/** This worker's share of a sample's wavelengths, then (`withLongwave`) the sample's thermal-infrared band optics (cheap: small size parameters). */
-function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coarsestStep?: number }, withLongwave: boolean): Generator<void, SharePart> {
+/** This worker's share of a sample's wavelengths, then the sample's thermal-infrared band optics (cheap: small size parameters). */
+function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coarsestStep?: number }) {
   const bulk = yield* sampleBulkSteps(study.samples[0], study, { only, ...grid, workspace })
-  if (!withLongwave) return { bulk }
-  return { bulk, longwave: yield* sampleLongwaveSteps(study.samples[0], study, { workspace, ...grid }) }
+  const longwave = yield* sampleLongwaveSteps(study.samples[0], study, { workspace, ...grid })
+  return { bulk, longwave }
 }
 
 /**

@@ -1,5 +1,5 @@
 // End-to-end: the figures the page shows are src-core's however its workers shared and ordered the work (the
-// wavelengths split among the workers, the infrared bands on a helper, quick passes left out for the samples not on
+// wavelengths split among the workers, quick passes left out for the samples not on
 // screen and for an amount edit whose nodes the caches hold). The page's JSON export (numbers written in full by
 // JSON.stringify) is compared with evaluateStudy of the exported study, computed here in one thread. Not to the bit:
 // Chromium's and Node's JavaScript engines differ in the last bit of some Math functions (the humid sulfate's wet
