@@ -4,7 +4,7 @@
 // job or a cancel is a message it reads between steps of its work.
 import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
-import { COMPUTE_THREADS, jobSteps, type FromWorker, type ToWorker } from './messages.ts'
+import { COMPUTE_THREADS, jobSteps, type EvaluateItem, type FromWorker, type ToWorker } from './messages.ts'
 
 /** Changes that follow a run closer than this (ms) wait this long, so fast typing starts one job, not one a key. */
 const DEBOUNCE_MS = 30
@@ -156,7 +156,7 @@ function run(): void {
   // the optics worker reads this between the steps of any job it is running (a few milliseconds)
   if (sizeItems.length) opticsWorker().postMessage({ type: 'sizes', job, items: sizeItems } satisfies ToWorker)
 
-  const items: { id: string; key: string; study: Study }[] = []
+  const items: EvaluateItem[] = []
   const results = { ...s.results }
   const draftPaths = Object.keys(s.drafts).filter(affectsOptics)
   study.samples.forEach((sample, i) => {
@@ -176,6 +176,9 @@ function run(): void {
   // What the user is looking at first: the selected sample, then the compared ones, then the rest.
   const rank = (id: string) => (id === s.selected ? 0 : s.compare.includes(id) ? 1 : 2)
   items.sort((a, b) => rank(a.id) - rank(b.id))
+  // In a job of several samples (opening a study, a site edit), those not on screen get no quick pass: nobody sees
+  // their quick figures, and every sample's full figures come sooner without them (messages.ts, EvaluateItem).
+  if (items.length > 1) for (const item of items) if (rank(item.id) === 2) item.quick = false
 
   // A newer edit supersedes the running job: the worker drops it at its next step when the new job arrives.
   job++

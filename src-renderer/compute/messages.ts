@@ -3,8 +3,11 @@ import type { Sample, SampleResult, Study, UserMaterialSpec, WavelengthBulk } fr
 import type { SizeCurves } from '../state/store.ts'
 
 export type ToWorker =
-  /** Evaluate each item's one-sample study in turn, reporting each result as it is done. */
-  | { type: 'evaluate'; job: number; items: { id: string; key: string; study: Study }[] }
+  /**
+   * Evaluate each item's one-sample study in turn, reporting each result as it is done. `quick: false`: no quick
+   * pass for this item (a sample not on screen; see EvaluateItem).
+   */
+  | { type: 'evaluate'; job: number; items: EvaluateItem[] }
   /** Size-distribution curves of samples (fast). */
   | { type: 'sizes'; job: number; items: { id: string; sample: Sample; userMaterials: UserMaterialSpec[] }[] }
   /** Stop the running evaluation at its next step (`job` is a new number that no evaluation carries). */
@@ -16,6 +19,19 @@ export type ToWorker =
   | { type: 'warm'; job: number; study: Study }
   /** Ports to the helpers the page started (sent once, before any job). */
   | { type: 'helpers'; ports: MessagePort[] }
+
+/**
+ * One sample of an evaluation. `quick` false leaves out the quick first pass: the page asks it for the samples of a
+ * job of several that are not on screen (neither selected nor compared), whose quick figures nobody would see; their
+ * full figures then come sooner (the quick pass costs the coastal demo sample about a sixth of its full pass, and
+ * the figures' forcing and the page's drawing of them more).
+ */
+export interface EvaluateItem {
+  id: string
+  key: string
+  study: Study
+  quick?: boolean
+}
 
 export type FromWorker =
   /**

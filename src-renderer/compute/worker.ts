@@ -30,7 +30,7 @@ import {
   type WavelengthBulk
 } from '../../src-core/compute.ts'
 import type { SizeCurves } from '../state/store.ts'
-import { jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
+import { jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type EvaluateItem, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
 import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
@@ -118,6 +118,36 @@ function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coa
   return { bulk, longwave }
 }
 
+/**
+ * What decides which size nodes a sample's full pass evaluates, and so the nodes it leaves in the caches: the sample
+ * but for its modes' amounts, name, notes and layer, and the study's wavelengths and own materials (not the site).
+ */
+function nodesKey(study: Study): string {
+  const s = study.samples[0]
+  const size = s.size.kind === 'modes' ? s.size.modes.map((m) => [m.by, m.median_um, m.gsd, m.composition ?? null]) : s.size
+  return JSON.stringify([size, s.composition, s.rh_percent, s.rh_history, s.temperature_k ?? null, study.wavelengths_nm, study.user_materials ?? []])
+}
+
+/**
+ * For each sample (by its id in the page), the nodesKey of its last full pass here. An edit that changes only a
+ * mode's amount makes a full pass from the caches alone (no Mie evaluation), which costs about what the quick pass
+ * itself costs (the angular sums): it is computed without the quick pass. (With it, a dust amount edit showed the
+ * quick figures and then the full ones: two sets of forcing, two renders and a hold of DISPLAY_HOLD_MS between them,
+ * 95–126 ms in the page to the full figures.)
+ */
+const lastFull = new Map<string, string>()
+const LAST_FULL_KEPT = 256
+
+function quickFirst(item: EvaluateItem): boolean {
+  return item.quick !== false && lastFull.get(item.id) !== nodesKey(item.study)
+}
+
+function keepLastFull(item: EvaluateItem): void {
+  lastFull.delete(item.id)
+  lastFull.set(item.id, nodesKey(item.study))
+  if (lastFull.size > LAST_FULL_KEPT) lastFull.delete(lastFull.keys().next().value!)
+}
+
 /** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */
 async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthCurve | undefined> {
   const threads = helpers.length + 1
@@ -158,24 +188,11 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     if (known) keepCurve(curveKey, known)
     const withCurve = (r: SampleResult): SampleResult => (known ? { ...r, humidity: known } : r)
     try {
-      // a quick pass first; its nodes are kept, so the full pass costs only what it adds
-      const started = performance.now()
-      const quick = await sampleOptics(item.study, true, m.job)
-      if (!live()) return
-      // Shown if the full figures are not there PREVIEW_WORTH_MS after the start (the timer runs while the full
-      // pass pauses between its steps); their forcing is worked out only then.
-      const showQuick = () => {
-        if (quick && live()) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: withCurve(sampleResultFromOptics(item.study, quick)), partial: true, preview: true })
-      }
-      const wait = started + PREVIEW_WORTH_MS - performance.now()
-      let timer: ReturnType<typeof setTimeout> | undefined
-      let hold = 0
-      if (wait <= 0) {
-        showQuick()
-        hold = DISPLAY_HOLD_MS
-      } else timer = setTimeout(showQuick, wait)
-      const optics = await sampleOptics(item.study, false, m.job, hold).finally(() => clearTimeout(timer))
+      let optics: SampleOptics | undefined
+      if (quickFirst(item)) optics = await quickThenFull(item, m.job, withCurve)
+      else optics = await sampleOptics(item.study, false, m.job)
       const r = optics && sampleResultFromOptics(item.study, optics)
+      if (r) keepLastFull(item)
       if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: withCurve(r), partial: !known })
       partial.push(known ? undefined : r)
     } catch (err) {
@@ -201,6 +218,27 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     post({ type: 'progress', job: m.job, done: m.items.length + i + 1, total })
   }
   post({ type: 'finished', job: m.job })
+}
+
+/** A quick pass first (its nodes are kept, so the full pass costs only what it adds), shown if the full pass takes a while; then the full pass. */
+async function quickThenFull(item: EvaluateItem, job: number, withCurve: (r: SampleResult) => SampleResult): Promise<SampleOptics | undefined> {
+  const live = current(job)
+  const started = performance.now()
+  const quick = await sampleOptics(item.study, true, job)
+  if (!live()) return undefined
+  // Shown if the full figures are not there PREVIEW_WORTH_MS after the start (the timer runs while the full
+  // pass pauses between its steps); their forcing is worked out only then.
+  const showQuick = () => {
+    if (quick && live()) post({ type: 'result', job, id: item.id, key: item.key, result: withCurve(sampleResultFromOptics(item.study, quick)), partial: true, preview: true })
+  }
+  const wait = started + PREVIEW_WORTH_MS - performance.now()
+  let timer: ReturnType<typeof setTimeout> | undefined
+  let hold = 0
+  if (wait <= 0) {
+    showQuick()
+    hold = DISPLAY_HOLD_MS
+  } else timer = setTimeout(showQuick, wait)
+  return await sampleOptics(item.study, false, job, hold).finally(() => clearTimeout(timer))
 }
 
 /** Loads the expression compiler where a study given to the workers has expression components (the build leaves it out: vite.shared.ts). */
