@@ -644,7 +644,7 @@ export function computeDraws(plan: UncertaintyPlan, start: number, end: number, 
     const forcing = sampleForcingFigures(optics, state.site)
     recordFigures(optics, forcing, outputs, done * N_OUT)
     // this draw's nodes will not serve another: their tables serve the next draw (a result does not depend on
-    // what the node cache held before, integrate.ts)
+    // which table holds its nodes: the output is the same byte for byte, test/cli/uncertainty-regression.test.ts)
     if (plan.ownContexts) workspace.nodes.recycle()
     done++
   }
