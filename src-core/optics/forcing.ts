@@ -30,7 +30,7 @@ import { readableNumber, readableRange } from '../numberText.ts'
 import type { Site } from '../study/model.ts'
 import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
 import { valueAt } from './sample.ts'
-import type { ForcingMapData, LongwaveForcingDetail, SampleForcing, SampleOptics, WavelengthOptics } from './types.ts'
+import type { ForcingMapData, LongwaveForcingDetail, LongwaveOptics, SampleForcing, SampleOptics, WavelengthOptics } from './types.ts'
 
 /** Pressure at the top of the aerosol layer, hPa, for the Rayleigh part of the spectral transmittance (common practice: a boundary layer up to ~1.5 km). */
 export const LAYER_TOP_PRESSURE_HPA = 850
@@ -79,7 +79,7 @@ export function siteLongwaveInputs(site: Site): { surfaceTemperatureK: number; s
 }
 
 /** The infrared computation of sampleLongwaveForcing, before its detail is written out. */
-function longwaveOf(optics: SampleOptics, site: Site): { withheld: string } | { inputs: ReturnType<typeof siteLongwaveInputs>; emissivityBands: readonly number[] | null; bands: { tau: number; omega: number; g: number }[]; r: ReturnType<typeof longwaveForcing> } {
+function longwaveOf(optics: SampleOptics, site: Site): { withheld: string } | { source: LongwaveOptics; inputs: ReturnType<typeof siteLongwaveInputs>; emissivityBands: readonly number[] | null; bands: { tau: number; omega: number; g: number }[]; r: ReturnType<typeof longwaveForcing> } {
   const lw = optics.longwave
   if (!lw || !lw.bands.length) return { withheld: lw?.withheld ?? 'The infrared part was not computed for these optics.' }
   const inputs = siteLongwaveInputs(site)
@@ -87,15 +87,14 @@ function longwaveOf(optics: SampleOptics, site: Site): { withheld: string } | { 
   const bands = lw.bands.map((b) => ({ tau: b.ext * 1e-6 * optics.layer_depth_m, omega: Math.min(1, Math.max(0, b.ssa)), g: Math.min(1, Math.max(-1, b.g)) }))
   const emissivityBands = siteEmissivityBands(site)
   const r = longwaveForcing({ bands, ...inputs, surfaceEmissivity: emissivityBands ?? inputs.surfaceEmissivity, layerDepthKm: depthKm, cloudFraction: site.cloud_fraction })
-  return { inputs, emissivityBands, bands, r }
+  return { source: lw, inputs, emissivityBands, bands, r }
 }
 
 /** The infrared part of a sample's forcing from its band optics and the site, or the reason it is left out. */
 export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detail: LongwaveForcingDetail; toa: number; surface: number } | { withheld: string } {
-  const lw = optics.longwave
   const c = longwaveOf(optics, site)
   if ('withheld' in c) return c
-  const { inputs, emissivityBands, bands, r } = c
+  const { source, inputs, emissivityBands, bands, r } = c
   return {
     toa: r.toaWm2,
     surface: r.surfaceWm2,
@@ -109,7 +108,7 @@ export function sampleLongwaveForcing(optics: SampleOptics, site: Site): { detai
       layer_temperature_k: r.layerTemperatureK,
       clear_sky_toa_w_m2: r.clearSkyToaWm2,
       clear_sky_surface_w_m2: r.clearSkySurfaceWm2,
-      bands: lw!.bands.map((b, i) => ({ lo_um: b.lo_um, hi_um: b.hi_um, tau: bands[i].tau, ssa: bands[i].omega, g: bands[i].g, toa_w_m2: r.bandToaWm2[i] })),
+      bands: source.bands.map((b, i) => ({ lo_um: b.lo_um, hi_um: b.hi_um, tau: bands[i].tau, ssa: bands[i].omega, g: bands[i].g, toa_w_m2: r.bandToaWm2[i] })),
       method: LONGWAVE_METHOD
     }
   }
