@@ -11,7 +11,7 @@
 import { randomBytes } from 'node:crypto'
 import * as fsp from 'node:fs/promises'
 import { basename, dirname, join } from 'node:path'
-import { parseStudy, serializeStudy, type Study, type StudyProblem } from '../src-core/index.ts'
+import { parseStudy, serializeStudy, type Study } from '../src-core/index.ts'
 import { StudyFileError } from './studyFileError.ts'
 
 /** The file on disk changed since the caller read it (or was deleted). */

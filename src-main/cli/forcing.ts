@@ -1,5 +1,5 @@
 // motebench forcing: direct-forcing estimate of a uniform aerosol layer from its optical figures.
-import { asymmetryFromUpscatter, CUSTOM_SURFACE_EMISSIVITY, DEFAULT_LAYER_HEIGHT_KM, DEFAULT_SURFACE_TEMPERATURE_K, DEFAULT_WATER_COLUMN_CM, forcingVerdict, InputError, LONGWAVE_BANDS, LONGWAVE_METHOD, longwaveForcing, netVerdict, SOLAR_CONSTANT_WM2, thinLayerCheck, thinLayerForcing, twoStreamEquivalentUpscatter, twoStreamForcing } from '../../src-core/index.ts'
+import { CUSTOM_SURFACE_EMISSIVITY, DEFAULT_LAYER_HEIGHT_KM, DEFAULT_SURFACE_TEMPERATURE_K, DEFAULT_WATER_COLUMN_CM, forcingVerdict, InputError, LONGWAVE_BANDS, LONGWAVE_METHOD, longwaveForcing, netVerdict, SOLAR_CONSTANT_WM2, thinLayerCheck, thinLayerForcing, twoStreamEquivalentUpscatter, twoStreamForcing } from '../../src-core/index.ts'
 import { need, printJson, readArgs, readNumber, UsageError } from './common.ts'
 
 /** The bands' edges in words, for the help: "4–5.5, 5.5–7.5, …". */

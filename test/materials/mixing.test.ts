@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { InputError, MIXING_RULES, mixRefractiveIndices, type ComplexRefractiveIndex, type MixingRule } from '../../src-core/index.ts'
+import { MIXING_RULES, mixRefractiveIndices, type ComplexRefractiveIndex, type MixingRule } from '../../src-core/index.ts'
 import { abs, add, c, div, eps, mul, scale, sub, thrownMessage, type C } from './helpers.ts'
 
 // Test indices: water and black carbon at 550 nm (Hale & Querry 1973; Bond & Bergstrom 2006, from memory), dust-like.

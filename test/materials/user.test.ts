@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { InputError, defineUserMaterial, refractiveIndexAt } from '../../src-core/index.ts'
+import { defineUserMaterial, refractiveIndexAt } from '../../src-core/index.ts'
 import { thrownMessage } from './helpers.ts'
 
 const STUDY = [0.35, 0.55, 1.0]

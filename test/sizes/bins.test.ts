@@ -2,7 +2,6 @@ import { describe, expect, it } from 'vitest'
 import {
   BIN_SHAPE,
   binMassConcentration,
-  binMoment,
   binNumberConcentration,
   binPowerIntegral,
   binsFromMeasurement,
