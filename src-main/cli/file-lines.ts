@@ -1,5 +1,4 @@
 // The lines of `motebench series`'s sizer file, read as a stream (see fileLines and fileLinesFromBytes).
-import { isAscii } from 'node:buffer'
 import { StringDecoder } from 'node:string_decoder'
 
 /**
@@ -65,16 +64,24 @@ export async function* fileLines(stream: AsyncIterable<string>): AsyncGenerator<
   if (last.length > 0) yield last
 }
 
+/** Lines of one chunk read, as bytes: line i is bytes[starts[i], ends[i]) (UTF-8, without its line break). */
+export interface ByteLines {
+  bytes: Buffer
+  starts: number[]
+  ends: number[]
+}
+
 /**
- * The lines of a byte stream of UTF-8 text in batches (one per chunk read), split as fileLines splits them. While no
- * carriage return has been seen, lines are cut at each \n byte (a \n byte is never inside a multi-byte character)
- * and each line is decoded on its own: as Latin-1 (one byte a character, the quickest string to make and to read)
- * when its chunk is all ASCII, else as UTF-8. No string of the whole chunk is made. From the first carriage return
- * on, the rest is decoded as a stream and split by TextLines. (Decoding each 256 kB chunk to a string and slicing
- * the lines from it made every later read of a line's characters slower: 15 MB split and its numbers read took
- * 600 ms against 300 ms this way, in a micro-benchmark at a load of 9.)
+ * The lines of a byte stream of UTF-8 text in batches (one or two per chunk read), split as fileLines splits them.
+ * While no carriage return has been seen, lines are cut at each \n byte (a \n byte is never inside a multi-byte
+ * character) and handed on as bytes (ByteLines: the sizer reader reads a plain row from its bytes, and the rest
+ * decoded as UTF-8); the line that straddles two chunks comes joined and decoded, as a batch of its own. No string of
+ * the whole chunk is made. From the first carriage return on, the rest is decoded as a stream and split by
+ * TextLines. (Decoding each 256 kB chunk to a string and slicing the lines from it made every later read of a line's
+ * characters slower: 15 MB split and its numbers read took 600 ms against 300 ms from a Latin-1 string per line,
+ * and 170–200 ms from the bytes, in a micro-benchmark at a load of 9.)
  */
-export async function* fileLinesFromBytes(stream: AsyncIterable<Buffer>): AsyncGenerator<string[]> {
+export async function* fileLinesFromBytes(stream: AsyncIterable<Buffer>): AsyncGenerator<string[] | ByteLines> {
   let rest: Buffer | undefined
   let text: TextLines | undefined
   let decoder: StringDecoder | undefined
@@ -90,28 +97,28 @@ export async function* fileLinesFromBytes(stream: AsyncIterable<Buffer>): AsyncG
       if (lines.length > 0) yield lines
       continue
     }
-    const lines: string[] = []
-    const ascii = isAscii(chunk)
     let end = chunk.indexOf(10)
     let at = 0
-    if (end >= 0) {
-      if (rest) {
-        const line = Buffer.concat([rest, chunk.subarray(0, end)])
-        lines.push(line.toString(isAscii(line) ? 'latin1' : 'utf8'))
-        rest = undefined
-      } else lines.push(chunk.toString(ascii ? 'latin1' : 'utf8', 0, end))
+    if (end >= 0 && rest) {
+      yield [Buffer.concat([rest, chunk.subarray(0, end)]).toString('utf8')]
+      rest = undefined
       at = end + 1
-      for (end = chunk.indexOf(10, at); end >= 0; end = chunk.indexOf(10, at)) {
-        lines.push(chunk.toString(ascii ? 'latin1' : 'utf8', at, end))
+      end = chunk.indexOf(10, at)
+    }
+    if (end >= 0) {
+      const lines: ByteLines = { bytes: chunk, starts: [], ends: [] }
+      for (; end >= 0; end = chunk.indexOf(10, at)) {
+        lines.starts.push(at)
+        lines.ends.push(end)
         at = end + 1
       }
+      yield lines
     }
     if (at < chunk.length) rest = rest ? Buffer.concat([rest, chunk.subarray(at)]) : Buffer.from(chunk.subarray(at))
-    if (lines.length > 0) yield lines
   }
   if (text) {
     const lines = text.push(decoder!.end())
     lines.push(...text.end())
     if (lines.length > 0) yield lines
-  } else if (rest && rest.length > 0) yield [rest.toString(isAscii(rest) ? 'latin1' : 'utf8')]
+  } else if (rest && rest.length > 0) yield [rest.toString('utf8')]
 }

@@ -59,7 +59,10 @@ describe('fileLines', () => {
       const pieces: Buffer[] = []
       for (let i = 0; i < bytes.length; i += size) pieces.push(bytes.subarray(i, i + size))
       const fromBytes: string[] = []
-      for await (const batch of fileLinesFromBytes(Readable.from(pieces))) fromBytes.push(...batch)
+      for await (const batch of fileLinesFromBytes(Readable.from(pieces))) {
+        if (Array.isArray(batch)) fromBytes.push(...batch)
+        else for (let i = 0; i < batch.starts.length; i++) fromBytes.push(batch.bytes.toString('utf8', batch.starts[i], batch.ends[i]))
+      }
       expect(fromBytes, `byte chunks of ${size}`).toEqual(viaReadline)
     }
     return viaReadline
