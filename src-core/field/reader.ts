@@ -25,7 +25,8 @@
  * an InputError at the first. `negatives: 'zero'` sets negative values to 0 instead, and counts them.
  *
  * `createSizerReader` takes the file one line at a time and hands each time-rows record on as it is read, so
- * memory stays flat however long the file. Only while the order of numeric dates (03/04/2024) is still unknown
+ * memory stays flat however long the file. A line may be offered as bytes (`pushBytes`): a plain row is then read
+ * without making a string of it (byte-cells.ts), anything else is left to `push`. Only while the order of numeric dates (03/04/2024) is still unknown
  * are rows held back, until a date settles it (at most MAX_HELD_ROWS).
  */
 import { InputError } from '../errors.ts'
