@@ -7,8 +7,18 @@ import Papa from 'papaparse/papaparse.js'
 
 export type Delimiter = ',' | ';' | '\t'
 
+/** A split line's cells, as the readers of a row take them (CellSplitter over text, ByteCells over bytes). */
+export interface Cells {
+  readonly count: number
+  /** The k-th cell as a string ('' beyond the last). */
+  cell(k: number): string
+  isEmpty(k: number): boolean
+  /** The k-th cell as a number in this file's decimal format, or NaN when it is not a plain number. */
+  number(k: number, decimalComma: boolean): number
+}
+
 /** Cell boundaries of one line, reused from line to line. `text` is the line (or its unquoted cells joined). */
-export class CellSplitter {
+export class CellSplitter implements Cells {
   text = ''
   count = 0
   starts = new Int32Array(256)

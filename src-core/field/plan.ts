@@ -1,7 +1,7 @@
 // Which columns of a time-rows table give the time and how they are read; the diameter unit when the file
 // leaves it unsaid but the diameters leave no doubt; reading each row's time.
 import { InputError } from '../errors.ts'
-import type { CellSplitter } from './cells.ts'
+import type { Cells, CellSplitter } from './cells.ts'
 import { SizerChoiceNeeded, toNumber } from './text.ts'
 import {
   DATE_ORDER_NAMES,
@@ -194,7 +194,7 @@ export class RowTime {
   }
 
   /** The row's time, or a problem with its column. */
-  read(cells: CellSplitter): ParsedTime | { column: number; reason: string; fix: string } {
+  read(cells: Cells): ParsedTime | { column: number; reason: string; fix: string } {
     const p = this.plan
     switch (p.kind) {
       case 'none':

@@ -25,12 +25,14 @@
  * an InputError at the first. `negatives: 'zero'` sets negative values to 0 instead, and counts them.
  *
  * `createSizerReader` takes the file one line at a time and hands each time-rows record on as it is read, so
- * memory stays flat however long the file. Only while the order of numeric dates (03/04/2024) is still unknown
+ * memory stays flat however long the file. A line may be offered as bytes (`pushBytes`): a plain row is then read
+ * without making a string of it (byte-cells.ts), anything else is left to `push`. Only while the order of numeric dates (03/04/2024) is still unknown
  * are rows held back, until a date settles it (at most MAX_HELD_ROWS).
  */
 import { InputError } from '../errors.ts'
 import type { BinsSpec } from '../study/model.ts'
-import { CellSplitter } from './cells.ts'
+import { ByteCells } from './byte-cells.ts'
+import { CellSplitter, type Cells } from './cells.ts'
 import { detect, type Detected } from './header.ts'
 import { inferDiameterUnit, RowTime } from './plan.ts'
 import { humidityProblem, humidityValue } from './humidity.ts'
@@ -73,6 +75,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
   let det: Detected | undefined
   let time: RowTime | undefined
   let splitter: CellSplitter | undefined
+  let byteCells: ByteCells | undefined
   let held: { line: number; text: string }[] | undefined
   const rejected: SizerRejection[] = []
   let rejectedCount = 0
@@ -143,12 +146,13 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     return d
   }
 
-  const timeRow = (line: number, s: CellSplitter): void => {
+  const timeRow = (line: number, s: Cells): void => {
     const h = det!.header
     const n = h.edges ? h.diameters.length - 1 : h.diameters.length
     const first = h.firstBinColumn - 1
     const comma = h.decimal === ','
-    const values = options.reuseBuffer ? (shared ??= new Array<number>(n).fill(0)) : new Array<number>(n)
+    // a packed array (new Array(n).fill(0) stays holey, which Float64Array.set copies about twice as slowly)
+    const values = options.reuseBuffer ? (shared ??= Array.from({ length: n }, () => 0)) : new Array<number>(n)
     let problems: CellProblem[] | undefined
     let negatives = 0
     const t = time!.read(s)
@@ -355,6 +359,18 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
         return
       }
       processRow(lineNo, text)
+    },
+    pushBytes(bytes: Uint8Array, start: number, end: number, at?: number): boolean {
+      // only a row of a recognised one-row-per-time table whose date order is known, and a plain line
+      if (buffer || held || det!.header.layout !== 'time-rows') return false
+      const cells = (byteCells ??= new ByteCells(det!.header.delimiter))
+      const n = cells.split(bytes, start, end)
+      if (n < 0) return false
+      lineNo = at ?? lineNo + 1
+      if (lineNo < rowsFrom || n === 0) return true
+      if (cells.firstByte(0) === 35 && !(n > 1 && cells.starts[0] + 1 === cells.ends[0])) return true // '#' comment
+      timeRow(lineNo, cells)
+      return true
     },
     end(): SizerSummary {
       flushBuffer(true)

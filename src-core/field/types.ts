@@ -124,6 +124,12 @@ export interface SizerSummary extends SizerHeader {
 export interface SizerReader {
   /** One line of the file, without its line break; `lineNo` numbers it (and the lines after it) when lines were skipped. */
   push(line: string, lineNo?: number): void
+  /**
+   * The same for a line given as bytes of UTF-8 text, bytes[start, end), read without making a string of it (a row
+   * of a recognised one-row-per-time table). False when it is not taken (the table is not recognised yet, another
+   * layout, the date order still unknown, a quote or a byte beyond ASCII): push the line as text then.
+   */
+  pushBytes(bytes: Uint8Array, start: number, end: number, lineNo?: number): boolean
   /** No more lines: reads what is left, returns the summary. Throws InputError when no table was found. */
   end(): SizerSummary
   /** Known once enough lines were seen to recognise the table. */

@@ -40,3 +40,75 @@ export function sevenDigits(v: number): string {
   }
   return String(Number(v.toPrecision(7)))
 }
+
+const DIGITS = new Uint8Array(7)
+
+/** Writes the characters of a string at `at` (codes below 256 only, else returns -1); returns the end. */
+export function writeLatin1(s: string, out: Uint8Array, at: number): number {
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i)
+    if (c > 255) return -1
+    out[at++] = c
+  }
+  return at
+}
+
+/**
+ * Writes sevenDigits(v) as ASCII bytes at `at` of `out` (which has room for 32 more) and returns where it ends: the
+ * same digits and form, without making a string (the rare values sevenDigits hands to toPrecision are written from
+ * its string).
+ */
+export function writeSevenDigits(v: number, out: Uint8Array, at: number): number {
+  if (v === 0) {
+    out[at] = 48
+    return at + 1
+  }
+  const a = v < 0 ? -v : v
+  if (a >= 1e-16 && a < 1e28) {
+    let e = Math.floor(Math.log10(a))
+    let scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]
+    if (scaled >= 1e7) (e++, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
+    else if (scaled < 1e6) (e--, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
+    const low = Math.floor(scaled)
+    const frac = scaled - low
+    if (scaled >= 1e6 && scaled < 1e7 && Math.abs(frac - 0.5) > 1e-6) {
+      let m = frac > 0.5 ? low + 1 : low
+      let n = e + 1
+      if (m === 1e7) (m = 1e6), n++
+      // the 7 digits, then without trailing zeros (k of them)
+      for (let i = 6; i >= 0; i--) {
+        const q = Math.floor(m / 10)
+        DIGITS[i] = 48 + m - q * 10
+        m = q
+      }
+      let k = 7
+      while (DIGITS[k - 1] === 48) k--
+      if (v < 0) out[at++] = 45
+      if (k <= n && n <= 21) {
+        for (let i = 0; i < k; i++) out[at++] = DIGITS[i]
+        for (let i = k; i < n; i++) out[at++] = 48
+      } else if (0 < n && n <= 21) {
+        for (let i = 0; i < n; i++) out[at++] = DIGITS[i]
+        out[at++] = 46
+        for (let i = n; i < k; i++) out[at++] = DIGITS[i]
+      } else if (-6 < n && n <= 0) {
+        out[at++] = 48
+        out[at++] = 46
+        for (let i = n; i < 0; i++) out[at++] = 48
+        for (let i = 0; i < k; i++) out[at++] = DIGITS[i]
+      } else {
+        out[at++] = DIGITS[0]
+        if (k > 1) {
+          out[at++] = 46
+          for (let i = 1; i < k; i++) out[at++] = DIGITS[i]
+        }
+        const x = n - 1
+        out[at++] = 101
+        out[at++] = x < 0 ? 45 : 43
+        at = writeLatin1(String(x < 0 ? -x : x), out, at)
+      }
+      return at
+    }
+  }
+  return writeLatin1(String(Number(v.toPrecision(7))), out, at)
+}

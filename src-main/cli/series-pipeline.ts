@@ -12,6 +12,7 @@ import type { FromWorker, ToWorker } from './workers/series-worker.ts'
 import { startCliWorker } from './workers/start.ts'
 import { takeEarly } from './workers/early.ts'
 import type { SeriesExtra } from './series-optical.ts'
+import type { ByteLines } from './file-lines.ts'
 
 /**
  * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 8,192
@@ -32,10 +33,10 @@ export interface SeriesOutput {
 
 export interface SeriesRunOptions extends SeriesSetup {
   /**
-   * The sizer file's lines (without line breaks), one at a time or in batches (fileLines gives batches of a
-   * megabyte); the iterator is taken synchronously when the run starts.
+   * The sizer file's lines (without line breaks), one at a time or in batches (of strings, or of a chunk's lines
+   * as bytes: fileLinesFromBytes); the iterator is taken synchronously when the run starts.
    */
-  lines: AsyncIterable<string | readonly string[]>
+  lines: AsyncIterable<string | readonly string[] | ByteLines>
   fileName: string
   sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout' | 'negatives' | 'dateOrder' | 'year'>
   onBadRow: 'skip' | 'stop'
@@ -120,7 +121,7 @@ function appendExtras(r: { text: string; failures: { index: number; at: number }
 export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSummary> {
   // Take the iterator before anything awaits, so a readline source buffers from its first line.
   const lineIterator = o.lines[Symbol.asyncIterator]()
-  const source: AsyncIterable<string | readonly string[]> = { [Symbol.asyncIterator]: () => lineIterator }
+  const source: AsyncIterable<string | readonly string[] | ByteLines> = { [Symbol.asyncIterator]: () => lineIterator }
   const started = performance.now()
   const setup: SeriesSetup = { sample: o.sample, userMaterials: o.userMaterials, wavelengthsNm: o.wavelengthsNm, tolerance: o.tolerance }
   const workers: { worker: Worker; inFlight: number }[] = []
@@ -299,9 +300,17 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       reader.push(line)
     }
     const last = o.shard?.lastLine ?? Infinity
+    /** A line as bytes: read from them when the reader can (a plain row), else decoded. */
+    const takeBytes = (bytes: Buffer, start: number, end: number): void => {
+      lineNo++
+      if (o.shard && lineNo < o.shard.firstLine && reader.header) reader.push('', lineNo)
+      else if (!reader.pushBytes(bytes, start, end, lineNo)) reader.push(bytes.toString('utf8', start, end), lineNo)
+    }
     for await (const item of source) {
       if (typeof item === 'string') take(item)
-      else for (const line of item) if (lineNo < last || !reader.header) take(line)
+      else if ('bytes' in item) {
+        for (let i = 0; i < item.starts.length && (lineNo < last || !reader.header); i++) takeBytes(item.bytes, item.starts[i], item.ends[i])
+      } else for (const line of item) if (lineNo < last || !reader.header) take(line)
       if (lineNo >= last && reader.header) break
       while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
       if (failure) throw failure

@@ -13,6 +13,7 @@ import {
   type UserMaterialSpec
 } from '../../src-core/index.ts'
 import { csvCell } from './common.ts'
+import { writeLatin1, writeSevenDigits } from './number-text.ts'
 
 /** What every row of a series shares: the sample (composition, humidity, layer), wavelengths and accuracy. */
 export interface SeriesSetup {
@@ -62,6 +63,7 @@ export class SeriesBlockComputer {
   private kernelError: unknown = null
   private figures = new Float64Array(0)
   private width = 0
+  private bytes = new Uint8Array(1 << 16)
 
   constructor(private readonly setup: SeriesSetup) {}
 
@@ -86,8 +88,49 @@ export class SeriesBlockComputer {
     return this.figures
   }
 
-  /** Rows `values[r·bins .. (r+1)·bins)` with their time stamps. */
+  /**
+   * Rows `values[r·bins .. (r+1)·bins)` with their time stamps. The lines are written as bytes into one reused
+   * buffer (numbers by writeSevenDigits) and made a string once per block, as Latin-1; a block with a time stamp
+   * beyond Latin-1 is written cell by cell as strings (blockAsStrings), the same text.
+   */
   block(times: readonly string[], values: Float64Array, bins: number): BlockResult {
+    let bytes = this.bytes
+    let at = 0
+    let written = 0
+    const failures: RowFailure[] = []
+    const out = this.figures
+    const width = this.width
+    for (let r = 0; r < times.length; r++) {
+      try {
+        if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
+        this.evaluate(values, r * bins, out, 0)
+      } catch (e) {
+        failures.push(failureOf(e, r, at))
+        continue
+      }
+      const time = csvCell(times[r])
+      // room for the time and every number (at most 26 characters and a comma each)
+      const need = at + time.length + 27 * width + 2
+      if (need > bytes.length) {
+        const grown = new Uint8Array(Math.max(need, 2 * bytes.length))
+        grown.set(bytes.subarray(0, at))
+        bytes = this.bytes = grown
+      }
+      at = writeLatin1(time, bytes, at)
+      if (at < 0) return this.blockAsStrings(times, values, bins)
+      for (let c = 0; c < width; c++) {
+        bytes[at++] = 44
+        const v = out[c]
+        if (Number.isFinite(v)) at = writeSevenDigits(v, bytes, at)
+      }
+      bytes[at++] = 10
+      written++
+    }
+    return { text: Buffer.from(bytes.buffer, bytes.byteOffset, at).toString('latin1'), written, failures }
+  }
+
+  /** What block gives, written as a string per cell (for time stamps beyond Latin-1). */
+  blockAsStrings(times: readonly string[], values: Float64Array, bins: number): BlockResult {
     let text = ''
     let written = 0
     const failures: RowFailure[] = []
@@ -97,8 +140,7 @@ export class SeriesBlockComputer {
         if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
         this.evaluate(values, r * bins, out, 0)
       } catch (e) {
-        if (e instanceof InputError) failures.push({ index: r, at: text.length, where: e.where, message: e.message, fix: e.fix, internal: false })
-        else failures.push({ index: r, at: text.length, where: '', message: (e as Error)?.stack ?? String(e), fix: '', internal: true })
+        failures.push(failureOf(e, r, text.length))
         continue
       }
       let line = csvCell(times[r])
@@ -108,4 +150,10 @@ export class SeriesBlockComputer {
     }
     return { text, written, failures }
   }
+}
+
+/** A row's failure: the input's (InputError) or, otherwise, a bug. */
+function failureOf(e: unknown, index: number, at: number): RowFailure {
+  if (e instanceof InputError) return { index, at, where: e.where, message: e.message, fix: e.fix, internal: false }
+  return { index, at, where: '', message: (e as Error)?.stack ?? String(e), fix: '', internal: true }
 }

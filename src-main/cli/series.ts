@@ -8,7 +8,7 @@ import { basename } from 'node:path'
 import { dryIndicesAt, resolveComposition, studyMaterials } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
-import { fileLines } from './file-lines.ts'
+import { fileLinesFromBytes } from './file-lines.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesWorkerCount } from './series-early.ts'
@@ -137,8 +137,8 @@ export async function runSeries(argv: string[]): Promise<number> {
   const target = values.out !== undefined ? await atomicFileOutput(values.out, 'series') : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
   // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
-  const stream = createReadStream(file, { encoding: 'utf8', highWaterMark: 1 << 18 })
-  const lines = fileLines(stream)
+  const stream = createReadStream(file, { highWaterMark: 1 << 18 })
+  const lines = fileLinesFromBytes(stream)
   const bar = process.stderr.isTTY ? progressBar(size, () => stream.bytesRead) : undefined
   let summary: SeriesSummary
   try {

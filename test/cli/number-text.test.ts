@@ -4,17 +4,21 @@
 import { createInterface } from 'node:readline'
 import { Readable } from 'node:stream'
 import { describe, expect, it } from 'vitest'
-import { sevenDigits } from '../../src-main/cli/number-text.ts'
-import { fileLines } from '../../src-main/cli/file-lines.ts'
+import { sevenDigits, writeSevenDigits } from '../../src-main/cli/number-text.ts'
+import { fileLines, fileLinesFromBytes } from '../../src-main/cli/file-lines.ts'
 
 const reference = (v: number) => String(Number(v.toPrecision(7)))
 
 describe('sevenDigits', () => {
-  it('writes what String(Number(v.toPrecision(7))) writes, for random doubles of every magnitude, ties and edge cases', () => {
+  it('writes what String(Number(v.toPrecision(7))) writes, for random doubles of every magnitude, ties and edge cases (as a string, and as bytes by writeSevenDigits)', () => {
     const mismatches: string[] = []
+    const bytes = new Uint8Array(64)
     const check = (v: number) => {
       const got = sevenDigits(v)
       if (got !== reference(v) && mismatches.length < 5) mismatches.push(`${v}: ${got} vs ${reference(v)}`)
+      const end = writeSevenDigits(v, bytes, 3)
+      const written = Buffer.from(bytes.subarray(3, end)).toString('latin1')
+      if (written !== reference(v) && mismatches.length < 5) mismatches.push(`${v}: ${written} (bytes) vs ${reference(v)}`)
     }
     // a fixed pseudo-random sequence (xorshift), so a failure repeats
     let x = 0x9e3779b9
@@ -50,6 +54,16 @@ describe('fileLines', () => {
       const ours: string[] = []
       for await (const batch of fileLines(Readable.from(chunks))) ours.push(...batch)
       expect(ours, `chunks of ${size}`).toEqual(viaReadline)
+      // the same from the UTF-8 bytes, cut anywhere (inside a character too)
+      const bytes = Buffer.from(text, 'utf8')
+      const pieces: Buffer[] = []
+      for (let i = 0; i < bytes.length; i += size) pieces.push(bytes.subarray(i, i + size))
+      const fromBytes: string[] = []
+      for await (const batch of fileLinesFromBytes(Readable.from(pieces))) {
+        if (Array.isArray(batch)) fromBytes.push(...batch)
+        else for (let i = 0; i < batch.starts.length; i++) fromBytes.push(batch.bytes.toString('utf8', batch.starts[i], batch.ends[i]))
+      }
+      expect(fromBytes, `byte chunks of ${size}`).toEqual(viaReadline)
     }
     return viaReadline
   }
@@ -62,5 +76,12 @@ describe('fileLines', () => {
   it('gives the same lines for a file without carriage returns (lines sliced from each chunk, joined across chunks)', async () => {
     const text = 'units: nm\n\ntime,10,20\n2024-01-01T00:00:00Z,1,2\n2024-01-01T00:01:00Z,3,4\n\nlast,5,6\n'
     expect(await sameLinesAsReadline(text, [1, 2, 3, 5, 7, 11, 1000])).toHaveLength(7)
+  })
+
+  it('gives the same lines for text beyond ASCII (a byte-order mark, µm, a carriage return after such lines)', async () => {
+    const text = '\ufeffunits: µm\ntime,0.01 µm,0.02 µm\n2024-01-01T00:00:00Z,1,2\nnoté,3,4\n2024-01-01T00:02:00Z,5,6\r\nlast ü'
+    expect(await sameLinesAsReadline(text, [1, 2, 3, 5, 7, 11, 1000])).toHaveLength(6)
+    const plain = 'a,b\nµ\n\nc'
+    expect(await sameLinesAsReadline(plain, [1, 2, 3, 100])).toHaveLength(4)
   })
 })
