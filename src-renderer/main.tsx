@@ -11,6 +11,15 @@ import { keepRecoveryCopy, offerRecovery } from './recovery.ts'
 import { blankStudy, load } from './state/actions.ts'
 import { createStore, setStore, store, type AppState } from './state/store.ts'
 import './styles.css'
+// the rest of the page's style, by part of the screen; the order is the cascade's
+import './styles/workspace.css'
+import './styles/results.css'
+import './styles/dialogs.css'
+import './styles/report.css'
+import './styles/tools.css'
+import './styles/catalogue-warnings.css'
+import './styles/fit.css'
+import './styles/record.css'
 
 function stored(key: string): string | null {
   try {
