@@ -211,8 +211,10 @@ export function growthFactorAt(dryDiameterUm: number, g: GrowthSetting): number 
   const gLo = Math.cbrt(1 + v)
   const xLo = Math.max(v / (gLo * gLo + gLo + 1), Number.MIN_VALUE)
   // Only when v underflows (Kelvin term e^(a) beyond ~1e300, D_d below ~1e-5 nm) is f(xLo) not negative;
-  // the root is then below the smallest double and the growth factor is 1 to machine precision.
-  if (!(kohler(xLo, kappa, a, lnS) < 0)) return 1
+  // the root is then below the smallest double and the growth factor is 1 to machine precision. Where v > 1e-300,
+  // f(xLo) = ln 0.5 − a·xLo/(1 + xLo) ≤ ln 0.5 but for rounding (a < 700 there, so under 1e-12): it is negative
+  // and not computed (two logarithms, a quarter of a call).
+  if (!(v > 1e-300) && !(kohler(xLo, kappa, a, lnS) < 0)) return 1
   return 1 + (newtonRoot(kappa, a, lnS, xLo, g.xHi, g.x0) ?? findRootBetween((x) => kohler(x, kappa, a, lnS), xLo, g.xHi))
 }
 

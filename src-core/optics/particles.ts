@@ -21,6 +21,7 @@ import {
   mixRefractiveIndices,
   mixtureKappa,
   refractiveIndexAt,
+  volumeAverageOfTwo,
   type ComplexRefractiveIndex,
   type GrowthSetting,
   type Material,
@@ -153,6 +154,10 @@ export function wetParticle(p: ParticleKind, d: DryIndices, gf: number, out: Wet
     if (gf3 > 1) {
       const fw = 1 - 1 / gf3
       const rule = waterRule(p)
+      if (rule === 'volume-average' && volumeAverageOfTwo(d.matrix, d.water, 1 - fw, fw, out)) {
+        out.coreRatio = 0
+        return out
+      }
       m = mixRefractiveIndices(rule === 'maxwell-garnett' ? [d.water, d.matrix] : [d.matrix, d.water], rule === 'maxwell-garnett' ? [fw, 1 - fw] : [1 - fw, fw], rule)
     }
     out.n = m.n
@@ -167,7 +172,8 @@ export function wetParticle(p: ParticleKind, d: DryIndices, gf: number, out: Wet
   let m = d.matrix
   if (water > 0) {
     const fw = water / (water + shellDry)
-    m = mixRefractiveIndices([d.matrix, d.water], [1 - fw, fw], 'volume-average')
+    if (!volumeAverageOfTwo(d.matrix, d.water, 1 - fw, fw, out)) m = mixRefractiveIndices([d.matrix, d.water], [1 - fw, fw], 'volume-average')
+    else m = out
   }
   out.n = m.n
   out.k = m.k

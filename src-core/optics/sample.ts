@@ -51,6 +51,12 @@ export interface SampleOpticsOptions {
   coarsestStep?: number
   /** Compute the thermal-infrared band optics too (optics/longwave.ts; default true). */
   longwave?: boolean
+  /**
+   * Only the figures a Monte Carlo draw reads (uncertainty/propagate.ts): the rows without their Ångström
+   * exponents, the volumes and masses, the layer depth; the PM fractions and the Ångström fit NaN, no notes and
+   * no warnings (default false).
+   */
+  brief?: boolean
 }
 
 export const DEFAULT_ANGLES_DEG: number[] = Array.from({ length: 91 }, (_, i) => 2 * i)
@@ -105,7 +111,7 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
       const w = `${where}, mode ${i + 1}${spec.name ? ` (${spec.name})` : ''}`
       const kind = kindOf(spec.composition ?? sample.composition, w)
       const mode = modeFromSpec(spec, kind.densityGcm3)
-      return { label: spec.name ?? `mode ${i + 1}`, kind, mode, segments: [modeSegment(mode, longestWavelengthUm, Math.max(FULL_TAIL, tolerance / 100))] }
+      return { label: spec.name ?? `mode ${i + 1}`, kind, mode, segments: [modeSegmentAt(mode, longestWavelengthUm, tolerance)] }
     })
   }
   const b = sample.size.bins
@@ -128,6 +134,11 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
 
 /** The share of a mode's second moment the full computation leaves out (see modeSegment). */
 const FULL_TAIL = 1e-6
+
+/** A mode's segment for an integration to `tolerance` (its tail a hundredth of it, at most the full range's). */
+function modeSegmentAt(mode: LognormalMode, longestWavelengthUm: number, tolerance: number): SizeSegment {
+  return modeSegment(mode, longestWavelengthUm, Math.max(FULL_TAIL, tolerance / 100))
+}
 
 /**
  * Beyond this size parameter Q_ext stays within about a fifth of 2 for n ≥ 1.33: by anomalous diffraction,
@@ -215,9 +226,11 @@ export { finish }
  * after each wavelength, and returns the sample's optics at the end. A caller that must stay responsive (the app's worker) can look for newer work between steps.
  */
 export function* sampleOpticsSteps(sample: Sample, study: Pick<Study, 'user_materials' | 'wavelengths_nm'>, options: SampleOpticsOptions = {}, own: Material[] = studyMaterials(study)): Generator<void, SampleOptics> {
-  const bulk = yield* sampleBulkSteps(sample, study, options, own)
+  // the populations are made once: the integration's at its tolerance, the volumes' over the full range from them
+  const setting = sampleSetting(sample, study, options, own)
+  const bulk = yield* sampleBulkSteps(sample, study, options, own, setting)
   const longwave = options.longwave === false ? undefined : yield* sampleLongwaveSteps(sample, study, { workspace: options.workspace, tolerance: options.tolerance })
-  return assembleSampleOptics(sample, study, bulk, { ...options, longwave }, own)
+  return assembleSampleOptics(sample, study, bulk, { ...options, longwave }, own, fullRangeSetting(setting, study, options.tolerance))
 }
 
 /** One wavelength's bulk optics as the size integration gives them, before the figures derived from them. */
@@ -247,6 +260,21 @@ export function sampleSetting(sample: Sample, study: Pick<Study, 'user_materials
   return { pops, cond }
 }
 
+type SampleSetting = ReturnType<typeof sampleSetting>
+
+/**
+ * The setting of assembleSampleOptics (the populations over the full range, at the default tolerance's tails) from
+ * one sampleSetting made at `tolerance` with the same humidity: the same particle kinds, modes and bins, each
+ * mode's segment made again where the tolerance cut it shorter. The same populations as sampleSetting at the
+ * default tolerance, to the bit.
+ */
+function fullRangeSetting(setting: SampleSetting, study: Pick<Study, 'wavelengths_nm'>, tolerance = DEFAULT_TOLERANCE): SampleSetting {
+  if (Math.max(FULL_TAIL, tolerance / 100) === Math.max(FULL_TAIL, DEFAULT_TOLERANCE / 100)) return setting
+  const longest = Math.max(...study.wavelengths_nm) / 1000
+  const pops = setting.pops.map((p) => (p.mode ? { ...p, segments: [modeSegmentAt(p.mode, longest, DEFAULT_TOLERANCE)] } : p))
+  return { pops, cond: setting.cond }
+}
+
 /** The wavelength whose phase function and polarisation are computed unless others are asked for: 550 nm if the study has it, else its first. */
 export function phaseFunctionWavelengthNm(wavelengthsNm: readonly number[]): number {
   return wavelengthsNm.includes(550) ? 550 : wavelengthsNm[0]
@@ -260,9 +288,10 @@ export function* sampleBulkSteps(
   sample: Sample,
   study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
   options: SampleOpticsOptions & { only?: readonly number[] } = {},
-  own: Material[] = studyMaterials(study)
+  own: Material[] = studyMaterials(study),
+  setting = sampleSetting(sample, study, options, own)
 ): Generator<void, WavelengthBulk[]> {
-  const { pops, cond } = sampleSetting(sample, study, options, own)
+  const { pops, cond } = setting
   const wavelengths = study.wavelengths_nm
   const ws = options.workspace ?? new OpticsWorkspace()
   const angularAt = options.angularWavelengthsNm ?? [phaseFunctionWavelengthNm(wavelengths)]
@@ -297,11 +326,12 @@ export function assembleSampleOptics(
   sample: Sample,
   study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
   bulk: readonly WavelengthBulk[],
-  options: Pick<SampleOpticsOptions, 'rhPercent'> & { longwave?: LongwaveOptics } = {},
-  own: Material[] = studyMaterials(study)
-): SampleOptics {
+  options: Pick<SampleOpticsOptions, 'rhPercent' | 'brief'> & { longwave?: LongwaveOptics } = {},
+  own: Material[] = studyMaterials(study),
   // the volumes (and so the mass efficiencies) come from the full range, whatever the integration's tolerance
-  const { pops, cond } = sampleSetting(sample, study, { rhPercent: options.rhPercent }, own)
+  setting = sampleSetting(sample, study, { rhPercent: options.rhPercent }, own)
+): SampleOptics {
+  const { pops, cond } = setting
   const vol = populationVolumes(pops, cond)
   const rows: WavelengthOptics[] = []
   const angular: AngularOptics[] = []
@@ -351,6 +381,7 @@ export function assembleSampleOptics(
     layerDepth = ext550 > 0 ? sample.layer.aod_550 / (ext550 * 1e-6) : 0
   }
   for (const row of rows) row.optical_depth = row.ext * 1e-6 * layerDepth
+  if (options.brief) return briefOptics(sample, rows, angular, vol, layerDepth, options.longwave)
   const wls = rows.map((r) => r.wavelength_nm)
   const aExt = localAngstromExponents(wls, rows.map((r) => r.ext))
   const aAbs = localAbsorptionExponents(wls, rows.map((r) => r.abs), rows.map((r) => r.ext))
@@ -372,6 +403,21 @@ export function assembleSampleOptics(
     `Upscatter fraction β̄ = ∫₀¹ β(μ₀) dμ₀, taken as the mean scattering angle over π (the same integral); β(μ₀) at ${UPSCATTER_COS_ZENITH.length} sun angles.`
   ]
   if (pops.some((p) => p.bins)) notes.push(BIN_SHAPE)
+  // the brief result's fields filled in, in their order
+  const out = briefOptics(sample, rows, angular, vol, layerDepth, options.longwave)
+  if (pm) {
+    out.pm1_ug_m3 = pm.pm1
+    out.pm2_5_ug_m3 = pm.pm2_5
+    out.pm10_ug_m3 = pm.pm10
+  }
+  out.angstrom_fit = angstromFit(rows)
+  out.notes = notes
+  out.warnings = opticsWarnings({ rhPercent: cond.rhPercent, kappa: Math.max(0, ...pops.map((p) => p.kind.kappa)), unsettledNm: unsettled })
+  return out
+}
+
+/** assembleSampleOptics's result with `brief` (see SampleOpticsOptions.brief). */
+function briefOptics(sample: Sample, rows: WavelengthOptics[], angular: AngularOptics[], vol: ReturnType<typeof populationVolumes>, layerDepth: number, longwave: LongwaveOptics | undefined): SampleOptics {
   return {
     name: sample.name,
     wavelengths: rows,
@@ -382,14 +428,14 @@ export function assembleSampleOptics(
     mass_ug_m3: vol.dryMass,
     wet_volume_um3_cm3: vol.wetVolume,
     wet_mass_ug_m3: vol.wetMass,
-    pm1_ug_m3: pm ? pm.pm1 : NaN,
-    pm2_5_ug_m3: pm ? pm.pm2_5 : NaN,
-    pm10_ug_m3: pm ? pm.pm10 : NaN,
-    angstrom_fit: angstromFit(rows),
+    pm1_ug_m3: NaN,
+    pm2_5_ug_m3: NaN,
+    pm10_ug_m3: NaN,
+    angstrom_fit: { ext: NaN, sca: NaN, abs: NaN },
     layer_depth_m: layerDepth,
-    ...(options.longwave ? { longwave: options.longwave } : {}),
-    notes,
-    warnings: opticsWarnings({ rhPercent: cond.rhPercent, kappa: Math.max(0, ...pops.map((p) => p.kind.kappa)), unsettledNm: unsettled })
+    ...(longwave ? { longwave } : {}),
+    notes: [],
+    warnings: []
   }
 }
 

@@ -26,6 +26,7 @@ export {
   readUncertaintySettings,
   variateQuantile,
   planUncertainty,
+  completePlan,
   drawUniforms,
   computeDraws,
   drawWorkspace,

@@ -2,7 +2,7 @@
  * Monte Carlo propagation of input uncertainty through a sample's optics at 550 nm and its forcing.
  *
  * Each draw copies the sample and the site, perturbs the uncertain inputs by their drawn variates, and
- * computes `computeSampleOptics` (550 nm only, tolerance 1e-3, no angular output) and `sampleForcing`'s figures
+ * computes `computeSampleOptics` (550 nm only, tolerance 1e-3, no angular output, only the figures a draw reads) and `sampleForcing`'s figures
  * (`sampleForcingFigures`: the same numbers without the texts a draw does not report).
  *
  * The infrared part: the band optics (20 wavelengths over 4–40 µm) are integrated once, for the unperturbed
@@ -111,8 +111,11 @@ export interface UncertaintyPlan {
   own: Material[]
   /** Latin hypercube permutations, one per input. */
   strata: Uint32Array[] | null
-  /** The unperturbed sample's optics at 550 nm with its infrared band optics (what the next two come from). */
-  nominal: SampleOptics
+  /**
+   * The unperturbed sample's optics at 550 nm (brief: the figures a draw reads) with its infrared band optics (what
+   * the next two come from); null in a plan made with `nominal` 'later' until completePlan.
+   */
+  nominal: SampleOptics | null
   /** Optics of the unperturbed sample when no input changes the optics (site inputs only). */
   fixedOptics: SampleOptics | null
   /** The unperturbed sample's infrared band optics and wet volume, which the draws scale (see the module note). */
@@ -268,9 +271,33 @@ function defaultLabel(s: UncertainInput): string {
   return `${what} (${s.apply})`
 }
 
-/** Deep copy of a plain JSON value (study documents are plain JSON). */
+/**
+ * Deep copy of a plain JSON value (study documents are plain JSON): what JSON.parse(JSON.stringify(v)) gives (keys
+ * in the same order, undefined members left out of objects and null in arrays, −0 as 0, NaN and ±Infinity as
+ * null), without the text in between (the round trip was 2 % of a draw).
+ */
 function copyJson<T>(v: T): T {
-  return JSON.parse(JSON.stringify(v)) as T
+  return copyPlain(v) as T
+}
+
+function copyPlain(v: unknown): unknown {
+  if (typeof v === 'number') return Number.isFinite(v) ? (v === 0 ? 0 : v) : null
+  if (v === null || typeof v !== 'object') return v
+  if (Array.isArray(v)) {
+    const out: unknown[] = new Array(v.length)
+    for (let i = 0; i < v.length; i++) out[i] = skippedByJson(v[i]) ? null : copyPlain(v[i])
+    return out
+  }
+  const out: Record<string, unknown> = {}
+  for (const k of Object.keys(v)) {
+    const x = (v as Record<string, unknown>)[k]
+    if (!skippedByJson(x)) out[k] = copyPlain(x)
+  }
+  return out
+}
+
+function skippedByJson(x: unknown): boolean {
+  return x === undefined || typeof x === 'function' || typeof x === 'symbol'
 }
 
 /** Every composition of a sample: the sample's, then each mode's own (null where a mode has none). */
@@ -478,9 +505,10 @@ function spreadSigmas(values: readonly number[], spread: readonly number[], divi
  * Prepares a run for one sample of a study: its uncertain inputs (the study's settings for that sample plus
  * the site's, unless `options.inputs` replaces them) and the run settings (options override the document).
  * `nominal`, the `nominal` of a plan made from the same study, sample and options (a worker thread is sent
- * the main thread's), is used instead of computing the unperturbed sample's optics again.
+ * the main thread's), is used instead of computing the unperturbed sample's optics again; 'later' leaves them to
+ * completePlan (computeDraws can start without them, see there).
  */
-export function planUncertainty(study: Study, sampleName: string, options: UncertaintyRunOptions = {}, nominal?: SampleOptics): UncertaintyPlan {
+export function planUncertainty(study: Study, sampleName: string, options: UncertaintyRunOptions = {}, nominal?: SampleOptics | 'later'): UncertaintyPlan {
   const settings = readUncertaintySettings(study.uncertainty)
   const sample = study.samples.find((s) => s.name === sampleName)
   if (!sample) throw new InputError('uncertainty: sample', `the study has no sample "${sampleName}"`, `Use one of: ${study.samples.map((s) => `"${s.name}"`).join(', ')}.`)
@@ -513,13 +541,28 @@ export function planUncertainty(study: Study, sampleName: string, options: Uncer
   const plan: UncertaintyPlan = {
     sample, site: study.site, study: { user_materials: study.user_materials }, inputs, draws, seed, sampling, precision, minDraws,
     marginWm2: study.verdict_margin_w_m2 ?? DEFAULT_VERDICT_MARGIN_WM2, own, strata,
-    nominal: nominal ?? nominalOptics({ study: { user_materials: study.user_materials }, own }, copyJson(sample), new OpticsWorkspace()),
-    fixedOptics: null, longwaveBase: null,
+    nominal: null, fixedOptics: null, longwaveBase: null,
     ownContexts: inputs.some((r) => OWN_CONTEXT_QUANTITIES.includes(r.spec.quantity))
   }
-  if (inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))) plan.fixedOptics = plan.nominal
-  else if (plan.nominal.longwave) plan.longwaveBase = { optics: plan.nominal.longwave, wetVolume: plan.nominal.wet_volume_um3_cm3 }
+  if (nominal !== 'later') completePlan(plan, nominal)
   return plan
+}
+
+/** True when every input is a site quantity (the draws then share the unperturbed sample's optics). */
+function siteOnly(plan: Pick<UncertaintyPlan, 'inputs'>): boolean {
+  return plan.inputs.every((r) => SITE_QUANTITIES.includes(r.spec.quantity))
+}
+
+/**
+ * Gives a plan its unperturbed sample's optics (`nominal`, or computed here) and what the draws take from them;
+ * nothing where it has them already.
+ */
+export function completePlan(plan: UncertaintyPlan, nominal?: SampleOptics): void {
+  if (plan.nominal) return
+  const n = nominal ?? nominalOptics(plan, copyJson(plan.sample), new OpticsWorkspace())
+  plan.nominal = n
+  if (siteOnly(plan)) plan.fixedOptics = n
+  else if (n.longwave) plan.longwaveBase = { optics: n.longwave, wetVolume: n.wet_volume_um3_cm3 }
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -568,7 +611,7 @@ function nominalOptics(plan: Pick<UncertaintyPlan, 'study' | 'own'>, sample: Sam
   return computeSampleOptics(
     sample,
     { wavelengths_nm: [UNCERTAINTY_WAVELENGTH_NM], user_materials: plan.study.user_materials },
-    { tolerance: UNCERTAINTY_TOLERANCE, angularWavelengthsNm: [], workspace: ws },
+    { tolerance: UNCERTAINTY_TOLERANCE, angularWavelengthsNm: [], workspace: ws, brief: true },
     perturbedMaterials(plan, new Map())
   )
 }
@@ -577,12 +620,21 @@ function nominalOptics(plan: Pick<UncertaintyPlan, 'study' | 'own'>, sample: Sam
 function drawOptics(plan: UncertaintyPlan, sample: Sample, index: DrawState['index'], ws: OpticsWorkspace): SampleOptics {
   const base = plan.longwaveBase
   if (!base) return nominalOptics(plan, sample, ws)
-  const optics = computeSampleOptics(
+  return withLongwave(base, sunlightOptics(plan, sample, index, ws))
+}
+
+/** A draw's optics at 550 nm without the infrared part. */
+function sunlightOptics(plan: UncertaintyPlan, sample: Sample, index: DrawState['index'], ws: OpticsWorkspace): SampleOptics {
+  return computeSampleOptics(
     sample,
     { wavelengths_nm: [UNCERTAINTY_WAVELENGTH_NM], user_materials: plan.study.user_materials },
-    { tolerance: UNCERTAINTY_TOLERANCE, angularWavelengthsNm: [], workspace: ws, longwave: false },
+    { tolerance: UNCERTAINTY_TOLERANCE, angularWavelengthsNm: [], workspace: ws, longwave: false, brief: true },
     perturbedMaterials(plan, index)
   )
+}
+
+/** A draw's optics given its infrared band optics: the unperturbed sample's scaled by the wet volumes' ratio. */
+function withLongwave(base: NonNullable<UncertaintyPlan['longwaveBase']>, optics: SampleOptics): SampleOptics {
   const f = base.wetVolume > 0 ? optics.wet_volume_um3_cm3 / base.wetVolume : 0
   optics.longwave = base.optics.withheld
     ? base.optics
@@ -621,8 +673,14 @@ export function drawUniforms(plan: Pick<UncertaintyPlan, 'seed' | 'draws' | 'str
  * Computes draws start..end−1 (end exclusive) of a plan. Deterministic: the same plan and draw indices give
  * the same numbers on any worker. `keepGoing` is asked before each draw; false stops the block early
  * (its `count` then says how many were made).
+ *
+ * A plan made without its unperturbed optics (planUncertainty's 'later') gets them from `nominalFrom` (asked before
+ * each draw, with `wait` false, and with `wait` true when the block cannot go on without them: it must then return
+ * them), or computes them itself without it. Until they come, each draw's sunlight optics are computed and its
+ * forcing, which needs the infrared part scaled from them, waits: a worker thread need not wait for the main
+ * thread's first computation to start drawing. The same numbers either way.
  */
-export function computeDraws(plan: UncertaintyPlan, start: number, end: number, workspace = drawWorkspace(), keepGoing?: () => boolean): DrawBlock {
+export function computeDraws(plan: UncertaintyPlan, start: number, end: number, workspace = drawWorkspace(), keepGoing?: () => boolean, nominalFrom?: (wait: boolean) => SampleOptics | null): DrawBlock {
   if (!(Number.isInteger(start) && Number.isInteger(end) && start >= 0 && end >= start && end <= plan.draws)) {
     throw new InputError('uncertainty: draws', `draws ${start} to ${end} are not within 0 to ${plan.draws}`, 'Ask for draws inside the plan.')
   }
@@ -630,9 +688,27 @@ export function computeDraws(plan: UncertaintyPlan, start: number, end: number, 
   const inputs = new Float64Array((end - start) * nIn)
   const outputs = new Float64Array((end - start) * N_OUT)
   const u = new Float64Array(nIn)
+  /** Draws whose forcing waits for the plan's unperturbed optics: their sunlight optics, site and place. */
+  const waiting: { optics: SampleOptics; site: Site; at: number }[] = []
+  const finishDraw = (optics: SampleOptics, site: Site, at: number) => recordFigures(optics, sampleForcingFigures(optics, site), outputs, at)
+  const awaitNominal = (wait: boolean) => {
+    if (!nominalFrom) completePlan(plan)
+    else {
+      const n = nominalFrom(wait)
+      if (n) completePlan(plan, n)
+      else if (wait) throw new Error('computeDraws: nominalFrom(true) gave no optics')
+    }
+    if (!plan.nominal) return
+    const base = plan.longwaveBase
+    if (waiting.length && !base) throw new Error('computeDraws: draws wait for an infrared part the plan does not have')
+    for (const w of waiting.splice(0)) finishDraw(withLongwave(base!, w.optics), w.site, w.at)
+  }
+  // without the plan's optics only draws that perturb the sample can start (the others use those optics)
+  if (!plan.nominal) awaitNominal(!nominalFrom || siteOnly(plan))
   let done = 0
   for (let i = start; i < end; i++) {
     if (keepGoing && !keepGoing()) break
+    if (!plan.nominal) awaitNominal(false)
     drawUniforms(plan, i, nIn, u)
     const state: DrawState = { sample: plan.fixedOptics ? plan.sample : copyJson(plan.sample), site: { ...plan.site }, index: new Map() }
     for (let j = 0; j < nIn; j++) {
@@ -640,14 +716,14 @@ export function computeDraws(plan: UncertaintyPlan, start: number, end: number, 
       inputs[done * nIn + j] = v
       plan.inputs[j].apply(state, v, i)
     }
-    const optics = plan.fixedOptics ?? drawOptics(plan, state.sample, state.index, workspace)
-    const forcing = sampleForcingFigures(optics, state.site)
-    recordFigures(optics, forcing, outputs, done * N_OUT)
+    if (plan.nominal) finishDraw(plan.fixedOptics ?? drawOptics(plan, state.sample, state.index, workspace), state.site, done * N_OUT)
+    else waiting.push({ optics: sunlightOptics(plan, state.sample, state.index, workspace), site: state.site, at: done * N_OUT })
     // this draw's nodes will not serve another: their tables serve the next draw (a result does not depend on
     // which table holds its nodes: the output is the same byte for byte, test/cli/uncertainty-regression.test.ts)
     if (plan.ownContexts) workspace.nodes.recycle()
     done++
   }
+  if (waiting.length) awaitNominal(true)
   return { start, count: done, inputs: inputs.subarray(0, done * nIn), outputs: outputs.subarray(0, done * N_OUT) }
 }
 
@@ -745,6 +821,7 @@ export interface UncertaintyResult {
 
 /** The plain calculation of the plan's sample (no perturbation) at the run's settings. */
 export function centralFigures(plan: UncertaintyPlan, workspace = drawWorkspace()): Float64Array {
+  completePlan(plan)
   const optics = plan.fixedOptics ?? drawOptics(plan, plan.sample, new Map(), workspace)
   const out = new Float64Array(N_OUT)
   recordFigures(optics, sampleForcingFigures(optics, plan.site), out, 0)

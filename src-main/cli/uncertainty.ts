@@ -5,6 +5,7 @@ import { basename } from 'node:path'
 import type { Worker } from 'node:worker_threads'
 import {
   centralFigures,
+  completePlan,
   computeDraws,
   earlyStopPoint,
   drawWorkspace,
@@ -170,6 +171,7 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
   const blockEnds = new Int32Array(2 * chunks.length)
   chunks.forEach(([s, e], b) => blockEnds.set([s, e], 2 * b))
   const next = new Int32Array(new SharedArrayBuffer(4))
+  const arrived = new Int32Array(new SharedArrayBuffer(4))
   const take = (): [number, number] | null => {
     const b = Atomics.add(next, 0, 1)
     return b < chunks.length ? chunks[b] : null
@@ -213,7 +215,20 @@ export async function drawInWorkers(plan: UncertaintyPlan, study: Study, sampleN
       w.on('exit', (code) => {
         if (!finished && code !== 0) finish(new Error(`uncertainty worker stopped with exit code ${code}`))
       })
-      w.postMessage({ type: 'plan', study, sampleName, options, nominal: plan.nominal, blocks: blockEnds, next } satisfies ToUncertaintyWorker)
+      w.postMessage({ type: 'plan', study, sampleName, options, nominal: plan.nominal, blocks: blockEnds, next, arrived } satisfies ToUncertaintyWorker)
+    }
+    // A plan made without the unperturbed sample's optics (planUncertainty's 'later'): they are computed here while
+    // the workers draw (their draws' forcing waits for them), then sent.
+    if (!plan.nominal) {
+      try {
+        completePlan(plan)
+      } catch (e) {
+        finish(e)
+        return
+      }
+      for (const w of workers) w.postMessage({ type: 'nominal', nominal: plan.nominal! } satisfies ToUncertaintyWorker)
+      Atomics.store(arrived, 0, 1)
+      Atomics.notify(arrived, 0)
     }
     // This thread works too, one block at a time, yielding between blocks for messages and Ctrl-C.
     const ws = drawWorkspace()
@@ -257,7 +272,8 @@ export async function runUncertaintyCommand(argv: string[]): Promise<number> {
   const shard = readShard(values.shard, 'uncertainty')
   if (values.out !== undefined && !shard) throw new UsageError('uncertainty: --out is for the draws of a --shard K/N; the report goes to standard output (--save-draws FILE keeps every draw)')
   const sharded = shard !== undefined || values['save-draws'] !== undefined || values['from-draws'] !== undefined
-  const plan = planUncertainty(parsed.study, values.sample, options)
+  // the unperturbed sample's optics are left to drawInWorkers, which computes them while the workers start drawing
+  const plan = planUncertainty(parsed.study, values.sample, options, 'later')
   // the run's fingerprint: the study's contents and every option that changes a draw or the report
   const fingerprint = sharded ? await runFingerprint('uncertainty', [file], { sample: values.sample, ...options }) : ''
   if (values['from-draws'] !== undefined) {

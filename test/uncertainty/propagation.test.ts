@@ -127,6 +127,28 @@ describe('uncertainty propagation', () => {
     expect(() => mergeDrawBlocks([computeDraws(plan, 0, 5), computeDraws(plan, 6, 9)], inputs.length)).toThrow(InputError)
   })
 
+  it("draws started before the plan's unperturbed optics came are the same draws (their forcing waits for them)", () => {
+    const s = study()
+    const inputs: UncertainInput[] = [
+      { quantity: 'rh', apply: 'add', distribution: { kind: 'normal', mean: 0, sd: 4 }, bounds: { lo: -10, hi: 10, method: 'clamp' } },
+      { quantity: 'median', apply: 'factor', distribution: { kind: 'lognormal', median: 1, gsd: 1.1 } },
+      { quantity: 'surface_albedo', apply: 'set', distribution: { kind: 'uniform', lo: 0.05, hi: 0.35 } }
+    ]
+    const options = { draws: 12, seed: 8, inputs }
+    const whole = computeDraws(planUncertainty(s, SOOT, options), 0, 12)
+    const nominal = planUncertainty(s, SOOT, options).nominal!
+    // the optics arrive before the fifth draw, or only when the block asks for them with wait
+    for (const after of [4, Infinity]) {
+      const later = planUncertainty(s, SOOT, options, 'later')
+      expect(later.nominal).toBeNull()
+      let asked = 0
+      const block = computeDraws(later, 0, 12, undefined, undefined, (wait) => (wait || ++asked > after ? nominal : null))
+      expect(Array.from(block.outputs)).toEqual(Array.from(whole.outputs))
+    }
+    // without a source the block computes them itself
+    expect(Array.from(computeDraws(planUncertainty(s, SOOT, options, 'later'), 0, 12).outputs)).toEqual(Array.from(whole.outputs))
+  })
+
   it('Latin hypercube: each of the N strata of every input gets exactly one draw (McKay et al. 1979)', () => {
     const s = study()
     const n = 64
