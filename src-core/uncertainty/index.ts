@@ -15,16 +15,15 @@ export {
   spearmanRankCorrelation
 } from './stats.ts'
 export type { Histogram, FigureSummary, ProbabilityEstimate } from './stats.ts'
-export { UNCERTAIN_QUANTITIES, SITE_QUANTITIES, uncertaintySettingsSchema } from './settings.ts'
+export { UNCERTAIN_QUANTITIES, SITE_QUANTITIES, UNCERTAINTY_WAVELENGTH_NM, uncertaintySettingsSchema } from './settings.ts'
 export type { UncertainDistribution, UncertainBounds, UncertainQuantity, UncertainInput, UncertaintySampleSettings, UncertaintySettings } from './settings.ts'
+export { variateQuantile } from './inputs.ts'
 export {
-  UNCERTAINTY_WAVELENGTH_NM,
   UNCERTAINTY_TOLERANCE,
   UNCERTAINTY_CHECK_EVERY,
   UNCERTAINTY_FIGURES,
   UNCERTAINTY_VERDICT_FIGURE,
   readUncertaintySettings,
-  variateQuantile,
   planUncertainty,
   completePlan,
   drawUniforms,
@@ -33,23 +32,8 @@ export {
   UNCERTAINTY_NODE_LIMIT,
   mergeDrawBlocks,
   drawColumn,
-  earlyStopPoint,
-  truncateBlock,
-  centralFigures,
-  summarizeDraws,
-  runUncertainty
+  earlyStopPoint
 } from './propagate.ts'
-export type {
-  UncertaintyFigureKey,
-  UncertaintyRunOptions,
-  ResolvedInput,
-  DrawState,
-  UncertaintyPlan,
-  DrawBlock,
-  UncertaintyStatus,
-  UncertaintyFigureResult,
-  UncertaintyInputResult,
-  SensitivityEntry,
-  UncertaintyResult,
-  UncertaintyProgress
-} from './propagate.ts'
+export type { UncertaintyFigureKey, UncertaintyRunOptions, ResolvedInput, DrawState, UncertaintyPlan, DrawBlock } from './propagate.ts'
+export { truncateBlock, centralFigures, summarizeDraws, runUncertainty } from './results.ts'
+export type { UncertaintyStatus, UncertaintyFigureResult, UncertaintyInputResult, SensitivityEntry, UncertaintyResult, UncertaintyProgress } from './results.ts'

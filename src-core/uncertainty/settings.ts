@@ -16,6 +16,9 @@
 import * as z from 'zod'
 import { MAX_GSD } from '../sizes/index.ts'
 
+/** The wavelength (nm) of every figure of an uncertainty run. */
+export const UNCERTAINTY_WAVELENGTH_NM = 550
+
 /** A distribution of the drawn number (the variate): a factor, an offset or the value itself (see `apply`). */
 export type UncertainDistribution =
   | { kind: 'normal'; mean: number; sd: number }

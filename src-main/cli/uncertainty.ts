@@ -16,7 +16,6 @@ import {
   stoppingStandardError,
   summarizeDraws,
   truncateBlock,
-  UNCERTAINTY_CHECK_EVERY,
   UNCERTAINTY_FIGURES,
   UNCERTAINTY_VERDICT_FIGURE,
   type DrawBlock,
