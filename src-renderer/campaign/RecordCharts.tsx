@@ -6,7 +6,7 @@ import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
 import { bevelJoins } from '../charts/bevelJoins.ts'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
-import { recordSeries, type CampaignRecord, type RecordSeries } from '../../src-core/index.ts'
+import { recordColumns, recordSeries, type CampaignRecord, type RecordColumns, type RecordSeries } from '../../src-core/index.ts'
 import { themedAxis } from '../charts/axis.ts'
 import { lineStyle, type Theme } from '../charts/palette.ts'
 import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
@@ -28,7 +28,7 @@ const SETTLE_MS = 200
 
 export function RecordCharts({ record, theme }: RecordChartsProps) {
   const box = useRef<HTMLDivElement>(null)
-  const series = useMemo(() => recordSeries(record), [record])
+  const series = useMemo(() => recordColumns(record), [record])
   const list = useMemo(() => panels(record, series), [record, series])
   const range = useMemo(() => colourRange(record), [record])
   const [hover, setHover] = useState<number | null>(null)
@@ -137,7 +137,8 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       // a dense line's round joins were most of a settled chart's frame (charts/bevelJoins.ts)
       if (!p.map) bevelJoins(u.ctx)
       // the plotted data, for tests and the read-out: what this chart draws
-      ;(fig as unknown as { plotted: unknown }).plotted = { x: series.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: series.values[l.key] })) }
+      // (as recordSeries gives it, with nulls: made when it is read, not for the charts)
+      Object.defineProperty(fig, 'plotted', { get: () => { const s = plottedOf(record); return { x: s.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: s.values[l.key] })) } } })
       // what it shows now, for tests: its time range and its lines' widths
       ;(fig as unknown as { drawn: () => unknown }).drawn = () => ({ x: [u.scales.x.min, u.scales.x.max], widths: p.map ? [] : u.series.slice(1).map((s) => s.width), join: p.map ? null : u.ctx.lineJoin })
       plots.push(u)
@@ -382,7 +383,14 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
   )
 }
 
-const x0Of = (s: RecordSeries) => s.x[0] ?? 0
+const x0Of = (s: RecordColumns) => s.x[0] ?? 0
+
+/** The full series with nulls of the last record asked (what each chart's `plotted` gives). */
+let plottedFor: { record: CampaignRecord; series: RecordSeries } | null = null
+function plottedOf(record: CampaignRecord): RecordSeries {
+  if (plottedFor?.record !== record) plottedFor = { record, series: recordSeries(record) }
+  return plottedFor.series
+}
 
 /** Zoom the stack from outside (buttons, typed stretch). */
 export const zoomControls: { zoom: (fromMs: number, toMs: number) => void; whole: () => void; step: (key: string) => void } = { zoom: () => {}, whole: () => {}, step: () => {} }

@@ -1,7 +1,7 @@
 // The record's charts as panels (what each chart draws, its title and axis words) and the time and diameter
 // axes' ticks and labels (RecordCharts.tsx builds the charts from them).
 import uPlot from 'uplot'
-import type { CampaignRecord, RecordSeries, RecordSeriesName } from '../../src-core/index.ts'
+import type { CampaignRecord, RecordColumns, RecordSeriesName } from '../../src-core/index.ts'
 
 export interface PanelLine {
   key: RecordSeriesName
@@ -22,7 +22,7 @@ export interface Panel {
   map?: boolean
 }
 
-export function panels(r: CampaignRecord, s: RecordSeries): Panel[] {
+export function panels(r: CampaignRecord, s: RecordColumns): Panel[] {
   const w = r.chosenNm
   const measured = r.channels.length > 0
   const coef: PanelLine[] = [

@@ -1,6 +1,6 @@
 // The hover read-out of the record's charts: the row under the pointer and every figure of it, and the colour
 // legend's decade words.
-import { lastAtOrBelow, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
+import { lastAtOrBelow, type CampaignRecord, type RecordColumns, type RecordSeriesName } from '../../src-core/index.ts'
 import { num } from '../format.ts'
 
 export const iso = (sec: number) => new Date(Math.round(sec * 1000)).toISOString().slice(0, 19) + 'Z'
@@ -14,7 +14,7 @@ export function rowNear(r: CampaignRecord, x: number | undefined): number {
 }
 
 /** The index of a record row in the charts' full series (rows are in order; breaks come between them). */
-export function indexOfRow(s: RecordSeries, row: number): number {
+export function indexOfRow(s: RecordColumns, row: number): number {
   let lo = 0
   let hi = s.row.length - 1
   while (lo < hi) {
@@ -37,10 +37,10 @@ function sup(e: number): string {
   return (e < 0 ? '⁻' : '') + String(Math.abs(e)).split('').map((d) => SUP[Number(d)]).join('')
 }
 
-export function readoutOf(r: CampaignRecord, s: RecordSeries, i: number, row: number): [string, string][] {
+export function readoutOf(r: CampaignRecord, s: RecordColumns, i: number, row: number): [string, string][] {
   const v = (k: RecordSeriesName, digits = 4) => {
     const x = s.values[k][i]
-    return x === null ? '—' : num(x, digits)
+    return x !== x ? '—' : num(x, digits)
   }
   const out: [string, string][] = [['time', r.timeText[row] || iso(s.x[i])]]
   if (!r.present[row]) {
