@@ -15,12 +15,8 @@ import { absorptionAt } from './optical.ts'
 export const RECORD_SERIES = ['ext', 'sca', 'abs', 'ssa', 'g', 'angstrom', 'number', 'mass', 'sca_meas', 'abs_meas', 'sca_ratio', 'abs_ratio'] as const
 export type RecordSeriesName = (typeof RECORD_SERIES)[number]
 
-export interface RecordSeries {
-  /** Time, s since 1970 (uPlot's time unit), one per row, with a break (null everywhere) inserted in each gap. */
-  x: number[]
-  /** Row of the record behind each x (−1 for an inserted break). */
-  row: number[]
-  values: Record<RecordSeriesName, (number | null)[]>
+/** What the charts' series tell beside their values. */
+interface SeriesMeta {
   /** The Ångström exponent's two wavelengths: the computed ones on either side of the chosen one (nm). */
   angstromPairNm: [number, number]
   /** The wavelength each measured figure is compared at, nm (NaN when there is no such instrument). */
@@ -30,7 +26,26 @@ export interface RecordSeries {
   scatteringCorrected: boolean
 }
 
-const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
+export interface RecordSeries extends SeriesMeta {
+  /** Time, s since 1970 (uPlot's time unit), one per row, with a break (null everywhere) inserted in each gap. */
+  x: number[]
+  /** Row of the record behind each x (−1 for an inserted break). */
+  row: number[]
+  values: Record<RecordSeriesName, (number | null)[]>
+}
+
+/**
+ * The charts' series in typed arrays (what the app's charts keep: a year's 12 series of numbers and nulls were
+ * 1.2 million values boxed one by one): the same points as `recordSeries`, NaN where it gives null.
+ */
+export interface RecordColumns extends SeriesMeta {
+  x: Float64Array
+  row: Int32Array
+  values: Record<RecordSeriesName, Float64Array>
+}
+
+/** A figure as the charts take it: NaN when it is not a finite number (no value to draw). */
+const finite = (v: number): number => (Number.isFinite(v) ? v : NaN)
 
 /**
  * The charts' series over rows [from, to) (default all). The Ångström exponent of extinction is taken between the
@@ -43,6 +58,21 @@ const finite = (v: number): number | null => (Number.isFinite(v) ? v : null)
  * ratio are the corrected ones (`sca_meas_corr_…`, as `series --truncation` writes them).
  */
 export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): RecordSeries {
+  const c = recordColumns(r, from, to)
+  const nulls = (v: Float64Array) => Array.from(v, (y) => (y === y ? y : null))
+  return {
+    x: Array.from(c.x),
+    row: Array.from(c.row),
+    values: Object.fromEntries(RECORD_SERIES.map((k) => [k, nulls(c.values[k])])) as RecordSeries['values'],
+    angstromPairNm: c.angstromPairNm,
+    scatteringAtNm: c.scatteringAtNm,
+    absorptionAtNm: c.absorptionAtNm,
+    scatteringCorrected: c.scatteringCorrected
+  }
+}
+
+/** `recordSeries` in typed arrays: the same points and figures, NaN for null. */
+export function recordColumns(r: CampaignRecord, from = 0, to = r.times.length): RecordColumns {
   const col = (name: string) => r.columns.indexOf(name)
   const w = r.chosenNm
   const iExt = col(`ext_${w}nm_Mm-1`)
@@ -64,39 +94,46 @@ export function recordSeries(r: CampaignRecord, from = 0, to = r.times.length): 
   const absVals = new Float64Array(absCh.length)
   const width = r.columns.length
   const nc = r.channels.length
-  const out: RecordSeries = { x: [], row: [], values: Object.fromEntries(RECORD_SERIES.map((k) => [k, []])) as unknown as RecordSeries['values'], angstromPairNm: pair, scatteringAtNm: nearest?.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN, scatteringCorrected: iScaCorr >= 0 }
-  const push = (t: number, row: number) => {
-    out.x.push(t / 1000)
-    out.row.push(row)
-    const v = out.values
-    if (row < 0 || !r.present[row]) {
-      for (const k of RECORD_SERIES) v[k].push(null)
-      return
-    }
-    const c = row * width
-    v.ext.push(finite(r.cells[c + iExt]))
-    v.sca.push(finite(r.cells[c + iSca]))
-    v.abs.push(finite(r.cells[c + iAbs]))
-    v.ssa.push(finite(r.cells[c + iSsa]))
-    v.g.push(finite(r.cells[c + iG]))
-    v.angstrom.push(finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1])))
-    v.number.push(finite(r.cells[c + iN]))
-    v.mass.push(finite(r.cells[c + iM]))
-    const sm = iScaCorr >= 0 ? r.cells[c + iScaCorr] : nearest ? r.measured[row * nc + nearest.index] : NaN
-    v.sca_meas.push(finite(sm))
-    v.sca_ratio.push(sm > 0 ? finite(r.cells[c + iScaAt] / sm) : null)
-    for (let j = 0; j < absCh.length; j++) absVals[j] = r.measured[row * nc + absCh[j].i]
-    const am = absCh.length > 0 ? absorptionAt(w, absWl, absVals) : NaN
-    v.abs_meas.push(finite(am))
-    v.abs_ratio.push(am > 0 ? finite(r.cells[c + iAbs] / am) : null)
-  }
   const lo = Math.max(0, from)
   const hi = Math.min(r.times.length, to)
+  // the points: the rows and a break in each gap between them
+  let n = Math.max(0, hi - lo)
+  for (let k = lo + 1; k < hi; k++) if (r.times[k] - r.times[k - 1] > 1.5 * r.intervalMs) n++
+  const x = new Float64Array(n)
+  const rowOf = new Int32Array(n)
+  const values = Object.fromEntries(RECORD_SERIES.map((k) => [k, new Float64Array(n).fill(NaN)])) as RecordColumns['values']
+  const { ext, sca, abs, ssa, g, angstrom, number, mass, sca_meas, abs_meas, sca_ratio, abs_ratio } = values
+  let p = 0
   for (let k = lo; k < hi; k++) {
-    if (k > lo && r.times[k] - r.times[k - 1] > 1.5 * r.intervalMs) push((r.times[k - 1] + r.times[k]) / 2, -1)
-    push(r.times[k], k)
+    if (k > lo && r.times[k] - r.times[k - 1] > 1.5 * r.intervalMs) {
+      x[p] = (r.times[k - 1] + r.times[k]) / 2 / 1000
+      rowOf[p++] = -1
+    }
+    x[p] = r.times[k] / 1000
+    rowOf[p] = k
+    if (!r.present[k]) {
+      p++
+      continue
+    }
+    const c = k * width
+    ext[p] = finite(r.cells[c + iExt])
+    sca[p] = finite(r.cells[c + iSca])
+    abs[p] = finite(r.cells[c + iAbs])
+    ssa[p] = finite(r.cells[c + iSsa])
+    g[p] = finite(r.cells[c + iG])
+    angstrom[p] = finite(angstromExponent(r.cells[c + iLo], pair[0], r.cells[c + iHi], pair[1]))
+    number[p] = finite(r.cells[c + iN])
+    mass[p] = finite(r.cells[c + iM])
+    const sm = iScaCorr >= 0 ? r.cells[c + iScaCorr] : nearest ? r.measured[k * nc + nearest.index] : NaN
+    sca_meas[p] = finite(sm)
+    if (sm > 0) sca_ratio[p] = finite(r.cells[c + iScaAt] / sm)
+    for (let j = 0; j < absCh.length; j++) absVals[j] = r.measured[k * nc + absCh[j].i]
+    const am = absCh.length > 0 ? absorptionAt(w, absWl, absVals) : NaN
+    abs_meas[p] = finite(am)
+    if (am > 0) abs_ratio[p] = finite(r.cells[c + iAbs] / am)
+    p++
   }
-  return out
+  return { x, row: rowOf, values, angstromPairNm: pair, scatteringAtNm: nearest?.wavelengthNm ?? NaN, absorptionAtNm: absCh.length > 0 ? w : NaN, scatteringCorrected: iScaCorr >= 0 }
 }
 
 /** The rows whose start lies in [fromMs, toMs] (first and last index; last < first when none). */

@@ -147,6 +147,8 @@ export {
   RECORD_SERIES,
   type RecordSeriesName,
   type RecordSeries,
+  type RecordColumns,
+  recordColumns,
   type StretchSample,
   recordSeries,
   rowsIn,

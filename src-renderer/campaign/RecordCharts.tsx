@@ -6,108 +6,29 @@ import { useEffect, useMemo, useRef, useState } from 'preact/hooks'
 import { bevelJoins } from '../charts/bevelJoins.ts'
 import uPlot from 'uplot'
 import 'uplot/dist/uPlot.min.css'
-import { lastAtOrBelow, recordSeries, type CampaignRecord, type RecordSeries, type RecordSeriesName } from '../../src-core/index.ts'
+import { recordColumns, recordSeries, type CampaignRecord, type RecordColumns, type RecordSeries } from '../../src-core/index.ts'
 import { themedAxis } from '../charts/axis.ts'
 import { lineStyle, type Theme } from '../charts/palette.ts'
-import { num } from '../format.ts'
 import { colourCss, colourRange, drawColourMap } from './colourMap.ts'
 import { decimate, envelopes, type Shown } from './decimate.ts'
+import { cssVar, decadeTicks, panels, timeLabels, tzDate, type Panel } from './panels.ts'
+import { decade, indexOfRow, readoutOf, rowNear } from './readout.ts'
+import { shownPlots } from './recordPng.ts'
 import { campaignStore, setMark, setVisible } from './session.ts'
 
-interface PanelLine {
-  key: RecordSeriesName
-  label: string
-  style: number
-  axis?: 1
-  points?: boolean
-}
-
-interface Panel {
-  name: string
-  title: string
-  yLabel: string
-  y2Label?: string
-  yLog?: boolean
-  lines: PanelLine[]
-  height: number
-  map?: boolean
-}
-
-function panels(r: CampaignRecord, s: RecordSeries): Panel[] {
-  const w = r.chosenNm
-  const measured = r.channels.length > 0
-  const coef: PanelLine[] = [
-    { key: 'ext', label: `σext ${w} nm`, style: 0 },
-    { key: 'sca', label: `σsca ${w} nm`, style: 1 },
-    { key: 'abs', label: `σabs ${w} nm`, style: 2 }
-  ]
-  if (Number.isFinite(s.scatteringAtNm)) coef.push({ key: 'sca_meas', label: `σsca measured ${s.scatteringAtNm} nm${s.scatteringCorrected ? ', truncation-corrected' : ''}`, style: 3 })
-  if (Number.isFinite(s.absorptionAtNm)) coef.push({ key: 'abs_meas', label: `σabs measured, at ${w} nm`, style: 4 })
-  const out: Panel[] = [
-    { name: 'record-size', title: 'Size distribution dN/dlogD (cm⁻³)', yLabel: 'Diameter (µm)', yLog: true, lines: [], height: 190, map: true },
-    { name: 'record-coefficients', title: `Coefficients at ${w} nm`, yLabel: 'Mm⁻¹', lines: coef, height: 170 }
-  ]
-  if (measured) {
-    const ratio: PanelLine[] = []
-    if (Number.isFinite(s.scatteringAtNm)) ratio.push({ key: 'sca_ratio', label: `scattering ${s.scatteringAtNm} nm`, style: 0 })
-    if (Number.isFinite(s.absorptionAtNm)) ratio.push({ key: 'abs_ratio', label: `absorption ${w} nm`, style: 1 })
-    out.push({ name: 'record-ratio', title: 'Computed / measured', yLabel: 'ratio', lines: ratio, height: 140 })
-  }
-  out.push(
-    { name: 'record-ssa-g', title: `ω and g at ${w} nm`, yLabel: 'no unit', lines: [{ key: 'ssa', label: 'ω', style: 0 }, { key: 'g', label: 'g', style: 1 }], height: 140 },
-    { name: 'record-angstrom', title: `Ångström exponent of extinction at ${w} nm (${s.angstromPairNm[0]}–${s.angstromPairNm[1]} nm)`, yLabel: 'å', lines: [{ key: 'angstrom', label: 'å ext', style: 0 }], height: 130 },
-    { name: 'record-number-mass', title: 'Dry number and mass', yLabel: 'cm⁻³', y2Label: 'µg m⁻³', lines: [{ key: 'number', label: 'number (cm⁻³)', style: 0 }, { key: 'mass', label: 'mass (µg m⁻³)', style: 1, axis: 1 }], height: 150 }
-  )
-  return out
-}
-
-function cssVar(name: string, el: Element): string {
-  return getComputedStyle(el).getPropertyValue(name).trim() || '#000'
-}
-
-
-/** UTC time labels: the record's clock (a naive clock is shown as written). */
-const tzDate = (ts: number) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC')
-
-/**
- * Tick marks of a log diameter axis inside [lo, hi]: each decade, with 2 and 5 too over two decades or less
- * (uPlot's own log splits can loop on short ranges).
- */
-function decadeTicks(lo: number, hi: number): number[] {
-  const out: number[] = []
-  const steps = Math.log10(hi / lo) > 2 ? [1] : [1, 2, 5]
-  for (let d = Math.floor(Math.log10(lo)); d <= Math.ceil(Math.log10(hi)); d++) for (const m of steps) {
-    const v = m * 10 ** d
-    if (v >= lo && v <= hi) out.push(Number(v.toPrecision(3)))
-  }
-  return out
-}
-
-/** Time ticks in UTC: "HH:MM", with the ISO date under the first tick and under each midnight. */
-function timeLabels(_u: uPlot, splits: number[]): string[] {
-  return splits.map((s, i) => {
-    const t = new Date(Math.round(s * 1000)).toISOString()
-    const hm = t.slice(11, 16)
-    return i === 0 || hm === '00:00' ? `${hm}\n${t.slice(0, 10)}` : hm
-  })
-}
-
-const iso = (sec: number) => new Date(Math.round(sec * 1000)).toISOString().slice(0, 19) + 'Z'
+export { recordPng } from './recordPng.ts'
 
 export interface RecordChartsProps {
   record: CampaignRecord
   theme: Theme
 }
 
-/** The plots of the stack, for the PNG export (`settle` draws any chart still drawn as during a gesture). */
-export const shownPlots: { plots: uPlot[]; titles: string[]; settle: () => void } = { plots: [], titles: [], settle: () => {} }
-
 /** A zoom or pan gesture is over when no other came for this long (ms). */
 const SETTLE_MS = 200
 
 export function RecordCharts({ record, theme }: RecordChartsProps) {
   const box = useRef<HTMLDivElement>(null)
-  const series = useMemo(() => recordSeries(record), [record])
+  const series = useMemo(() => recordColumns(record), [record])
   const list = useMemo(() => panels(record, series), [record, series])
   const range = useMemo(() => colourRange(record), [record])
   const [hover, setHover] = useState<number | null>(null)
@@ -216,7 +137,8 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
       // a dense line's round joins were most of a settled chart's frame (charts/bevelJoins.ts)
       if (!p.map) bevelJoins(u.ctx)
       // the plotted data, for tests and the read-out: what this chart draws
-      ;(fig as unknown as { plotted: unknown }).plotted = { x: series.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: series.values[l.key] })) }
+      // (as recordSeries gives it, with nulls: made when it is read, not for the charts)
+      Object.defineProperty(fig, 'plotted', { get: () => { const s = plottedOf(record); return { x: s.x, series: p.map ? [] : p.lines.map((l) => ({ label: l.label, values: s.values[l.key] })) } } })
       // what it shows now, for tests: its time range and its lines' widths
       ;(fig as unknown as { drawn: () => unknown }).drawn = () => ({ x: [u.scales.x.min, u.scales.x.max], widths: p.map ? [] : u.series.slice(1).map((s) => s.width), join: p.map ? null : u.ctx.lineJoin })
       plots.push(u)
@@ -461,92 +383,14 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
   )
 }
 
-const x0Of = (s: RecordSeries) => s.x[0] ?? 0
+const x0Of = (s: RecordColumns) => s.x[0] ?? 0
 
-/** The record row nearest time x (s), or −1. */
-function rowNear(r: CampaignRecord, x: number | undefined): number {
-  if (x === undefined || r.times.length === 0) return -1
-  const t = x * 1000
-  const lo = Math.max(0, lastAtOrBelow(r.times, t))
-  return lo + 1 < r.times.length && r.times[lo + 1] - t < t - r.times[lo] ? lo + 1 : lo
-}
-
-/** The index of a record row in the charts' full series (rows are in order; breaks come between them). */
-function indexOfRow(s: RecordSeries, row: number): number {
-  let lo = 0
-  let hi = s.row.length - 1
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1
-    const r = s.row[mid] < 0 ? s.row[mid + 1] ?? Infinity : s.row[mid]
-    if (r < row) lo = mid + 1
-    else hi = mid
-  }
-  return s.row[lo] === row ? lo : s.row.indexOf(row)
+/** The full series with nulls of the last record asked (what each chart's `plotted` gives). */
+let plottedFor: { record: CampaignRecord; series: RecordSeries } | null = null
+function plottedOf(record: CampaignRecord): RecordSeries {
+  if (plottedFor?.record !== record) plottedFor = { record, series: recordSeries(record) }
+  return plottedFor.series
 }
 
 /** Zoom the stack from outside (buttons, typed stretch). */
 export const zoomControls: { zoom: (fromMs: number, toMs: number) => void; whole: () => void; step: (key: string) => void } = { zoom: () => {}, whole: () => {}, step: () => {} }
-
-/** 10 to a power in half decades: 10³, 3.2×10³. */
-function decade(e: number): string {
-  const whole = Math.floor(e)
-  return e - whole > 0.25 ? `3.2×10${sup(whole)}` : `10${sup(whole)}`
-}
-
-const SUP = '⁰¹²³⁴⁵⁶⁷⁸⁹'
-function sup(e: number): string {
-  return (e < 0 ? '⁻' : '') + String(Math.abs(e)).split('').map((d) => SUP[Number(d)]).join('')
-}
-
-function readoutOf(r: CampaignRecord, s: RecordSeries, i: number, row: number): [string, string][] {
-  const v = (k: RecordSeriesName, digits = 4) => {
-    const x = s.values[k][i]
-    return x === null ? '—' : num(x, digits)
-  }
-  const out: [string, string][] = [['time', r.timeText[row] || iso(s.x[i])]]
-  if (!r.present[row]) {
-    out.push(['no distribution', r.gaps.get(row) ?? 'a gap'])
-    return out
-  }
-  const w = r.chosenNm
-  out.push([`σext ${w} nm`, `${v('ext')} Mm⁻¹`], [`σsca ${w} nm`, `${v('sca')} Mm⁻¹`], [`σabs ${w} nm`, `${v('abs')} Mm⁻¹`], ['ω', v('ssa', 3)], ['g', v('g', 3)], ['å ext', v('angstrom', 3)], ['number', `${v('number')} cm⁻³`], ['mass', `${v('mass')} µg m⁻³`])
-  if (Number.isFinite(s.scatteringAtNm)) out.push([`σsca measured ${s.scatteringAtNm} nm${s.scatteringCorrected ? ', truncation-corrected' : ''}`, `${v('sca_meas')} Mm⁻¹`], ['scattering computed/measured', v('sca_ratio', 3)])
-  if (Number.isFinite(s.absorptionAtNm)) out.push([`σabs measured (at ${w} nm)`, `${v('abs_meas')} Mm⁻¹`], ['absorption computed/measured', v('abs_ratio', 3)])
-  return out
-}
-
-/** Every chart of the stack in one PNG (titles, plots and the colour scale), theme background. */
-export function recordPng(): string | null {
-  const plots = shownPlots.plots
-  if (plots.length === 0) return null
-  shownPlots.settle()
-  const ratio = plots[0].ctx.canvas.width / plots[0].width
-  const w = plots[0].ctx.canvas.width
-  const titleH = 24 * ratio
-  const h = plots.reduce((s, u) => s + u.ctx.canvas.height + titleH, 0) + 30 * ratio
-  const out = document.createElement('canvas')
-  out.width = w
-  out.height = h
-  const ctx = out.getContext('2d') as CanvasRenderingContext2D
-  const el = plots[0].root
-  ctx.fillStyle = cssVar('--panel', el)
-  ctx.fillRect(0, 0, w, h)
-  let y = 0
-  plots.forEach((u, i) => {
-    ctx.fillStyle = cssVar('--ink', el)
-    ctx.font = `600 ${13 * ratio}px system-ui, "DejaVu Sans", sans-serif`
-    ctx.fillText(shownPlots.titles[i] ?? '', 8 * ratio, y + 17 * ratio)
-    y += titleH
-    ctx.drawImage(u.ctx.canvas, 0, y)
-    y += u.ctx.canvas.height
-  })
-  // the colour scale under the stack
-  for (let x = 0; x < 200 * ratio; x++) {
-    ctx.fillStyle = colourCss(x / (200 * ratio))
-    ctx.fillRect(8 * ratio + x, y + 8 * ratio, 1, 12 * ratio)
-  }
-  ctx.fillStyle = cssVar('--ink', el)
-  ctx.font = `${12 * ratio}px system-ui, "DejaVu Sans", sans-serif`
-  ctx.fillText('dN/dlogD (cm⁻³), log scale, low → high (see the legend in the app)', 216 * ratio, y + 19 * ratio)
-  return out.toDataURL('image/png')
-}

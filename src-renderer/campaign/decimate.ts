@@ -1,12 +1,13 @@
 // The rows a chart draws for a visible time range: all of them when they are few for its width, else per bucket of
 // rows the lowest and the highest value of each line (its envelope: no peak is lost), so a redraw costs about the
 // plot's width in points, not the record's rows. A bucket with a gap (an inserted break, or a line's value missing)
-// keeps it as null, so lines still stop across gaps.
+// keeps it as null, so lines still stop across gaps. The series come as typed arrays (recordColumns: NaN where a
+// line has no value); what is drawn is uPlot's arrays of numbers and nulls, about two points per pixel column.
 //
 // The buckets are aligned blocks of 2^k points whose envelopes are worked out once per record (`envelopes`: each
 // level halves the one below, so all levels together hold as many values as the series), so a zoom or a pan reads
 // about 2 × `buckets` blocks per line whatever the number of rows in view.
-import type { RecordSeries, RecordSeriesName } from '../../src-core/index.ts'
+import type { RecordColumns, RecordSeriesName } from '../../src-core/index.ts'
 
 export interface Shown {
   x: number[]
@@ -31,7 +32,7 @@ export interface Envelopes {
 }
 
 /** Every level of `keys`' envelopes (about one pass over each series). */
-export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): Envelopes {
+export function envelopes(s: RecordColumns, keys: readonly RecordSeriesName[]): Envelopes {
   const n = s.x.length
   const out: Envelopes = { lines: {}, breaks: [] }
   let below = new Uint8Array(n)
@@ -51,7 +52,7 @@ export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): E
       out.lines[k] = levels
       continue
     }
-    // blocks of 2 straight from the points (a point: its value as lowest and highest, or missing; a null is missing
+    // blocks of 2 straight from the points (a point: its value as lowest and highest, or missing; a NaN is missing
     // with lowest Infinity and highest −Infinity), then each level from the one below
     const m1 = out.breaks[0].length
     let min = new Float64Array(m1)
@@ -60,16 +61,18 @@ export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): E
     for (let i = 0; i < m1; i++) {
       const j = 2 * i
       const a = v[j]
-      const aMin = a === null ? Infinity : a
-      const aMax = a === null ? -Infinity : a
-      const aGap = a === null || row[j] < 0 ? 1 : 0
+      const aNone = a !== a
+      const aMin = aNone ? Infinity : a
+      const aMax = aNone ? -Infinity : a
+      const aGap = aNone || row[j] < 0 ? 1 : 0
       if (j + 1 < n) {
         const b = v[j + 1]
-        const bMin = b === null ? Infinity : b
-        const bMax = b === null ? -Infinity : b
+        const bNone = b !== b
+        const bMin = bNone ? Infinity : b
+        const bMax = bNone ? -Infinity : b
         min[i] = aMin < bMin ? aMin : bMin
         max[i] = aMax > bMax ? aMax : bMax
-        missing[i] = aGap | (b === null || row[j + 1] < 0 ? 1 : 0)
+        missing[i] = aGap | (bNone || row[j + 1] < 0 ? 1 : 0)
       } else (min[i] = aMin), (max[i] = aMax), (missing[i] = aGap)
     }
     levels.push({ min, max, missing })
@@ -101,7 +104,7 @@ export function envelopes(s: RecordSeries, keys: readonly RecordSeriesName[]): E
 }
 
 /** First index with x ≥ t (or, `after`, x > t): binary search. */
-function bound(x: readonly number[], t: number, after = false): number {
+function bound(x: Float64Array, t: number, after = false): number {
   let lo = 0
   let hi = x.length
   while (lo < hi) {
@@ -116,16 +119,16 @@ function bound(x: readonly number[], t: number, after = false): number {
  * The points of `keys` between x = lo and x = hi (one point beyond each end, so lines reach the edges), at most
  * about 2 × `buckets` of them (blocks of the smallest power of two that keeps them so).
  */
-export function decimate(s: RecordSeries, keys: readonly RecordSeriesName[], lo: number, hi: number, buckets: number, env: Envelopes): Shown {
+export function decimate(s: RecordColumns, keys: readonly RecordSeriesName[], lo: number, hi: number, buckets: number, env: Envelopes): Shown {
   const a = Math.max(0, bound(s.x, lo) - 1)
   const b = Math.min(s.x.length, bound(s.x, hi, true) + 1)
   const n = b - a
   const out: Shown = { x: [], row: [], values: {} }
   for (const k of keys) out.values[k] = []
   if (n <= 2 * buckets) {
-    out.x = s.x.slice(a, b)
-    out.row = s.row.slice(a, b)
-    for (const k of keys) out.values[k] = s.values[k].slice(a, b)
+    out.x = Array.from(s.x.subarray(a, b))
+    out.row = Array.from(s.row.subarray(a, b))
+    for (const k of keys) out.values[k] = Array.from(s.values[k].subarray(a, b), (y) => (y === y ? y : null))
     return out
   }
   // blocks of 2^level points, level ≥ 1, at most about `buckets` of them in [a, b)

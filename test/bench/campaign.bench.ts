@@ -3,11 +3,11 @@
 // 5 minutes, as one merged size-distribution file) with a nephelometer file (3 wavelengths) and an absorption
 // photometer file (3 wavelengths): the time from the files' texts to the record (reading, kernels, every row's
 // figures at the charts' wavelengths, as the app's worker asks for them, and the measured alignment), the charts'
-// series (recordSeries), the other wavelengths' figures computed for the CSV export (completeRecord), a stretch of
+// series (recordColumns, the typed arrays they keep), the other wavelengths' figures computed for the CSV export (completeRecord), a stretch of
 // a day made into a sample (stretchSample), and the process's peak resident memory. One run each (the record takes seconds); the goal is
 // beside each figure. The page's own figures (drawing, zoom, the worker's transfer) are not measured here.
 import { availableParallelism, loadavg } from 'node:os'
-import { buildCampaignRecord, completeRecord, demoStudy, recordSeries, stretchSample, type CampaignInput } from '../../src-core/index.ts'
+import { buildCampaignRecord, completeRecord, demoStudy, recordColumns, stretchSample, type CampaignInput } from '../../src-core/index.ts'
 import { report } from './timing.ts'
 
 const STEPS = Number(process.env['MOTEBENCH_BENCH_CAMPAIGN_STEPS'] ?? 100_000)
@@ -48,7 +48,7 @@ export async function benchCampaign(): Promise<void> {
   const cpu = process.cpuUsage(cpu0)
   const r = build.record!
   const t1 = performance.now()
-  recordSeries(r)
+  recordColumns(r)
   const seriesMs = performance.now() - t1
   const from = r.times[Math.floor(r.times.length / 2)]
   const t2 = performance.now()

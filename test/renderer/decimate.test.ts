@@ -1,7 +1,7 @@
 // The station record's charts draw at most about two points per pixel column (src-renderer/campaign/decimate.ts):
 // the envelope of each line (its lowest and highest value in each bucket of rows) is kept, and gaps stay gaps.
 import { describe, expect, it } from 'vitest'
-import type { RecordSeries } from '../../src-core/index.ts'
+import type { RecordColumns, RecordSeries } from '../../src-core/index.ts'
 import { decimate as decimateWith, envelopes } from '../../src-renderer/campaign/decimate.ts'
 
 /** A record's series of n rows, one line `ext` = f(i), with a break (null) after row `gapAfter`. */
@@ -20,7 +20,10 @@ function series(n: number, f: (i: number) => number | null, gapAfter = -1): Reco
   return s
 }
 
-const decimate = (s: RecordSeries, keys: ['ext'], lo: number, hi: number, buckets: number) => decimateWith(s, keys, lo, hi, buckets, envelopes(s, keys))
+/** The series as the charts keep them (recordColumns: typed arrays, NaN for null). */
+const cols = (s: RecordSeries): RecordColumns => ({ x: Float64Array.from(s.x), row: Int32Array.from(s.row), values: { ext: Float64Array.from(s.values.ext, (y) => y ?? NaN) } }) as unknown as RecordColumns
+
+const decimate = (s: RecordSeries, keys: ['ext'], lo: number, hi: number, buckets: number) => decimateWith(cols(s), keys, lo, hi, buckets, envelopes(cols(s), keys))
 
 describe('decimating a long record for drawing', () => {
   it('passes a range that fits the width through unchanged', () => {
@@ -51,9 +54,9 @@ describe('decimating a long record for drawing', () => {
 
   it('gives each bucket the lowest and highest value of the rows it spans, at any zoom (a scan of those rows)', () => {
     const s = series(12_345, (i) => (i % 997 === 5 ? null : Math.sin(i / 7) * Math.cos(i / 131)), 6000)
-    const env = envelopes(s, ['ext'])
+    const env = envelopes(cols(s), ['ext'])
     for (const [lo, hi, buckets] of [[-Infinity, Infinity, 400], [300 * 1234, 300 * 9876, 250], [300 * 17, 300 * 2900, 120]] as const) {
-      const d = decimateWith(s, ['ext'], lo, hi, buckets, env)
+      const d = decimateWith(cols(s), ['ext'], lo, hi, buckets, env)
       expect(d.x.length).toBeLessThanOrEqual(2 * buckets + 2)
       for (let p = 0; p < d.x.length; p += 2) {
         // the rows of this bucket, found by their times
@@ -107,7 +110,7 @@ describe('decimating a long record for drawing', () => {
     }
     for (const n of [1, 2, 3, 7, 64, 1000, 12_345]) {
       const s = series(n, (i) => (i % 97 === 5 ? null : i % 13 === 0 ? -0 : i % 13 === 1 ? 0 : Math.sin(i / 7) * Math.cos(i / 131)), Math.floor(n / 2))
-      const got = envelopes(s, ['ext']).lines.ext!
+      const got = envelopes(cols(s), ['ext']).lines.ext!
       const want = before(s)
       expect(got.length).toBe(want.length)
       got.forEach((g, k) => {
