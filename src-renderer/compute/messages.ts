@@ -76,9 +76,9 @@ export type ToShareWorker =
   /** A newer job: drop anything older at its next step. */
   | { type: 'newest'; job: number }
 
-/** `bulk` and `sca` are null when the job was dropped for a newer one; `costs`: ms each wavelength of `only` took, in its order. */
+/** `bulk` and `sca` are null when the job was dropped for a newer one. */
 export type FromShareWorker =
-  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null; costs: number[] }
+  | { type: 'share'; request: number; bulk: WavelengthBulk[] | null }
   | { type: 'humidity'; request: number; sca: number[] | null }
   | { type: 'share-failed'; request: number; message: string }
 

@@ -1,9 +1,9 @@
 // A helper of the computing worker: the size integration of one sample at a share of the study's wavelengths,
 // or at a share of the humidities of its f(RH) curve, with its own optics workspace (and node cache) kept across jobs.
 // The page starts it and sends it a port to the computing worker, which is where its work comes from.
-import { humidityScatteringSteps, loadExpressionCompiler, needsExpressionCompiler, OpticsWorkspace } from '../../src-core/compute.ts'
+import { humidityScatteringSteps, loadExpressionCompiler, needsExpressionCompiler, OpticsWorkspace, sampleBulkSteps } from '../../src-core/compute.ts'
 import { NODE_CACHE_LIMIT, type FromShareWorker, type ToShareWorker } from './messages.ts'
-import { drive, timedBulkSteps } from './steps.ts'
+import { drive } from './steps.ts'
 
 const workspace = new OpticsWorkspace(NODE_CACHE_LIMIT)
 let newest = -1
@@ -22,9 +22,8 @@ async function work(m: ToShareWorker, post: (m: FromShareWorker) => void): Promi
   try {
     if (needsExpressionCompiler(m.study)) await loadExpressionCompiler()
     if (m.type === 'share') {
-      const costs: number[] = []
-      const bulk = await drive(timedBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, coarsestStep: m.coarsestStep, workspace }, costs), live)
-      post({ type: 'share', request: m.request, bulk: bulk ?? null, costs })
+      const bulk = await drive(sampleBulkSteps(m.study.samples[0], m.study, { only: m.only, tolerance: m.tolerance, coarsestStep: m.coarsestStep, workspace }), live)
+      post({ type: 'share', request: m.request, bulk: bulk ?? null })
     } else {
       const sca = await drive(humidityScatteringSteps(m.study, 0, m.humidities, workspace), live)
       post({ type: 'humidity', request: m.request, sca: sca ?? null })

@@ -1,5 +1,5 @@
 // Running src-core's stepped computations inside a worker without shutting out its messages.
-import { phaseFunctionWavelengthNm, sampleBulkSteps, type WavelengthBulk } from '../../src-core/compute.ts'
+import { phaseFunctionWavelengthNm } from '../../src-core/compute.ts'
 
 /** Resolves on the next turn of the event loop, after any message already waiting. */
 export function pause(): Promise<void> {
@@ -56,43 +56,4 @@ export function wavelengthShares(wavelengthsNm: readonly number[], threads: numb
     load[k] += (wl === phase ? 2 : 1) / (wl * wl)
   }
   return shares
-}
-
-/**
- * Shares of the wavelengths for `threads` workers by each wavelength's measured cost (ms, from an earlier pass of the
- * same sample): the dearest first, each to the share with the least cost so far; the first share (the computing
- * worker's) starts with `ownExtra`, the work it does beside its wavelengths (the thermal-infrared bands). A
- * wavelength without a measured cost falls back on the λ⁻² shares.
- */
-export function sharesByCost(wavelengthsNm: readonly number[], costs: ReadonlyMap<number, number>, threads: number, ownExtra = 0): number[][] {
-  if (!wavelengthsNm.every((wl) => (costs.get(wl) ?? -1) >= 0)) return wavelengthShares(wavelengthsNm, threads)
-  const shares: number[][] = Array.from({ length: Math.max(1, threads) }, () => [])
-  const load = shares.map((_, k) => (k === 0 ? ownExtra : 0))
-  for (const wl of [...wavelengthsNm].sort((a, b) => costs.get(b)! - costs.get(a)! || a - b)) {
-    let k = 0
-    for (let j = 1; j < load.length; j++) if (load[j] < load[k]) k = j
-    shares[k].push(wl)
-    load[k] += costs.get(wl)!
-  }
-  return shares
-}
-
-/**
- * sampleBulkSteps one wavelength at a time, each one's cost (ms of wall clock from its start to its end, the
- * worker's pauses between steps included) pushed to `costs` in the order of `options.only`. The figures are the same
- * as sampleBulkSteps's over all of them (each wavelength's integration is on its own).
- */
-export function* timedBulkSteps(
-  sample: Parameters<typeof sampleBulkSteps>[0],
-  study: Parameters<typeof sampleBulkSteps>[1],
-  options: Parameters<typeof sampleBulkSteps>[2] & { only: readonly number[] },
-  costs: number[]
-): Generator<void, WavelengthBulk[]> {
-  const out: WavelengthBulk[] = []
-  for (const wl of options.only) {
-    const started = performance.now()
-    out.push(...(yield* sampleBulkSteps(sample, study, { ...options, only: [wl] })))
-    costs.push(performance.now() - started)
-  }
-  return out
 }

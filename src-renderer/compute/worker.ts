@@ -17,6 +17,7 @@ import {
   loadExpressionCompiler,
   needsExpressionCompiler,
   OpticsWorkspace,
+  sampleBulkSteps,
   sampleLongwaveSteps,
   sampleResultFromOptics,
   sizeDistributionCurves,
@@ -30,7 +31,7 @@ import {
 } from '../../src-core/compute.ts'
 import type { SizeCurves } from '../state/store.ts'
 import { jobSteps, NODE_CACHE_LIMIT, PREVIEW_COARSEST_STEP, PREVIEW_TOLERANCE, PREVIEW_WORTH_MS, type EvaluateItem, type FromShareWorker, type FromWorker, type ToShareWorker, type ToWorker } from './messages.ts'
-import { drive, sharesByCost, timedBulkSteps, wavelengthShares } from './steps.ts'
+import { drive, wavelengthShares } from './steps.ts'
 
 const post = (m: FromWorker): void => (self as unknown as Worker).postMessage(m)
 const workspace = new OpticsWorkspace(NODE_CACHE_LIMIT)
@@ -49,7 +50,7 @@ function takeHelpers(ports: readonly MessagePort[]): void {
       const p = waiting.get(m.request)
       if (!p) return
       waiting.delete(m.request)
-      if (m.type === 'share') p.resolve(m.bulk && { bulk: m.bulk, costs: m.costs })
+      if (m.type === 'share') p.resolve(m.bulk)
       else if (m.type === 'humidity') p.resolve(m.sca)
       else p.reject(new Error(m.message))
     }
@@ -99,69 +100,22 @@ async function together<M, T>(mine: Generator<void, M>, theirs: Promise<T | null
   return { mine: own, theirs: rest as T[] }
 }
 
-/**
- * What decides, beside the sizes, which nodes a sample's passes evaluate: the particles' make-up, the humidity, the
- * temperature and the wavelengths. While it stays the same, the caches hold the sample's nodes where its last passes
- * left them (an edit of a mode's amount, median or width evaluates nodes on the same lattice).
- */
-function contextKey(study: Study): string {
-  const s = study.samples[0]
-  const own = s.size.kind === 'modes' ? s.size.modes.map((m) => m.composition ?? null) : null
-  return JSON.stringify([own, s.composition, s.rh_percent, s.rh_history, s.temperature_k ?? null, study.wavelengths_nm, study.user_materials ?? []])
-}
-
-/** Wavelength shares by sample (its id in the page) and context: a wavelength stays with the worker whose cache holds its nodes. */
-const plans = new Map<string, number[][]>()
-const PLANS_KEPT = 256
-/** For each sample, what its last full pass measured: ms per wavelength, and this worker's work beside its wavelengths (the infrared bands). */
-const measured = new Map<string, { costs: Map<number, number>; extra: number }>()
-
-/**
- * The shares of a sample's wavelengths. In a context seen before, the shares used then (the nodes are where they
- * left them). In a new one (a humidity or composition edit: no node is cached), by the costs the sample's last full
- * pass measured, so that the workers finish together; for a sample never computed here, by λ⁻² (wavelengthShares).
- */
-function sharesFor(id: string | undefined, study: Study): number[][] {
-  const threads = helpers.length + 1
-  if (id === undefined) return wavelengthShares(study.wavelengths_nm, threads)
-  const key = `${id}\n${contextKey(study)}`
-  let shares = plans.get(key)
-  if (!shares || shares.length !== threads) {
-    const m = measured.get(id)
-    shares = m ? sharesByCost(study.wavelengths_nm, m.costs, threads, m.extra) : wavelengthShares(study.wavelengths_nm, threads)
-  }
-  plans.delete(key)
-  plans.set(key, shares)
-  if (plans.size > PLANS_KEPT) plans.delete(plans.keys().next().value!)
-  return shares
-}
-
-/** A one-sample study's optics, full or quick, its wavelengths shared with the helpers (`id`: the sample's in the page, for the shares). */
-async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0, id?: string): Promise<SampleOptics | undefined> {
-  const shares = sharesFor(id, study)
+/** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
+async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0): Promise<SampleOptics | undefined> {
+  const shares = wavelengthShares(study.wavelengths_nm, helpers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
-  const theirs = helpers.map((w, k) => (shares[k + 1].length ? ask<{ bulk: WavelengthBulk[]; costs: number[] }>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve({ bulk: [], costs: [] })))
+  const theirs = helpers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
   if (holdMs > 0) await new Promise((resolve) => setTimeout(resolve, holdMs))
-  const costs: number[] = []
-  const parts = await together(ownShare(study, shares[0], grid, costs), theirs, job)
+  const parts = await together(ownShare(study, shares[0], grid), theirs, job)
   if (!parts) return undefined
-  if (!quick && id !== undefined) {
-    const byWl = new Map<number, number>()
-    shares[0].forEach((wl, i) => byWl.set(wl, costs[i]))
-    parts.theirs.forEach((t, k) => shares[k + 1].forEach((wl, i) => byWl.set(wl, t.costs[i])))
-    measured.delete(id)
-    measured.set(id, { costs: byWl, extra: parts.mine.longwaveMs })
-    if (measured.size > PLANS_KEPT) measured.delete(measured.keys().next().value!)
-  }
-  return assembleSampleOptics(study.samples[0], study, [...parts.mine.bulk, ...parts.theirs.flatMap((t) => t.bulk)], { longwave: parts.mine.longwave })
+  return assembleSampleOptics(study.samples[0], study, [...parts.mine.bulk, ...parts.theirs.flat()], { longwave: parts.mine.longwave })
 }
 
-/** This worker's share of a sample's wavelengths (each one's cost pushed to `costs`), then the sample's thermal-infrared band optics (cheap: small size parameters). */
-function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coarsestStep?: number }, costs: number[]) {
-  const bulk = yield* timedBulkSteps(study.samples[0], study, { only, ...grid, workspace }, costs)
-  const started = performance.now()
+/** This worker's share of a sample's wavelengths, then the sample's thermal-infrared band optics (cheap: small size parameters). */
+function* ownShare(study: Study, only: number[], grid: { tolerance?: number; coarsestStep?: number }) {
+  const bulk = yield* sampleBulkSteps(study.samples[0], study, { only, ...grid, workspace })
   const longwave = yield* sampleLongwaveSteps(study.samples[0], study, { workspace, ...grid })
-  return { bulk, longwave, longwaveMs: performance.now() - started }
+  return { bulk, longwave }
 }
 
 /**
@@ -236,7 +190,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     try {
       let optics: SampleOptics | undefined
       if (quickFirst(item)) optics = await quickThenFull(item, m.job, withCurve)
-      else optics = await sampleOptics(item.study, false, m.job, 0, item.id)
+      else optics = await sampleOptics(item.study, false, m.job)
       const r = optics && sampleResultFromOptics(item.study, optics)
       if (r) keepLastFull(item)
       if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: withCurve(r), partial: !known })
@@ -270,7 +224,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
 async function quickThenFull(item: EvaluateItem, job: number, withCurve: (r: SampleResult) => SampleResult): Promise<SampleOptics | undefined> {
   const live = current(job)
   const started = performance.now()
-  const quick = await sampleOptics(item.study, true, job, 0, item.id)
+  const quick = await sampleOptics(item.study, true, job)
   if (!live()) return undefined
   // Shown if the full figures are not there PREVIEW_WORTH_MS after the start (the timer runs while the full
   // pass pauses between its steps); their forcing is worked out only then.
@@ -284,7 +238,7 @@ async function quickThenFull(item: EvaluateItem, job: number, withCurve: (r: Sam
     showQuick()
     hold = DISPLAY_HOLD_MS
   } else timer = setTimeout(showQuick, wait)
-  return await sampleOptics(item.study, false, job, hold, item.id).finally(() => clearTimeout(timer))
+  return await sampleOptics(item.study, false, job, hold).finally(() => clearTimeout(timer))
 }
 
 /** Loads the expression compiler where a study given to the workers has expression components (the build leaves it out: vite.shared.ts). */
