@@ -12,24 +12,13 @@ self.onmessage = (e: MessageEvent) => {
   const port = e.ports[0]
   if (!port) return
   const post = (m: FromShareWorker): void => port.postMessage(m)
-  // one request after another, in the order they come (the computing worker asks for the next before this one is done);
-  // a newer job's number is taken at once, so that the running request and those queued behind it are dropped
-  port.onmessage = (e: MessageEvent<ToShareWorker>) => {
-    const m = e.data
-    newest = Math.max(newest, m.job)
-    if (m.type === 'newest') return
-    queue = queue.then(() => work(m, post))
-  }
+  port.onmessage = (e: MessageEvent<ToShareWorker>) => void work(e.data, post)
 }
 
-let queue: Promise<void> = Promise.resolve()
-
-async function work(m: Exclude<ToShareWorker, { type: 'newest' }>, post: (m: FromShareWorker) => void): Promise<void> {
+async function work(m: ToShareWorker, post: (m: FromShareWorker) => void): Promise<void> {
+  newest = Math.max(newest, m.job)
+  if (m.type === 'newest') return
   const live = () => m.job === newest
-  if (!live()) {
-    post(m.type === 'share' ? { type: 'share', request: m.request, bulk: null } : { type: 'humidity', request: m.request, sca: null })
-    return
-  }
   try {
     if (needsExpressionCompiler(m.study)) await loadExpressionCompiler()
     if (m.type === 'share') {

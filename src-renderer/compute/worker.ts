@@ -100,22 +100,11 @@ async function together<M, T>(mine: Generator<void, M>, theirs: Promise<T | null
   return { mine: own, theirs: rest as T[] }
 }
 
-/** The helpers' shares of a one-sample study's optics, asked for (each helper runs its requests in the order they come). */
-function askShares(study: Study, quick: boolean, job: number): Promise<WavelengthBulk[] | null>[] {
+/** A one-sample study's optics, full or quick, its wavelengths shared with the helpers. */
+async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0): Promise<SampleOptics | undefined> {
   const shares = wavelengthShares(study.wavelengths_nm, helpers.length + 1)
   const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
-  return helpers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
-}
-
-/**
- * A one-sample study's optics, full or quick, its wavelengths shared with the helpers; `asked`: the helpers' shares
- * if they were asked for already; `next` is called once they have been (to queue a helper's next request behind them).
- */
-async function sampleOptics(study: Study, quick: boolean, job: number, holdMs = 0, asked?: Promise<WavelengthBulk[] | null>[], next?: () => void): Promise<SampleOptics | undefined> {
-  const shares = wavelengthShares(study.wavelengths_nm, helpers.length + 1)
-  const grid = quick ? { tolerance: PREVIEW_TOLERANCE, coarsestStep: PREVIEW_COARSEST_STEP } : {}
-  const theirs = asked ?? askShares(study, quick, job)
-  next?.()
+  const theirs = helpers.map((w, k) => (shares[k + 1].length ? ask<WavelengthBulk[]>(w, { type: 'share', job, study, only: shares[k + 1], ...grid }) : Promise.resolve([])))
   if (holdMs > 0) await new Promise((resolve) => setTimeout(resolve, holdMs))
   const parts = await together(ownShare(study, shares[0], grid), theirs, job)
   if (!parts) return undefined
@@ -160,19 +149,13 @@ function keepLastFull(item: EvaluateItem): void {
 }
 
 /** A one-sample study's f(RH) curve, its humidities shared with the helpers (the same ones to the same worker). */
-function askHumidities(study: Study, job: number): Promise<number[] | null>[] {
+async function humidityCurve(study: Study, job: number): Promise<HumidityGrowthCurve | undefined> {
   const threads = helpers.length + 1
-  return helpers.map((w, k) => {
+  const mineAt = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === 0)
+  const theirs = helpers.map((w, k) => {
     const humidities = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === k + 1)
     return humidities.length ? ask<number[]>(w, { type: 'humidity', job, study, humidities }) : Promise.resolve([])
   })
-}
-
-/** `asked`: the helpers' points if they were asked for already. */
-async function humidityCurve(study: Study, job: number, asked?: Promise<number[] | null>[]): Promise<HumidityGrowthCurve | undefined> {
-  const threads = helpers.length + 1
-  const mineAt = HUMIDITY_CURVE_RH.filter((_, i) => i % threads === 0)
-  const theirs = asked ?? askHumidities(study, job)
   const parts = await together(humidityScatteringSteps(study, 0, mineAt, workspace), theirs, job)
   if (!parts) return undefined
   // back into the curve's order: point i was computed by thread i mod threads, as its (i div threads)-th
@@ -199,19 +182,6 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
   const live = current(m.job)
   post({ type: 'progress', job: m.job, done: 0, total })
   const partial: (SampleResult | undefined)[] = []
-  // The helpers never wait for this worker: once a sample's shares are asked for, the next sample's full pass (or the
-  // first f(RH) curve) is asked for too, so a helper that finishes its share first goes on with the next at once.
-  // Samples with a quick pass are not asked for ahead (their quick share must come first in the helper's queue).
-  const ahead = new Map<number, Promise<WavelengthBulk[] | null>[]>()
-  const curvesAhead = new Map<number, Promise<number[] | null>[]>()
-  const askAhead = (i: number) => () => {
-    const item = m.items[i + 1]
-    if (item && !quickFirst(item)) ahead.set(i + 1, askShares(item.study, false, m.job))
-    else if (!item) {
-      const first = m.items.findIndex((it) => !curves.has(humidityCurveKey(it.study, 0)))
-      if (first >= 0) curvesAhead.set(first, askHumidities(m.items[first].study, m.job))
-    }
-  }
   for (const [i, item] of m.items.entries()) {
     const curveKey = humidityCurveKey(item.study, 0)
     const known = curves.get(curveKey)
@@ -219,9 +189,8 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     const withCurve = (r: SampleResult): SampleResult => (known ? { ...r, humidity: known } : r)
     try {
       let optics: SampleOptics | undefined
-      if (quickFirst(item)) optics = await quickThenFull(item, m.job, withCurve, askAhead(i))
-      else optics = await sampleOptics(item.study, false, m.job, 0, ahead.get(i), askAhead(i))
-      ahead.delete(i)
+      if (quickFirst(item)) optics = await quickThenFull(item, m.job, withCurve)
+      else optics = await sampleOptics(item.study, false, m.job)
       const r = optics && sampleResultFromOptics(item.study, optics)
       if (r) keepLastFull(item)
       if (live() && r) post({ type: 'result', job: m.job, id: item.id, key: item.key, result: withCurve(r), partial: !known })
@@ -238,11 +207,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
     const r = partial[i]
     if (r) {
       try {
-        // this curve's points first in the helpers' queues, then the next curve's
-        if (!curvesAhead.has(i)) curvesAhead.set(i, askHumidities(item.study, m.job))
-        const next = m.items.findIndex((it, j) => j > i && partial[j])
-        if (next >= 0 && !curvesAhead.has(next)) curvesAhead.set(next, askHumidities(m.items[next].study, m.job))
-        const humidity = await humidityCurve(item.study, m.job, curvesAhead.get(i))
+        const humidity = await humidityCurve(item.study, m.job)
         if (!live() || !humidity) return
         keepCurve(humidityCurveKey(item.study, 0), humidity)
         post({ type: 'result', job: m.job, id: item.id, key: item.key, result: { ...r, humidity } })
@@ -256,7 +221,7 @@ async function evaluate(m: Extract<ToWorker, { type: 'evaluate' }>): Promise<voi
 }
 
 /** A quick pass first (its nodes are kept, so the full pass costs only what it adds), shown if the full pass takes a while; then the full pass. */
-async function quickThenFull(item: EvaluateItem, job: number, withCurve: (r: SampleResult) => SampleResult, next?: () => void): Promise<SampleOptics | undefined> {
+async function quickThenFull(item: EvaluateItem, job: number, withCurve: (r: SampleResult) => SampleResult): Promise<SampleOptics | undefined> {
   const live = current(job)
   const started = performance.now()
   const quick = await sampleOptics(item.study, true, job)
@@ -273,7 +238,7 @@ async function quickThenFull(item: EvaluateItem, job: number, withCurve: (r: Sam
     showQuick()
     hold = DISPLAY_HOLD_MS
   } else timer = setTimeout(showQuick, wait)
-  return await sampleOptics(item.study, false, job, hold, undefined, next).finally(() => clearTimeout(timer))
+  return await sampleOptics(item.study, false, job, hold).finally(() => clearTimeout(timer))
 }
 
 /** Loads the expression compiler where a study given to the workers has expression components (the build leaves it out: vite.shared.ts). */
