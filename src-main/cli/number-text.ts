@@ -14,31 +14,40 @@ function shortestForm(digits: string, n: number): string {
   return (k === 1 ? digits : digits[0] + '.' + digits.slice(1)) + (e < 0 ? 'e-' : 'e+') + Math.abs(e)
 }
 
+/** The decimal exponent n of the last sevenDigitMantissa: |v| rounds to 0.d₁…d₇ × 10ⁿ. */
+let exponent = 0
+
+/**
+ * |v| (a > 0) rounded to 7 significant digits, as the integer m = d₁…d₇ in [1e6, 1e7), with its exponent in
+ * `exponent`; or -1 where toPrecision must decide (outside 1e-16 .. 1e28, or within 1e-6 of a tie).
+ */
+function sevenDigitMantissa(a: number): number {
+  // within 1e-16 .. 1e28 the scaled value is one correctly rounded operation on exact powers of ten
+  if (!(a >= 1e-16 && a < 1e28)) return -1
+  let e = Math.floor(Math.log10(a))
+  let scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]
+  if (scaled >= 1e7) (e++, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
+  else if (scaled < 1e6) (e--, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
+  const low = Math.floor(scaled)
+  const frac = scaled - low
+  // far from a tie the rounding of the scaled value is that of the exact one; near one, ask toPrecision
+  if (!(scaled >= 1e6 && scaled < 1e7 && Math.abs(frac - 0.5) > 1e-6)) return -1
+  let m = frac > 0.5 ? low + 1 : low
+  exponent = e + 1
+  if (m === 1e7) (m = 1e6), exponent++
+  return m
+}
+
 /** String(Number(v.toPrecision(7))) for a finite v. */
 export function sevenDigits(v: number): string {
   if (v === 0) return '0'
-  const a = v < 0 ? -v : v
-  // within 1e-16 .. 1e28 the scaled value is one correctly rounded operation on exact powers of ten
-  if (a >= 1e-16 && a < 1e28) {
-    let e = Math.floor(Math.log10(a))
-    let scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]
-    if (scaled >= 1e7) (e++, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
-    else if (scaled < 1e6) (e--, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
-    const low = Math.floor(scaled)
-    const frac = scaled - low
-    // far from a tie the rounding of the scaled value is that of the exact one; near one, ask toPrecision
-    if (scaled >= 1e6 && scaled < 1e7 && Math.abs(frac - 0.5) > 1e-6) {
-      let m = frac > 0.5 ? low + 1 : low
-      let n = e + 1
-      if (m === 1e7) (m = 1e6), n++
-      let digits = String(m)
-      let end = digits.length
-      while (digits.charCodeAt(end - 1) === 48) end--
-      digits = digits.slice(0, end)
-      return (v < 0 ? '-' : '') + shortestForm(digits, n)
-    }
-  }
-  return String(Number(v.toPrecision(7)))
+  const m = sevenDigitMantissa(v < 0 ? -v : v)
+  if (m < 0) return String(Number(v.toPrecision(7)))
+  let digits = String(m)
+  let end = digits.length
+  while (digits.charCodeAt(end - 1) === 48) end--
+  digits = digits.slice(0, end)
+  return (v < 0 ? '-' : '') + shortestForm(digits, exponent)
 }
 
 const DIGITS = new Uint8Array(7)
@@ -63,52 +72,40 @@ export function writeSevenDigits(v: number, out: Uint8Array, at: number): number
     out[at] = 48
     return at + 1
   }
-  const a = v < 0 ? -v : v
-  if (a >= 1e-16 && a < 1e28) {
-    let e = Math.floor(Math.log10(a))
-    let scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]
-    if (scaled >= 1e7) (e++, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
-    else if (scaled < 1e6) (e--, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
-    const low = Math.floor(scaled)
-    const frac = scaled - low
-    if (scaled >= 1e6 && scaled < 1e7 && Math.abs(frac - 0.5) > 1e-6) {
-      let m = frac > 0.5 ? low + 1 : low
-      let n = e + 1
-      if (m === 1e7) (m = 1e6), n++
-      // the 7 digits, then without trailing zeros (k of them)
-      for (let i = 6; i >= 0; i--) {
-        const q = Math.floor(m / 10)
-        DIGITS[i] = 48 + m - q * 10
-        m = q
-      }
-      let k = 7
-      while (DIGITS[k - 1] === 48) k--
-      if (v < 0) out[at++] = 45
-      if (k <= n && n <= 21) {
-        for (let i = 0; i < k; i++) out[at++] = DIGITS[i]
-        for (let i = k; i < n; i++) out[at++] = 48
-      } else if (0 < n && n <= 21) {
-        for (let i = 0; i < n; i++) out[at++] = DIGITS[i]
-        out[at++] = 46
-        for (let i = n; i < k; i++) out[at++] = DIGITS[i]
-      } else if (-6 < n && n <= 0) {
-        out[at++] = 48
-        out[at++] = 46
-        for (let i = n; i < 0; i++) out[at++] = 48
-        for (let i = 0; i < k; i++) out[at++] = DIGITS[i]
-      } else {
-        out[at++] = DIGITS[0]
-        if (k > 1) {
-          out[at++] = 46
-          for (let i = 1; i < k; i++) out[at++] = DIGITS[i]
-        }
-        const x = n - 1
-        out[at++] = 101
-        out[at++] = x < 0 ? 45 : 43
-        at = writeLatin1(String(x < 0 ? -x : x), out, at)
-      }
-      return at
-    }
+  let m = sevenDigitMantissa(v < 0 ? -v : v)
+  if (m < 0) return writeLatin1(String(Number(v.toPrecision(7))), out, at)
+  const n = exponent
+  // the 7 digits, then without trailing zeros (k of them)
+  for (let i = 6; i >= 0; i--) {
+    const q = Math.floor(m / 10)
+    DIGITS[i] = 48 + m - q * 10
+    m = q
   }
-  return writeLatin1(String(Number(v.toPrecision(7))), out, at)
+  let k = 7
+  while (DIGITS[k - 1] === 48) k--
+  if (v < 0) out[at++] = 45
+  if (k <= n && n <= 21) {
+    for (let i = 0; i < k; i++) out[at++] = DIGITS[i]
+    for (let i = k; i < n; i++) out[at++] = 48
+  } else if (0 < n && n <= 21) {
+    for (let i = 0; i < n; i++) out[at++] = DIGITS[i]
+    out[at++] = 46
+    for (let i = n; i < k; i++) out[at++] = DIGITS[i]
+  } else if (-6 < n && n <= 0) {
+    out[at++] = 48
+    out[at++] = 46
+    for (let i = n; i < 0; i++) out[at++] = 48
+    for (let i = 0; i < k; i++) out[at++] = DIGITS[i]
+  } else {
+    out[at++] = DIGITS[0]
+    if (k > 1) {
+      out[at++] = 46
+      for (let i = 1; i < k; i++) out[at++] = DIGITS[i]
+    }
+    const x = n - 1
+    out[at++] = 101
+    out[at++] = x < 0 ? 45 : 43
+    at = writeLatin1(String(x < 0 ? -x : x), out, at)
+  }
+  return at
 }
