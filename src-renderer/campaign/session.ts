@@ -6,6 +6,7 @@ import {
   CAMPAIGN_KIND_WORDS,
   campaignProblems,
   isSizerKind,
+  packedBuffers,
   relativeFilePath,
   rebaseCampaignPaths,
   resolveFilePath,
@@ -21,6 +22,7 @@ import { host } from '../host/index.ts'
 import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
 import type { FromRecordWorker, RecordWorkerInput, ToRecordWorker } from './worker.ts'
+import type { FromReader, ToReader } from './reader.ts'
 import { warmStretchNodes } from './warm.ts'
 import { holdBytes, holdFile, type HeldFile } from './held.ts'
 import { guessKind } from './kind.ts'
@@ -197,8 +199,38 @@ function spareWorker(): void {
   spare ??= newWorker()
 }
 
-/** Starts a record worker ahead (the station record shown without files yet), so that adding files need not wait for its script. */
-export const prepareRecordWorker = (): void => spareWorker()
+/**
+ * The partner worker (reader.ts), which reads a web page's measured files while the record worker reads the sizer;
+ * kept for the session. Its readings are passed on to the record worker that holds each file (`routes`, by serial).
+ */
+let partner: Worker | null = null
+const routes = new Map<number, Worker>()
+
+function partnerWorker(): Worker {
+  if (partner) return partner
+  const p = new Worker(new URL('./reader.ts', import.meta.url), { type: 'module', name: 'motebench-reader' })
+  p.onmessage = (e: MessageEvent<FromReader>) => {
+    const m = e.data
+    const to = routes.get(m.serial)
+    routes.delete(m.serial)
+    to?.postMessage({ type: 'partner', ...m } satisfies ToRecordWorker, 'packed' in m ? packedBuffers(m.packed) : [])
+  }
+  // a partner that fails: the record workers read its files from their blobs
+  p.onerror = (e) => {
+    e.preventDefault()
+    for (const [serial, to] of routes) to.postMessage({ type: 'partner', serial, failed: true } satisfies ToRecordWorker)
+    routes.clear()
+    partner = null
+  }
+  partner = p
+  return p
+}
+
+/** Starts a record worker and the partner ahead (the station record shown without files yet), so that adding files need not wait for their scripts. */
+export const prepareRecordWorker = (): void => {
+  spareWorker()
+  if (typeof Worker !== 'undefined') partnerWorker()
+}
 
 /**
  * Holds chosen files: a web page's bytes are read here once, measured (held.ts) and moved to a record worker, which
@@ -214,8 +246,17 @@ async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
       if (!('blob' in f)) return holdFile(f)
       const bytes = await f.blob.arrayBuffer()
       const h = holdBytes(f, new Uint8Array(bytes))
-      // a plain-ASCII file's bytes moved (not copied) to the worker, which decodes them and reads the file ahead
-      if (h.text === undefined) w.postMessage({ type: 'bytes', serial: h.serial, name: h.name, bytes } satisfies ToRecordWorker, [bytes])
+      if (h.text !== undefined) return h
+      // a plain-ASCII file's bytes moved (not copied): a measured file's to the partner, which reads it and hands it
+      // back packed for this worker; the sizer's to this worker, which decodes them and reads the file ahead
+      const kind = guessKind(h.name, h.head)
+      if (isSizerKind(kind)) w.postMessage({ type: 'bytes', serial: h.serial, name: h.name, bytes } satisfies ToRecordWorker, [bytes])
+      else {
+        const p = partnerWorker()
+        routes.set(h.serial, w)
+        w.postMessage({ type: 'expect', serial: h.serial } satisfies ToRecordWorker)
+        p.postMessage({ serial: h.serial, name: h.name, kind, bytes } satisfies ToReader, [bytes])
+      }
       return h
     })
   )

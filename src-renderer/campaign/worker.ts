@@ -4,15 +4,22 @@
 // A web page's files are decoded here as their bytes come (`bytes`), kept for the record asked of this worker next,
 // and read ahead as the kind the page guesses for them (kind.ts) while the page's other files are still being read
 // and while it adds the files and asks for the record; the record takes what was read as the kind it is asked for
-// (buildCampaignRecord's `ahead`), the same as reading it then.
-import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
+// (buildCampaignRecord's `ahead`), the same as reading it then. The measured files are read by a partner worker
+// (reader.ts) while this one reads the sizer: the page says which to wait for (`expect`) and passes their
+// readings on (`partner`).
+import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, unpackInstrument, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
 import { guessKind } from './kind.ts'
+import type { FromReader } from './reader.ts'
 
 /** A file as the page sends it: its text, or the file (read here unless its bytes came first); `serial` is the page's. */
 export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { serial: number } & ({ text: string } | { blob: Blob })
 export type ToRecordWorker =
   | { type: 'record'; job: number; inputs: RecordWorkerInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
   | { type: 'bytes'; serial: number; name: string; bytes: ArrayBuffer }
+  /** A file the partner worker reads: the record waits for its reading. */
+  | { type: 'expect'; serial: number }
+  /** The partner's reading of a file (or, when it failed, nothing: the file is then read here from its blob). */
+  | ({ type: 'partner' } & (FromReader | { serial: number; failed: true }))
 export type FromRecordWorker =
   | { job: number; type: 'progress'; share: number }
   | { job: number; type: 'done'; build: CampaignBuild; ms: number }
@@ -30,6 +37,22 @@ const readText = async (blob: Blob): Promise<string> => new TextDecoder().decode
 const read = new Map<number, string>()
 /** Files read ahead (by the page's serial): as the kind guessed for them. */
 const ahead = new Map<number, ReadAhead>()
+/** Files the partner worker reads (by serial): settled when its reading has come. */
+const expected = new Map<number, { done: Promise<void>; settle: () => void }>()
+
+function expect(serial: number): void {
+  let settle = () => {}
+  const done = new Promise<void>((ok) => (settle = ok))
+  expected.set(serial, { done, settle })
+}
+
+/** The partner's reading of a file taken as read ahead (its records unpacked, bit for bit what it read). */
+function fromPartner(m: Extract<ToRecordWorker, { type: 'partner' }>): void {
+  if ('packed' in m) ahead.set(m.serial, { kind: m.kind, name: m.name, instrument: unpackInstrument(m.packed) })
+  else if ('refused' in m) ahead.set(m.serial, { kind: m.kind, name: m.name, instrument: { summary: m.refused } })
+  else if ('text' in m) read.set(m.serial, m.text)
+  expected.get(m.serial)?.settle()
+}
 
 /** Reads a file ahead as the kind the page will guess for it; a fault here is left for the record's own reading to meet. */
 function readAhead(serial: number, name: string, text: string): void {
@@ -51,13 +74,19 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
     readAhead(d.serial, d.name, text)
     return
   }
+  if (d.type === 'expect') return expect(d.serial)
+  if (d.type === 'partner') return fromPartner(d)
   const { job, settings, study } = d
   const started = performance.now()
   try {
-    const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : (read.get(i.serial) ?? (await readText(i.blob))) })))
+    await Promise.all(d.inputs.map((i) => expected.get(i.serial)?.done))
     const readFirst = d.inputs.map((i) => ahead.get(i.serial))
+    // a measured file read ahead as the kind asked needs no text (buildCampaignRecord takes its reading)
+    const taken = (i: RecordWorkerInput, k: number) => !isSizerKind(i.kind) && readFirst[k]?.kind === i.kind && readFirst[k]?.name === i.name
+    const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i, k) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : taken(i, k) ? '' : (read.get(i.serial) ?? (await readText(i.blob))) })))
     read.clear()
     ahead.clear()
+    expected.clear()
     let last = 0
     // the figures at the wavelengths the charts draw; the export computes the others (recordCsv, completeRecord)
     const build = buildCampaignRecord(inputs, settings, study, {
