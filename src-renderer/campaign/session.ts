@@ -226,10 +226,14 @@ function partnerWorker(): Worker {
   return p
 }
 
-/** Starts a record worker and the partner ahead (the station record shown without files yet), so that adding files need not wait for their scripts. */
+/**
+ * Starts a record worker ahead (the station record shown without files yet), so that adding files need not wait for
+ * its script; in a web page, whose files come as bytes, the partner too (the desktop gives texts: a partner is then
+ * started only if a file comes as bytes, in holdFiles).
+ */
 export const prepareRecordWorker = (): void => {
   spareWorker()
-  if (typeof Worker !== 'undefined') partnerWorker()
+  if (typeof Worker !== 'undefined' && host().kind === 'browser') partnerWorker()
 }
 
 /**
