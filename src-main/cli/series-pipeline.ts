@@ -306,26 +306,42 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       if (o.shard && lineNo < o.shard.firstLine && reader.header) reader.push('', lineNo)
       else if (!reader.pushBytes(bytes, start, end, lineNo)) reader.push(bytes.toString('utf8', start, end), lineNo)
     }
-    for await (const item of source) {
-      if (typeof item === 'string') take(item)
-      else if ('bytes' in item) {
-        for (let i = 0; i < item.starts.length && (lineNo < last || !reader.header); i++) takeBytes(item.bytes, item.starts[i], item.ends[i])
-      } else for (const line of item) if (lineNo < last || !reader.header) take(line)
-      if (lineNo >= last && reader.header) break
-      while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
-      if (failure) throw failure
+    /** Sends the block being filled, cut to its rows, and waits until every block sent is computed and taken. */
+    const finishBlocks = async (): Promise<void> => {
+      if (current) {
+        const n = current.times.length
+        if (n > 0) send({ ...current, values: current.values.slice(0, n * bins) })
+        current = undefined
+      }
+      while (!failure && nextWrite < nextId) await changed()
+    }
+    try {
+      for await (const item of source) {
+        if (typeof item === 'string') take(item)
+        else if ('bytes' in item) {
+          for (let i = 0; i < item.starts.length && (lineNo < last || !reader.header); i++) takeBytes(item.bytes, item.starts[i], item.ends[i])
+        } else for (const line of item) if (lineNo < last || !reader.header) take(line)
+        if (lineNo >= last && reader.header) break
+        while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
+        if (failure) throw failure
+      }
+    } catch (e) {
+      // --on-bad-row stop, a bad row met by the reader: the rows before it are written, as when the optics refuse a
+      // row (flush above), whatever the workers had finished by then; an earlier row the optics refuse comes first
+      if (o.onBadRow === 'stop' && e instanceof InputError && !failure) {
+        await finishBlocks()
+        if (!failure && text) write(text)
+        text = ''
+        await writing.catch(() => undefined)
+        if (failure) throw failure
+      }
+      throw e
     }
     const end = reader.end()
     if (end.recordCount === 0 && end.rejectedCount === 0 && !o.shard) {
       throw new InputError(o.fileName, 'the file has a header but no distributions', 'Export at least one time step (one row per time, one column per bin).')
     }
-    if (current) {
-      // the last block, cut to its rows
-      const n = current.times.length
-      send({ ...current, values: current.values.slice(0, n * bins) })
-      current = undefined
-    }
-    while (!failure && nextWrite < nextId) await changed()
+    await finishBlocks()
     if (failure) throw failure
     if (text || pendingHeader) write(text)
     text = ''

@@ -23,7 +23,8 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
   --sample NAME         that sample (its size distribution is replaced by each row's bins)
   --wavelengths LIST    e.g. 450,550,700 (nm) or 0.45,0.55um (default: the study's wavelengths)
   --out FILE            write the CSV to FILE (it appears only when complete) instead of standard output
-  --on-bad-row P        skip (default: leave bad rows out, list them, exit status 1) or stop (at the first, exit 2)
+  --on-bad-row P        skip (default: leave bad rows out, list them, exit status 1) or stop (at the first, exit 2;
+                        with --out no file, on standard output the rows before it)
   --workers N           worker threads that compute the rows while the main thread reads the file (default:
                         one fewer than the processors, at least 1: ${Math.max(1, availableParallelism() - 1)} here)
   --tolerance T         relative accuracy of each bin's size integration (default 1e-4); the bins are

@@ -192,3 +192,46 @@ describe('motebench series', () => {
     expect(inProcess.text).toBe(await readFile(join(dir, 'record.csv'), 'utf8'))
   })
 })
+
+describe('motebench series --on-bad-row stop on standard output', () => {
+  // 300 rows (a block of 256 and part of the next) before a bad cell, then more rows: the rows before the bad one are
+  // written whatever the two workers had finished when the reader met it, exactly as the file cut before it gives them
+  const rowsBefore = 300
+  const row = (i: number) => `${new Date(Date.UTC(2026, 0, 1) + i * 60_000).toISOString()},${1000 + i},${3000 - i},${2000 + (i % 17)},400`
+  const head = ['units: nm', 'quantity: dN/dlogDp', 'time,20,40,80,160']
+  const good = Array.from({ length: rowsBefore }, (_, i) => row(i))
+  const run = async (lines: string[], onBadRow: 'skip' | 'stop'): Promise<{ text: string; error: unknown }> => {
+    const study = demoStudy()
+    let text = ''
+    const source = async function* () {
+      for (const l of lines) yield l
+    }
+    try {
+      await runSeriesPipeline({
+        sample: study.samples.find((s) => s.name === SAMPLE)!,
+        userMaterials: [],
+        wavelengthsNm: [550],
+        tolerance: 1e-4,
+        lines: source(),
+        fileName: 'stop.csv',
+        onBadRow,
+        workers: 2,
+        output: { write: async (t) => void (text += t) }
+      })
+      return { text, error: undefined }
+    } catch (error) {
+      return { text, error }
+    }
+  }
+
+  it('writes the header and every row before the bad one, then stops with its line and column', async () => {
+    const bad = `${new Date(Date.UTC(2026, 0, 1) + rowsBefore * 60_000).toISOString()},1000,n/a,2000,400`
+    const after = Array.from({ length: 300 }, (_, i) => row(rowsBefore + 1 + i))
+    const cut = await run([...head, ...good], 'skip')
+    expect(cut.error).toBeUndefined()
+    expect(cut.text.trimEnd().split('\n')).toHaveLength(rowsBefore + 1)
+    const stopped = await run([...head, ...good, bad, ...after], 'stop')
+    expect(String(stopped.error)).toMatch(new RegExp(`stop\\.csv line ${head.length + rowsBefore + 1} column 3`))
+    expect(stopped.text).toBe(cut.text)
+  }, 120_000)
+})
