@@ -13,7 +13,6 @@ import { startCliWorker } from './workers/start.ts'
 import { takeEarly } from './workers/early.ts'
 import type { SeriesExtra } from './series-optical.ts'
 import type { ByteLines } from './file-lines.ts'
-import type { Chunk, ChunkReading } from './series-chunk.ts'
 
 /**
  * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 8,192
@@ -51,12 +50,6 @@ export interface SeriesRunOptions extends SeriesSetup {
   shard?: { firstLine: number; lastLine: number; line: string }
   /** Extra cells after each row's figures (measured optical instruments beside the sizer; series-optical.ts). */
   extra?: SeriesExtra
-  /**
-   * false: the main thread reads every row (the workers only compute). By default, once the table is recognised
-   * and it is one row per time with a known date order (and neither `shard` nor `extra` is given), the workers
-   * read the rest of the file's lines themselves, in chunks (series-chunk.ts).
-   */
-  chunks?: boolean
 }
 
 export interface SkippedRow {
@@ -98,8 +91,6 @@ interface Block {
   values: Float64Array
   /** With `extra`: each row's extra cells, computed on the main thread when the row is read. */
   extras?: Float64Array[]
-  /** A chunk of the file's lines for the worker to read (then times, lines and values are empty). */
-  chunk?: Chunk
 }
 
 /**
@@ -133,15 +124,13 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const source: AsyncIterable<string | readonly string[] | ByteLines> = { [Symbol.asyncIterator]: () => lineIterator }
   const started = performance.now()
   const setup: SeriesSetup = { sample: o.sample, userMaterials: o.userMaterials, wavelengthsNm: o.wavelengthsNm, tolerance: o.tolerance }
-  const workers: { worker: Worker; inFlight: number; kernels: boolean }[] = []
+  const workers: { worker: Worker; inFlight: number }[] = []
   const window = Math.max(BLOCKS_AHEAD, (BLOCKS_PER_WORKER + 1) * o.workers)
   const queue: Block[] = []
   /** Line numbers of the blocks sent and not yet written, by block. */
   const blockLines = new Map<number, number[]>()
   const blockExtras = new Map<number, Float64Array[]>()
-  const done = new Map<number, Extract<FromWorker, { id: number }>>()
-  // what the workers' readers read of their chunks, taken in input order
-  const tally = { records: 0, rejectedCount: 0, rowsLeftOut: 0, rejected: [] as SizerRejection[], negativeCells: 0, negativeRows: 0 }
+  const done = new Map<number, Extract<FromWorker, { type: 'block' }>>()
   let bins = 0
   let layoutForExtra: BinLayout | undefined
   let current: Block | undefined
@@ -175,11 +164,6 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       if (!best) return
       const b = queue.shift()!
       best.inFlight++
-      if (b.chunk) {
-        const c = b.chunk
-        best.worker.postMessage({ type: 'chunk', id: b.id, ...c } satisfies ToWorker, c.bytes ? [c.bytes.buffer as ArrayBuffer] : [])
-        continue
-      }
       blockLines.set(b.id, b.lines)
       if (b.extras) blockExtras.set(b.id, b.extras)
       best.worker.postMessage({ type: 'block', id: b.id, times: b.times, values: b.values, bins } satisfies ToWorker, [b.values.buffer as ArrayBuffer])
@@ -189,13 +173,6 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const send = (b: Block): void => {
     queue.push(b)
     pump()
-  }
-  /** Sends the block being filled, cut to its rows. */
-  const sendCurrent = (): void => {
-    if (!current) return
-    const n = current.times.length
-    send(n === BLOCK_ROWS ? current : { ...current, values: current.values.slice(0, n * bins) })
-    current = undefined
   }
 
   // The CSV header goes out with the first rows (or at the end of a file whose rows were all left out), so a
@@ -219,7 +196,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   const flush = (): void => {
     while (done.has(nextWrite) && !failure) {
       let r = done.get(nextWrite)!
-      const lines = r.type === 'chunk' ? r.lines : blockLines.get(nextWrite)!
+      const lines = blockLines.get(nextWrite)!
       const extras = blockExtras.get(nextWrite)
       done.delete(nextWrite)
       blockLines.delete(nextWrite)
@@ -249,22 +226,6 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       }
       text += r.text
       written += r.written
-      if (r.type === 'chunk') {
-        const t = r.tally
-        tally.records += t.records
-        tally.rejectedCount += t.rejectedCount
-        tally.rowsLeftOut += t.rowsLeftOut
-        for (const x of t.rejected) if (tally.rejected.length < KEPT_REASONS) tally.rejected.push(x)
-        tally.negativeCells += t.negativeCells
-        tally.negativeRows += t.negativeRows
-        if (r.stop) {
-          // --on-bad-row stop: the chunk's rows before the bad one are written, then the run stops
-          if (text) write(text)
-          text = ''
-          fail(new InputError(r.stop.where, r.stop.problem, r.stop.fix))
-          return
-        }
-      }
     }
     if (text.length >= WRITE_CHARS) {
       write(text)
@@ -275,10 +236,6 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
 
   const onMessage = (w: (typeof workers)[number], m: FromWorker): void => {
     if (m.type === 'ready') return
-    if (m.type === 'kernels') {
-      w.kernels = true
-      return
-    }
     w.inFlight--
     done.set(m.id, m)
     flush()
@@ -291,23 +248,13 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   for (let i = 0; i < o.workers; i++) {
     const worker = early[i] ?? startCliWorker('series-worker', undefined)
     worker.postMessage({ type: 'setup', setup } satisfies ToWorker)
-    const entry = { worker, inFlight: 0, kernels: false }
+    const entry = { worker, inFlight: 0 }
     worker.on('message', (m: FromWorker) => onMessage(entry, m))
     worker.on('error', (e) => fail(new Error(`a worker thread failed: ${e.message}`)))
     worker.on('exit', (code) => {
       if (code !== 0) fail(new Error(`a worker thread stopped (exit code ${code})`))
     })
     workers.push(entry)
-  }
-
-  /** Sends the bin layout to the workers (once the table is recognised; they integrate the kernels). */
-  const sendLayout = (): void => {
-    if (bins !== 0) return
-    const h = reader.header!
-    const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
-    for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
-    bins = h.edges ? h.diameters.length - 1 : h.diameters.length
-    layoutForExtra = layout
   }
 
   const reader = createSizerReader({
@@ -322,7 +269,11 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       shardRecords++
       if (bins === 0) {
         if (o.shard && reader.header!.layout !== 'time-rows') throw new InputError(o.fileName, 'the file has one column per time, so it cannot be split by lines', 'Run it without --shard (or export one row per time).')
-        sendLayout()
+        const h = reader.header!
+        const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
+        for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
+        bins = h.edges ? h.diameters.length - 1 : h.diameters.length
+        layoutForExtra = layout
       }
       if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins), extras: o.extra ? [] : undefined }
       current.extras?.push(o.extra!.cells(record.time, record.values, layoutForExtra!))
@@ -342,80 +293,40 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   try {
     const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
     pendingHeader = (o.shard?.line ?? '') + comments + [...seriesColumns(o.wavelengthsNm), ...(o.extra?.columns ?? [])].map(csvCell).join(',') + '\n'
-    // The lines up to the one on which the table is recognised (the workers' readers recognise it from them), and
-    // whether the workers may read lines themselves (chunked: decided then).
-    const preamble: string[] = []
-    let chunked: boolean | undefined
-    /** Once the table is recognised: whether the workers may read lines themselves (see `chunks`). */
-    const decide = (): void => {
-      chunked = o.chunks !== false && !o.shard && !o.extra && reader.header!.layout === 'time-rows' && !reader.orderPending
-      if (!chunked) return
-      sendLayout()
-      const reading: ChunkReading = { fileName: o.fileName, sizer: { ...o.sizer }, onBadRow: o.onBadRow, maxKeptRejections: KEPT_REASONS, preamble }
-      for (const w of workers) w.worker.postMessage({ type: 'reading', reading } satisfies ToWorker)
-    }
-    /**
-     * A batch of lines goes to a worker to read when a worker has its kernels and at most one item left, and no
-     * block waits to be sent; otherwise this thread reads it (the workers only compute). So the reading goes on
-     * here while the kernels are integrated, and is shared once the workers would otherwise wait for rows.
-     */
-    const workerHungry = (): boolean => chunked === true && queue.length === 0 && workers.some((w) => w.kernels && w.inFlight <= 1)
-    const sendChunk = (texts: string[], bytes: Uint8Array | null): void => {
-      sendCurrent()
-      send({ id: nextId++, times: [], lines: [], values: new Float64Array(0), chunk: { firstLine: lineNo + 1, texts, bytes } })
-    }
     const take = (line: string): void => {
       lineNo++
       // a shard: lines before its part are blank once the header is known; after its part the reading stops
       if (o.shard && lineNo < o.shard.firstLine && reader.header) line = ''
-      const known = reader.header !== undefined
-      if (!known) preamble.push(line)
-      reader.push(line, lineNo)
-      if (!known && reader.header) decide()
+      reader.push(line)
     }
     const last = o.shard?.lastLine ?? Infinity
     /** A line as bytes: read from them when the reader can (a plain row), else decoded. */
     const takeBytes = (bytes: Buffer, start: number, end: number): void => {
       lineNo++
       if (o.shard && lineNo < o.shard.firstLine && reader.header) reader.push('', lineNo)
-      else if (!reader.pushBytes(bytes, start, end, lineNo)) {
-        const line = bytes.toString('utf8', start, end)
-        const known = reader.header !== undefined
-        if (!known) preamble.push(line)
-        reader.push(line, lineNo)
-        if (!known && reader.header) decide()
-      }
+      else if (!reader.pushBytes(bytes, start, end, lineNo)) reader.push(bytes.toString('utf8', start, end), lineNo)
     }
     for await (const item of source) {
       if (typeof item === 'string') take(item)
       else if ('bytes' in item) {
-        const n = item.starts.length
-        let i = 0
-        if (workerHungry()) {
-          // the chunk's lines copied (their buffer goes to the worker)
-          const bytes = new Uint8Array(item.ends[n - 1] - item.starts[0])
-          bytes.set(item.bytes.subarray(item.starts[0], item.ends[n - 1]))
-          sendChunk([], bytes)
-          lineNo += n
-          i = n
-        }
-        for (; i < n && (lineNo < last || !reader.header); i++) takeBytes(item.bytes, item.starts[i], item.ends[i])
-      } else if (item.length > 1 && workerHungry()) {
-        sendChunk(item.slice(), null)
-        lineNo += item.length
+        for (let i = 0; i < item.starts.length && (lineNo < last || !reader.header); i++) takeBytes(item.bytes, item.starts[i], item.ends[i])
       } else for (const line of item) if (lineNo < last || !reader.header) take(line)
       if (lineNo >= last && reader.header) break
       while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
       if (failure) throw failure
     }
     const end = reader.end()
-    const noRows = () => end.recordCount + tally.records === 0 && end.rejectedCount + tally.rejectedCount === 0 && !o.shard
-    const noRowsError = () => new InputError(o.fileName, 'the file has a header but no distributions', 'Export at least one time step (one row per time, one column per bin).')
-    if (!chunked && noRows()) throw noRowsError()
-    sendCurrent()
+    if (end.recordCount === 0 && end.rejectedCount === 0 && !o.shard) {
+      throw new InputError(o.fileName, 'the file has a header but no distributions', 'Export at least one time step (one row per time, one column per bin).')
+    }
+    if (current) {
+      // the last block, cut to its rows
+      const n = current.times.length
+      send({ ...current, values: current.values.slice(0, n * bins) })
+      current = undefined
+    }
     while (!failure && nextWrite < nextId) await changed()
     if (failure) throw failure
-    if (noRows()) throw noRowsError()
     if (text || pendingHeader) write(text)
     text = ''
     o.onProgress?.(written)
@@ -426,21 +337,21 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     let readerSkipped: number
     if (h.layout === 'time-rows') {
       // a shard: the rows left out on its own lines (of those the reader kept the reasons for)
-      readerSkipped = o.shard ? new Set(end.rejected.filter((r) => r.line >= o.shard!.firstLine && r.line <= o.shard!.lastLine).map((r) => r.line)).size : end.rowsLeftOut + tally.rowsLeftOut
+      readerSkipped = o.shard ? new Set(end.rejected.filter((r) => r.line >= o.shard!.firstLine && r.line <= o.shard!.lastLine).map((r) => r.line)).size : end.rowsLeftOut
     } else {
       readerSkipped = new Set(end.rejected.map((r) => r.line)).size
     }
     const mine = (r: { line: number }) => !o.shard || (r.line >= o.shard.firstLine && r.line <= o.shard.lastLine)
-    const skipped: SkippedRow[] = [...end.rejected.filter(mine).map((r: SizerRejection) => ({ ...r })), ...tally.rejected, ...opticsSkips].sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0))
+    const skipped: SkippedRow[] = [...end.rejected.filter(mine).map((r: SizerRejection) => ({ ...r })), ...opticsSkips].sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0))
     const { recordCount: _r, rejected: _j, rejectedCount: _c, ...header } = end
     return {
       header,
-      distributionsRead: (o.shard ? shardRecords : end.recordCount + tally.records) + readerSkipped,
+      distributionsRead: (o.shard ? shardRecords : end.recordCount) + readerSkipped,
       rowsWritten: written,
       rowsSkippedByReader: readerSkipped,
       rowsSkippedByOptics: opticsSkipCount,
       skipped: skipped.slice(0, KEPT_REASONS),
-      negativesZeroed: { cells: end.negativesZeroed.cells + tally.negativeCells, rows: end.negativesZeroed.rows + tally.negativeRows },
+      negativesZeroed: end.negativesZeroed,
       workers: o.workers,
       tolerance: o.tolerance,
       seconds: (performance.now() - started) / 1000

@@ -89,81 +89,66 @@ export class SeriesBlockComputer {
   }
 
   /**
-   * Rows `values[r·bins .. (r+1)·bins)` with their time stamps, as CSV lines (see `row`).
+   * Rows `values[r·bins .. (r+1)·bins)` with their time stamps. The lines are written as bytes into one reused
+   * buffer (numbers by writeSevenDigits) and made a string once per block, as Latin-1; a block with a time stamp
+   * beyond Latin-1 is written cell by cell as strings (blockAsStrings), the same text.
    */
   block(times: readonly string[], values: Float64Array, bins: number): BlockResult {
-    this.startText()
-    for (let r = 0; r < times.length; r++) this.row(times[r], values, r * bins, r)
-    return this.endText()
-  }
-
-  private at = 0
-  /** Set once a time stamp beyond Latin-1 came: the text so far and the rest are a string (see `row`). */
-  private text: string | null = null
-  private written = 0
-  private failures: RowFailure[] = []
-
-  /** Starts the text of a block of rows (`row`, then `endText`). */
-  startText(): void {
-    this.at = 0
-    this.text = null
-    this.written = 0
-    this.failures = []
-  }
-
-  /**
-   * One row's figures from `values[at .. at + bins)` and its CSV line, or its failure (`index`: the row's place in
-   * the block). The lines are written as bytes into one reused buffer (numbers by writeSevenDigits) and made a
-   * string once per block, as Latin-1; from a time stamp beyond Latin-1 on, the block's text so far is made a
-   * string and the rest written a string per cell (csvCell), the same text.
-   */
-  row(time: string, values: ArrayLike<number>, at: number, index: number): void {
+    let bytes = this.bytes
+    let at = 0
+    let written = 0
+    const failures: RowFailure[] = []
     const out = this.figures
-    try {
-      if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
-      this.evaluate(values, at, out, 0)
-    } catch (e) {
-      this.failures.push(failureOf(e, index, this.text !== null ? this.text.length : this.at))
-      return
-    }
-    this.written++
     const width = this.width
-    const cell = csvCell(time)
-    if (this.text === null) {
-      let bytes = this.bytes
-      let w = this.at
+    for (let r = 0; r < times.length; r++) {
+      try {
+        if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
+        this.evaluate(values, r * bins, out, 0)
+      } catch (e) {
+        failures.push(failureOf(e, r, at))
+        continue
+      }
+      const time = csvCell(times[r])
       // room for the time and every number (at most 26 characters and a comma each)
-      const need = w + cell.length + 27 * width + 2
+      const need = at + time.length + 27 * width + 2
       if (need > bytes.length) {
         const grown = new Uint8Array(Math.max(need, 2 * bytes.length))
-        grown.set(bytes.subarray(0, w))
+        grown.set(bytes.subarray(0, at))
         bytes = this.bytes = grown
       }
-      const t = writeLatin1(cell, bytes, w)
-      if (t >= 0) {
-        w = t
-        for (let c = 0; c < width; c++) {
-          bytes[w++] = 44
-          const v = out[c]
-          if (Number.isFinite(v)) w = writeSevenDigits(v, bytes, w)
-        }
-        bytes[w++] = 10
-        this.at = w
-        return
+      at = writeLatin1(time, bytes, at)
+      if (at < 0) return this.blockAsStrings(times, values, bins)
+      for (let c = 0; c < width; c++) {
+        bytes[at++] = 44
+        const v = out[c]
+        if (Number.isFinite(v)) at = writeSevenDigits(v, bytes, at)
       }
-      this.text = Buffer.from(bytes.buffer, bytes.byteOffset, this.at).toString('latin1')
+      bytes[at++] = 10
+      written++
     }
-    let line = cell
-    for (let c = 0; c < width; c++) line += ',' + csvCell(out[c])
-    this.text += line + '\n'
+    return { text: Buffer.from(bytes.buffer, bytes.byteOffset, at).toString('latin1'), written, failures }
   }
 
-  /** The block's text, its rows written and its failures. */
-  endText(): BlockResult {
-    const text = this.text ?? Buffer.from(this.bytes.buffer, this.bytes.byteOffset, this.at).toString('latin1')
-    const r = { text, written: this.written, failures: this.failures }
-    this.startText()
-    return r
+  /** What block gives, written as a string per cell (for time stamps beyond Latin-1). */
+  blockAsStrings(times: readonly string[], values: Float64Array, bins: number): BlockResult {
+    let text = ''
+    let written = 0
+    const failures: RowFailure[] = []
+    const out = this.figures
+    for (let r = 0; r < times.length; r++) {
+      try {
+        if (!this.evaluate) throw this.kernelError ?? new Error('rows arrived before the bin layout')
+        this.evaluate(values, r * bins, out, 0)
+      } catch (e) {
+        failures.push(failureOf(e, r, text.length))
+        continue
+      }
+      let line = csvCell(times[r])
+      for (let c = 0; c < this.width; c++) line += ',' + csvCell(out[c])
+      text += line + '\n'
+      written++
+    }
+    return { text, written, failures }
   }
 }
 

@@ -1,34 +1,23 @@
 // Worker thread of `motebench series`: given the series' setup (a message, or workerData), integrates the bins'
 // kernels once the layout comes, then turns each block of rows it is sent into CSV text (see series-row.ts) and
-// posts it back with the block's number; or, given how to read the file (`reading`), reads each chunk of the
-// file's lines it is sent itself (series-chunk.ts) and posts back its text the same way. It may be started before
-// the main thread has read the study (workers/early.ts): it loads its modules meanwhile and waits for the setup.
+// posts it back with the block's number. It may be started before the main thread has read the study
+// (workers/early.ts): it loads its modules meanwhile and waits for the setup.
 import { parentPort, workerData } from 'node:worker_threads'
 import { SeriesBlockComputer, type BinLayout, type BlockResult, type SeriesSetup } from '../series-row.ts'
-import { ChunkReader, type Chunk, type ChunkReading, type ChunkResult } from '../series-chunk.ts'
 
 export type ToWorker =
   | { type: 'setup'; setup: SeriesSetup }
   | { type: 'layout'; layout: BinLayout }
   | { type: 'block'; id: number; times: string[]; values: Float64Array; bins: number }
-  | { type: 'reading'; reading: ChunkReading }
-  | ({ type: 'chunk'; id: number } & Chunk)
-export type FromWorker = { type: 'ready' } | { type: 'kernels' } | ({ type: 'block'; id: number } & BlockResult) | ({ type: 'chunk'; id: number } & ChunkResult)
+export type FromWorker = { type: 'ready' } | ({ type: 'block'; id: number } & BlockResult)
 
 const port = parentPort!
 let computer = workerData ? new SeriesBlockComputer(workerData as SeriesSetup) : null
-let chunks: ChunkReader | null = null
 
 port.on('message', (m: ToWorker) => {
   if (m.type === 'setup') computer = new SeriesBlockComputer(m.setup)
   else if (!computer) throw new Error(`series worker: "${m.type}" before the setup`)
-  else if (m.type === 'layout') {
-    computer.useLayout(m.layout)
-    port.postMessage({ type: 'kernels' } satisfies FromWorker)
-  }  else if (m.type === 'reading') chunks = new ChunkReader(computer, m.reading)
-  else if (m.type === 'chunk') {
-    if (!chunks) throw new Error('series worker: a chunk before how to read it')
-    port.postMessage({ type: 'chunk', id: m.id, ...chunks.read(m) } satisfies FromWorker)
-  } else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
+  else if (m.type === 'layout') computer.useLayout(m.layout)
+  else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
 })
 port.postMessage({ type: 'ready' } satisfies FromWorker)
