@@ -27,8 +27,8 @@ const WRITE_CHARS = 1 << 20
 const KEPT_REASONS = 1000
 
 export interface SeriesOutput {
-  /** Writes a chunk; resolves when it may be followed by more (backpressure). */
-  write(text: string): Promise<void>
+  /** Writes a chunk (text, or its UTF-8 bytes); resolves when it may be followed by more (backpressure). */
+  write(chunk: string | Uint8Array): Promise<void>
 }
 
 export interface SeriesRunOptions extends SeriesSetup {
@@ -137,7 +137,14 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   let nextId = 0
   let nextWrite = 0
   let written = 0
-  let text = ''
+  /** Text gathered before it is written: strings, and blocks that came as ASCII bytes; `gathered` counts their characters. */
+  let pieces: (string | Uint8Array)[] = []
+  let gathered = 0
+  const gather = (p: string | Uint8Array): void => {
+    if (p.length === 0) return
+    pieces.push(p)
+    gathered += p.length
+  }
   let failure: Error | undefined
   let wake: (() => void) | undefined
   let writing: Promise<void> = Promise.resolve()
@@ -178,15 +185,21 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   // The CSV header goes out with the first rows (or at the end of a file whose rows were all left out), so a
   // file that cannot be read leaves no output at all.
   let pendingHeader = ''
-  const write = (chunk: string): void => {
+  /** Writes the gathered pieces as one chunk: a string when all are strings, else their UTF-8 bytes joined. */
+  const write = (): void => {
     if (pendingHeader) {
-      chunk = pendingHeader + chunk
+      pieces.unshift(pendingHeader)
+      gathered += pendingHeader.length
       pendingHeader = ''
     }
-    unwrittenChars += chunk.length
+    const size = gathered
+    const chunk = pieces.every((p) => typeof p === 'string') ? pieces.join('') : Buffer.concat(pieces.map((p) => (typeof p === 'string' ? Buffer.from(p, 'utf8') : p)))
+    pieces = []
+    gathered = 0
+    unwrittenChars += size
     writing = writing.then(async () => {
       await o.output.write(chunk)
-      unwrittenChars -= chunk.length
+      unwrittenChars -= size
       notify()
     })
     writing.catch(fail)
@@ -198,6 +211,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       let r = done.get(nextWrite)!
       const lines = blockLines.get(nextWrite)!
       const extras = blockExtras.get(nextWrite)
+      // a block that came as ASCII bytes is made text where its rows are cut or extended
+      if (r.bytes && (extras || r.failures.length > 0)) r = { ...r, text: Buffer.from(r.bytes.buffer, r.bytes.byteOffset, r.bytes.length).toString('latin1'), bytes: undefined }
       done.delete(nextWrite)
       blockLines.delete(nextWrite)
       blockExtras.delete(nextWrite)
@@ -213,10 +228,9 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         const line = lines[f.index]
         if (f.internal || o.onBadRow === 'stop') {
           // the rows before this one are written, then the run stops
-          text += r.text.slice(0, f.at)
+          gather(r.text.slice(0, f.at))
           written += f.index - k
-          if (text) write(text)
-          text = ''
+          if (pieces.length > 0) write()
           if (f.internal) fail(new Error(`the optics of line ${line} failed: ${f.message}`))
           else fail(new InputError(`${o.fileName} line ${line}`, `the distribution of this row cannot be used (${problemOf(f)})`, f.fix))
           return
@@ -224,12 +238,11 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         opticsSkipCount++
         if (opticsSkips.length < KEPT_REASONS) opticsSkips.push({ line, reason: `the distribution cannot be used (${problemOf(f)}); the row is left out`, fix: f.fix })
       }
-      text += r.text
+      gather(r.bytes ?? r.text)
       written += r.written
     }
-    if (text.length >= WRITE_CHARS) {
-      write(text)
-      text = ''
+    if (gathered >= WRITE_CHARS) {
+      write()
       o.onProgress?.(written)
     }
   }
@@ -327,8 +340,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     }
     while (!failure && nextWrite < nextId) await changed()
     if (failure) throw failure
-    if (text || pendingHeader) write(text)
-    text = ''
+    if (pieces.length > 0 || pendingHeader) write()
     o.onProgress?.(written)
     await writing
     if (failure) throw failure

@@ -18,6 +18,9 @@ port.on('message', (m: ToWorker) => {
   if (m.type === 'setup') computer = new SeriesBlockComputer(m.setup)
   else if (!computer) throw new Error(`series worker: "${m.type}" before the setup`)
   else if (m.type === 'layout') computer.useLayout(m.layout)
-  else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
+  else {
+    const r = computer.block(m.times, m.values, m.bins)
+    port.postMessage({ type: 'block', id: m.id, ...r } satisfies FromWorker, r.bytes ? [r.bytes.buffer as ArrayBuffer] : [])
+  }
 })
 port.postMessage({ type: 'ready' } satisfies FromWorker)
