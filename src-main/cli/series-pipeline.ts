@@ -27,8 +27,8 @@ const WRITE_CHARS = 1 << 20
 const KEPT_REASONS = 1000
 
 export interface SeriesOutput {
-  /** Writes a chunk (text, or its UTF-8 bytes); resolves when it may be followed by more (backpressure). */
-  write(chunk: string | Uint8Array): Promise<void>
+  /** Writes a chunk; resolves when it may be followed by more (backpressure). */
+  write(text: string): Promise<void>
 }
 
 export interface SeriesRunOptions extends SeriesSetup {
@@ -137,14 +137,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   let nextId = 0
   let nextWrite = 0
   let written = 0
-  /** Text gathered before it is written: strings, and blocks that came as ASCII bytes; `gathered` counts their characters. */
-  let pieces: (string | Uint8Array)[] = []
-  let gathered = 0
-  const gather = (p: string | Uint8Array): void => {
-    if (p.length === 0) return
-    pieces.push(p)
-    gathered += p.length
-  }
+  let text = ''
   let failure: Error | undefined
   let wake: (() => void) | undefined
   let writing: Promise<void> = Promise.resolve()
@@ -185,21 +178,15 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   // The CSV header goes out with the first rows (or at the end of a file whose rows were all left out), so a
   // file that cannot be read leaves no output at all.
   let pendingHeader = ''
-  /** Writes the gathered pieces as one chunk: a string when all are strings, else their UTF-8 bytes joined. */
-  const write = (): void => {
+  const write = (chunk: string): void => {
     if (pendingHeader) {
-      pieces.unshift(pendingHeader)
-      gathered += pendingHeader.length
+      chunk = pendingHeader + chunk
       pendingHeader = ''
     }
-    const size = gathered
-    const chunk = pieces.every((p) => typeof p === 'string') ? pieces.join('') : Buffer.concat(pieces.map((p) => (typeof p === 'string' ? Buffer.from(p, 'utf8') : p)))
-    pieces = []
-    gathered = 0
-    unwrittenChars += size
+    unwrittenChars += chunk.length
     writing = writing.then(async () => {
       await o.output.write(chunk)
-      unwrittenChars -= size
+      unwrittenChars -= chunk.length
       notify()
     })
     writing.catch(fail)
@@ -211,8 +198,6 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       let r = done.get(nextWrite)!
       const lines = blockLines.get(nextWrite)!
       const extras = blockExtras.get(nextWrite)
-      // a block that came as ASCII bytes is made text where its rows are cut or extended
-      if (r.bytes && (extras || r.failures.length > 0)) r = { ...r, text: Buffer.from(r.bytes.buffer, r.bytes.byteOffset, r.bytes.length).toString('latin1'), bytes: undefined }
       done.delete(nextWrite)
       blockLines.delete(nextWrite)
       blockExtras.delete(nextWrite)
@@ -228,9 +213,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         const line = lines[f.index]
         if (f.internal || o.onBadRow === 'stop') {
           // the rows before this one are written, then the run stops
-          gather(r.text.slice(0, f.at))
+          text += r.text.slice(0, f.at)
           written += f.index - k
-          if (pieces.length > 0) write()
+          if (text) write(text)
+          text = ''
           if (f.internal) fail(new Error(`the optics of line ${line} failed: ${f.message}`))
           else fail(new InputError(`${o.fileName} line ${line}`, `the distribution of this row cannot be used (${problemOf(f)})`, f.fix))
           return
@@ -238,11 +224,12 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         opticsSkipCount++
         if (opticsSkips.length < KEPT_REASONS) opticsSkips.push({ line, reason: `the distribution cannot be used (${problemOf(f)}); the row is left out`, fix: f.fix })
       }
-      gather(r.bytes ?? r.text)
+      text += r.text
       written += r.written
     }
-    if (gathered >= WRITE_CHARS) {
-      write()
+    if (text.length >= WRITE_CHARS) {
+      write(text)
+      text = ''
       o.onProgress?.(written)
     }
   }
@@ -340,7 +327,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
     }
     while (!failure && nextWrite < nextId) await changed()
     if (failure) throw failure
-    if (pieces.length > 0 || pendingHeader) write()
+    if (text || pendingHeader) write(text)
+    text = ''
     o.onProgress?.(written)
     await writing
     if (failure) throw failure

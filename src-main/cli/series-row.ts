@@ -47,10 +47,7 @@ export interface RowFailure {
 
 /** A block's outcome: the CSV lines of its good rows, in order, and its failed rows. */
 export interface BlockResult {
-  /** The lines as text ('' when they come as `bytes`). */
   text: string
-  /** The lines as bytes, when every character is ASCII (so the bytes are the text's UTF-8 as well as its Latin-1). */
-  bytes?: Uint8Array
   written: number
   failures: RowFailure[]
 }
@@ -94,14 +91,12 @@ export class SeriesBlockComputer {
   /**
    * Rows `values[r·bins .. (r+1)·bins)` with their time stamps. The lines are written as bytes into one reused
    * buffer (numbers by writeSevenDigits) and made a string once per block, as Latin-1; a block with a time stamp
-   * beyond Latin-1 is written cell by cell as strings (blockAsStrings), the same text. A block all in ASCII (every
-   * time stamp) comes as its bytes (a copy), which the main thread writes as they are: no string is made of them.
+   * beyond Latin-1 is written cell by cell as strings (blockAsStrings), the same text.
    */
   block(times: readonly string[], values: Float64Array, bins: number): BlockResult {
     let bytes = this.bytes
     let at = 0
     let written = 0
-    let ascii = true
     const failures: RowFailure[] = []
     const out = this.figures
     const width = this.width
@@ -121,7 +116,6 @@ export class SeriesBlockComputer {
         grown.set(bytes.subarray(0, at))
         bytes = this.bytes = grown
       }
-      for (let i = 0; i < time.length && ascii; i++) if (time.charCodeAt(i) > 127) ascii = false
       at = writeLatin1(time, bytes, at)
       if (at < 0) return this.blockAsStrings(times, values, bins)
       for (let c = 0; c < width; c++) {
@@ -132,7 +126,6 @@ export class SeriesBlockComputer {
       bytes[at++] = 10
       written++
     }
-    if (ascii) return { text: '', bytes: bytes.slice(0, at), written, failures }
     return { text: Buffer.from(bytes.buffer, bytes.byteOffset, at).toString('latin1'), written, failures }
   }
 

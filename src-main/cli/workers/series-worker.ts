@@ -18,9 +18,6 @@ port.on('message', (m: ToWorker) => {
   if (m.type === 'setup') computer = new SeriesBlockComputer(m.setup)
   else if (!computer) throw new Error(`series worker: "${m.type}" before the setup`)
   else if (m.type === 'layout') computer.useLayout(m.layout)
-  else {
-    const r = computer.block(m.times, m.values, m.bins)
-    port.postMessage({ type: 'block', id: m.id, ...r } satisfies FromWorker, r.bytes ? [r.bytes.buffer as ArrayBuffer] : [])
-  }
+  else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
 })
 port.postMessage({ type: 'ready' } satisfies FromWorker)
