@@ -50,8 +50,17 @@ const mathjsOnFirstUse = {
 
 export async function buildCli({ quiet = false } = {}) {
   const t0 = performance.now()
-  const common = {
+  const result = await build({
     absWorkingDir: root,
+    entryPoints: {
+      main: 'src-main/cli/main.ts',
+      'series-worker': 'src-main/cli/workers/series-worker.ts',
+      'uncertainty-worker': 'src-main/cli/workers/uncertainty-worker.ts'
+    },
+    // Each command is its own chunk (main.ts imports them on demand), so a command loads only what it uses.
+    // Everything in one folder: src-main/cli/workers/start.ts finds a worker beside the chunk that starts it.
+    splitting: true,
+    chunkNames: '[name]-[hash]',
     outdir: 'out/cli',
     outExtension: { '.js': '.mjs' },
     bundle: true,
@@ -68,21 +77,6 @@ export async function buildCli({ quiet = false } = {}) {
     plugins: [mathjsOnFirstUse, ownModulesWithoutSideEffects],
     metafile: true,
     logLevel: 'warning'
-  }
-  const result = await build({
-    ...common,
-    entryPoints: { main: 'src-main/cli/main.ts' },
-    // Each command is its own chunk (main.ts imports them on demand), so a command loads only what it uses.
-    // Everything in one folder: src-main/cli/workers/start.ts finds a worker beside the chunk that starts it.
-    splitting: true,
-    chunkNames: '[name]-[hash]'
-  })
-  // The worker threads, each one file of its own with only what it uses: a thread shares no module with the main
-  // thread, and one file loads quicker than the shared chunks it would otherwise import (the series worker: 97 kB
-  // against about 200 kB in 8 files; ready 18 ms of processor time sooner, six alternated starts at a load of 10).
-  const workers = await build({
-    ...common,
-    entryPoints: { 'series-worker': 'src-main/cli/workers/series-worker.ts', 'uncertainty-worker': 'src-main/cli/workers/uncertainty-worker.ts' }
   })
   await build({
     absWorkingDir: root,
@@ -99,7 +93,7 @@ export async function buildCli({ quiet = false } = {}) {
   })
   if (process.env.MOTEBENCH_BUILD_META) (await import('node:fs')).writeFileSync(process.env.MOTEBENCH_BUILD_META, JSON.stringify(result.metafile))
   // chunks of earlier builds (their names carry a hash of their content) are removed once the new ones are written
-  const built = new Set([...Object.keys(result.metafile.outputs), ...Object.keys(workers.metafile.outputs)].map((f) => basename(f)))
+  const built = new Set(Object.keys(result.metafile.outputs).map((f) => basename(f)))
   for (const f of await readdir(join(root, 'out/cli'))) if (f.endsWith('.mjs') && !built.has(f)) await rm(join(root, 'out/cli', f), { force: true })
   if (!quiet) process.stdout.write(`motebench: command line built into out/cli in ${Math.round(performance.now() - t0)} ms\n`)
 }
