@@ -11,9 +11,10 @@
  *
  * On this grid the trapezoid rule is used, halving the step level by level and reusing every node. A lognormal
  * mode's nodes are the points t = j·2^−L of a lattice fixed on the whole t axis (L chosen so that at least four
- * steps cross the mode): its integrand is small at the ends of the range (sample.ts leaves out about a hundredth
- * of the tolerance), where the trapezoid rule converges faster than any power of the step and needs no end
- * nodes, and every mode, and every edit of one, lands on the same nodes, whose values the workspace's node
+ * steps cross the mode): its integrand is small at the ends of the range (sample.ts leaves out 1e-6 of a mode's
+ * second moment among small particles, and a tenth of the tolerance among large ones), where the trapezoid rule
+ * converges faster than any power of the step and needs no end nodes, and every mode, and every edit of one,
+ * lands on the same nodes, whose values the workspace's node
  * cache keeps (nodeCache.ts). A measured bin
  * (flat in log D, with a jump at its edges) is split from its own edges, and its levels are combined by
  * Richardson extrapolation (Simpson's rule). A level is accepted when every figure (σext, σsca, σabs relative
