@@ -21,8 +21,9 @@
  * to σext, g, and b, β̄ while they are refined) changed by less than the tolerance, and this change and the one
  * before add up to less than it: where narrow resonances are not resolved, single changes are erratic and
  * understate the error (the tests compare with much finer integrations, at many nearby wavelengths). Beyond
- * level 3 a lognormal segment is refined by panels (panels.ts): only where its integral still changes, the other
- * panels' new nodes filled in by a cubic-exact subdivision, so that the grid stays uniform.
+ * level 2 a lognormal segment is refined by panels (panels.ts): only where its integral still changes, the other
+ * panels' new nodes filled in by a cubic-exact subdivision, so that the grid stays uniform (and on level 3, where
+ * the angular sums still run, given their neighbours' rows).
  *
  * Upscatter. The population's S11 is summed at fixed scattering angles (upscatter.ts: 32 Gauss nodes in Θ on
  * each hemisphere), from which b, β(μ₀) and β̄ follow. Those sums converge more slowly in size than the
@@ -196,6 +197,7 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
             target.sca += h * nodeF[1]
             target.abs += h * nodeF[2]
             target.gsca += h * nodeF[3]
+            if (withAngles) visit.addNeighbourRows(sg, base, m, h, h * nodeF[1], target)
             continue
           }
           visit.addNode(sg, base, m, h, halfEnds && (k === 0 || k === count - 1) ? 0.5 * h : h, target, withAngles, withUser)
@@ -245,7 +247,9 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
       lastAngChange = angChange
       lastFigures = figures
       // Beyond the uniform levels, panels whose changes are small settle (panels.ts).
-      if (lv >= SETTLE_FROM_LEVEL && anglesFrozen && userFrozen) settledChange = settlePanels(panels, settledChange, SETTLED_SHARE * opts.tolerance)
+      // At the default tolerance they may settle before the angular sums stop (level 3): a settled panel's nodes then
+      // take their neighbours' normalised rows, as nodes carrying little do (NodeVisitor.addNeighbourRows).
+      if (lv >= SETTLE_FROM_LEVEL && userFrozen && (anglesFrozen || opts.tolerance >= DEFAULT_TOLERANCE)) settledChange = settlePanels(panels, settledChange, SETTLED_SHARE * opts.tolerance)
       visit.negligibleExt = 1e-10 * figures.ext
       visit.negligibleSca = 1e-8 * figures.sca
       visit.interpShare = opts.tolerance * figures.sca

@@ -147,6 +147,42 @@ export class NodeVisitor {
     this.carryNode = -1
   }
 
+  /**
+   * The angular sums of a node whose cross-sections were interpolated (a settled panel's, integrate.ts), carrying
+   * wsca of σsca: its neighbours' normalised rows and g, as a node carrying little takes them (addNode). False where
+   * a neighbour holds no scattering particles (nothing added).
+   */
+  addNeighbourRows(seg: Segment, base: number, m: number, h: number, wsca: number, sums: Sums): boolean {
+    // the segment's last u follows this node, as in addNode, so that a neighbour evaluated here gets the u (to the
+    // last bit) it gets in a warm workspace
+    const i = this.nodes.findNext(base + m * h)
+    seg.u = i >= 0 ? this.nodes.values[NODE_FIELDS * i + NODE_U] : this.axis.uAt(seg, base + m * h)
+    if (!(wsca >= this.negligibleSca)) return true
+    if (this.carryNode >= 0 && this.carryT !== base + (m - 1) * h) this.flushCarry()
+    const tA = base + (m - 1) * h
+    const a = this.carryNode >= 0 && this.carryT === tA ? this.carryNode : this.nodeWithRow(seg, tA)
+    const tB = base + (m + 1) * h
+    const b = a >= 0 ? this.nodeWithRow(seg, tB) : -1
+    if (a < 0 || b < 0) return false
+    const vals = this.nodes.values
+    const fa = (0.5 * wsca) / vals[NODE_FIELDS * a + NODE_SCA]
+    const fb = (0.5 * wsca) / vals[NODE_FIELDS * b + NODE_SCA]
+    if (this.carryNode === a && this.carrySums === sums) {
+      this.addRowTimes(sums, a, fa + this.carryShare)
+      this.carryNode = -1
+    } else {
+      this.flushCarry()
+      this.addRowTimes(sums, a, fa)
+    }
+    this.carryNode = b
+    this.carryT = tB
+    this.carryShare = fb
+    this.carrySums = sums
+    sums.angSca += wsca
+    sums.angG += fa * vals[NODE_FIELDS * a + NODE_GSCA] + fb * vals[NODE_FIELDS * b + NODE_GSCA]
+    return true
+  }
+
   // Adds f(t)·weight for the node at t = base + m·h: from the cache where it holds the node, else from a Mie
   // evaluation.
   addNode(seg: Segment, base: number, m: number, h: number, weight: number, sums: Sums, withUp: boolean, withUser: boolean): void {
