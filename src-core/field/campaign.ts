@@ -15,7 +15,7 @@
  */
 import { InputError } from '../errors.ts'
 import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinKernels, type BinLayout } from '../optics/binKernels.ts'
-import { OpticsWorkspace } from '../optics/integrate.ts'
+import { OpticsWorkspace } from '../optics/workspace.ts'
 import type { Sample, Study } from '../study/model.ts'
 import { campaignProblems, isSizerKind, type CampaignFileKind, type CampaignSettings } from './campaign-settings.ts'
 import { readCampaignInstrument, readCampaignSizer, type CampaignFileSummary, type CampaignInput, type ReadInstrument, type ReadSizer, type SizerPart } from './campaign-read.ts'

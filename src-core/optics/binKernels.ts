@@ -6,7 +6,9 @@
  */
 import { binPowerIntegral, binsFromMeasurement, type SizeBins } from '../sizes/index.ts'
 import type { BinsSpec, Sample, Study } from '../study/model.ts'
-import { bulkOpticsAt, OpticsWorkspace, type Conditions } from './integrate.ts'
+import { bulkOpticsAt } from './bulkOptics.ts'
+import type { Conditions } from './integrate.ts'
+import { OpticsWorkspace } from './workspace.ts'
 import { resolveComposition, type ParticleKind } from './particles.ts'
 import { studyMaterials } from './sample.ts'
 

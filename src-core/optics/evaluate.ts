@@ -4,7 +4,7 @@
  */
 import type { Study } from '../study/model.ts'
 import { sampleForcing, sampleForcingMap } from './forcing.ts'
-import { OpticsWorkspace } from './integrate.ts'
+import { OpticsWorkspace } from './workspace.ts'
 import { finish, sampleOpticsSteps, studyMaterials, type SampleOpticsOptions } from './sample.ts'
 import type { HumidityGrowthCurve, SampleOptics, SampleResult, StudyResults } from './types.ts'
 

@@ -10,7 +10,7 @@ import { bandAverage, blackbodyFractionBelow, LONGWAVE_BANDS, LONGWAVE_WEIGHT_TE
 import { InputError } from '../errors.ts'
 import type { Material } from '../materials/index.ts'
 import type { Sample, Study } from '../study/model.ts'
-import { OpticsWorkspace } from './integrate.ts'
+import { OpticsWorkspace } from './workspace.ts'
 import { sampleSetting, studyMaterials } from './sample.ts'
 import { spectralBulkSteps, type SpectralBulk } from './spectralIntegrate.ts'
 import type { LongwaveBandOptics, LongwaveOptics } from './types.ts'

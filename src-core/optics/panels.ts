@@ -24,8 +24,12 @@
 
 /** Width of a panel in t (integrate.ts): about 4 in size parameter for large particles (x up to 100), 0.5 in ln D for small ones. */
 export const PANEL_WIDTH = 2
-/** Panels may settle after this level (and once the angular sums have stopped): levels up to it are uniform. */
-export const SETTLE_FROM_LEVEL = 3
+/**
+ * Panels may settle after this level: levels up to it are uniform. At the default tolerance the angular sums still
+ * run on the next level (integrate.ts), where a settled panel's nodes take their neighbours' rows; at a tighter one
+ * panels settle only once those sums have stopped. (From level 3 until 2026-12: DEVELOPERS.md.)
+ */
+export const SETTLE_FROM_LEVEL = 2
 /** Share of the tolerance that the settled panels' last two changes may take together. */
 export const SETTLED_SHARE = 0.25
 

@@ -27,7 +27,9 @@ import {
 } from '../sizes/index.ts'
 import type { Composition, ModeSpec, Sample, Study } from '../study/model.ts'
 import { UPSCATTER_COS_ZENITH } from './upscatter.ts'
-import { bulkOpticsSteps, DEFAULT_TOLERANCE, finish, OpticsWorkspace, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import { bulkOpticsSteps, finish } from './bulkOptics.ts'
+import { DEFAULT_TOLERANCE, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import { OpticsWorkspace } from './workspace.ts'
 import { angstromFit, deciview, deciviewWithheld, layerDepthM, localAbsorptionExponents, localAngstromExponents, rayleighScatteringMm, visibilityWithheld, visualRangeKm } from './metrics.ts'
 import { particleGrowthAt, particleGrowthSetting, resolveComposition, type ParticleKind } from './particles.ts'
 import { sampleLongwaveSteps } from './longwave.ts'
@@ -135,9 +137,20 @@ export function samplePopulations(sample: Sample, own: readonly Material[], long
 /** The share of a mode's second moment the full computation leaves out (see modeSegment). */
 const FULL_TAIL = 1e-6
 
-/** A mode's segment for an integration to `tolerance` (its tail a hundredth of it, at most the full range's). */
+/**
+ * The share of the tolerance that a mode's cut tail of large particles may take (see modeSegment): a tenth, so that
+ * at the default tolerance 1e-5 of the second moment is left out (5e-6 above the range).
+ */
+const TAIL_SHARE = 0.1
+
+/** A mode's segment for an integration to `tolerance` (its tail TAIL_SHARE of it, at most the full range's). */
 function modeSegmentAt(mode: LognormalMode, longestWavelengthUm: number, tolerance: number): SizeSegment {
-  return modeSegment(mode, longestWavelengthUm, Math.max(FULL_TAIL, tolerance / 100))
+  return modeSegment(mode, longestWavelengthUm, integrationTail(tolerance))
+}
+
+/** The share of a mode's second moment an integration to `tolerance` leaves out among large particles. */
+function integrationTail(tolerance: number): number {
+  return Math.max(FULL_TAIL, tolerance * TAIL_SHARE)
 }
 
 /**
@@ -150,13 +163,15 @@ const GEOMETRIC_X = 20
  * The diameter range of a mode for optics: all but 1e-6 of its second moment, which carries the cross-sections
  * of particles large next to the wavelength (C ∝ D²), extended upward to hold the sixth moment (which carries
  * Rayleigh scattering, C ∝ D⁶) as far as particles stay small next to the longest wavelength (x ≤ 2 there).
- * What is left out is ~1e-6 of σ, a hundredth of the default integration tolerance (1e-4).
  *
- * A looser computation (a quick pass) may stop sooner: at the diameter past which only `tail` (a hundredth of
- * its tolerance) of the second moment lies, if even at the longest wavelength the particles there are large
- * (x ≥ GEOMETRIC_X, so that the second moment measures their share of σ). The largest particles, which cost
- * most per node, are the ones it leaves out. Where the cut would fall among smaller particles (fine modes, whose
- * Q_ext still climbs steeply with size there), it stays where the full computation puts it.
+ * An integration to a tolerance stops sooner among large particles: at the diameter past which only `tail` (a
+ * tenth of its tolerance, TAIL_SHARE: 1e-5 at the default 1e-4, 1e-3 for a quick pass) of the second moment lies,
+ * if even at the longest wavelength the particles there are large (x ≥ GEOMETRIC_X, so that Q_ext ≈ 2 and the
+ * second moment measures their share of σ): what is left out is then about `tail` of the mode's σ, a one-sided
+ * error within the tolerance. The largest particles, which cost most per node (their Mie series has about x
+ * terms), are the ones it leaves out. Where the cut would fall among smaller particles (fine modes, whose Q_ext
+ * still climbs steeply with size there), it stays where the 1e-6 range puts it. (A hundredth of the tolerance was
+ * used before; measured in DEVELOPERS.md, "Where the coarse samples' work goes".)
  */
 function modeSegment(mode: LognormalMode, longestWavelengthUm: number, tail: number): SizeSegment {
   const r2 = integrationRange([mode], { highestMoment: 2, tailFraction: FULL_TAIL })
@@ -269,7 +284,7 @@ type SampleSetting = ReturnType<typeof sampleSetting>
  * default tolerance, to the bit.
  */
 function fullRangeSetting(setting: SampleSetting, study: Pick<Study, 'wavelengths_nm'>, tolerance = DEFAULT_TOLERANCE): SampleSetting {
-  if (Math.max(FULL_TAIL, tolerance / 100) === Math.max(FULL_TAIL, DEFAULT_TOLERANCE / 100)) return setting
+  if (integrationTail(tolerance) === integrationTail(DEFAULT_TOLERANCE)) return setting
   const longest = Math.max(...study.wavelengths_nm) / 1000
   const pops = setting.pops.map((p) => (p.mode ? { ...p, segments: [modeSegmentAt(p.mode, longest, DEFAULT_TOLERANCE)] } : p))
   return { pops, cond: setting.cond }

@@ -20,7 +20,8 @@
  * Checked against the one-wavelength integration at a tight tolerance in test/optics/spectral.test.ts.
  */
 import { coatedSphereEfficiencies, sphereEfficiencies, type SphereEfficiencies } from '../mie/index.ts'
-import { STEP_WORK, type Conditions, type OpticsWorkspace, type Population, type SizeSegment } from './integrate.ts'
+import { STEP_WORK, type Conditions, type Population, type SizeSegment } from './integrate.ts'
+import type { OpticsWorkspace } from './workspace.ts'
 import { NODE_FIELDS } from './nodeCache.ts'
 import { dryIndicesAt, particleGrowth, wetParticle, type WetParticle } from './particles.ts'
 import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'

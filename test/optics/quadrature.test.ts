@@ -8,7 +8,7 @@
 // The demo's coarse samples (humid sea salt, dust) are checked at all their wavelengths against the same kind of
 // reference for their wet populations (at the end of this file).
 import { describe, expect, it } from 'vitest'
-import { bulkOpticsAt, CoatedWorkspace, coatedSphereEfficiencies, demoStudy, dryIndicesAt, gaussLegendre, MieWorkspace, sphereEfficiencies, studyMaterials, wetParticle, type Conditions, type Population } from '../../src-core/index.ts'
+import { bulkOpticsAt, CoatedWorkspace, coatedSphereEfficiencies, demoStudy, dryIndicesAt, gaussLegendre, integrationRange, MieWorkspace, sphereEfficiencies, studyMaterials, wetParticle, type Conditions, type Population } from '../../src-core/index.ts'
 import { particleGrowthAt, particleGrowthSetting } from '../../src-core/optics/particles.ts'
 import { sampleSetting } from '../../src-core/optics/sample.ts'
 import { DRY, modePopulation } from './helpers.ts'
@@ -133,20 +133,29 @@ function fineWetIntegration(pops: readonly Population[], cond: Conditions, wl: n
 describe('refinement by panels on the demo\'s coarse samples, at all their wavelengths', () => {
   // Their nearly lossless wet sea salt (k about 1e-8 at 350 nm) and dust carry the ripple structure that made the
   // uniform rule refine the whole mode to level 8; the panels (src-core/optics/panels.ts) refine only where the
-  // integral still changes. b, β(μ₀) and β̄ come from angular sums that stop before any panel settles, so they
-  // differ from the uniform rule's only through g in the control variate (b = ½ − ¾g + R, β̄ = ½ − ⅜g + R′;
-  // upscatter.ts): their bounds against the reference without angular error (upscatter.test.ts) carry over,
-  // widened by ¾ of the change of g.
+  // integral still changes. b, β(μ₀) and β̄ come from angular sums that stop at level 3, one level after panels
+  // may settle: a settled panel's nodes on level 3 take their neighbours' normalised rows (integrate.ts), so b and
+  // β̄ move from the uniform rule's through g in the control variate (b = ½ − ¾g + R, β̄ = ½ − ⅜g + R′;
+  // upscatter.ts) and through those rows. The uniform rule's are within 6e-5 of a reference without angular
+  // error (upscatter.test.ts; DEVELOPERS.md, the demo's samples against a 1e-6 integration), so a move under
+  // 4e-5 keeps them within 1e-4.
+  // The reference runs over each mode's range to all but 1e-7 of its second moment (5e-8 above it, by the
+  // lognormal's moments), past the range the computation integrates (it leaves out a tenth of the tolerance of
+  // the second moment among large particles: sample.ts, modeSegment), so that it sees what that cut leaves out.
   const study = demoStudy()
   for (const name of ['Coastal haze day', 'Quarry dust event']) {
-    it(`${name}: σext, σsca, σabs within 1e-4 relative, g within 1e-4, b and β̄ moved only through g`, () => {
+    it(`${name}: σext, σsca, σabs within 1e-4 relative, g within 1e-4, b, β̄ and β(μ₀) within 4e-5 of the uniform rule's`, () => {
       const sample = study.samples.find((s) => s.name === name)!
       const { pops, cond } = sampleSetting(sample, study, {}, studyMaterials(study))
+      const wide = pops.map((p) =>
+        p.mode ? { ...p, segments: [{ ...p.segments[0], hi: Math.max(p.segments[0].hi, Math.log(integrationRange([p.mode], { highestMoment: 2, tailFraction: 1e-7 }).max)) }] } : p
+      )
+      expect(wide.some((p, i) => p.segments[0].hi > pops[i].segments[0].hi)).toBe(true)
       let panelEvaluations = 0
       let uniformEvaluations = 0
       for (const nm of study.wavelengths_nm) {
         const wl = nm / 1000
-        const ref = fineWetIntegration(pops, cond, wl)
+        const ref = fineWetIntegration(wide, cond, wl)
         const r = bulkOpticsAt(pops, wl, cond)
         const uniform = bulkOpticsAt(pops, wl, cond, { panels: false })
         const at = `${nm} nm`
@@ -156,14 +165,37 @@ describe('refinement by panels on the demo\'s coarse samples, at all their wavel
         expect(Math.abs(r.g - ref.g), at).toBeLessThan(1e-4)
         const dg = r.g - uniform.g
         expect(Math.abs(dg), at).toBeLessThan(1e-4)
-        expect(Math.abs(r.backscatter - uniform.backscatter + 0.75 * dg), at).toBeLessThan(1e-12)
-        expect(Math.abs(r.upscatterMean - uniform.upscatterMean + 0.375 * dg), at).toBeLessThan(1e-12)
+        expect(Math.abs(r.backscatter - uniform.backscatter), at).toBeLessThan(4e-5)
+        expect(Math.abs(r.upscatterMean - uniform.upscatterMean), at).toBeLessThan(4e-5)
+        r.upscatter.forEach((v, i) => expect(Math.abs(v - uniform.upscatter[i]), at).toBeLessThan(4e-5))
         expect(r.evaluations, at).toBeLessThanOrEqual(uniform.evaluations)
         panelEvaluations += r.evaluations
         uniformEvaluations += uniform.evaluations
       }
       // the point of the panels: the refinement's work goes where the integral still changes
       expect(panelEvaluations).toBeLessThan(0.6 * uniformEvaluations)
+    }, 300_000)
+  }
+})
+
+describe('the f(RH) points of the coarse samples (tolerance 1e-3, no angular sums), against the fine reference', () => {
+  // An f(RH) point is σsca at 550 nm integrated to 1e-3 (evaluate.ts, HUMIDITY_CURVE_TOLERANCE), its mode's range
+  // cut among large particles at a tenth of that (sample.ts) and its panels settling from level 2; the reference
+  // (above) runs over each mode to all but 1e-7 of its second moment.
+  const study = demoStudy()
+  const at550 = { ...study, wavelengths_nm: [550] }
+  for (const name of ['Coastal haze day', 'Quarry dust event']) {
+    it(`${name}: σsca within 1e-3 at 0, 80 and 95 % RH`, () => {
+      const sample = study.samples.find((s) => s.name === name)!
+      for (const rh of [0, 80, 95]) {
+        const { pops, cond } = sampleSetting(sample, at550, { rhPercent: rh, tolerance: 1e-3 }, studyMaterials(study))
+        const wide = pops.map((p) =>
+          p.mode ? { ...p, segments: [{ ...p.segments[0], hi: Math.max(p.segments[0].hi, Math.log(integrationRange([p.mode], { highestMoment: 2, tailFraction: 1e-7 }).max)) }] } : p
+        )
+        const ref = fineWetIntegration(wide, cond, 0.55)
+        const r = bulkOpticsAt(pops, 0.55, cond, { tolerance: 1e-3, upscatter: false })
+        expect(rel(r.sca, ref.sca), `${rh} %`).toBeLessThan(1e-3)
+      }
     }, 300_000)
   }
 })

@@ -1,4 +1,4 @@
-// The size integration in steps (bulkOpticsSteps, src-core/optics/integrate.ts): the app's workers run it a few
+// The size integration in steps (bulkOpticsSteps, src-core/optics/bulkOptics.ts): the app's workers run it a few
 // milliseconds at a time, looking for newer work in between; the figures must not depend on that.
 import { describe, expect, it } from 'vitest'
 import { bulkOpticsAt, bulkOpticsSteps, demoStudy, OpticsWorkspace, samplePopulations, studyMaterials } from '../../src-core/index.ts'
