@@ -15,6 +15,7 @@ import { cssVar, decadeTicks, panels, timeLabels, tzDate, type Panel } from './p
 import { decade, indexOfRow, readoutOf, rowNear } from './readout.ts'
 import { shownPlots } from './recordPng.ts'
 import { campaignStore, setMark, setVisible } from './session.ts'
+import { chartsMoved } from './warm.ts'
 
 export { recordPng } from './recordPng.ts'
 
@@ -177,6 +178,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     let settleFrame = 0
     let unsettled: number[] = []
     const gesture = () => {
+      chartsMoved()
       clearTimeout(settleTimer)
       cancelAnimationFrame(settleFrame)
       settleFrame = 0

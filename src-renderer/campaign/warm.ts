@@ -2,16 +2,41 @@
 // humidity and the study's wavelengths: every such sample's size integration visits the same nodes. Once a record
 // has arrived, the optics workers work out the mean of all its rows (a sample like any stretch's), so that a
 // stretch's sample finds its nodes in their caches and gets its first figures as quickly as an edit does.
+//
+// It waits while the charts are zoomed or panned: the optics workers take both processors for about half a second,
+// and the page's redraws then waited for one (a trace of ten zoom steps just after the open: the first two steps'
+// page thread busy 80 and 44 ms for 15 and 8 ms of its own processor time; DEVELOPERS.md).
 import { stretchSample, type CampaignRecord } from '../../src-core/index.ts'
 import { warmNodes } from '../compute/client.ts'
 import { store } from '../state/store.ts'
 
+/** The warming starts once the charts have not moved for this long (ms): a gesture's settling and its redraws. */
+export const QUIET_MS = 600
+
+/** When the charts last moved (performance.now()). */
+let movedAt = -Infinity
+
+/** Said by the charts at each zoom or pan step. */
+export function chartsMoved(): void {
+  movedAt = performance.now()
+}
+
+/** The last record to arrive: a record's warming waiting when a newer one came is dropped. */
+let latest: CampaignRecord | null = null
+
 export function warmStretchNodes(r: CampaignRecord): void {
+  latest = r
+  // a user's first zoom comes soon after the charts are drawn: counted from the record's arrival, as a move
+  chartsMoved()
   // where the files record a humidity, each stretch's sample takes its own mean of it, and the node caches are kept
   // per humidity: no sample worked out here would share a stretch's nodes
   if (r.rh) return
-  // after the charts are drawn: the mean of a year's rows takes a few tens of milliseconds on the page
-  setTimeout(() => {
+  // after the charts are drawn (the mean of a year's rows takes a few tens of milliseconds on the page), and not
+  // while they move
+  const when = () => {
+    if (r !== latest) return
+    const wait = movedAt + QUIET_MS - performance.now()
+    if (wait > 0) return void setTimeout(when, wait)
     let sample
     try {
       sample = stretchSample(r, -Infinity, Infinity).sample
@@ -19,5 +44,6 @@ export function warmStretchNodes(r: CampaignRecord): void {
       return // no row with a distribution: no stretch can be made into a sample either
     }
     warmNodes({ ...store().get().study, samples: [sample] })
-  }, 200)
+  }
+  setTimeout(when, QUIET_MS)
 }
