@@ -10,32 +10,46 @@ import { stretchSample, type CampaignRecord } from '../../src-core/index.ts'
 import { warmNodes } from '../compute/client.ts'
 import { store } from '../state/store.ts'
 
-/** The warming starts once the charts have not moved for this long (ms): a gesture's settling and its redraws. */
+/** The warming starts once the charts have not moved for this long (ms; their first drawing counts as a move): a
+ * gesture's settling and its redraws, and the first zoom that comes soon after the charts are drawn. */
 export const QUIET_MS = 600
 
 /** When the charts last moved (performance.now()). */
 let movedAt = -Infinity
+
+/** The record whose charts were last drawn. */
+let drawn: CampaignRecord | null = null
 
 /** Said by the charts at each zoom or pan step. */
 export function chartsMoved(): void {
   movedAt = performance.now()
 }
 
+/** Said by the charts once they are drawn for a record (a user's first zoom comes soon after). */
+export function chartsDrawn(r: CampaignRecord): void {
+  drawn = r
+  chartsMoved()
+}
+
+/** A record whose charts are not drawn this long after its arrival (another view shown) is warmed all the same. */
+const UNSEEN_MS = 3000
+
 /** The last record to arrive: a record's warming waiting when a newer one came is dropped. */
 let latest: CampaignRecord | null = null
 
 export function warmStretchNodes(r: CampaignRecord): void {
   latest = r
-  // a user's first zoom comes soon after the charts are drawn: counted from the record's arrival, as a move
-  chartsMoved()
+  const arrived = performance.now()
   // where the files record a humidity, each stretch's sample takes its own mean of it, and the node caches are kept
   // per humidity: no sample worked out here would share a stretch's nodes
   if (r.rh) return
-  // after the charts are drawn (the mean of a year's rows takes a few tens of milliseconds on the page), and not
-  // while they move
+  // once the charts are drawn and have not moved for QUIET_MS (the mean of a year's rows takes a few tens of
+  // milliseconds on the page too)
   const when = () => {
     if (r !== latest) return
-    const wait = movedAt + QUIET_MS - performance.now()
+    const now = performance.now()
+    if (drawn !== r && now - arrived < UNSEEN_MS) return void setTimeout(when, 100)
+    const wait = (drawn === r ? movedAt : arrived) + QUIET_MS - now
     if (wait > 0) return void setTimeout(when, wait)
     let sample
     try {
