@@ -15,6 +15,7 @@ import { cssVar, decadeTicks, panels, timeLabels, tzDate, type Panel } from './p
 import { decade, indexOfRow, readoutOf, rowNear } from './readout.ts'
 import { shownPlots } from './recordPng.ts'
 import { campaignStore, setMark, setVisible } from './session.ts'
+import { chartsDrawn, chartsMoved } from './warm.ts'
 
 export { recordPng } from './recordPng.ts'
 
@@ -177,6 +178,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     let settleFrame = 0
     let unsettled: number[] = []
     const gesture = () => {
+      chartsMoved()
       clearTimeout(settleTimer)
       cancelAnimationFrame(settleFrame)
       settleFrame = 0
@@ -225,6 +227,7 @@ export function RecordCharts({ record, theme }: RecordChartsProps) {
     }
     const vis = campaignStore().get().visible
     if (vis) show(vis[0] / 1000, vis[1] / 1000, true)
+    chartsDrawn(record)
 
     // mouse: the wheel zooms around the pointer; Shift+wheel (or a sideways wheel) pans
     // wheel events come faster than frames: they add up to one range, drawn once a frame

@@ -66,36 +66,126 @@ const PACKED: Uint32Array = (() => {
   return out
 })()
 
-/** Kept between redraws: the colours by bin and pixel column (grown as needed). */
+/** Kept between redraws: the colours by bin and pixel column (grown as needed), and the image. */
 let byBin = new Uint32Array(0)
+let image: ImageData | null = null
+
+/** Where the platform keeps a double's high 32 bits (sign, exponent, the mantissa's top 20) in a Uint32Array view. */
+const HI = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0
+const BUCKET_SHIFT = 12 // a bucket: the high word's top 20 bits, 1/256 of an octave
+
+/**
+ * The rule without a logarithm per value (Math.log10 was about 80 ns a value here, so a zoom's new rows cost
+ * 10–60 ms): for each colour k (1–255) the least double whose shade by the rule is k or more, found once per scale
+ * by bisection of the rule itself, so that a value's shade is how many of them it reaches; a value's bucket (its
+ * high word's top bits) gives the count at the bucket's start, and a bucket that holds a threshold (about one in
+ * twenty) compares the value with it. The same colours as the rule, round((log₁₀ v − a) × scale) held to 0–255 (it
+ * rises with the value; test/renderer/colourMap.test.ts checks it at every colour's edge).
+ */
+export interface ShadeLookup {
+  /** thresholds[k]: the least double of shade ≥ k (k = 1–255; [0] unused). */
+  thresholds: Float64Array
+  /** The first bucket of the table; a lower one is shade 0. */
+  first: number
+  /** Per bucket from `first`: the shade of its least value; past the table, 255. */
+  table: Uint8Array
+}
+
+export function shadeLookup(a: number, scale: number): ShadeLookup {
+  const rule = (v: number) => Math.round((Math.log10(v) - a) * scale)
+  const thresholds = new Float64Array(256)
+  for (let k = 1; k < 256; k++) {
+    const t = 10 ** (a + (k - 0.5) / scale)
+    if (!(t > 0 && t < Infinity)) {
+      thresholds[k] = t > 0 ? Infinity : Number.MIN_VALUE
+      continue
+    }
+    let lo = t
+    let hi = t
+    while (lo > 0 && rule(lo) >= k) lo *= 0.999
+    while (hi < Infinity && rule(hi) < k) hi *= 1.001
+    for (;;) {
+      const mid = lo + (hi - lo) / 2
+      if (mid <= lo || mid >= hi) break
+      if (rule(mid) >= k) hi = mid
+      else lo = mid
+    }
+    thresholds[k] = Math.max(hi, thresholds[k - 1])
+  }
+  const word = new Float64Array(1)
+  const bits = new Uint32Array(word.buffer)
+  const bucketOf = (v: number) => ((word[0] = v), bits[HI] >>> BUCKET_SHIFT)
+  const first = bucketOf(thresholds[1])
+  const last = bucketOf(thresholds[255] < Infinity ? thresholds[255] : Number.MAX_VALUE)
+  const table = new Uint8Array(last - first + 1)
+  let k = 0
+  for (let b = first; b <= last; b++) {
+    bits[HI] = b << BUCKET_SHIFT
+    bits[1 - HI] = 0
+    while (k < 255 && thresholds[k + 1] <= word[0]) k++
+    table[b - first] = k
+  }
+  return { thresholds, first, table }
+}
 
 /** Each cell's colour (0–255) on the scale, worked out the first time its row is drawn (one byte a cell). */
 interface Shades {
   range: [number, number]
   shade: Uint8Array
   done: Uint8Array
+  lookup: ShadeLookup
+  /** The record's dN/dlogD as 32-bit words. */
+  words: Uint32Array
 }
 const shadesByRecord = new WeakMap<CampaignRecord, Shades>()
 
 function shadesOf(r: CampaignRecord, range: [number, number]): Shades {
   let s = shadesByRecord.get(r)
   if (!s || s.range[0] !== range[0] || s.range[1] !== range[1]) {
-    s = { range: [range[0], range[1]], shade: new Uint8Array(r.times.length * r.bins), done: new Uint8Array(r.times.length) }
+    const lookup = shadeLookup(range[0], 255 / (range[1] - range[0]))
+    s = { range: [range[0], range[1]], shade: new Uint8Array(r.times.length * r.bins), done: new Uint8Array(r.times.length), lookup, words: wordsOf(r.dNdlogD) }
     shadesByRecord.set(r, s)
   }
   return s
 }
 
+/** The shades of `count` values of `v` from `from` into `out` from `at` (`words`: `v` as 32-bit words). */
+export function shadeRun(v: Float64Array, words: Uint32Array, from: number, count: number, lookup: ShadeLookup, out: Uint8Array, at: number): void {
+  const { thresholds, first, table } = lookup
+  const size = table.length
+  for (let i = 0; i < count; i++) {
+    const x = v[from + i]
+    let k = 0
+    if (x > 0) {
+      const b = (words[2 * (from + i) + HI] >>> BUCKET_SHIFT) - first
+      if (b >= size) k = 255
+      else if (b >= 0) {
+        k = table[b]
+        while (k < 255 && x >= thresholds[k + 1]) k++
+      }
+    }
+    out[at + i] = k
+  }
+}
+
+/** A Uint32Array on the same memory as `v`, two words a value. */
+const wordsOf = (v: Float64Array) => new Uint32Array(v.buffer, v.byteOffset, v.length * 2)
+
 /**
  * Draws the map into the plot area of `u` (x in s, y in µm on a log scale). Each pixel column takes its row's colours
- * bin by bin (one logarithm a bin, not a pixel; a column of the same row as the one before copies it), kept bin by
+ * bin by bin (a shade a bin, not a pixel; a column of the same row as the one before copies it), kept bin by
  * bin across the columns, so that each pixel row of the image is one bin's run of colours, copied whole.
  */
 export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, number]): void {
   const { left, top, width, height } = u.bbox
   if (width < 1 || height < 1) return
   const ratio = width / u.over.clientWidth || 1
-  const img = u.ctx.createImageData(Math.round(width), Math.round(height))
+  const iw = Math.round(width)
+  const ih = Math.round(height)
+  // the image of the last redraw when its size is the same: every pixel is written again (a fresh one each redraw
+  // was most of a megabyte of new memory)
+  if (!image || image.width !== iw || image.height !== ih) image = u.ctx.createImageData(iw, ih)
+  const img = image
   const w = img.width
   const e = r.edgesUm
   const bins = r.bins
@@ -105,9 +195,7 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
     // the bin whose lower edge is the last at or below d (bins are e[b] .. e[b + 1])
     binOf[y] = d < e[e.length - 1] ? lastAtOrBelow(e, d, e.length - 1) : -1
   }
-  const [a, z] = range
-  const scale = 255 / (z - a)
-  const { shade, done } = shadesOf(r, range)
+  const { shade, done, lookup, words } = shadesOf(r, range)
   if (byBin.length < bins * w) byBin = new Uint32Array(bins * w)
   const cols = byBin
   let before = -1
@@ -126,10 +214,7 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
     before = row
     const base = row * bins
     if (!done[row]) {
-      for (let b = 0; b < bins; b++) {
-        const v = r.dNdlogD[base + b]
-        shade[base + b] = v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0
-      }
+      shadeRun(r.dNdlogD, words, base, bins, lookup, shade, base)
       done[row] = 1
     }
     for (let b = 0, o = x; b < bins; b++, o += w) cols[o] = PACKED[shade[base + b]]
@@ -138,6 +223,7 @@ export function drawColourMap(u: uPlot, r: CampaignRecord, range: [number, numbe
   for (let y = 0; y < img.height; y++) {
     const b = binOf[y]
     if (b >= 0) px.set(cols.subarray(b * w, b * w + w), y * w)
+    else px.fill(0, y * w, y * w + w)
   }
   u.ctx.putImageData(img, Math.round(left), Math.round(top))
 }

@@ -2,13 +2,14 @@
 // resources/field/campaign-*.csv (test/field/make-campaign-files.ts): adding the files shows their summaries,
 // the charts draw the record's figures (read from the plotted data), a marked stretch becomes a sample whose mean
 // distribution is the mean of those rows, the CSV export is the record, and a study whose files cannot be opened
-// by path says so with the old path.
+// by path says so with the old path; when the partner worker that reads the measured files fails, the record worker
+// reads them itself and the record is the same.
 import { readFileSync } from 'node:fs'
 import { readFile } from 'node:fs/promises'
 import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { describe, expect, test } from 'vitest'
-import { buildCampaignRecord, demoStudy, recordCsv, stretchSample, type CampaignInput } from '../../src-core/index.ts'
+import { buildCampaignRecord, demoStudy, recordCsv, recordSeries, stretchSample, type CampaignInput } from '../../src-core/index.ts'
 import { appSession, isLocal, ROOT } from './harness.ts'
 import { findClipped } from './clipping.ts'
 
@@ -198,6 +199,55 @@ describe('station record', { timeout: 180_000 }, () => {
     await again.setFiles(path('campaign-mobility.csv'))
     await expect.poll(() => fresh.getByTestId('record-file-missing').count()).toBe(3)
     await import('node:fs/promises').then((fs) => fs.rm(file, { force: true }))
+  })
+
+  test('when the partner worker fails, the record worker reads the measured files from their blobs: the same record', async () => {
+    const { page } = await session.open({ wait: false })
+    // the partner (reader.ts, the worker named motebench-reader) replaced, before the view starts it, by one that
+    // fails on the first file it is sent, as a fault in its reading would
+    await page.evaluate(() => {
+      const w = window as unknown as { Worker: typeof Worker; partnerFailures: number }
+      const Real = w.Worker
+      w.partnerFailures = 0
+      w.Worker = class extends Real {
+        constructor(url: string | URL, options?: WorkerOptions) {
+          if (options?.name !== 'motebench-reader') {
+            super(url, options)
+            return
+          }
+          super(URL.createObjectURL(new Blob(["self.onmessage = () => { throw new Error('the partner failed (test)') }"], { type: 'text/javascript' })))
+          this.addEventListener('error', () => w.partnerFailures++)
+        }
+      }
+    })
+    await page.locator('#tab-record').click()
+    await page.locator('[data-view="record"]').waitFor()
+    await addCampaign(page)
+    await page.getByTestId('record-density').fill('1.8')
+    await page.getByTestId('record-density').press('Enter')
+    await page.getByTestId('record-summary').waitFor({ timeout: 120_000 })
+    // the partner was sent a measured file and failed (so this record's measured files were not its reading)
+    expect(await page.evaluate(() => (window as unknown as { partnerFailures: number }).partnerFailures)).toBeGreaterThan(0)
+    // the measured files' summaries, as in the first test
+    const summaries = page.getByTestId('record-file-summary')
+    expect(await summaries.nth(2).getByTestId('record-file-rows').textContent()).toMatch(/^863 rows, scattering 450 nm/)
+    expect(await summaries.nth(3).getByTestId('record-file-left-out').textContent()).toBe('1 row left out')
+    // the coefficients chart's measured lines are the record's measured figures computed here from the texts
+    const want = recordSeries(expected())
+    const plotted = await page.locator('[data-chart="record-coefficients"]').evaluate((el) => (el as unknown as { plotted: { x: number[]; series: { label: string; values: (number | null)[] }[] } }).plotted)
+    expect(plotted.x).toEqual(want.x)
+    let compared = 0
+    for (const [label, key] of [['σsca measured 550 nm', 'sca_meas'], ['σabs measured, at 550 nm', 'abs_meas']] as const) {
+      const got = plotted.series.find((s) => s.label === label)!.values
+      got.forEach((v, i) => {
+        const w = want.values[key][i]
+        if (w === null) return expect(v).toBeNull()
+        // the absorption carried to 550 nm by its Ångström exponent: the page's Math and Node's may differ in the last bits
+        expect(v! / w).toBeCloseTo(1, 12)
+        compared++
+      })
+    }
+    expect(compared).toBeGreaterThan(1500) // both lines, nearly every row of the three days
   })
 
   test('no request leaves the machine', () => {

@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest'
 import type uPlot from 'uplot'
 import type { CampaignRecord } from '../../src-core/index.ts'
-import { COLOUR_TABLE, colourRange, drawColourMap } from '../../src-renderer/campaign/colourMap.ts'
+import { COLOUR_TABLE, colourRange, drawColourMap, shadeLookup, shadeRun } from '../../src-renderer/campaign/colourMap.ts'
 
 const BINS = 12
 const EDGES = Float64Array.from({ length: BINS + 1 }, (_, i) => 0.01 * 10 ** (i / 6)) // 0.01–1 µm
@@ -112,4 +112,36 @@ describe('the colour scale’s ends', () => {
     }
     expect(colourRange(record(0))).toEqual([0, 1])
   })
+})
+
+describe('a cell’s shade without a logarithm per value (shadeLookup, shadeRun)', () => {
+  // the rule: round((log₁₀ v − a) × scale) held to 0–255, 0 for a value that is not positive (written out here)
+  const rule = (v: number, a: number, scale: number) => (v > 0 ? Math.max(0, Math.min(255, Math.round((Math.log10(v) - a) * scale))) : 0)
+  const f = new Float64Array(1)
+  const bits = new BigUint64Array(f.buffer)
+  /** The double `steps` representable numbers away from x (x positive). */
+  const nextTo = (x: number, steps: bigint) => ((f[0] = x), (bits[0] += steps), f[0])
+  const shadesOf = (v: Float64Array, a: number, scale: number) => {
+    const out = new Uint8Array(v.length)
+    shadeRun(v, new Uint32Array(v.buffer), 0, v.length, shadeLookup(a, scale), out, 0)
+    return out
+  }
+  for (const [a, z] of [[1.5, 4.5], [-2, 3], [0, 0.5], [2.5, 7.5]] as const) {
+    it(`gives the rule's shade to every value: scale ${a} to ${z}`, () => {
+      const scale = 255 / (z - a)
+      const lookup = shadeLookup(a, scale)
+      // values spread over the scale and four decades either side, and the values that are not ordinary
+      const v: number[] = [0, -0, -1, NaN, Infinity, -Infinity, Number.MIN_VALUE, Number.MAX_VALUE, 1e-300, 1e300]
+      for (let i = 0; i < 20_000; i++) v.push(10 ** (a - 4 + ((z - a + 8) * i) / 20_000))
+      // each colour's least value and the three doubles either side of it: where a shortcut would go wrong
+      for (let k = 1; k < 256; k++) for (let d = -3n; d <= 3n; d++) v.push(nextTo(lookup.thresholds[k], d))
+      const values = Float64Array.from(v)
+      const got = shadesOf(values, a, scale)
+      let wrong = 0
+      for (let i = 0; i < values.length; i++) if (got[i] !== rule(values[i], a, scale)) wrong++
+      expect(wrong).toBe(0)
+      // each colour is met: the check saw the whole scale, not a few shades
+      expect(new Set(got).size).toBe(256)
+    })
+  }
 })
