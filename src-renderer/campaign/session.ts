@@ -23,7 +23,7 @@ import { edit, uniqueName } from '../state/actions.ts'
 import { createStore, newId, store } from '../state/store.ts'
 import type { FromRecordWorker, RecordWorkerInput, ToRecordWorker } from './worker.ts'
 import type { FromReader, ToReader } from './reader.ts'
-import { warmStretchNodes } from './warm.ts'
+import { stretchMarked, warmStretchNodes } from './warm.ts'
 import { holdBytes, holdFile, type HeldFile } from './held.ts'
 import { guessKind } from './kind.ts'
 
@@ -360,7 +360,10 @@ export function resetSession(): void {
   session.set({ texts: {}, missing: {}, changed: {}, build: null, failure: null, running: false, share: 0, mark: null, visible: null })
 }
 
-export const setMark = (mark: [number, number] | null): void => session.set({ mark })
+export const setMark = (mark: [number, number] | null): void => {
+  session.set({ mark })
+  if (mark) stretchMarked()
+}
 export const setVisible = (visible: [number, number] | null): void => session.set({ visible })
 
 /** Makes the marked stretch a sample of the study (selected); returns why not when it cannot. */

@@ -37,20 +37,40 @@ const UNSEEN_MS = 3000
 /** The last record to arrive: a record's warming waiting when a newer one came is dropped. */
 let latest: CampaignRecord | null = null
 
+/** The waiting warming's check, and whether a stretch was marked since the record came (see stretchMarked). */
+let waiting: (() => void) | null = null
+let marked = false
+
+/**
+ * Said when a stretch is marked: a sample is likely asked for next, so the warming waits no longer (a sample
+ * asked for while it runs replaces it, and finds in the caches the nodes it got through).
+ */
+export function stretchMarked(): void {
+  marked = true
+  waiting?.()
+}
+
 export function warmStretchNodes(r: CampaignRecord): void {
   latest = r
+  marked = false
+  waiting = null
   const arrived = performance.now()
   // where the files record a humidity, each stretch's sample takes its own mean of it, and the node caches are kept
   // per humidity: no sample worked out here would share a stretch's nodes
   if (r.rh) return
-  // once the charts are drawn and have not moved for QUIET_MS (the mean of a year's rows takes a few tens of
-  // milliseconds on the page too)
+  // once the charts are drawn and have not moved for QUIET_MS, or at once when a stretch is marked (the mean of a
+  // year's rows takes a few tens of milliseconds on the page too)
+  let sent = false
   const when = () => {
-    if (r !== latest) return
+    if (r !== latest || sent) return
     const now = performance.now()
-    if (drawn !== r && now - arrived < UNSEEN_MS) return void setTimeout(when, 100)
-    const wait = (drawn === r ? movedAt : arrived) + QUIET_MS - now
-    if (wait > 0) return void setTimeout(when, wait)
+    if (!marked) {
+      if (drawn !== r && now - arrived < UNSEEN_MS) return void setTimeout(when, 100)
+      const wait = (drawn === r ? movedAt : arrived) + QUIET_MS - now
+      if (wait > 0) return void setTimeout(when, wait)
+    }
+    sent = true
+    waiting = null
     let sample
     try {
       sample = stretchSample(r, -Infinity, Infinity).sample
@@ -59,5 +79,6 @@ export function warmStretchNodes(r: CampaignRecord): void {
     }
     warmNodes({ ...store().get().study, samples: [sample] })
   }
+  waiting = when
   setTimeout(when, QUIET_MS)
 }
