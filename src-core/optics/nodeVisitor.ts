@@ -159,7 +159,17 @@ export class NodeVisitor {
     seg.u = i >= 0 ? this.nodes.values[NODE_FIELDS * i + NODE_U] : this.axis.uAt(seg, base + m * h)
     if (!(wsca >= this.negligibleSca)) return true
     if (this.carryNode >= 0 && this.carryT !== base + (m - 1) * h) this.flushCarry()
+    return this.takeNeighbourRows(seg, base, m, h, wsca, sums)
+  }
+
+  /**
+   * Adds, for the node at base + m·h carrying wsca of σsca, the mean of its two neighbours' normalised rows and g
+   * (the previous level's nodes: base + (m ± 1)·h is how that level wrote them, to the bit), each evaluated and kept
+   * where the cache lacks it. False, adding nothing, where a neighbour holds no scattering particles.
+   */
+  private takeNeighbourRows(seg: Segment, base: number, m: number, h: number, wsca: number, sums: Sums): boolean {
     const tA = base + (m - 1) * h
+    // the left neighbour is the last node's right one when that node took its neighbours' rows too
     const a = this.carryNode >= 0 && this.carryT === tA ? this.carryNode : this.nodeWithRow(seg, tA)
     const tB = base + (m + 1) * h
     const b = a >= 0 ? this.nodeWithRow(seg, tB) : -1
@@ -167,6 +177,8 @@ export class NodeVisitor {
     const vals = this.nodes.values
     const fa = (0.5 * wsca) / vals[NODE_FIELDS * a + NODE_SCA]
     const fb = (0.5 * wsca) / vals[NODE_FIELDS * b + NODE_SCA]
+    // A's row is added once with both shares it takes (this node's and the last one's); B's share waits for the
+    // next node, which may take B as its own left neighbour.
     if (this.carryNode === a && this.carrySums === sums) {
       this.addRowTimes(sums, a, fa + this.carryShare)
       this.carryNode = -1
@@ -232,37 +244,12 @@ export class NodeVisitor {
     let userRow = user ? nodes.userRow(i, this.userKey) : -1
     // Beyond the first angular levels a node carrying less than the tolerance's share of σsca takes the mean of
     // its two neighbours' normalised rows and g, whatever the cache holds for it (module comment); the control
-    // variate puts its own g back. Its neighbours are the previous level's nodes (base + (m ± 1)·h is how that
-    // level wrote them, to the bit).
+    // variate puts its own g back.
     if (withUp && !user && this.lv > FIRST_ANGULAR_LEVELS && (w * sca < this.interpShare || axis.ax * Math.exp(u) < SMOOTH_X)) {
-      const tA = base + (m - 1) * h
       const before = ws.evaluations
-      // the left neighbour is the last node's right one when that node took its neighbours' rows too
-      const a = this.carryNode >= 0 && this.carryT === tA ? this.carryNode : this.nodeWithRow(seg, tA)
-      const tB = base + (m + 1) * h
-      const b = a >= 0 ? this.nodeWithRow(seg, tB) : -1
+      const took = this.takeNeighbourRows(seg, base, m, h, w * sca, sums)
       if (ws.evaluations !== before) fresh = false
-      if (a >= 0 && b >= 0) {
-        const vals = nodes.values
-        const fa = (0.5 * w * sca) / vals[NODE_FIELDS * a + NODE_SCA]
-        const fb = (0.5 * w * sca) / vals[NODE_FIELDS * b + NODE_SCA]
-        // A's row is added once with both shares it takes (this node's and the last one's); B's share waits for
-        // the next node, which may take B as its own left neighbour.
-        if (this.carryNode === a && this.carrySums === sums) {
-          this.addRowTimes(sums, a, fa + this.carryShare)
-          this.carryNode = -1
-        } else {
-          this.flushCarry()
-          this.addRowTimes(sums, a, fa)
-        }
-        this.carryNode = b
-        this.carryT = tB
-        this.carryShare = fb
-        this.carrySums = sums
-        sums.angSca += w * sca
-        sums.angG += fa * vals[NODE_FIELDS * a + NODE_GSCA] + fb * vals[NODE_FIELDS * b + NODE_GSCA]
-        return
-      }
+      if (took) return
     }
     this.flushCarry()
     if ((withUp && upRow < 0) || (user && userRow < 0)) {
