@@ -130,6 +130,15 @@ function fineWetIntegration(pops: readonly Population[], cond: Conditions, wl: n
   return { ext, sca, abs, g: gsca / sca }
 }
 
+/**
+ * The populations with each mode's range carried up to all but 1e-7 of its second moment (5e-8 above it), past the
+ * range the computation integrates, so that a reference over them sees what the computation's cut leaves out.
+ */
+function widened<P extends Population & { mode?: Parameters<typeof integrationRange>[0][number] }>(pops: readonly P[]): P[] {
+  const top = (p: P) => Math.log(integrationRange([p.mode!], { highestMoment: 2, tailFraction: 1e-7 }).max)
+  return pops.map((p) => (p.mode ? { ...p, segments: [{ ...p.segments[0], hi: Math.max(p.segments[0].hi, top(p)) }] } : p))
+}
+
 describe('refinement by panels on the demo\'s coarse samples, at all their wavelengths', () => {
   // Their nearly lossless wet sea salt (k about 1e-8 at 350 nm) and dust carry the ripple structure that made the
   // uniform rule refine the whole mode to level 8; the panels (src-core/optics/panels.ts) refine only where the
@@ -147,9 +156,7 @@ describe('refinement by panels on the demo\'s coarse samples, at all their wavel
     it(`${name}: σext, σsca, σabs within 1e-4 relative, g within 1e-4, b, β̄ and β(μ₀) within 4e-5 of the uniform rule's`, () => {
       const sample = study.samples.find((s) => s.name === name)!
       const { pops, cond } = sampleSetting(sample, study, {}, studyMaterials(study))
-      const wide = pops.map((p) =>
-        p.mode ? { ...p, segments: [{ ...p.segments[0], hi: Math.max(p.segments[0].hi, Math.log(integrationRange([p.mode], { highestMoment: 2, tailFraction: 1e-7 }).max)) }] } : p
-      )
+      const wide = widened(pops)
       expect(wide.some((p, i) => p.segments[0].hi > pops[i].segments[0].hi)).toBe(true)
       let panelEvaluations = 0
       let uniformEvaluations = 0
@@ -189,9 +196,7 @@ describe('the f(RH) points of the coarse samples (tolerance 1e-3, no angular sum
       const sample = study.samples.find((s) => s.name === name)!
       for (const rh of [0, 80, 95]) {
         const { pops, cond } = sampleSetting(sample, at550, { rhPercent: rh, tolerance: 1e-3 }, studyMaterials(study))
-        const wide = pops.map((p) =>
-          p.mode ? { ...p, segments: [{ ...p.segments[0], hi: Math.max(p.segments[0].hi, Math.log(integrationRange([p.mode], { highestMoment: 2, tailFraction: 1e-7 }).max)) }] } : p
-        )
+        const wide = widened(pops)
         const ref = fineWetIntegration(wide, cond, 0.55)
         const r = bulkOpticsAt(pops, 0.55, cond, { tolerance: 1e-3, upscatter: false })
         expect(rel(r.sca, ref.sca), `${rh} %`).toBeLessThan(1e-3)
