@@ -58,10 +58,37 @@ export async function benchUiEdits(): Promise<void> {
     const context = await browser.newContext({ viewport: { width: 1366, height: 768 } })
     const page = await context.newPage()
     await page.goto(served.url)
-    const start = performance.now()
+    // Timed inside the page, as the edits are: from the click on the cautions (the workers start with the page and
+    // may be computing behind them) to the first frame painted after the status says every result is up to date
+    // (0 if that came before the click), and from the navigation's start to that frame. A clock in this process
+    // read 0.2-0.6 s more: playwright's click waits before the event, and its waitFor sees the status late.
+    // (a string: the bench runs under tsx, whose named functions would call a helper the page does not have)
+    await page.evaluate(`(() => {
+      const times = { click: 0, ok: 0 }
+      window.openTimes = times
+      document.addEventListener('click', () => (times.click ||= performance.now()), { capture: true, once: true })
+      const observer = new MutationObserver(() => {
+        if (times.ok || !document.querySelector('[data-status="ok"]')) return
+        observer.disconnect()
+        requestAnimationFrame(() => (times.ok = performance.now()))
+      })
+      observer.observe(document.body, { subtree: true, childList: true, attributes: true, attributeFilter: ['data-status'] })
+      if (document.querySelector('[data-status="ok"]')) requestAnimationFrame(() => (times.ok = performance.now()))
+    })()`)
     await page.getByTestId('cautions-ok').click()
-    await page.locator('[data-status="ok"]').waitFor({ timeout: 300_000 })
-    report('ui-open-demo', { all_samples_ms: Math.round(performance.now() - start) })
+    const opened = await page.waitForFunction(() => {
+      const t = (window as unknown as { openTimes: { click: number; ok: number } }).openTimes
+      return t.ok > 0 && t.click > 0 ? t : null
+    }, undefined, { polling: 'raf', timeout: 300_000 })
+    const { click, ok } = (await opened.jsonValue()) as { click: number; ok: number }
+    // the window's first contentful paint: where a later start, without the cautions, shows the study
+    const painted = await page.evaluate(() => performance.getEntriesByName('first-contentful-paint')[0]?.startTime ?? NaN)
+    report('ui-open-demo', {
+      all_samples_ms: Math.round(Math.max(0, ok - click)),
+      goal_all_samples_ms: '<= 1500',
+      from_first_paint_ms: Math.round(ok - painted),
+      from_navigation_ms: Math.round(ok)
+    })
     const names = await page.locator('.sample-item').evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.sample ?? ''))
     for (const [i, name] of names.entries()) {
       await page.locator(`.sample-item[data-sample="${name}"] button.sample-name`).click()
