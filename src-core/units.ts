@@ -8,6 +8,8 @@ import { mathComplex, mathUnit, mathUnitOf } from './mathjsOnDemand.ts'
 import { InputError } from './errors.ts'
 import { readableNumber } from './numberText.ts'
 
+export { prepareQuantities } from './mathjsOnDemand.ts'
+
 function normaliseUnitText(text: string): string {
   return text.trim().replace(/[µμ]/g, 'u')
 }

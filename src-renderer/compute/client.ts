@@ -2,7 +2,7 @@
 // job at a time, a newer edit supersedes (and stops) the running job, unchanged samples are not computed again.
 // The optics worker is kept alive across jobs (its node cache makes edits of sizes and amounts cheap): a newer
 // job or a cancel is a message it reads between steps of its work.
-import { validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
+import { prepareQuantities, validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
 import { COMPUTE_THREADS, jobSteps, type EvaluateItem, type FromWorker, type ToWorker } from './messages.ts'
 
@@ -124,6 +124,20 @@ function showInbox(): void {
   }
   if (changed) store().set(s)
   sendWarm()
+  if (waiting.some(([, m]) => m.type === 'finished')) prepareUnitsWhenIdle()
+}
+
+let unitsPrepared = false
+
+/**
+ * mathjs's units are made on first use (about 0.2 s of this thread): once a job has finished, in idle time, so that
+ * neither the start's computation nor the first unit typed waits for them.
+ */
+function prepareUnitsWhenIdle(): void {
+  if (unitsPrepared) return
+  unitsPrepared = true
+  if (typeof requestIdleCallback === 'function') requestIdleCallback(() => prepareQuantities(), { timeout: 5000 })
+  else setTimeout(prepareQuantities, 500)
 }
 
 /** Stops the running job at its next step (the next edit starts a new one). */

@@ -49,6 +49,9 @@ export function Field<T>(p: FieldProps<T>) {
 
   // Follow the document when it changes from elsewhere (undo, another sample), unless the text says the same.
   useEffect(() => {
+    // the text as the value writes it needs no reading (a unit read makes mathjs's units, about 0.2 s, which the
+    // app's start would pay for every length field while the workers start beside it)
+    if (text === p.write(p.value)) return
     try {
       if (JSON.stringify(p.read(text)) === JSON.stringify(p.value)) return
     } catch {
