@@ -8,7 +8,7 @@
 // always did, from its own reading.
 import { closeSync, openSync, readFileSync, readSync } from 'node:fs'
 import { basename } from 'node:path'
-import { createSizerReader, parseStudy, type BinLayout } from '../../src-core/index.ts'
+import { createSizerReader, type BinLayout, type Study } from '../../src-core/index.ts'
 import { findSample, readWavelengthsNm } from './common.ts'
 import { splitTextLines } from './file-lines.ts'
 import { readSeriesArgs } from './series-args.ts'
@@ -31,9 +31,11 @@ export function guessSeriesRun(argv: string[]): { setup: SeriesSetup; layout: Bi
     const v = a.values
     // instruments beside the sizer add wavelengths and are read first: no guess
     if (v.scattering !== undefined || v.absorption !== undefined) return null
-    const parsed = parseStudy(readFileSync(a.studyPath, 'utf8'), basename(a.studyPath))
-    if (!parsed.ok) return null
-    const study = parsed.study
+    // the study's JSON as it is, not checked (the command checks it; the check, zod's schemas, is a fifth of a
+    // megabyte of code this thread would load): a study whose check changes it (a default filled in, an older
+    // version brought up to date) gives a setup unequal to the command's, and no use of the guess
+    const text = readFileSync(a.studyPath, 'utf8')
+    const study = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text) as Study
     const { sample } = findSample(study, a.sampleName, 'series')
     const wavelengthsNm = v.wavelengths !== undefined ? readWavelengthsNm(v.wavelengths) : study.wavelengths_nm.slice()
     const setup: SeriesSetup = { sample, userMaterials: study.user_materials ?? [], wavelengthsNm, tolerance: a.tolerance }
