@@ -53,14 +53,6 @@ class TextLines {
   }
 }
 
-/** The lines of a whole text, split as fileLines splits them. */
-export function splitTextLines(text: string): string[] {
-  const split = new TextLines()
-  const lines = split.push(text)
-  lines.push(...split.end())
-  return lines
-}
-
 /** The lines of a text stream in batches (one per chunk read), as TextLines splits them. */
 export async function* fileLines(stream: AsyncIterable<string>): AsyncGenerator<string[]> {
   const split = new TextLines()

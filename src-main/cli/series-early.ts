@@ -1,12 +1,10 @@
 // What main.ts reads of `motebench series`'s arguments before the command's code loads: the number of worker
 // threads, to start them at once (workers/early.ts), so that they load their modules while this thread loads the
-// command's, reads the study and the file's first rows; they are given the arguments, to integrate the bins'
-// kernels before the command asks (series-guess.ts). A light module: only what main.ts loads anyway.
+// command's, reads the study and the file's first rows. A light module: only what main.ts loads anyway.
 import { availableParallelism } from 'node:os'
 import { parseArgs } from 'node:util'
 import { readInteger } from './common.ts'
 import { startEarly } from './workers/early.ts'
-import type { SeriesWorkerData } from './workers/series-worker.ts'
 
 /** Worker threads of a series run: --workers, else one fewer than the processors (at least 1). */
 export function seriesWorkerCount(workers: string | undefined): number {
@@ -19,8 +17,7 @@ export function startSeriesWorkersEarly(argv: string[]): void {
     const { values } = parseArgs({ args: argv, options: { workers: { type: 'string' } }, strict: false, allowPositionals: true })
     const workers = values.workers
     if (workers !== undefined && typeof workers !== 'string') return
-    // the arguments too: the worker reads the study and the file's first lines and integrates the kernels at once
-    startEarly('series-worker', seriesWorkerCount(workers), { argv } satisfies SeriesWorkerData)
+    startEarly('series-worker', seriesWorkerCount(workers))
   } catch {
     // the command reads the arguments again and says what is wrong
   }

@@ -52,7 +52,14 @@ export const seriesOpticalHelp = `  --scattering FILE     measured scattering (a
 The computed figures are added at the instruments' wavelengths. A row whose interval holds no measured record
 gets empty measured cells (never filled). The summary gives the median and 5–95 % range of each ratio.`
 
-export { SERIES_OPTICAL_OPTIONS } from './series-args.ts'
+export const SERIES_OPTICAL_OPTIONS = {
+  scattering: { type: 'string' },
+  absorption: { type: 'string' },
+  truncation: { type: 'boolean', default: false },
+  'neph-angles': { type: 'string' },
+  closure: { type: 'boolean', default: false },
+  'closure-sd': { type: 'string' }
+} as const
 
 export interface SeriesOpticalArgs {
   scattering?: string

@@ -67,11 +67,6 @@ export class SeriesBlockComputer {
 
   constructor(private readonly setup: SeriesSetup) {}
 
-  /** True once the layout's kernels are integrated (useLayout without error). */
-  get ready(): boolean {
-    return this.evaluate !== null
-  }
-
   /** Integrates the layout's kernels (once per series; a few hundred milliseconds). */
   useLayout(layout: BinLayout): void {
     try {

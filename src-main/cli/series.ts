@@ -7,12 +7,12 @@ import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
 import { dryIndicesAt, resolveComposition, studyMaterials } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
-import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, findSample, readWavelengthsNm, UsageError } from './common.ts'
+import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
 import { fileLinesFromBytes } from './file-lines.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
-import { readingLines, sizerHelp } from './sizer-options.ts'
-import { readSeriesArgs } from './series-args.ts'
-import { prepareSeriesOptical, seriesOpticalHelp } from './series-optical.ts'
+import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
+import { seriesWorkerCount } from './series-early.ts'
+import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp } from './series-optical.ts'
 import { runSeriesPipeline, type SeriesOutput, type SeriesRunOptions, type SeriesSummary } from './series-pipeline.ts'
 
 export { runSeriesPipeline } from './series-pipeline.ts'
@@ -84,9 +84,36 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
 }
 
 export async function runSeries(argv: string[]): Promise<number> {
-  const { values, file, studyPath, sampleName, policy, workers, tolerance, sizer } = readSeriesArgs(argv)
-  const { study } = await loadStudyFile(studyPath)
-  const { sample } = findSample(study, sampleName, 'series')
+  const { values, positionals } = readArgs(
+    'series',
+    argv,
+    {
+      study: { type: 'string' },
+      sample: { type: 'string' },
+      wavelengths: { type: 'string' },
+      out: { type: 'string' },
+      'on-bad-row': { type: 'string' },
+      workers: { type: 'string' },
+      tolerance: { type: 'string' },
+      ...sizerFlags,
+      ...SERIES_OPTICAL_OPTIONS,
+      shard: { type: 'string' }
+    },
+    true
+  )
+  if (positionals.length !== 1) throw new UsageError('series: give one sizer file, for example "motebench series sizer.csv --study demo.mote --sample NAME"')
+  const file = positionals[0]
+  if (values.study === undefined) throw new UsageError('series: --study is required, for example --study demo.mote (the sample gives composition, humidity and layer)')
+  if (values.sample === undefined) throw new UsageError('series: --sample is required: the name of a sample of the study')
+  const policy = values['on-bad-row'] ?? 'skip'
+  if (policy !== 'skip' && policy !== 'stop') throw new UsageError(`series: --on-bad-row "${policy}" is not skip or stop`)
+  const workers = seriesWorkerCount(values.workers)
+  const tolerance = readTolerance(values.tolerance, 1e-4)
+  const sizer: SeriesRunOptions['sizer'] = readSizerFlags('series', values)
+
+
+  const { study } = await loadStudyFile(values.study)
+  const { sample } = findSample(study, values.sample, 'series')
   let wavelengthsNm = values.wavelengths !== undefined ? readWavelengthsNm(values.wavelengths) : study.wavelengths_nm.slice()
   const userMaterials = study.user_materials ?? []
   // Measured optical instruments beside the sizer: read and averaged onto the sizer rows before the run; the
@@ -106,7 +133,7 @@ export async function runSeries(argv: string[]): Promise<number> {
     const [from, to] = shardRange(await countLines(file), shardOf)
     const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy }
     // the last part takes every line after its first (whatever the count missed)
-    shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, studyPath], options), 1) }
+    shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
   }
   const target = values.out !== undefined ? await atomicFileOutput(values.out, 'series') : undefined
   // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):

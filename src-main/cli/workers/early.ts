@@ -13,13 +13,10 @@ interface Early {
 
 const started: Early[] = []
 
-/**
- * Starts `count` workers of `name`, with `data` (what they may start on; the command sends what they need when it
- * takes them).
- */
-export function startEarly(name: CliWorker, count: number, data?: unknown): void {
+/** Starts `count` workers of `name` (without data: the command sends what they need when it takes them). */
+export function startEarly(name: CliWorker, count: number): void {
   for (let k = 0; k < count; k++) {
-    const e: Early = { name, worker: startCliWorker(name, data), failure: null }
+    const e: Early = { name, worker: startCliWorker(name, undefined), failure: null }
     e.worker.unref()
     e.worker.on('error', (err) => (e.failure ??= err))
     e.worker.on('exit', (code) => (e.failure ??= new Error(`${name} stopped with exit code ${code} before it was used`)))
