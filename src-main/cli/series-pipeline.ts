@@ -15,13 +15,13 @@ import type { SeriesExtra } from './series-optical.ts'
 import type { ByteLines } from './file-lines.ts'
 
 /**
- * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 20,480
- * rows, about 16 MB of values at 100 bins: enough for the reading to go on while the workers integrate the bins'
+ * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 8,192
+ * rows, about 7 MB of values at 100 bins: enough for the reading to go on while the workers integrate the bins'
  * kernels, 0.1–0.3 s, rather than wait for them), and text gathered before it is written.
  */
 const BLOCK_ROWS = 256
 const BLOCKS_PER_WORKER = 3
-const BLOCKS_AHEAD = 80
+const BLOCKS_AHEAD = 32
 const WRITE_CHARS = 1 << 20
 /** Reasons kept for the summary (the counts go on). */
 const KEPT_REASONS = 1000
