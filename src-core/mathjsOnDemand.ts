@@ -12,14 +12,6 @@ let quantities: MathJsInstance | undefined
 
 const forQuantities = (): MathJsInstance => (quantities ??= makeQuantities())
 
-/**
- * Makes the units' instance now, if not yet made (about 0.2 s in a browser): for a moment when nothing waits, so that
- * the first unit read later does not pay for it.
- */
-export function prepareQuantities(): void {
-  forQuantities()
-}
-
 /** mathjs's unit(text): a quantity with a unit ("120 nm"). */
 export function mathUnit(text: string): Unit {
   return forQuantities().unit(text)
