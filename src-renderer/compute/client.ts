@@ -4,8 +4,7 @@
 // job or a cancel is a message it reads between steps of its work.
 import { prepareQuantities, validateStudy, type Study, type StudyProblem } from '../../src-core/index.ts'
 import { store, type AppState, type ShownResult } from '../state/store.ts'
-import { jobSteps, type EvaluateItem, type FromWorker, type ToWorker } from './messages.ts'
-import { startWorkers, takeEarlyWorkers } from './start.ts'
+import { COMPUTE_THREADS, jobSteps, type EvaluateItem, type FromWorker, type ToWorker } from './messages.ts'
 
 /** Changes that follow a run closer than this (ms) wait this long, so fast typing starts one job, not one a key. */
 const DEBOUNCE_MS = 30
@@ -32,6 +31,22 @@ let lastDrafts: AppState['drafts'] | null = null
 const cache = new Map<string, ShownResult>()
 /** The inputs each sample's size curves were last asked for with, so only changed samples are sent again. */
 const sizeKeys = new Map<string, string>()
+
+/**
+ * The optics worker and its helpers, all started at once (a helper started by the optics worker itself would
+ * begin loading only once that worker had loaded), each helper joined to it by a port.
+ */
+function startWorkers(): Worker {
+  const worker = new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-compute' })
+  helpers = Array.from({ length: COMPUTE_THREADS - 1 }, (_, i) => new Worker(new URL('./shareWorker.ts', import.meta.url), { type: 'module', name: `motebench-share-${i + 1}` }))
+  const ports = helpers.map((helper) => {
+    const channel = new MessageChannel()
+    helper.postMessage(null, [channel.port1])
+    return channel.port2
+  })
+  worker.postMessage({ type: 'helpers', ports } satisfies ToWorker, ports)
+  return worker
+}
 
 /** Sample keys by study (a study is never changed in place: an edit makes a new one), as every view asks for them. */
 const keysOf = new WeakMap<Study, string[]>()
@@ -192,20 +207,14 @@ function run(): void {
 
 function opticsWorker(): Worker {
   if (!optics) {
-    const started = takeEarlyWorkers() ?? startWorkers()
-    optics = started.worker
-    helpers = started.helpers
+    optics = startWorkers()
     optics.onmessage = (e: MessageEvent<FromWorker>) => receive(e.data.type === 'sizes' ? sizesPatch : opticsPatch, e.data)
-    const stopped = (message: string) => {
-      store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true, notice: { kind: 'error', title: 'The computation stopped', lines: [message] } })
-      optics?.terminate()
+    optics.onerror = (e) => {
+      store().set({ job: { running: false, done: 0, total: 0 }, resultsLate: true, notice: { kind: 'error', title: 'The computation stopped', lines: [e.message] } })
       optics = null
       for (const helper of helpers) helper.terminate()
       helpers = []
     }
-    optics.onerror = (e) => stopped(e.message)
-    const failed = started.failed()
-    if (failed) queueMicrotask(() => stopped(failed))
   }
   return optics
 }
