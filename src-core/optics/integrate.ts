@@ -142,7 +142,14 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
   const visit = new NodeVisitor(kind, dry, cond, wavelengthUm, gMax, axis, nodes, ws, userTable, userKey, nUser)
   const nodeF = visit.nodeF
 
-  const segs: Segment[] = pop.segments.map((s) => ({ s, t0: axis.t(s.lo), t1: axis.t(s.hi), u: s.lo }))
+  // The arrays this generator keeps across its pauses are built element by element (not by map, some or from), so
+  // that they have one shape whatever the population: arrays whose shape varied from call to call sent the
+  // optimised code of this function back to the interpreter in the middle of an edit, and it was compiled again.
+  const segs: Segment[] = []
+  for (let i = 0; i < pop.segments.length; i++) {
+    const s = pop.segments[i]
+    segs.push({ s, t0: axis.t(s.lo), t1: axis.t(s.hi), u: s.lo })
+  }
   largestSizeParameter(pop.label, pop.segments, axis, wavelengthUm, 'Narrow the mode (a smaller median or geometric standard deviation), or leave out the shortest wavelengths.')
   const result = new Sums(nUser)
   const prevResult = new Sums(nUser)
@@ -156,7 +163,8 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
 
   // First grid: the lattice (lognormal segments) or the bin's own edges (measured bins); see sizeLattice.ts.
   // The same lattice serves every mode and every edit of it, so the node cache can answer.
-  const firstStep = segs.map((sg) => firstLatticeStep(sg.t0, sg.t1, sg.s.flat, opts.coarsestStep))
+  const firstStep = new Float64Array(segs.length)
+  for (let i = 0; i < segs.length; i++) firstStep[i] = firstLatticeStep(segs[i].t0, segs[i].t1, segs[i].s.flat, opts.coarsestStep)
   const at: LevelNodes = { base: 0, m0: 0, dm: 1, count: 0, h: 0, halfEnds: false }
   const flatSums = new Sums(nUser)
   const smoothSums = new Sums(nUser)
@@ -164,9 +172,13 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
   let lv = 0
   let lastFigures: Figures | null = null
   let lastChange = Infinity
-  const hasFlat = segs.some((sg) => sg.s.flat)
+  let hasFlat = false
   // Refinement by panels (panels.ts) of the lognormal segments; the settled panels' changes so far.
-  const panels = segs.map((sg) => (sg.s.flat || !opts.panels ? null : new SegmentPanels(sg.t0, sg.t1, ws.panelBuffers)))
+  const panels: (SegmentPanels | null)[] = []
+  for (const sg of segs) {
+    hasFlat ||= sg.s.flat
+    panels.push(sg.s.flat || !opts.panels ? null : new SegmentPanels(sg.t0, sg.t1, ws.panelBuffers))
+  }
   let settledChange = 0
   // The nodes added are counted against the cache's bound even when the caller gives the work up between
   // steps (drive() in the app's workers calls return(), which runs this finally): they stay in the cache.

@@ -10,6 +10,7 @@
  *
  * The cache is bounded by a count of nodes; the contexts used longest ago are dropped first.
  */
+import { PositionIndex } from './positionIndex.ts'
 
 /** Per node, in `NodeTable.values` at NODE_FIELDS·i: these fields, in this order. */
 export const NODE_U = 0
@@ -31,7 +32,7 @@ export const NODE_FIELDS = 6
  * the chosen angles) are stretches of `angular`.
  */
 export class NodeTable {
-  private readonly index = new Map<number, number>()
+  private readonly index = new PositionIndex()
   private count = 0
   /** Node i's position t, and the node `findNext` found last: a pass over the same lattice meets the nodes in
    * the order they were added, so the next one is usually the one after it (a Map lookup of a double was a
@@ -71,14 +72,14 @@ export class NodeTable {
 
   /** The node at lattice position t, or −1. */
   find(t: number): number {
-    return this.index.get(t) ?? -1
+    return this.index.get(t, this.tAt)
   }
 
   /** find(t) for a pass along the lattice: tries the node after the one it found last first. */
   findNext(t: number): number {
     const g = this.lastFound + 1
     if (g < this.count && this.tAt[g] === t) return (this.lastFound = g)
-    const i = this.index.get(t) ?? -1
+    const i = this.index.get(t, this.tAt)
     if (i >= 0) this.lastFound = i
     return i
   }
@@ -99,7 +100,7 @@ export class NodeTable {
     this.lastFound = i
     this.upAt[i] = -1
     this.userAt[i] = -1
-    this.index.set(t, i)
+    this.index.add(i, this.tAt)
     return i
   }
 
@@ -164,8 +165,10 @@ export class NodeTable {
  * the table in nodes of NODE_FIELDS numbers, for the cache's bound.
  */
 export class SpectralNodeTable {
-  private readonly index = new Map<number, number>()
+  private readonly index = new PositionIndex()
   private count = 0
+  /** Node i's position t. */
+  private tAt = new Float64Array(64)
   readonly width: number
   values: Float64Array
   constructor(readonly wavelengths: number) {
@@ -183,7 +186,7 @@ export class SpectralNodeTable {
 
   /** The node at lattice position t, or −1. */
   find(t: number): number {
-    return this.index.get(t) ?? -1
+    return this.index.get(t, this.tAt)
   }
 
   /** Adds the node at t (its u and du/dt set, its cross-sections to be written at width·i + 2 + 4j …); returns its number. */
@@ -194,9 +197,15 @@ export class SpectralNodeTable {
       bigger.set(this.values)
       this.values = bigger
     }
+    if (i === this.tAt.length) {
+      const tAt = new Float64Array(2 * i)
+      tAt.set(this.tAt)
+      this.tAt = tAt
+    }
+    this.tAt[i] = t
     this.values[this.width * i] = u
     this.values[this.width * i + 1] = dudt
-    this.index.set(t, i)
+    this.index.add(i, this.tAt)
     return i
   }
 }
