@@ -3,9 +3,9 @@
  *
  * It answers as a `Map<number, number>` would (keys equal by `===`, so −0 finds 0), without allocating per key:
  * a Map boxes each non-integer key as a heap number and rehashes as it grows (30,000 adds and finds of lattice
- * positions took 8–10 ms with a Map against 1.4 ms here, in Node; a humidity edit adds every node anew). Open addressing with linear probing
- * (Knuth 1998, The Art of Computer Programming vol. 3, §6.4, Algorithm L) over an Int32Array of slots, each 0 or
- * a node's number + 1; the keys themselves are the table's own positions (`keys`, owned by the caller), so the
+ * positions took 8–10 ms with a Map against 1.4 ms here, in Node; a humidity edit adds every node anew).
+ * Open addressing with linear probing (Knuth 1998, The Art of Computer Programming vol. 3, §6.4, Algorithm L) over
+ * an Int32Array of slots, each 0 or a node's number + 1; the keys themselves are the table's own positions (`keys`, owned by the caller), so the
  * index stores no copy of them. Nodes are never removed, only all at once (`clear`).
  */
 export class PositionIndex {

@@ -18,9 +18,11 @@ function agreesWithMap(keys: Float64Array, absent: number[]): void {
 
 describe('PositionIndex', () => {
   it('finds lattice positions of many levels, as a Map does, and not the positions between them', () => {
-    // t = j·2^-L for levels 0..10 over t in [-30, 40): 70·2^10 + 1 positions, added level by level as the integration adds them
+    // t = j·2^-L over [-30, 40), added level by level as the integration adds them: every integer j at level 0, the
+    // odd j (the positions new at that level) at levels 1..10; 70·2^10 positions in all
     const keys: number[] = []
-    for (let L = 0; L <= 10; L++) for (let j = -30 * 2 ** L; j < 40 * 2 ** L; j += L === 0 ? 1 : 2) keys.push(j * 2 ** -L)
+    for (let L = 0; L <= 10; L++) for (let j = -30 * 2 ** L + (L === 0 ? 0 : 1); j < 40 * 2 ** L; j += L === 0 ? 1 : 2) keys.push(j * 2 ** -L)
+    expect(new Set(keys).size).toBe(70 * 2 ** 10)
     const absent = [0.5 * 2 ** -10, 1e-300, 41, -31, 3 + 2 ** -12]
     agreesWithMap(Float64Array.from(keys), absent)
   })
