@@ -2,20 +2,20 @@
 // `node bin/motebench.mjs sphere --x 10 --m 1.5+0.01i --json` (the built CLI in out/cli, built first here) against a
 // bare `node -e 0` in the same run, interleaved, median of several runs each; and a worker thread's start (from
 // `new Worker` to its first message, the built series worker) in a plain node process. Goals (issue 19): the CLI
-// within 3 × node's own start, a worker within 0.2 s.
+// within 3 × node's own start, a worker within 0.2 s. The timed processes run without NODE_EXTRA_CA_CERTS (timing.ts).
 import { execFileSync, spawnSync } from 'node:child_process'
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { median, report } from './timing.ts'
+import { envLeftOut, median, report, timedEnv } from './timing.ts'
 
 const root = fileURLToPath(new URL('../../', import.meta.url))
 const RUNS = 9
 
 function wallSeconds(args: string[]): number {
   const t0 = performance.now()
-  const r = spawnSync(process.execPath, args, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'] })
+  const r = spawnSync(process.execPath, args, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], env: timedEnv() })
   const s = (performance.now() - t0) / 1000
   if (r.status !== 0) throw new Error(`${args.join(' ')} failed: ${r.stderr}`)
   return s
@@ -51,7 +51,7 @@ export async function benchCliStart(): Promise<void> {
   let starts: number[]
   try {
     writeFileSync(join(dir, 'worker-starts.mjs'), WORKER_STARTS)
-    starts = JSON.parse(execFileSync(process.execPath, [join(dir, 'worker-starts.mjs'), workerUrl, String(RUNS)], { encoding: 'utf8' }))
+    starts = JSON.parse(execFileSync(process.execPath, [join(dir, 'worker-starts.mjs'), workerUrl, String(RUNS)], { encoding: 'utf8', env: timedEnv() }))
   } finally {
     rmSync(dir, { recursive: true, force: true })
   }
@@ -65,6 +65,7 @@ export async function benchCliStart(): Promise<void> {
     goal_cli_over_node: '<= 3',
     worker_start_s: Number(median(starts).toFixed(3)),
     goal_worker_start_s: '<= 0.2',
-    load_average_1min: Number((await import('node:os')).loadavg()[0].toFixed(2))
+    load_average_1min: Number((await import('node:os')).loadavg()[0].toFixed(2)),
+    ...envLeftOut()
   })
 }

@@ -4,7 +4,8 @@
 // included), median of three runs; the same on a quarter of the rows, to show that memory does not grow with the
 // rows and what a row costs beyond the fixed start (process, worker threads, the bins' kernels); and, on this
 // thread, the one-off integration of the kernels and a row's figures and CSV line (in a 256-row block).
-// MOTEBENCH_BENCH_SERIES_ROWS sets another number of rows (e.g. for a quick look).
+// MOTEBENCH_BENCH_SERIES_ROWS sets another number of rows (e.g. for a quick look). The timed processes run without
+// NODE_EXTRA_CA_CERTS (timing.ts).
 import { execFileSync, spawnSync } from 'node:child_process'
 import { createWriteStream, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { availableParallelism, loadavg, tmpdir } from 'node:os'
@@ -12,7 +13,7 @@ import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { demoStudy } from '../../src-core/index.ts'
 import { SeriesBlockComputer, type BinLayout } from '../../src-main/cli/series-row.ts'
-import { median, msPerRun, report } from './timing.ts'
+import { envLeftOut, median, msPerRun, report, timedEnv } from './timing.ts'
 
 const BINS = 100
 const WAVELENGTHS_NM = [450, 550, 700]
@@ -53,7 +54,7 @@ await import(pathToFileURL(bin).href)
 function runCli(dir: string, file: string): { seconds: number; peakMb: number } {
   const args = [join(dir, 'measure.mjs'), join(root, 'bin/motebench.mjs'), 'series', file, '--study', join(root, 'resources/demo.mote'), '--sample', 'Coastal haze day', '--wavelengths', WAVELENGTHS_NM.join(','), '--out', join(dir, 'out.csv')]
   const t0 = performance.now()
-  const r = spawnSync(process.execPath, args, { encoding: 'utf8' })
+  const r = spawnSync(process.execPath, args, { encoding: 'utf8', env: timedEnv() })
   const seconds = (performance.now() - t0) / 1000
   const m = /peak-rss-kb (\d+)/.exec(r.stderr)
   if (r.status !== 0 || !m) throw new Error(`motebench series failed: ${r.stderr}`)
@@ -110,7 +111,8 @@ export async function benchSeries(): Promise<void> {
       rows_per_second_beyond_start: Number(((rows - quarter) / Math.max(1e-9, tBig - tSmall)).toPrecision(3)),
       kernel_setup_ms: Math.round(kernelMs),
       one_row_us_single_thread: Number((rowMs * 1000).toPrecision(3)),
-      load_average_1min: Number(loadavg()[0].toFixed(2))
+      load_average_1min: Number(loadavg()[0].toFixed(2)),
+      ...envLeftOut()
     })
   } finally {
     rmSync(dir, { recursive: true, force: true })
