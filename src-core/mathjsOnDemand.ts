@@ -2,7 +2,7 @@
  * mathjs instances made on first use, each with only the functions it needs. Importing mathjs's ready-made
  * functions builds every one of them when the module loads (over a second on a field laptop), which every
  * command and the app's start paid even when nothing was typed with a unit; from the factories, a bundler keeps
- * only what is used, and the work is done when a unit or complex number is first read. Expressions (which may
+ * only what is used, and the work is done when a unit is first read. Expressions (which may
  * call any mathjs function) have their own instance: see mathjsExpressions.ts.
  */
 import type { MathJsInstance, Unit } from 'mathjs'
@@ -20,9 +20,4 @@ export function mathUnit(text: string): Unit {
 /** mathjs's unit(value, name): a number in a named unit. */
 export function mathUnitOf(value: number, unitName: string): Unit {
   return forQuantities().unit(value, unitName)
-}
-
-/** mathjs's complex(text): "1.53+0.01i". */
-export function mathComplex(text: string): { re: number; im: number } {
-  return forQuantities().complex(text)
 }

@@ -4,7 +4,7 @@
  * indices ("1.53+0.01i"). mathjs does the unit arithmetic; this is for input, never for hot loops.
  */
 import type { Unit } from 'mathjs'
-import { mathComplex, mathUnit, mathUnitOf } from './mathjsOnDemand.ts'
+import { mathUnit, mathUnitOf } from './mathjsOnDemand.ts'
 import { InputError } from './errors.ts'
 import { readableNumber } from './numberText.ts'
 
@@ -74,6 +74,22 @@ export function parseNumber(text: string, where: string, options: { percent?: Pe
 /** The unit names a length may be typed in, as written back to the person (µm for um). */
 const LENGTH_UNIT_SHOWN: Record<string, string> = { nm: 'nm', um: 'µm', mm: 'mm', cm: 'cm', m: 'm', km: 'km' }
 
+/**
+ * µm per unit of the metric length units read without mathjs: a number in one of them is the typed decimal shifted
+ * by a power of ten (SI), so for a number of at most 12 significant digits mathjs's conversion, rounded to 12
+ * digits as readLength rounds it, gives that shifted decimal whatever the last bits of either product; the direct
+ * path gives the same (test/units-direct.test.ts compares the two). Making mathjs's units took 0.14 s of a command's
+ * start ("--wavelengths 450,550,700nm") when nothing else needed them.
+ */
+const LENGTH_UM_PER_UNIT: Record<string, number> = { nm: 1e-3, um: 1, mm: 1e3, cm: 1e4, m: 1e6, km: 1e9 }
+
+/** `n` in `unitName` as µm to 12 significant digits, without mathjs where the unit is metric and `n` has at most 12 digits; else NaN. */
+function directLengthUm(n: number, unitName: string): number {
+  const factor = Object.hasOwn(LENGTH_UM_PER_UNIT, unitName) ? LENGTH_UM_PER_UNIT[unitName] : 0
+  if (!factor || !Number.isFinite(n) || Number(n.toPrecision(12)) !== n) return NaN
+  return Number((n * factor).toPrecision(12))
+}
+
 export interface LengthOptions {
   /** The unit of a bare number: the unit the field shows ('nm' or 'um'); without it a unit is required. */
   defaultUnit?: 'nm' | 'um'
@@ -110,17 +126,20 @@ export function readLength(text: string, where: string, options: LengthOptions =
     const n = split[1].trim() === '' ? NaN : parseNumber(split[1], where)
     if (Number.isNaN(n)) throw new InputError(where, `"${text}" has no number`, 'Write a number and a unit, for example "550 nm".')
     unitName = split[2].toLowerCase() === 'micron' ? 'um' : split[2]
-    let u: Unit
-    try {
-      u = mathUnitOf(n, unitName)
-    } catch {
-      throw new InputError(where, `"${split[2]}" in "${text}" is not a unit`, 'Use a length unit such as nm, um (µm), mm or m.')
-    }
-    try {
-      // 12 significant digits: the unit factors' round-off (1 mm is 1000.0000000000001 µm) is no one's value
-      value = Number(u.toNumber('um').toPrecision(12))
-    } catch {
-      throw new InputError(where, `"${text}" is not a length`, 'Use a length unit such as nm, um (µm), mm or m.')
+    value = directLengthUm(n, unitName)
+    if (Number.isNaN(value)) {
+      let u: Unit
+      try {
+        u = mathUnitOf(n, unitName)
+      } catch {
+        throw new InputError(where, `"${split[2]}" in "${text}" is not a unit`, 'Use a length unit such as nm, um (µm), mm or m.')
+      }
+      try {
+        // 12 significant digits: the unit factors' round-off (1 mm is 1000.0000000000001 µm) is no one's value
+        value = Number(u.toNumber('um').toPrecision(12))
+      } catch {
+        throw new InputError(where, `"${text}" is not a length`, 'Use a length unit such as nm, um (µm), mm or m.')
+      }
     }
   }
   const shown = LENGTH_UNIT_SHOWN[unitName] ?? unitName
@@ -218,21 +237,48 @@ export function parseTemperature(text: string, where: string): number {
   return value
 }
 
-/** Complex refractive index m = n + ik written as "1.53+0.01i", "1.53 + 0.01i" or "1.33". k must be ≥ 0. */
+/** A decimal number as Number() reads it, without its sign. */
+const DECIMAL = '(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?'
+/** n, n+ki or n−ki (the index's usual spelling), and ki+n (its parts the other way round). */
+const INDEX_FIRST_REAL = new RegExp(`^([+-]?)(${DECIMAL})(?:([+-])(${DECIMAL})i)?$`)
+const INDEX_FIRST_IMAGINARY = new RegExp(`^([+-]?)(${DECIMAL})i([+-])(${DECIMAL})$`)
+/** Two real numbers added: an index whose i was left out. */
+const REAL_SUM = new RegExp(`^[+-]?${DECIMAL}[+-]${DECIMAL}$`)
+
+/** A signed decimal from its sign and digits, as mathjs's complex() reads a part (0 − x for a minus, so "−0" is 0). */
+const signed = (sign: string | undefined, digits: string): number => (sign === '-' ? 0 - Number(digits) : Number(digits))
+
+/**
+ * Complex refractive index m = n + ik written as "1.53+0.01i", "1.53 + 0.01i", "0.01i+1.53" or "1.33" (j for i
+ * too). k must be ≥ 0. Read here, not by mathjs: the numbers are those its complex() gives for these forms
+ * (test/units-direct.test.ts), and two things it accepts are refused with their fix: a sum without i ("1.5+0.01",
+ * which it reads as 1.51: an i left out would silently change n) and more than two terms. (Making mathjs's units
+ * also took a command such as `sphere --m 1.5+0.01i` 0.1 s or more of its start.)
+ */
 export function parseComplexIndex(text: string, where: string): { n: number; k: number } {
-  let c: { re: number; im: number }
-  try {
-    c = mathComplex(text.replace(/\s+/g, '').replace(/j$/, 'i'))
-  } catch {
+  const t = text.replace(/\s+/g, '').replace(/j$/, 'i').replace(/[\u2212\u2013]/g, '-')
+  const realFirst = INDEX_FIRST_REAL.exec(t)
+  const imaginaryFirst = realFirst ? null : INDEX_FIRST_IMAGINARY.exec(t)
+  let n: number
+  let k: number
+  if (realFirst) {
+    n = signed(realFirst[1], realFirst[2])
+    k = realFirst[4] === undefined ? 0 : signed(realFirst[3], realFirst[4])
+  } else if (imaginaryFirst) {
+    k = signed(imaginaryFirst[1], imaginaryFirst[2])
+    n = signed(imaginaryFirst[3], imaginaryFirst[4])
+  } else if (REAL_SUM.test(t)) {
+    throw new InputError(where, `"${text}" has no imaginary part marked with i`, `Write the index as n+ki with an i after k, for example "${t}i".`)
+  } else {
     throw new InputError(where, `"${text}" is not a complex refractive index`, 'Write it as n+ki, for example "1.53+0.01i".')
   }
-  if (!Number.isFinite(c.re) || !Number.isFinite(c.im)) {
+  if (!Number.isFinite(n) || !Number.isFinite(k)) {
     throw new InputError(where, `"${text}" is not a complex refractive index`, 'Write it as n+ki, for example "1.53+0.01i".')
   }
-  if (c.im < 0) {
+  if (k < 0) {
     throw new InputError(where, `the imaginary part of "${text}" is negative`, 'Motebench writes m = n + ik with k ≥ 0 for an absorbing material; drop the minus sign.')
   }
-  return { n: c.re, k: c.im }
+  return { n, k }
 }
 
 /**
