@@ -1,7 +1,8 @@
 /**
  * Reading numbers that people type: plain numbers (with thousands separators and percent signs where they are
  * unambiguous), lengths with units ("120 nm", "0.12 um", "0.12 µm"), temperatures, and complex refractive
- * indices ("1.53+0.01i"). mathjs does the unit arithmetic; this is for input, never for hot loops.
+ * indices ("1.53+0.01i"). mathjs does the unit arithmetic (metric lengths and indices are read directly, to the
+ * same numbers); this is for input, never for hot loops.
  */
 import type { Unit } from 'mathjs'
 import { mathUnit, mathUnitOf } from './mathjsOnDemand.ts'
