@@ -283,8 +283,25 @@ export function parseComplexIndex(text: string, where: string): { n: number; k: 
 }
 
 /**
+ * Bare numbers of a wavelength list below 100 nm or above 100 µm once read in the list's unit: far outside the
+ * built-in materials' tables (0.2 to about 40 µm), so such a number was surely meant in the other unit ("450, 550,
+ * 0.7um" read 450 as 450 µm), and the list is refused here with that said, rather than further on by a material's
+ * table ("wavelength 450 µm is outside its tabulated range"). A length with its unit written is not checked here.
+ */
+function refuseBareInOtherUnit(part: string, nm: number, unit: 'nm' | 'um', last: string, where: string): void {
+  const from = unit === 'um' ? `like the last one ("${last}")` : 'as a wavelength without a unit is'
+  if (unit === 'um' && nm > 100_000) {
+    throw new InputError(where, `"${part}" has no unit, so it was read in µm ${from}: ${readableNumber(nm / 1000)} µm is far beyond the built-in materials' tables (0.2 to 40 µm)`, `Write its unit ("${part} nm"), or give every wavelength in µm.`)
+  }
+  if (unit === 'nm' && nm < 100) {
+    throw new InputError(where, `"${part}" has no unit, so it was read in nm ${from}: ${readableNumber(nm)} nm is far below the built-in materials' tables (200 nm to 40 µm)`, `Write its unit ("${part} um"), or give the wavelengths in nm (for example ${readableNumber(nm * 1000)}).`)
+  }
+}
+
+/**
  * A list of wavelengths typed by a person, in nm: "450, 550, 700", "450 550 700", "0.45 um; 550 nm" or
- * "450,550,700nm". Numbers without a unit take the unit written on the last item (nm or um), else nm. With
+ * "450,550,700nm". Numbers without a unit take the unit written on the last item (nm or um), else nm. A bare number
+ * that this makes shorter than 100 nm or longer than 100 µm is refused, with the unit it was surely meant in. With
  * `ascending`, each must be longer than the one before; with `distinct`, none may repeat; `max` caps the count.
  */
 export function parseWavelengthList(text: string, where: string, options: { ascending?: boolean; distinct?: boolean; max?: number } = {}): number[] {
@@ -297,9 +314,15 @@ export function parseWavelengthList(text: string, where: string, options: { asce
   if (options.max !== undefined && parts.length > options.max) {
     throw new InputError(where, `${parts.length} wavelengths were given`, `Give at most ${options.max}.`)
   }
-  const lastUnit = normaliseUnitText(/[a-zµμ]+$/i.exec(parts[parts.length - 1])?.[0] ?? '').toLowerCase()
+  const last = parts[parts.length - 1]
+  const lastUnit = normaliseUnitText(/[a-zµμ]+$/i.exec(last)?.[0] ?? '').toLowerCase()
   const bareUnit = lastUnit === 'um' ? 'um' : 'nm'
-  const values = parts.map((p) => Math.round(parseLength(p, where, bareUnit) * 1e9) / 1e6)
+  const values = parts.map((p) => {
+    const length = readLength(p, where, { defaultUnit: bareUnit })
+    const nm = Math.round(length.um * 1e9) / 1e6
+    if (!length.written) refuseBareInOtherUnit(p, nm, bareUnit, last, where)
+    return nm
+  })
   for (let i = 1; i < values.length; i++) {
     if (options.ascending && !(values[i] > values[i - 1])) {
       throw new InputError(where, `${values[i]} nm does not follow ${values[i - 1]} nm in ascending order`, 'List the wavelengths from shortest to longest, each once.')

@@ -43,6 +43,18 @@ describe('typed quantities (SI prefixes and the kelvin–Celsius offset, common 
     expect(() => parseWavelengthList('450,550,450nm', 'w', { distinct: true })).toThrow(/450 nm is given twice/)
     expect(() => parseWavelengthList('450, green', 'w')).toThrow(/green/)
   })
+
+  it('refuses a bare number that the list\'s unit puts far outside every built-in table (0.2–40 µm), naming the unit meant', () => {
+    // "0.7um" last makes the bare numbers µm: 450 µm was surely 450 nm
+    expect(() => parseWavelengthList('450, 550, 0.7um', 'w')).toThrow(/"450" has no unit, so it was read in µm like the last one \("0\.7um"\): 450 µm .*Write its unit \("450 nm"\)/)
+    // no unit at all, or nm last: a bare 0.45 is 0.45 nm, surely 0.45 µm
+    expect(() => parseWavelengthList('0.45, 0.55, 0.7', 'w')).toThrow(/"0\.45" has no unit, so it was read in nm .*Write its unit \("0\.45 um"\), or give the wavelengths in nm \(for example 450\)/)
+    expect(() => parseWavelengthList('0.45, 550nm', 'w')).toThrow(/"0\.45" has no unit/)
+    // with its unit written, a length is read as written (a material's table judges its range)
+    expect(parseWavelengthList('50 nm, 0.2 um', 'w')).toEqual([50, 200])
+    expect(parseWavelengthList('200, 40000', 'w')).toEqual([200, 40000])
+    expect(parseWavelengthList('0.2, 40um', 'w')).toEqual([200, 40000])
+  })
 })
 
 describe('typed numbers: thousands separators, decimal commas and percent signs (common practice)', () => {
