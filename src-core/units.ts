@@ -289,7 +289,7 @@ export function parseComplexIndex(text: string, where: string): { n: number; k: 
  * table ("wavelength 450 µm is outside its tabulated range"). A length with its unit written is not checked here.
  */
 function refuseBareInOtherUnit(part: string, nm: number, unit: 'nm' | 'um', last: string, where: string): void {
-  const from = unit === 'um' ? `like the last one ("${last}")` : 'as a wavelength without a unit is'
+  const from = /[a-zµμ]$/i.test(last) ? `like the last one ("${last}")` : '(the unit of a list without one)'
   if (unit === 'um' && nm > 100_000) {
     throw new InputError(where, `"${part}" has no unit, so it was read in µm ${from}: ${readableNumber(nm / 1000)} µm is far beyond the built-in materials' tables (0.2 to 40 µm)`, `Write its unit ("${part} nm"), or give every wavelength in µm.`)
   }
