@@ -4,7 +4,7 @@
  * and put together here (the ratios, the upscatter figures with their control variate, the phase function).
  */
 import { shiftToAsymmetry, UPSCATTER_COS_ZENITH, upscatterFrom } from './upscatter.ts'
-import { Sums } from './levelSums.ts'
+import { ErrorBudget, Sums } from './levelSums.ts'
 import { DEFAULT_TOLERANCE, integratePopulation, type Conditions, type IntegrationOptions, type Population } from './integrate.ts'
 import { OpticsWorkspace } from './workspace.ts'
 
@@ -29,10 +29,20 @@ export interface BulkOptics {
 }
 
 
-/** The populations ordered by their largest size, largest first (a stable order for equal ones). */
-function byLargestFirst(populations: readonly Population[]): readonly Population[] {
+/**
+ * The order the populations are integrated in. Populations of one particle kind share their nodes' context, so among
+ * them the largest go first: the one that needs a node's angular row most (a coarse mode's tail) computes it, and the
+ * others find it (see NodeVisitor.addNode, nodeVisitor.ts). Kinds go in the order of their largest sizes, smallest
+ * first: a population is judged against the sample's figures so far (integrate.ts), so the coarse, resonant ones,
+ * whose refinement costs most, come last and stop once they are within the tolerance of the whole sample.
+ * A stable order for equal sizes.
+ */
+function integrationOrder(populations: readonly Population[]): readonly Population[] {
+  if (populations.length < 2) return populations
   const top = (p: Population) => p.segments.reduce((m, sg) => Math.max(m, sg.hi), -Infinity)
-  return populations.length < 2 ? populations : [...populations].sort((a, b) => top(b) - top(a))
+  const kindTop = new Map<Population['kind'], number>()
+  for (const p of populations) kindTop.set(p.kind, Math.max(kindTop.get(p.kind) ?? -Infinity, top(p)))
+  return [...populations].sort((a, b) => kindTop.get(a.kind)! - kindTop.get(b.kind)! || top(b) - top(a))
 }
 
 /** The coarsest lattice step: a power of two from 1/64 to 64 (anything else is a programming error). */
@@ -78,10 +88,9 @@ export function* bulkOpticsSteps(populations: readonly Population[], wavelengthU
   const before = ws.evaluations
   let level = 0
   let converged = true
-  // Largest particles first: where populations share their particles' context, the one that needs a node's
-  // angular row most (a coarse mode's tail) computes it, and the others find it (see NodeVisitor.addNode, nodeVisitor.ts).
-  for (const pop of byLargestFirst(populations)) {
-    const r = yield* integratePopulation(pop, wavelengthUm, cond, opts, ws, total)
+  const budget = new ErrorBudget()
+  for (const pop of integrationOrder(populations)) {
+    const r = yield* integratePopulation(pop, wavelengthUm, cond, opts, ws, total, budget)
     level = Math.max(level, r.level)
     converged &&= r.converged
   }

@@ -20,7 +20,9 @@
  * Richardson extrapolation (Simpson's rule). A level is accepted when every figure (σext, σsca, σabs relative
  * to σext, g, and b, β̄ while they are refined) changed by less than the tolerance, and this change and the one
  * before add up to less than it: where narrow resonances are not resolved, single changes are erratic and
- * understate the error (the tests compare with much finer integrations, at many nearby wavelengths). Beyond
+ * understate the error (the tests compare with much finer integrations, at many nearby wavelengths). Where a
+ * sample has several populations, the tolerance is the sample's: a population's changes are judged as shares of the
+ * sample's figures so far, less the error the populations before it estimated for themselves (SHARED_LIMIT). Beyond
  * level 2 a lognormal segment is refined by panels (panels.ts): only where its integral still changes, the other
  * panels' new nodes filled in by a cubic-exact subdivision, so that the grid stays uniform (and on level 3, where
  * the angular sums still run, given their neighbours' rows).
@@ -45,7 +47,7 @@
  * work on the demo's samples than with the sums stopped at level 2 and no control variate (DEVELOPERS.md).
  * The user-angle phase function (drawn, not integrated) stops at level 2. Ratios use σsca from the same nodes.
  */
-import { addInto, combine, converged, figuresOf, largestChange, residualChange, scaleInto, Sums, type Figures } from './levelSums.ts'
+import { addInto, combine, ErrorBudget, figuresOf, largestChange, residualChange, scaleInto, Sums, type Figures } from './levelSums.ts'
 import { dryIndicesAt, type ParticleKind } from './particles.ts'
 import { firstLatticeStep, largestGrowthFactor, largestSizeParameter, levelNodes, SizeAxis, type LevelNodes } from './sizeLattice.ts'
 import { SegmentPanels, settlePanels, SETTLE_FROM_LEVEL, SETTLED_SHARE } from './panels.ts'
@@ -113,6 +115,18 @@ function angularLevelsFor(tolerance: number): number {
 /** Refinement levels of the phase function at the user's angles (drawn, not integrated). */
 const USER_ANGLE_LEVELS = 2
 
+/**
+ * A population among others may stop once its changes are within the tolerance of the sample's figures (see the
+ * stopping rule below), but its own changes must stay within SHARED_LIMIT times the tolerance, and within the
+ * tolerance itself below level SHARED_FROM_LEVEL (a step of 1/32 in size parameter up to x = 100): on a narrow,
+ * lossless coarse mode beside a fine mode carrying most of σ, looser limits let the changes of coarse levels stop the
+ * refinement early by chance (errors up to 2e-4 of the sample's σext at a 1e-4 tolerance; DEVELOPERS.md).
+ */
+export const SHARED_LIMIT = 3
+export const SHARED_FROM_LEVEL = 6
+/** The sums of no population: what a population's changes are judged against when none came before it. */
+const NOTHING_BEFORE = new Sums(0)
+
 export type Settings = Required<Omit<IntegrationOptions, 'anglesDeg'>> & { anglesDeg?: ArrayLike<number> }
 
 /**
@@ -126,7 +140,7 @@ export const STEP_WORK = 50_000
  * Integrates one population at one wavelength into `into` (adds), refining until converged, with a pause
  * after every STEP_WORK of work. Returns the refinement level used.
  */
-export function* integratePopulation(pop: Population, wavelengthUm: number, cond: Conditions, opts: Settings, ws: OpticsWorkspace, into: Sums): Generator<void, { level: number; converged: boolean }> {
+export function* integratePopulation(pop: Population, wavelengthUm: number, cond: Conditions, opts: Settings, ws: OpticsWorkspace, into: Sums, budget = new ErrorBudget()): Generator<void, { level: number; converged: boolean }> {
   const kind = pop.kind
   const dry = dryIndicesAt(kind, wavelengthUm)
   const userTable = opts.upscatter && opts.anglesDeg && opts.anglesDeg.length ? ws.userTable(opts.anglesDeg) : null
@@ -172,6 +186,7 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
   let lv = 0
   let lastFigures: Figures | null = null
   let lastChange = Infinity
+  let lastOwn = Infinity
   let hasFlat = false
   // Refinement by panels (panels.ts) of the lognormal segments; the settled panels' changes so far.
   const panels: (SegmentPanels | null)[] = []
@@ -238,10 +253,24 @@ export function* integratePopulation(pop: Population, wavelengthUm: number, cond
       // stay under the tolerance did not.
       // b and β̄ take part while their sums are still to be refined: not at the level where they stop anyway.
       const judgeAngles = !anglesFrozen && !(lv >= angularLevels && opts.tolerance >= DEFAULT_TOLERANCE)
+      // A population's figures are judged as shares of the sample's so far: its own and those of the populations
+      // integrated before it (`into`, bulkOptics.ts puts the coarse, resonant ones last), and the tolerance is the
+      // sample's, less what those populations estimated of their own error (`budget`). Its own changes must still
+      // stay within the tolerance below SHARED_FROM_LEVEL and within SHARED_LIMIT times it from there, where the
+      // lattice resolves the efficiencies' ripple (DEVELOPERS.md, "A population judged within its sample"). With
+      // nothing before, this is the rule on its own figures.
       if (lastFigures) {
-        const change = largestChange(lastFigures, figures, judgeAngles)
-        if (converged(lastFigures, figures, opts.tolerance, judgeAngles) && change + lastChange < opts.tolerance) break
+        const change = largestChange(lastFigures, figures, judgeAngles, into)
+        const own = largestChange(lastFigures, figures, judgeAngles, NOTHING_BEFORE)
+        const allowed = opts.tolerance - budget.spent(figures, into)
+        const ownAllowed = (lv >= SHARED_FROM_LEVEL ? SHARED_LIMIT : 1) * opts.tolerance
+        if (change <= allowed && change + lastChange < allowed && own + lastOwn < ownAllowed) {
+          budget.spend(change + lastChange, figures, into)
+          break
+        }
+        if (lv === opts.maxLevel) budget.spend(change + lastChange, figures, into)
         lastChange = change
+        lastOwn = own
       }
       // The upscatter sums stop at level angularLevels at the default tolerance or a looser one (or earlier, with
       // everything else); at a tighter one, once the part they supply (R) changed by less than it over two levels.

@@ -68,27 +68,51 @@ export function residualChange(a: Figures, b: Figures): number {
   return Math.max(Math.abs(a.rb - b.rb), Math.abs(a.rbbar - b.rbbar))
 }
 
-export function converged(a: Figures, b: Figures, tol: number, withAngles: boolean): boolean {
-  const close = (p: number, q: number, scale: number) => Math.abs(p - q) <= tol * Math.abs(scale)
-  return (
-    close(a.ext, b.ext, b.ext) &&
-    close(a.sca, b.sca, b.sca) &&
-    close(a.abs, b.abs, b.ext) &&
-    close(a.g, b.g, 1) &&
-    (!withAngles || (close(a.b, b.b, 1) && close(a.bbar, b.bbar, 1)))
-  )
-}
-
 /** The change of b and β̄ between two levels (absolute: they are fractions, like g). */
 function angularChange(a: Figures, b: Figures): number {
   return Math.max(Math.abs(a.b - b.b), Math.abs(a.bbar - b.bbar))
 }
 
-/** The largest relative change of σext, σsca, σabs (relative to σext), and change of g (and b, β̄), between two levels. */
-export function largestChange(a: Figures, b: Figures, withAngles: boolean): number {
+/**
+ * The largest change between two levels of one population's figures, as a share of the sample's figures at this
+ * wavelength: the population's own (b) plus those of the populations integrated before it (`before`, their sums).
+ * σext and σsca relative to the sample's, σabs relative to its σext; g (and b, β̄) as the sample's g moves with them:
+ * the population's change weighted by its share of σsca, plus its σsca's change times how far its g is from the
+ * others' (b and β̄ lie in [0, 1], so 1 bounds that distance for them). With nothing before, this is each figure's
+ * change relative to the population's own (σext, σsca, σabs relative to σext) and the change of g, b and β̄.
+ */
+export function largestChange(a: Figures, b: Figures, withAngles: boolean, before: Sums): number {
   const r = (p: number, q: number, scale: number) => (scale > 0 ? Math.abs(p - q) / scale : 0)
-  const c = Math.max(r(a.ext, b.ext, b.ext), r(a.sca, b.sca, b.sca), r(a.abs, b.abs, b.ext), Math.abs(a.g - b.g))
-  return withAngles ? Math.max(c, angularChange(a, b)) : c
+  const ext = b.ext + before.ext
+  const sca = b.sca + before.sca
+  const others = before.sca > 0 && sca > 0
+  const share = others ? b.sca / sca : 1
+  const scaMove = others ? Math.abs(a.sca - b.sca) / sca : 0
+  const gApart = others ? Math.abs(b.g - before.gsca / before.sca) : 0
+  const c = Math.max(r(a.ext, b.ext, ext), r(a.sca, b.sca, sca), r(a.abs, b.abs, ext), Math.abs(a.g - b.g) * share + scaMove * gApart)
+  return withAngles ? Math.max(c, angularChange(a, b) * share + scaMove) : c
+}
+
+/**
+ * The error the populations already integrated at one wavelength estimate for themselves (each the sum of its last
+ * two changes, as a share of the sample's figures up to it), in Mm⁻¹ of σext and of σsca (largestChange puts g, b
+ * and β̄ on σsca's scale), so that the next population may stop once its own estimate and theirs together are
+ * within the tolerance of the sample's figures.
+ */
+export class ErrorBudget {
+  ext = 0
+  sca = 0
+  /** Adds a population's estimate: `share` of the sample's σext and σsca up to it (its figures f plus `before`). */
+  spend(share: number, f: Figures, before: Sums): void {
+    this.ext += share * (f.ext + before.ext)
+    this.sca += share * (f.sca + before.sca)
+  }
+  /** The share of the sample's figures up to a population (its figures f plus `before`) already spent. */
+  spent(f: Figures, before: Sums): number {
+    const ext = f.ext + before.ext
+    const sca = f.sca + before.sca
+    return Math.max(ext > 0 ? this.ext / ext : 0, sca > 0 ? this.sca / sca : 0)
+  }
 }
 
 /** target = (keep ? target·factor : 0) + fresh, over scalar and (if withAngles) angular sums. */

@@ -19,9 +19,9 @@ describe('stepped size integration', () => {
       r = steps.next()
     }
     const stepped = r.value
-    // tens of thousands of Mie evaluations: far more than one step's work
-    expect(stepped.evaluations).toBeGreaterThan(10_000)
-    expect(pauses).toBeGreaterThan(20)
+    // thousands of Mie evaluations (some of them large spheres): far more than one step's work
+    expect(stepped.evaluations).toBeGreaterThan(4_000)
+    expect(pauses).toBeGreaterThan(10)
     for (const key of ['ext', 'sca', 'abs', 'g', 'backscatter', 'upscatterMean', 'evaluations', 'level'] as const) expect(stepped[key]).toBe(whole[key])
     expect(Array.from(stepped.phase!)).toEqual(Array.from(whole.phase!))
   })
