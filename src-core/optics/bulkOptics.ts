@@ -42,7 +42,8 @@ function integrationOrder(populations: readonly Population[]): readonly Populati
   const top = (p: Population) => p.segments.reduce((m, sg) => Math.max(m, sg.hi), -Infinity)
   const kindTop = new Map<Population['kind'], number>()
   for (const p of populations) kindTop.set(p.kind, Math.max(kindTop.get(p.kind) ?? -Infinity, top(p)))
-  return [...populations].sort((a, b) => kindTop.get(a.kind)! - kindTop.get(b.kind)! || top(b) - top(a))
+  const ascending = (x: number, y: number) => (x === y ? 0 : x - y) // populations without particles have top −∞
+  return [...populations].sort((a, b) => ascending(kindTop.get(a.kind)!, kindTop.get(b.kind)!) || ascending(top(b), top(a)))
 }
 
 /** The coarsest lattice step: a power of two from 1/64 to 64 (anything else is a programming error). */

@@ -118,7 +118,7 @@ const USER_ANGLE_LEVELS = 2
 /**
  * A population among others may stop once its changes are within the tolerance of the sample's figures (see the
  * stopping rule below), but its own changes must stay within SHARED_LIMIT times the tolerance, and within the
- * tolerance itself below level SHARED_FROM_LEVEL (a step of 1/32 in size parameter up to x = 100): on a narrow,
+ * tolerance itself below level SHARED_FROM_LEVEL (a step of at most 1/32 in size parameter up to x = 100): on a narrow,
  * lossless coarse mode beside a fine mode carrying most of σ, looser limits let the changes of coarse levels stop the
  * refinement early by chance (errors up to 2e-4 of the sample's σext at a 1e-4 tolerance; DEVELOPERS.md).
  */
