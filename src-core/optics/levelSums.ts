@@ -74,8 +74,9 @@ function angularChange(a: Figures, b: Figures): number {
 }
 
 /**
- * The largest change between two levels of one population's figures, as a share of the sample's figures at this
- * wavelength: the population's own (b) plus those of the populations integrated before it (`before`, their sums).
+ * The largest change between two levels (a, then b) of one population's figures, as a share of the sample's figures
+ * at this wavelength: the population's own at level b plus those of the populations integrated before it (`before`,
+ * their sums).
  * σext and σsca relative to the sample's, σabs relative to its σext; g (and b, β̄) as the sample's g moves with them:
  * the population's change weighted by its share of σsca, plus its σsca's change times how far its g is from the
  * others' (b and β̄ lie in [0, 1], so 1 bounds that distance for them). With nothing before, this is each figure's
