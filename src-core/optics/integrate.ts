@@ -138,9 +138,10 @@ export const STEP_WORK = 50_000
 
 /**
  * Integrates one population at one wavelength into `into` (adds), refining until converged, with a pause
- * after every STEP_WORK of work. Returns the refinement level used.
+ * after every STEP_WORK of work; `into` holds the populations integrated before it and `budget` what they estimated
+ * of their own error (the stopping rule below). Returns the refinement level used.
  */
-export function* integratePopulation(pop: Population, wavelengthUm: number, cond: Conditions, opts: Settings, ws: OpticsWorkspace, into: Sums, budget = new ErrorBudget()): Generator<void, { level: number; converged: boolean }> {
+export function* integratePopulation(pop: Population, wavelengthUm: number, cond: Conditions, opts: Settings, ws: OpticsWorkspace, into: Sums, budget: ErrorBudget): Generator<void, { level: number; converged: boolean }> {
   const kind = pop.kind
   const dry = dryIndicesAt(kind, wavelengthUm)
   const userTable = opts.upscatter && opts.anglesDeg && opts.anglesDeg.length ? ws.userTable(opts.anglesDeg) : null
