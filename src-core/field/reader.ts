@@ -363,7 +363,7 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     pushBytes(bytes: Uint8Array, start: number, end: number, at?: number): boolean {
       // only a row of a recognised one-row-per-time table whose date order is known, and a plain line
       if (buffer || held || det!.header.layout !== 'time-rows') return false
-      const cells = (byteCells ??= new ByteCells(det!.header.delimiter))
+      const cells = (byteCells ??= new ByteCells(det!.header.delimiter, det!.header.decimal === ','))
       const n = cells.split(bytes, start, end)
       if (n < 0) return false
       lineNo = at ?? lineNo + 1

@@ -14,6 +14,17 @@ function shortestForm(digits: string, n: number): string {
   return (k === 1 ? digits : digits[0] + '.' + digits.slice(1)) + (e < 0 ? 'e-' : 'e+') + Math.abs(e)
 }
 
+/**
+ * A double's bits, read through a second view of its bytes: the binary exponent e₂ (|v| in [2^e₂, 2^(e₂+1)) for the
+ * normal doubles sevenDigitMantissa takes) gives the decimal one as ⌊e₂·log₁₀2⌋ or one more, without a call to
+ * Math.log10 (a fifth of the time of a number, in a micro-benchmark here).
+ */
+const BITS = new Float64Array(1)
+const WORDS = new Uint32Array(BITS.buffer)
+/** The word holding the sign, exponent and top of the mantissa: the second on a little-endian machine. */
+const HIGH = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0
+const LOG10_2 = Math.log10(2)
+
 /** The decimal exponent n of the last sevenDigitMantissa: |v| rounds to 0.d₁…d₇ × 10ⁿ. */
 let exponent = 0
 
@@ -24,7 +35,9 @@ let exponent = 0
 function sevenDigitMantissa(a: number): number {
   // within 1e-16 .. 1e28 the scaled value is one correctly rounded operation on exact powers of ten
   if (!(a >= 1e-16 && a < 1e28)) return -1
-  let e = Math.floor(Math.log10(a))
+  // the decimal exponent from the binary one (at most one too low: the step below mends that)
+  BITS[0] = a
+  let e = Math.floor((((WORDS[HIGH] >>> 20) & 0x7ff) - 1023) * LOG10_2)
   let scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]
   if (scaled >= 1e7) (e++, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
   else if (scaled < 1e6) (e--, (scaled = e <= 6 ? a * POW10[6 - e] : a / POW10[e - 6]))
@@ -72,12 +85,13 @@ export function writeSevenDigits(v: number, out: Uint8Array, at: number): number
     out[at] = 48
     return at + 1
   }
-  let m = sevenDigitMantissa(v < 0 ? -v : v)
-  if (m < 0) return writeLatin1(String(Number(v.toPrecision(7))), out, at)
+  const mantissa = sevenDigitMantissa(v < 0 ? -v : v)
+  if (mantissa < 0) return writeLatin1(String(Number(v.toPrecision(7))), out, at)
   const n = exponent
-  // the 7 digits, then without trailing zeros (k of them)
+  // the 7 digits, then without trailing zeros (k of them); m below 1e7, so integer division by 10 is exact
+  let m = mantissa | 0
   for (let i = 6; i >= 0; i--) {
-    const q = Math.floor(m / 10)
+    const q = (m / 10) | 0
     DIGITS[i] = 48 + m - q * 10
     m = q
   }

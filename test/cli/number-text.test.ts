@@ -38,6 +38,13 @@ describe('sevenDigits', () => {
       check(-(12345675 + 10 * i))
       check((1234567 + i) / 1e6 + 5e-8) // near ties
     }
+    // around every power of ten the writer takes (its decimal exponent comes from the binary one, then one step)
+    const up = (v: number) => ((bits[0] = v), words[0] === 0xffffffff ? (words[0] = 0, words[1]++) : words[0]++, bits[0])
+    const down = (v: number) => ((bits[0] = v), words[0] === 0 ? (words[0] = 0xffffffff, words[1]--) : words[0]--, bits[0])
+    for (let k = -17; k <= 29; k++) {
+      const p = Number(`1e${k}`)
+      for (const v of [p, up(p), down(p), up(up(p)), down(down(p)), 2 * p, p / 2, 9.9999995 * p, 9.99999949 * p]) check(v), check(-v)
+    }
     for (const v of [1, 10, 1e6, 1e7, 9999999.5, 999999.95, 0.1, 1e21, 1e22, 1.5e-7, 1e-6, 9.9999995e-7, 5e-324, 2.2e-308, Number.MAX_VALUE, -0, 0.5, 1.2345675, 1e28, 1e-16]) check(v)
     expect(mismatches).toEqual([])
   })

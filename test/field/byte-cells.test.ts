@@ -51,6 +51,27 @@ describe('ByteCells', () => {
           expect(Object.is(bytes.number(k, false), text.number(k, false))).toBe(true)
         }
       }
+      // numbers read in the split's own pass (digits and one decimal mark) and the rest by readNumberBytes: long
+      // digit runs (beyond 2^53, more than 22 after the mark), either mark, as the table's mark or the other
+      const marks = d === ',' ? [false] : [false, true]
+      for (const comma of marks) {
+        const cells = new ByteCells(d, comma)
+        for (let i = 0; i < 5_000; i++) {
+          let line = ''
+          const n = Math.floor(next() * 12)
+          for (let k = 0; k < n; k++) {
+            const len = next() < 0.1 ? 15 + Math.floor(next() * 20) : 1 + Math.floor(next() * 8)
+            for (let j = 0; j < len; j++) line += pick(d === ',' ? '0123456789012345678901234567890123456789.e- ' : '0123456789012345678901234567890123456789.,e- ')
+            line += d
+          }
+          const b = bytesOf(line)
+          const count = cells.split(b, 0, b.length)
+          expect(count).toBe(text.split(line))
+          for (let k = 0; k <= count; k++) {
+            for (const c of marks) expect(Object.is(cells.number(k, c), text.number(k, c)), `"${text.cell(k)}", ${c ? 'comma' : 'point'}`).toBe(true)
+          }
+        }
+      }
       expect(bytes.split(bytesOf(`1${d}"2"`), 0, 4)).toBe(-1)
       expect(bytes.split(bytesOf(`1${d}µ`), 0, 4)).toBe(-1)
     }
