@@ -8,7 +8,7 @@
 // beside each figure. The page's own figures (drawing, zoom, the worker's transfer) are not measured here.
 import { availableParallelism, loadavg } from 'node:os'
 import { buildCampaignRecord, completeRecord, demoStudy, recordColumns, stretchSample, type CampaignInput } from '../../src-core/index.ts'
-import { report } from './timing.ts'
+import { peakResidentMb, report } from './timing.ts'
 
 const STEPS = Number(process.env['MOTEBENCH_BENCH_CAMPAIGN_STEPS'] ?? 100_000)
 const BINS = 100
@@ -72,7 +72,7 @@ export async function benchCampaign(): Promise<void> {
     stretch_rows: s.rows,
     stretch_ms: Number(sampleMs.toFixed(1)),
     stretch_goal_ms: 300,
-    peak_rss_mb: Math.round(process.resourceUsage().maxRSS / 1024),
+    peak_rss_mb: Math.round(peakResidentMb()),
     memory_goal_mb: 1024,
     note: 'src-core on this thread, as the page worker runs it; drawing and the transfer to the page not included',
     cores: availableParallelism(),

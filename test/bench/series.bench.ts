@@ -42,12 +42,23 @@ async function writeSizerFile(path: string, rows: number): Promise<void> {
   await new Promise<void>((resolve, reject) => out.end((e?: Error | null) => (e ? reject(e) : resolve())))
 }
 
-/** Runs in the CLI's process: its peak resident memory (worker threads included) on standard error at exit. */
+/**
+ * Runs in the CLI's process: its peak resident memory (worker threads included) on standard error at exit, read as
+ * peakResidentMb (timing.ts) reads it: VmHWM, not maxRSS, which counts this bench process's memory too.
+ */
 const MEASURE = `
+import { readFileSync } from 'node:fs'
 import { pathToFileURL } from 'node:url'
 const [node, , bin, ...args] = process.argv
 process.argv = [node, bin, ...args]
-process.on('exit', () => process.stderr.write('\\npeak-rss-kb ' + process.resourceUsage().maxRSS + '\\n'))
+const peakKb = () => {
+  try {
+    const m = /VmHWM:\\s*(\\d+)\\s*kB/.exec(readFileSync('/proc/self/status', 'utf8'))
+    if (m) return Number(m[1])
+  } catch {}
+  return process.resourceUsage().maxRSS
+}
+process.on('exit', () => process.stderr.write('\\npeak-rss-kb ' + peakKb() + '\\n'))
 await import(pathToFileURL(bin).href)
 `
 

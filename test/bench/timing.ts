@@ -1,4 +1,5 @@
 // Timing helpers for `npm run bench`: medians of repeats, each repeat long enough to time well.
+import { readFileSync } from 'node:fs'
 
 /** Median of a list of numbers. */
 export function median(values: number[]): number {
@@ -40,6 +41,21 @@ export function msPerRun(once: () => void, repeats = 9): number {
     per.push(performance.now() - start)
   }
   return median(per)
+}
+
+/**
+ * This process's peak resident memory in MB, its worker threads included (they share its memory). On Linux from
+ * /proc/self/status (VmHWM): `process.resourceUsage().maxRSS` there also counts what the parent process held when it
+ * started this one (a forked copy of it is this process until the exec), so a child of a 300 MB process read at
+ * least 300 MB whatever it used itself (a 39 MB child read 309 MB). Elsewhere, maxRSS. (series.bench.ts's child
+ * processes read it with the same lines.)
+ */
+export function peakResidentMb(): number {
+  try {
+    const m = /VmHWM:\s*(\d+)\s*kB/.exec(readFileSync('/proc/self/status', 'utf8'))
+    if (m) return Number(m[1]) / 1024
+  } catch {}
+  return process.resourceUsage().maxRSS / 1024
 }
 
 /** One JSON line per case. */
