@@ -13,6 +13,12 @@ function isSpace(c: number): boolean {
   return c === 32 || c === 9 || c === 13
 }
 
+/** `into` (twice as long) with `from` copied to its start. */
+function doubled<T extends Int32Array | Float64Array | Uint8Array>(from: T, into: T): T {
+  into.set(from)
+  return into
+}
+
 /** bytes[start, end) of ASCII as a string. */
 export function asciiText(bytes: Uint8Array, start: number, end: number): string {
   let s = ''
@@ -96,18 +102,10 @@ export class ByteCells implements Cells {
   }
 
   private grow(): void {
-    const s = new Int32Array(this.starts.length * 2)
-    s.set(this.starts)
-    this.starts = s
-    const e = new Int32Array(this.ends.length * 2)
-    e.set(this.ends)
-    this.ends = e
-    const v = new Float64Array(this.numbers.length * 2)
-    v.set(this.numbers)
-    this.numbers = v
-    const r = new Uint8Array(this.read.length * 2)
-    r.set(this.read)
-    this.read = r
+    this.starts = doubled(this.starts, new Int32Array(this.starts.length * 2))
+    this.ends = doubled(this.ends, new Int32Array(this.ends.length * 2))
+    this.numbers = doubled(this.numbers, new Float64Array(this.numbers.length * 2))
+    this.read = doubled(this.read, new Uint8Array(this.read.length * 2))
   }
 
   /** The k-th cell as a string ('' beyond the last). */

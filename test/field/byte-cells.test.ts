@@ -72,6 +72,14 @@ describe('ByteCells', () => {
           }
         }
       }
+      // a line of more cells than the arrays first hold (they grow, keeping what they hold)
+      const long = Array.from({ length: 600 }, (_, k) => (k % 7 === 0 ? ` ${k}.5 ` : k % 5 === 0 ? `x${k}` : `${k}.${k % 10}`)).join(d)
+      const lb = bytesOf(long)
+      expect(bytes.split(lb, 0, lb.length)).toBe(text.split(long))
+      for (let k = 0; k < 600; k++) {
+        expect(bytes.cell(k)).toBe(text.cell(k))
+        expect(Object.is(bytes.number(k, false), text.number(k, false))).toBe(true)
+      }
       expect(bytes.split(bytesOf(`1${d}"2"`), 0, 4)).toBe(-1)
       expect(bytes.split(bytesOf(`1${d}µ`), 0, 4)).toBe(-1)
     }
