@@ -4,8 +4,10 @@
 // included), median of three runs; the same on a quarter of the rows, to show that memory does not grow with the
 // rows and what a row costs beyond the fixed start (process, worker threads, the bins' kernels); and, on this
 // thread, the one-off integration of the kernels and a row's figures and CSV line (in a 256-row block).
-// MOTEBENCH_BENCH_SERIES_ROWS sets another number of rows (e.g. for a quick look). The timed processes run without
-// NODE_EXTRA_CA_CERTS (timing.ts).
+// MOTEBENCH_BENCH_SERIES_ROWS sets another number of rows (e.g. for a quick look). Then a long file, 5 times the
+// rows (100,000, 73 MB; MOTEBENCH_BENCH_SERIES_LONG_ROWS, 0 for none), as a monitoring network's record: its rows per
+// second end to end and its peak memory (flat in the rows). The timed processes run without NODE_EXTRA_CA_CERTS
+// (timing.ts).
 import { execFileSync, spawnSync } from 'node:child_process'
 import { createWriteStream, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { availableParallelism, loadavg, tmpdir } from 'node:os'
@@ -91,6 +93,14 @@ export async function benchSeries(): Promise<void> {
     }
     const tBig = median(big.map((x) => x.seconds))
     const tSmall = median(little.map((x) => x.seconds))
+    const longRows = Number(process.env.MOTEBENCH_BENCH_SERIES_LONG_ROWS ?? 5 * rows)
+    const long: { seconds: number; peakMb: number }[] = []
+    if (longRows > 0) {
+      const file = join(dir, 'long.csv')
+      await writeSizerFile(file, longRows)
+      for (let r = 0; r < RUNS; r++) long.push(runCli(dir, file))
+      rmSync(file)
+    }
 
     // On this thread, without threads or I/O: the bins' kernels (once per series), then a 256-row block's figures and lines, per row.
     const study = demoStudy()
@@ -120,6 +130,14 @@ export async function benchSeries(): Promise<void> {
       quarter_rows_peak_rss_mb: Number(median(little.map((x) => x.peakMb)).toFixed(0)),
       quarter_rows_whole_process_s: Number(tSmall.toFixed(2)),
       rows_per_second_beyond_start: Number(((rows - quarter) / Math.max(1e-9, tBig - tSmall)).toPrecision(3)),
+      ...(long.length
+        ? {
+            long_rows: longRows,
+            long_whole_process_s: Number(median(long.map((x) => x.seconds)).toFixed(2)),
+            long_rows_per_second: Number((longRows / median(long.map((x) => x.seconds))).toPrecision(3)),
+            long_peak_rss_mb: Number(median(long.map((x) => x.peakMb)).toFixed(0))
+          }
+        : {}),
       kernel_setup_ms: Math.round(kernelMs),
       one_row_us_single_thread: Number((rowMs * 1000).toPrecision(3)),
       load_average_1min: Number(loadavg()[0].toFixed(2)),
