@@ -124,6 +124,14 @@ export class ByteCells implements Cells {
     return readNumberBytes(this.bytes, this.starts[k], this.ends[k], decimalComma)
   }
 
+  numbersInto(values: number[], first: number, n: number, decimalComma: boolean): void {
+    const same = decimalComma === this.decimalComma
+    for (let j = 0; j < n; j++) {
+      const k = first + j
+      values[j] = same && k < this.count && this.read[k] === 1 ? this.numbers[k] : this.number(k, decimalComma)
+    }
+  }
+
   /** The first byte of the k-th cell (-1: empty or beyond the last). */
   firstByte(k: number): number {
     return k < this.count && this.starts[k] < this.ends[k] ? this.bytes[this.starts[k]] : -1

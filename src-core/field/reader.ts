@@ -157,10 +157,11 @@ export function createSizerReader(options: SizerReaderOptions = {}): SizerReader
     let negatives = 0
     const t = time!.read(s)
     if ('reason' in t) problems = [t]
+    s.numbersInto(values, first, n, comma)
     for (let j = 0; j < n; j++) {
-      const v = s.number(first + j, comma)
-      if (v >= 0) values[j] = v
-      else if (v < 0 && zero) {
+      const v = values[j]
+      if (v >= 0) continue
+      if (v < 0 && zero) {
         values[j] = 0
         negatives++
       } else {

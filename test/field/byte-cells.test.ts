@@ -70,6 +70,19 @@ describe('ByteCells', () => {
           for (let k = 0; k <= count; k++) {
             for (const c of marks) expect(Object.is(cells.number(k, c), text.number(k, c)), `"${text.cell(k)}", ${c ? 'comma' : 'point'}`).toBe(true)
           }
+          // a row's numbers at once (numbersInto), from any first cell to one beyond the last: each cell's number
+          const first = Math.floor(next() * (count + 1))
+          const span = count + 1 - first
+          for (const c of marks) {
+            const fromBytes = Array.from({ length: span }, () => -1)
+            const fromText = Array.from({ length: span }, () => -1)
+            cells.numbersInto(fromBytes, first, span, c)
+            text.numbersInto(fromText, first, span, c)
+            for (let j = 0; j < span; j++) {
+              expect(Object.is(fromBytes[j], text.number(first + j, c)), `numbersInto, cell ${first + j}`).toBe(true)
+              expect(Object.is(fromText[j], text.number(first + j, c))).toBe(true)
+            }
+          }
         }
       }
       // a line of more cells than the arrays first hold (they grow, keeping what they hold)
