@@ -5,7 +5,8 @@
 // the @esbuild/<platform> package; esbuild's own install script is not needed).
 import { build } from 'esbuild'
 import { fileURLToPath } from 'node:url'
-import { readdir, rm } from 'node:fs/promises'
+import { readdir, readFile, rm, writeFile } from 'node:fs/promises'
+import { createHash } from 'node:crypto'
 import { basename, join } from 'node:path'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
@@ -95,6 +96,11 @@ export async function buildCli({ quiet = false } = {}) {
   // chunks of earlier builds (their names carry a hash of their content) are removed once the new ones are written
   const built = new Set(Object.keys(result.metafile.outputs).map((f) => basename(f)))
   for (const f of await readdir(join(root, 'out/cli'))) if (f.endsWith('.mjs') && !built.has(f)) await rm(join(root, 'out/cli', f), { force: true })
+  // The build's id: a hash of every built file, by which `series` knows its kernels kept on disk are this build's
+  // (src-main/cli/kernel-cache.ts)
+  const hash = createHash('sha256')
+  for (const f of (await readdir(join(root, 'out/cli'))).filter((f) => /\.(mjs|cjs)$/.test(f)).sort()) hash.update(`${f}\n`).update(await readFile(join(root, 'out/cli', f)))
+  await writeFile(join(root, 'out/cli/build-id'), hash.digest('hex') + '\n')
   if (!quiet) process.stdout.write(`motebench: command line built into out/cli in ${Math.round(performance.now() - t0)} ms\n`)
 }
 

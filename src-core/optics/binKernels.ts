@@ -30,12 +30,17 @@ export interface BinKernels {
 /** A sizer's bins without their values: the same for every row of a series. */
 export type BinLayout = Omit<BinsSpec, 'values' | 'source'>
 
-/** Per-bin optical kernels of a sample's composition and humidity on a bin layout, at the study's wavelengths. */
+/**
+ * Per-bin optical kernels of a sample's composition and humidity on a bin layout, at the study's wavelengths.
+ * `integrated`: the integrated figures of an earlier call with the same inputs (packBinKernels; a cache kept
+ * between runs, keyed by binKernelsInputs), taken instead of integrating them again; the rest (edges, weights,
+ * the composition) is made as always.
+ */
 export function binOpticsKernels(
   sample: Pick<Sample, 'name' | 'composition' | 'rh_percent' | 'rh_history' | 'temperature_k'>,
   study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
   layout: BinLayout,
-  options: { tolerance?: number; workspace?: OpticsWorkspace } = {}
+  options: { tolerance?: number; workspace?: OpticsWorkspace; integrated?: Float64Array } = {}
 ): BinKernels {
   const count = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
   const edgesUm = binsFromMeasurement({
@@ -58,7 +63,19 @@ export function binOpticsKernels(
   }
   const out: BinKernels = { edgesUm: edges, wavelengthsNm: [...study.wavelengths_nm], ext: [], sca: [], abs: [], gsca: [], numberWeights, volumeWeights, kind }
   const unit = () => 1 / Math.LN10 // dN/dlnD for dN/dlogD = 1
-  for (const wl of study.wavelengths_nm) {
+  const given = options.integrated
+  if (given && given.length !== 4 * n * study.wavelengths_nm.length) {
+    throw new Error(`integrated figures of ${given.length} values given for ${n} bins at ${study.wavelengths_nm.length} wavelengths`)
+  }
+  for (const [j, wl] of study.wavelengths_nm.entries()) {
+    if (given) {
+      const at = 4 * n * j
+      out.ext.push(given.slice(at, at + n))
+      out.sca.push(given.slice(at + n, at + 2 * n))
+      out.abs.push(given.slice(at + 2 * n, at + 3 * n))
+      out.gsca.push(given.slice(at + 3 * n, at + 4 * n))
+      continue
+    }
     const ext = new Float64Array(n)
     const sca = new Float64Array(n)
     const abs = new Float64Array(n)
@@ -78,6 +95,53 @@ export function binOpticsKernels(
     out.gsca.push(gsca)
   }
   return out
+}
+
+/** The kernels' integrated figures in one array (per wavelength: σext, σsca, σabs, g·σsca of every bin), as binOpticsKernels takes them back. */
+export function packBinKernels(k: Pick<BinKernels, 'ext' | 'sca' | 'abs' | 'gsca'>): Float64Array {
+  const n = k.ext.length > 0 ? k.ext[0].length : 0
+  const packed = new Float64Array(4 * n * k.ext.length)
+  for (let j = 0; j < k.ext.length; j++) {
+    const at = 4 * n * j
+    packed.set(k.ext[j], at)
+    packed.set(k.sca[j], at + n)
+    packed.set(k.abs[j], at + 2 * n)
+    packed.set(k.gsca[j], at + 3 * n)
+  }
+  return packed
+}
+
+/**
+ * Everything the integrated figures of binOpticsKernels depend on besides the code (the sample's composition,
+ * humidity, its history and temperature; the study's own materials; the wavelengths; the bins; the tolerance), as
+ * one text with every object's keys sorted: equal texts, equal figures. The key of a cache of packBinKernels.
+ */
+export function binKernelsInputs(
+  sample: Pick<Sample, 'composition' | 'rh_percent' | 'rh_history' | 'temperature_k'>,
+  study: Pick<Study, 'user_materials' | 'wavelengths_nm'>,
+  layout: BinLayout,
+  tolerance: number | undefined
+): string {
+  return canonicalJson({
+    composition: sample.composition,
+    rh_percent: sample.rh_percent,
+    rh_history: sample.rh_history,
+    temperature_k: sample.temperature_k,
+    user_materials: study.user_materials ?? [],
+    wavelengths_nm: study.wavelengths_nm,
+    layout: { diameters: layout.diameters, diameter_unit: layout.diameter_unit, edges: layout.edges },
+    tolerance: tolerance ?? 'default'
+  })
+}
+
+/** JSON with the keys of every object sorted (undefined members left out, as JSON.stringify leaves them). */
+function canonicalJson(v: unknown): string {
+  return JSON.stringify(v, (_key, value: unknown) => {
+    if (value === null || typeof value !== 'object' || Array.isArray(value) || ArrayBuffer.isView(value)) return ArrayBuffer.isView(value) ? Array.from(value as Float64Array) : value
+    const sorted: Record<string, unknown> = {}
+    for (const k of Object.keys(value).sort()) sorted[k] = (value as Record<string, unknown>)[k]
+    return sorted
+  })
 }
 
 /** Bulk figures of one distribution on the kernels' bins. */

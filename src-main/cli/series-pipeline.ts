@@ -13,6 +13,7 @@ import { startCliWorker } from './workers/start.ts'
 import { takeEarly } from './workers/early.ts'
 import type { SeriesExtra } from './series-optical.ts'
 import type { ByteLines } from './file-lines.ts'
+import type { KernelSource } from './kernel-cache.ts'
 
 /**
  * Rows per block sent to a worker, blocks a worker may hold, blocks read ahead of the writer (at least; 8,192
@@ -72,6 +73,8 @@ export interface SeriesSummary {
   negativesZeroed: { cells: number; rows: number }
   workers: number
   tolerance: number
+  /** Where each worker's bins' kernels came from (integrated, or read from the cache of an earlier run). */
+  kernels: KernelSource[]
   seconds: number
 }
 
@@ -143,6 +146,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
   let writing: Promise<void> = Promise.resolve()
   let unwrittenChars = 0
   const opticsSkips: SkippedRow[] = []
+  const kernels: KernelSource[] = []
   let opticsSkipCount = 0
 
   const notify = (): void => {
@@ -236,6 +240,10 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
 
   const onMessage = (w: (typeof workers)[number], m: FromWorker): void => {
     if (m.type === 'ready') return
+    if (m.type === 'kernels') {
+      kernels.push(m.source)
+      return
+    }
     w.inFlight--
     done.set(m.id, m)
     flush()
@@ -370,6 +378,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       negativesZeroed: end.negativesZeroed,
       workers: o.workers,
       tolerance: o.tolerance,
+      kernels,
       seconds: (performance.now() - started) / 1000
     }
   } finally {

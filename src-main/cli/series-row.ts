@@ -1,9 +1,11 @@
 // The rows of `motebench series`: figures and CSV text of a block of distributions, shared by the command's worker
 // threads and the bench.
 import {
+  binKernelsInputs,
   binnedRowEvaluator,
   binnedRowWidth,
   binOpticsKernels,
+  packBinKernels,
   InputError,
   OpticsWorkspace,
   type BinKernels,
@@ -14,6 +16,7 @@ import {
 } from '../../src-core/index.ts'
 import { csvCell } from './common.ts'
 import { writeLatin1, writeSevenDigits } from './number-text.ts'
+import { kernelCacheFile, readKernelCache, writeKernelCache, type KernelSource } from './kernel-cache.ts'
 
 /** What every row of a series shares: the sample (composition, humidity, layer), wavelengths and accuracy. */
 export interface SeriesSetup {
@@ -64,14 +67,25 @@ export class SeriesBlockComputer {
   private figures = new Float64Array(0)
   private width = 0
   private bytes = new Uint8Array(1 << 16)
+  /** Where the kernels came from (kernel-cache.ts), once useLayout has run. */
+  kernelSource: KernelSource | undefined
 
   constructor(private readonly setup: SeriesSetup) {}
 
-  /** Integrates the layout's kernels (once per series; a few hundred milliseconds). */
+  /**
+   * Integrates the layout's kernels (once per series; a few hundred milliseconds), or reads them from the cache of
+   * an earlier run with the same inputs (kernel-cache.ts), and keeps them there for the next.
+   */
   useLayout(layout: BinLayout): void {
     try {
-      const study = { wavelengths_nm: this.setup.wavelengthsNm, user_materials: this.setup.userMaterials }
-      this.kernels = binOpticsKernels(this.setup.sample, study, layout, { tolerance: this.setup.tolerance, workspace: new OpticsWorkspace() })
+      const { sample, tolerance, wavelengthsNm } = this.setup
+      const study = { wavelengths_nm: wavelengthsNm, user_materials: this.setup.userMaterials }
+      const file = kernelCacheFile(binKernelsInputs(sample, study, layout, tolerance))
+      const bins = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+      const cached = file ? readKernelCache(file, 4 * bins * wavelengthsNm.length) : {}
+      this.kernels = binOpticsKernels(sample, study, layout, { tolerance, workspace: cached.values ? undefined : new OpticsWorkspace(), integrated: cached.values })
+      const stored = file && !cached.values ? writeKernelCache(file, packBinKernels(this.kernels)) : undefined
+      this.kernelSource = { how: cached.values ? 'cache' : 'computed', file, note: stored ?? cached.note }
       this.evaluate = binnedRowEvaluator(this.kernels, layout)
       this.width = binnedRowWidth(this.kernels)
       this.figures = new Float64Array(this.width)

@@ -1,6 +1,6 @@
 // Per-bin kernels: a distribution's optics as a dot product must match the full integration of the same bins.
 import { describe, expect, it } from 'vitest'
-import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, computeSampleOptics, InputError, opticsFromBinKernels, type BinLayout, type Sample, type Study } from '../../src-core/index.ts'
+import { binKernelsInputs, binnedRowEvaluator, binnedRowWidth, binOpticsKernels, computeSampleOptics, InputError, opticsFromBinKernels, packBinKernels, type BinLayout, type Sample, type Study } from '../../src-core/index.ts'
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b)
 
@@ -68,5 +68,54 @@ describe('bin kernels', () => {
       expect(mine).toBeInstanceOf(InputError)
       expect((mine as Error).message).toBe((theirs as Error).message)
     }
+  })
+})
+
+describe('bin kernels kept between runs (packBinKernels, binKernelsInputs)', () => {
+  const diameters = Array.from({ length: 9 }, (_, i) => 40 * 1.4 ** i)
+  const layout: BinLayout = { diameters, diameter_unit: 'nm', edges: false, quantity: 'dN/dlogDp' }
+  const sample: Pick<Sample, 'name' | 'composition' | 'rh_percent' | 'rh_history' | 'temperature_k'> = {
+    name: 'cache test',
+    composition: { components: [{ material: 'ammonium-sulfate', volume_fraction: 0.85 }, { material: 'black-carbon', volume_fraction: 0.15 }], mixing: 'volume-average' },
+    rh_percent: 70,
+    rh_history: 'falling'
+  }
+  const study = { wavelengths_nm: [450, 550, 700] }
+
+  it('kernels made from their packed figures are the integrated ones, bit for bit; a packed array of another size is refused', () => {
+    const k = binOpticsKernels(sample, study, layout, { tolerance: 1e-3 })
+    const packed = packBinKernels(k)
+    expect(packed.length).toBe(4 * 9 * 3)
+    const again = binOpticsKernels(sample, study, layout, { tolerance: 1e-3, integrated: packed })
+    for (const key of ['ext', 'sca', 'abs', 'gsca'] as const) {
+      for (let j = 0; j < 3; j++) expect(Array.from(again[key][j]).every((v, i) => Object.is(v, k[key][j][i]))).toBe(true)
+    }
+    expect(Array.from(again.edgesUm)).toEqual(Array.from(k.edgesUm))
+    expect(Array.from(again.volumeWeights)).toEqual(Array.from(k.volumeWeights))
+    expect(again.kind.densityGcm3).toBe(k.kind.densityGcm3)
+    // a row through either gives the same figures
+    const values = diameters.map((d) => 1000 * Math.exp(-((Math.log(d / 150) ** 2) / 0.5)))
+    expect(opticsFromBinKernels(again, layout, values)).toEqual(opticsFromBinKernels(k, layout, values))
+    expect(() => binOpticsKernels(sample, study, layout, { integrated: packed.subarray(1) })).toThrow(/107 values given for 9 bins at 3 wavelengths/)
+  })
+
+  it('the inputs text changes with every input the figures depend on, and not with the order of keys or the sample name', () => {
+    const base = binKernelsInputs(sample, study, layout, 1e-4)
+    const reordered = binKernelsInputs({ rh_history: 'falling', rh_percent: 70, composition: { mixing: 'volume-average', components: sample.composition.components.map((c) => ({ volume_fraction: c.volume_fraction, material: c.material })) } }, { wavelengths_nm: [450, 550, 700] }, { quantity: 'dN/dlogDp', edges: false, diameter_unit: 'nm', diameters }, 1e-4)
+    expect(reordered).toBe(base)
+    expect(binKernelsInputs({ ...sample, name: 'another name' } as typeof sample, study, layout, 1e-4)).toBe(base)
+    const changed = [
+      binKernelsInputs({ ...sample, rh_percent: 71 }, study, layout, 1e-4),
+      binKernelsInputs({ ...sample, rh_history: 'rising' }, study, layout, 1e-4),
+      binKernelsInputs({ ...sample, temperature_k: 280 }, study, layout, 1e-4),
+      binKernelsInputs({ ...sample, composition: { ...sample.composition, mixing: 'maxwell-garnett' } }, study, layout, 1e-4),
+      binKernelsInputs(sample, { wavelengths_nm: [450, 550, 701] }, layout, 1e-4),
+      binKernelsInputs(sample, { ...study, user_materials: [{ name: 'x', n: 1.5, k: 0, density_gcm3: 1.5, kappa: 0.1 } as never] }, layout, 1e-4),
+      binKernelsInputs(sample, study, { ...layout, diameters: diameters.map((d, i) => (i === 4 ? d * (1 + 1e-12) : d)) }, 1e-4),
+      binKernelsInputs(sample, study, { ...layout, diameter_unit: 'um' }, 1e-4),
+      binKernelsInputs(sample, study, { ...layout, edges: true }, 1e-4),
+      binKernelsInputs(sample, study, layout, 1e-5)
+    ]
+    expect(new Set([base, ...changed]).size).toBe(changed.length + 1)
   })
 })

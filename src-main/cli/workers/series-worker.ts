@@ -4,12 +4,13 @@
 // (workers/early.ts): it loads its modules meanwhile and waits for the setup.
 import { parentPort, workerData } from 'node:worker_threads'
 import { SeriesBlockComputer, type BinLayout, type BlockResult, type SeriesSetup } from '../series-row.ts'
+import type { KernelSource } from '../kernel-cache.ts'
 
 export type ToWorker =
   | { type: 'setup'; setup: SeriesSetup }
   | { type: 'layout'; layout: BinLayout }
   | { type: 'block'; id: number; times: string[]; values: Float64Array; bins: number }
-export type FromWorker = { type: 'ready' } | ({ type: 'block'; id: number } & BlockResult)
+export type FromWorker = { type: 'ready' } | { type: 'kernels'; source: KernelSource } | ({ type: 'block'; id: number } & BlockResult)
 
 const port = parentPort!
 let computer = workerData ? new SeriesBlockComputer(workerData as SeriesSetup) : null
@@ -17,7 +18,10 @@ let computer = workerData ? new SeriesBlockComputer(workerData as SeriesSetup) :
 port.on('message', (m: ToWorker) => {
   if (m.type === 'setup') computer = new SeriesBlockComputer(m.setup)
   else if (!computer) throw new Error(`series worker: "${m.type}" before the setup`)
-  else if (m.type === 'layout') computer.useLayout(m.layout)
+  else if (m.type === 'layout') {
+    computer.useLayout(m.layout)
+    if (computer.kernelSource) port.postMessage({ type: 'kernels', source: computer.kernelSource } satisfies FromWorker)
+  }
   else port.postMessage({ type: 'block', id: m.id, ...computer.block(m.times, m.values, m.bins) } satisfies FromWorker)
 })
 port.postMessage({ type: 'ready' } satisfies FromWorker)
