@@ -52,7 +52,6 @@ export function binOpticsKernels(
   }).edges
   const kind = resolveComposition(sample.composition, studyMaterials(study), `sample "${sample.name}"`)
   const cond: Conditions = { rhPercent: sample.rh_percent, history: sample.rh_history, temperatureK: sample.temperature_k ?? 298.15 }
-  const ws = options.workspace ?? new OpticsWorkspace()
   const edges = Float64Array.from(edgesUm)
   const n = edges.length - 1
   const numberWeights = new Float64Array(n)
@@ -64,6 +63,7 @@ export function binOpticsKernels(
   const out: BinKernels = { edgesUm: edges, wavelengthsNm: [...study.wavelengths_nm], ext: [], sca: [], abs: [], gsca: [], numberWeights, volumeWeights, kind }
   const unit = () => 1 / Math.LN10 // dN/dlnD for dN/dlogD = 1
   const given = options.integrated
+  const ws = given ? undefined : (options.workspace ?? new OpticsWorkspace())
   if (given && given.length !== 4 * n * study.wavelengths_nm.length) {
     throw new Error(`integrated figures of ${given.length} values given for ${n} bins at ${study.wavelengths_nm.length} wavelengths`)
   }
@@ -83,7 +83,7 @@ export function binOpticsKernels(
     for (let i = 0; i < n; i++) {
       const pop = { label: `bin ${i + 1}`, kind, segments: [{ lo: Math.log(edges[i]), hi: Math.log(edges[i + 1]), flat: true, density: unit }] }
       // the kernels hold σext, σsca, σabs and g·σsca only: no angular sums
-      const r = bulkOpticsAt([pop], wl / 1000, cond, { tolerance: options.tolerance, upscatter: false }, ws)
+      const r = bulkOpticsAt([pop], wl / 1000, cond, { tolerance: options.tolerance, upscatter: false }, ws!)
       ext[i] = r.ext
       sca[i] = r.sca
       abs[i] = r.abs

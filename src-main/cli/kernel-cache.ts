@@ -14,8 +14,8 @@
 // MAX_FILES the oldest are removed.
 import { createHash } from 'node:crypto'
 import { mkdirSync, readdirSync, readFileSync, renameSync, statSync, unlinkSync, utimesSync, writeFileSync } from 'node:fs'
-import { homedir } from 'node:os'
-import { join } from 'node:path'
+import { homedir, hostname } from 'node:os'
+import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
 const MAGIC = 'motebench bin kernels 1'
@@ -57,12 +57,19 @@ function currentBuildId(): string | null {
 
 const sha256 = (data: string | Uint8Array) => createHash('sha256').update(data).digest('hex')
 
-/** The file for these inputs, or undefined when nothing is cached (turned off, or not the built command line). */
+/**
+ * The file for these inputs, or undefined when nothing is cached (turned off, not the built command line, or no
+ * home folder to put it in: the cache only saves time, so it never stops a run).
+ */
 export function kernelCacheFile(inputs: string, env: NodeJS.ProcessEnv = process.env): string | undefined {
-  const dir = kernelCacheDir(env)
-  const id = currentBuildId()
-  if (!dir || !id) return undefined
-  return join(dir, `${sha256(`${MAGIC}\n${id}\n${process.versions.v8}\n${process.arch}\n${inputs}`)}.bin`)
+  try {
+    const dir = kernelCacheDir(env)
+    const id = currentBuildId()
+    if (!dir || !id) return undefined
+    return join(dir, `${sha256(`${MAGIC}\n${id}\n${process.versions.v8}\n${process.arch}\n${inputs}`)}.bin`)
+  } catch {
+    return undefined
+  }
 }
 
 /**
@@ -103,8 +110,9 @@ export function readKernelCache(file: string, length: number): { values?: Float6
 
 /** Stores `values` in `file` (atomically); a note when it could not. Removes the oldest files beyond MAX_FILES. */
 export function writeKernelCache(file: string, values: Float64Array): string | undefined {
-  const dir = join(file, '..')
-  const tmp = `${file}.${process.pid}.tmp`
+  const dir = dirname(file)
+  // the host too: runs of an array job on several machines may share one cache folder
+  const tmp = `${file}.${hostname()}-${process.pid}.tmp`
   try {
     mkdirSync(dir, { recursive: true })
     const payload = new Uint8Array(values.buffer, values.byteOffset, values.byteLength)

@@ -7,7 +7,6 @@ import {
   binOpticsKernels,
   packBinKernels,
   InputError,
-  OpticsWorkspace,
   type BinKernels,
   type BinLayout,
   type BinnedRowEvaluator,
@@ -83,7 +82,7 @@ export class SeriesBlockComputer {
       const file = kernelCacheFile(binKernelsInputs(sample, study, layout, tolerance))
       const bins = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
       const cached = file ? readKernelCache(file, 4 * bins * wavelengthsNm.length) : {}
-      this.kernels = binOpticsKernels(sample, study, layout, { tolerance, workspace: cached.values ? undefined : new OpticsWorkspace(), integrated: cached.values })
+      this.kernels = binOpticsKernels(sample, study, layout, { tolerance, integrated: cached.values })
       const stored = file && !cached.values ? writeKernelCache(file, packBinKernels(this.kernels)) : undefined
       this.kernelSource = { how: cached.values ? 'cache' : 'computed', file, note: stored ?? cached.note }
       this.evaluate = binnedRowEvaluator(this.kernels, layout)
