@@ -137,7 +137,8 @@ export function binKernelsInputs(
 /** JSON with the keys of every object sorted (undefined members left out, as JSON.stringify leaves them). */
 function canonicalJson(v: unknown): string {
   return JSON.stringify(v, (_key, value: unknown) => {
-    if (value === null || typeof value !== 'object' || Array.isArray(value) || ArrayBuffer.isView(value)) return ArrayBuffer.isView(value) ? Array.from(value as Float64Array) : value
+    if (ArrayBuffer.isView(value)) return Array.from(value as Float64Array)
+    if (value === null || typeof value !== 'object' || Array.isArray(value)) return value
     const sorted: Record<string, unknown> = {}
     for (const k of Object.keys(value).sort()) sorted[k] = (value as Record<string, unknown>)[k]
     return sorted

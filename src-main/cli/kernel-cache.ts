@@ -21,6 +21,8 @@ import { fileURLToPath } from 'node:url'
 const MAGIC = 'motebench bin kernels 1'
 const MAX_FILES = 500
 const KEEP_FILES = 400
+/** This machine's byte order, written in each file's header (a file of the other order is not read). */
+const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1
 
 /** How a run got its kernels, for the summary. */
 export interface KernelSource {
@@ -33,8 +35,8 @@ export interface KernelSource {
 
 /** The cache's folder, or undefined when it is turned off. */
 export function kernelCacheDir(env: NodeJS.ProcessEnv = process.env): string | undefined {
-  const set = env.MOTEBENCH_CACHE_DIR
-  if (set !== undefined && set.trim() !== '') return set.trim().toLowerCase() === 'off' ? undefined : set
+  const set = env.MOTEBENCH_CACHE_DIR?.trim()
+  if (set) return set.toLowerCase() === 'off' ? undefined : set
   const base = env.XDG_CACHE_HOME && env.XDG_CACHE_HOME.trim() !== '' ? env.XDG_CACHE_HOME : join(homedir(), '.cache')
   return join(base, 'motebench')
 }
@@ -93,8 +95,7 @@ export function readKernelCache(file: string, length: number): { values?: Float6
     return damaged
   }
   const payload = bytes.subarray(newline + 1)
-  const little = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1
-  if (header.magic !== MAGIC || header.length !== length || header.littleEndian !== little || payload.length !== 8 * length || header.sha256 !== sha256(payload)) return damaged
+  if (header.magic !== MAGIC || header.length !== length || header.littleEndian !== LITTLE_ENDIAN || payload.length !== 8 * length || header.sha256 !== sha256(payload)) return damaged
   // copied into an array of its own (the file's bytes need not be 8-byte aligned)
   const values = new Float64Array(length)
   new Uint8Array(values.buffer).set(payload)
@@ -116,8 +117,7 @@ export function writeKernelCache(file: string, values: Float64Array): string | u
   try {
     mkdirSync(dir, { recursive: true })
     const payload = new Uint8Array(values.buffer, values.byteOffset, values.byteLength)
-    const little = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1
-    const header = JSON.stringify({ magic: MAGIC, length: values.length, littleEndian: little, sha256: sha256(payload) })
+    const header = JSON.stringify({ magic: MAGIC, length: values.length, littleEndian: LITTLE_ENDIAN, sha256: sha256(payload) })
     writeFileSync(tmp, Buffer.concat([Buffer.from(header + '\n', 'utf8'), payload]))
     renameSync(tmp, file)
   } catch (e) {
