@@ -2,9 +2,8 @@
 // of rows. Rows are packed in blocks (BLOCK_ROWS distributions in one Float64Array) and each block goes to a worker
 // thread, which integrates the bins' kernels once (or reads those an earlier run kept: kernel-cache.ts) and turns
 // the block into CSV text (series-row.ts). Blocks come back out of order and are written in input order, in chunks
-// of about a megabyte. At most a few blocks per worker
-// are read ahead of the last block written: then reading waits (backpressure). The command (series.ts) gives it
-// the lines, the setup and the output.
+// of about a megabyte. At most a few blocks per worker are read ahead of the last block written: then reading waits
+// (backpressure). The command (series.ts) gives it the lines, the setup and the output.
 import type { Worker } from 'node:worker_threads'
 import { createSizerReader, InputError, type SizerHeader, type SizerOptions, type SizerRejection } from '../../src-core/index.ts'
 import { csvCell } from './common.ts'

@@ -1,7 +1,8 @@
 // Worker thread of `motebench series`: given the series' setup (a message, or workerData), integrates the bins'
 // kernels once the layout comes (or reads those an earlier run kept, and says which: kernel-cache.ts), then turns
-// each block of rows it is sent into CSV text (see series-row.ts) and posts it back with the block's number. It may be started before the main thread has read the study
-// (workers/early.ts): it loads its modules meanwhile and waits for the setup.
+// each block of rows it is sent into CSV text (see series-row.ts) and posts it back with the block's number. It may
+// be started before the main thread has read the study (workers/early.ts): it loads its modules meanwhile and waits
+// for the setup.
 import { parentPort, workerData } from 'node:worker_threads'
 import { SeriesBlockComputer, type BinLayout, type BlockResult, type SeriesSetup } from '../series-row.ts'
 import type { KernelSource } from '../kernel-cache.ts'
