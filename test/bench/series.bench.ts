@@ -3,8 +3,8 @@
 // its CSV to a file. Reports rows per second of the whole process and its peak resident memory (worker threads
 // included), median of three runs, with the bins' kernels integrated in the run (the first run on a bin layout;
 // MOTEBENCH_CACHE_DIR=off) and, as `kernels_kept_*`, read from those an earlier run kept (src-main/cli/
-// kernel-cache.ts: later files of the same sizer); the same on a quarter of the rows, to show how memory goes with the rows and
-// what a row costs beyond the fixed start (process, worker threads, the bins' kernels); and, on this
+// kernel-cache.ts: later files of the same sizer); the same on a quarter of the rows, to show how memory goes with
+// the rows and what a row costs beyond the fixed start (process, worker threads, the bins' kernels); and, on this
 // thread, the one-off integration of the kernels and a row's figures and CSV line (in a 256-row block).
 // MOTEBENCH_BENCH_SERIES_ROWS sets another number of rows (e.g. for a quick look). Then a long file, 5 times the
 // rows (100,000, 73 MB; MOTEBENCH_BENCH_SERIES_LONG_ROWS, 0 for none), as a monitoring network's record: its rows per

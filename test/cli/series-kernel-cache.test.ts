@@ -14,6 +14,8 @@ const demo = join(repo, 'resources/demo.mote')
 
 let dir: string
 let cache: string
+/** The CSV series-regression.test.ts recorded for this file and these options. */
+let recorded: string
 
 function series(extra: string[], env: Record<string, string>): Promise<Ran> {
   const args = [join(repo, 'bin/motebench.mjs'), 'series', input, '--study', demo, '--sample', 'Winter wood smoke', '--wavelengths', '450,550,700', ...extra]
@@ -29,6 +31,7 @@ const kept = async () => (await readdir(cache)).filter((f) => f.endsWith('.bin')
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), 'motebench-kernel-cache-'))
   cache = join(dir, 'cache')
+  recorded = await readFile(join(repo, 'test/cli/fixtures/series-regression.expected.csv'), 'utf8')
 })
 
 afterAll(async () => {
@@ -45,7 +48,7 @@ describe('series: bin kernels kept between runs', () => {
     expect(second.stdout).toBe(first.stdout)
     expect(second.code).toBe(first.code)
     // the recorded output (series-regression.test.ts) is what the cached run writes too
-    expect(second.stdout).toBe(await readFile(join(repo, 'test/cli/fixtures/series-regression.expected.csv'), 'utf8'))
+    expect(second.stdout).toBe(recorded)
     // with two workers each reads the same file
     const two = await series(['--workers', '2'], { MOTEBENCH_CACHE_DIR: cache })
     expect(two.stderr).toMatch(/bin kernels: read from/)
@@ -62,7 +65,7 @@ describe('series: bin kernels kept between runs', () => {
     const r = await series([], { MOTEBENCH_CACHE_DIR: cache })
     expect(r.stderr).toMatch(/bin kernels: integrated, and kept in/)
     expect(r.stderr).toMatch(/was damaged and is made again/)
-    expect(r.stdout).toBe(await readFile(join(repo, 'test/cli/fixtures/series-regression.expected.csv'), 'utf8'))
+    expect(r.stdout).toBe(recorded)
     // a truncated file too
     await writeFile(file, (await readFile(file)).subarray(0, 100))
     const t = await series([], { MOTEBENCH_CACHE_DIR: cache })
@@ -81,7 +84,7 @@ describe('series: bin kernels kept between runs', () => {
     expect(await kept()).toHaveLength(before + 2)
     const off = await series([], { MOTEBENCH_CACHE_DIR: 'off' })
     expect(off.stderr).toMatch(/bin kernels: integrated \(not kept: MOTEBENCH_CACHE_DIR is off\)/)
-    expect(off.stdout).toBe(await readFile(join(repo, 'test/cli/fixtures/series-regression.expected.csv'), 'utf8'))
+    expect(off.stdout).toBe(recorded)
     expect(await kept()).toHaveLength(before + 2)
   })
 
@@ -91,6 +94,6 @@ describe('series: bin kernels kept between runs', () => {
     await writeFile(blocked, 'x')
     const r = await series([], { MOTEBENCH_CACHE_DIR: join(blocked, 'cache') })
     expect(r.stderr).toMatch(/the kernels could not be kept in .*not-a-folder.*set MOTEBENCH_CACHE_DIR to a writable folder, or to off/)
-    expect(r.stdout).toBe(await readFile(join(repo, 'test/cli/fixtures/series-regression.expected.csv'), 'utf8'))
+    expect(r.stdout).toBe(recorded)
   })
 })
