@@ -122,6 +122,7 @@ export {
   type LineCut,
   readCampaignSizer,
   readCampaignInstrument,
+  readSizerBytes,
   readSizerPart,
   sizerCut,
   partsJoin,

@@ -238,7 +238,7 @@ export const prepareRecordWorker = (): void => {
 
 /**
  * Holds chosen files: a web page's bytes are read here once, measured (held.ts) and moved to a record worker, which
- * decodes and reads them ahead (and becomes the spare worker, asked for the record next), so the page decodes none
+ * reads them ahead (and becomes the spare worker, asked for the record next), so the page decodes none
  * of a year of rows; without workers (tests of the session) the files are only measured.
  */
 async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
@@ -252,9 +252,9 @@ async function holdFiles(chosen: InstrumentFile[]): Promise<HeldFile[]> {
       const h = holdBytes(f, new Uint8Array(bytes))
       if (h.text !== undefined) return h
       // a plain-ASCII file's bytes moved (not copied): a measured file's to the partner, which reads it and hands it
-      // back packed for this worker; the sizer's to this worker, which decodes them and reads the file ahead
+      // back packed for this worker; the sizer's to this worker, which reads the file ahead from them
       const kind = guessKind(h.name, h.head)
-      if (isSizerKind(kind)) w.postMessage({ type: 'bytes', serial: h.serial, name: h.name, bytes } satisfies ToRecordWorker, [bytes])
+      if (isSizerKind(kind)) w.postMessage({ type: 'bytes', serial: h.serial, name: h.name, kind, bytes } satisfies ToRecordWorker, [bytes])
       else {
         const p = partnerWorker()
         routes.set(h.serial, w)

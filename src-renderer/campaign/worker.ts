@@ -1,21 +1,23 @@
 // The campaign's record computed off the page's thread: the files in (their texts from the desktop; on a web page
 // their bytes, read once by the page and moved here, so the page neither decodes a year of rows nor copies its
 // text), the record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
-// A web page's files are decoded here as their bytes come (`bytes`), kept for the record asked of this worker next,
-// and read ahead as the kind the page guesses for them (kind.ts) while the page's other files are still being read
-// and while it adds the files and asks for the record; the record takes what was read as the kind it is asked for
-// (buildCampaignRecord's `ahead`), the same as reading it then. The measured files are read by a partner worker
+// A web page's sizer file is read here from its bytes as they come (`bytes`: src-core's readSizerBytes, the same
+// reading as of the text they decode to, without that text), as the kind the page guesses for it (kind.ts), while
+// the page's other files are still being read and while it adds the files and asks for the record; the bytes are
+// kept for the record asked of this worker next, which takes what was read as the kind it is asked for
+// (buildCampaignRecord's `ahead`), the same as reading it then, and decodes them only for another kind. The measured files are read by a partner worker
 // (reader.ts) while this one reads the sizer: the page says which to wait for (`expect`) and passes their
 // readings on (`partner`).
-import { buildCampaignRecord, FINGERPRINT_SPAN, InputError, isSizerKind, readCampaignInstrument, readSizerPart, unpackInstrument, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
-import { guessKind } from './kind.ts'
+import type { CampaignFileKind } from '../../src-core/index.ts'
+import { buildCampaignRecord, InputError, isSizerKind, readCampaignInstrument, readSizerBytes, unpackInstrument, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
 import type { FromReader } from './reader.ts'
 
 /** A file as the page sends it: its text, or the file (read here unless its bytes came first); `serial` is the page's. */
 export type RecordWorkerInput = Omit<CampaignInput, 'text'> & { serial: number } & ({ text: string } | { blob: Blob })
 export type ToRecordWorker =
   | { type: 'record'; job: number; inputs: RecordWorkerInput[]; settings: CampaignSettings; study: Pick<Study, 'samples' | 'user_materials' | 'wavelengths_nm'> }
-  | { type: 'bytes'; serial: number; name: string; bytes: ArrayBuffer }
+  /** A plain-ASCII file's bytes, with the kind the page guessed for it. */
+  | { type: 'bytes'; serial: number; name: string; kind: CampaignFileKind; bytes: ArrayBuffer }
   /** A file the partner worker reads: the record waits for its reading. */
   | { type: 'expect'; serial: number }
   /** The partner's reading of a file (or, when it failed, nothing: the file is then read here from its blob). */
@@ -33,8 +35,10 @@ export type FromRecordWorker =
  */
 const readText = async (blob: Blob): Promise<string> => new TextDecoder().decode(await blob.arrayBuffer())
 
-/** Texts decoded from the page's bytes, by the page's serial. */
+/** Texts of files a partner could not read, by the page's serial. */
 const read = new Map<number, string>()
+/** The page's bytes, by its serial. */
+const held = new Map<number, Uint8Array>()
 /** Files read ahead (by the page's serial): as the kind guessed for them. */
 const ahead = new Map<number, ReadAhead>()
 /** Files the partner worker reads (by serial): settled when its reading has come. */
@@ -54,11 +58,10 @@ function fromPartner(m: Extract<ToRecordWorker, { type: 'partner' }>): void {
   expected.get(m.serial)?.settle()
 }
 
-/** Reads a file ahead as the kind the page will guess for it; a fault here is left for the record's own reading to meet. */
-function readAhead(serial: number, name: string, text: string): void {
-  const kind = guessKind(name, text.slice(0, FINGERPRINT_SPAN))
+/** Reads a file ahead as the kind the page guessed for it; a fault here is left for the record's own reading to meet. */
+function readAhead(serial: number, name: string, kind: CampaignFileKind, bytes: Uint8Array): void {
   try {
-    ahead.set(serial, isSizerKind(kind) ? { kind, name, part: readSizerPart({ kind, name, text }) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text }) })
+    ahead.set(serial, isSizerKind(kind) ? { kind, name, part: readSizerBytes({ kind, name }, bytes) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text: new TextDecoder().decode(bytes) }) })
   } catch {
     ahead.delete(serial)
   }
@@ -69,9 +72,9 @@ const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as un
 self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
   const d = e.data
   if (d.type === 'bytes') {
-    const text = new TextDecoder().decode(d.bytes)
-    read.set(d.serial, text)
-    readAhead(d.serial, d.name, text)
+    const bytes = new Uint8Array(d.bytes)
+    held.set(d.serial, bytes)
+    readAhead(d.serial, d.name, d.kind, bytes)
     return
   }
   if (d.type === 'expect') return expect(d.serial)
@@ -81,10 +84,15 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
   try {
     await Promise.all(d.inputs.map((i) => expected.get(i.serial)?.done))
     const readFirst = d.inputs.map((i) => ahead.get(i.serial))
-    // a measured file read ahead as the kind asked needs no text (buildCampaignRecord takes its reading)
-    const taken = (i: RecordWorkerInput, k: number) => !isSizerKind(i.kind) && readFirst[k]?.kind === i.kind && readFirst[k]?.name === i.name
-    const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i, k) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : taken(i, k) ? '' : (read.get(i.serial) ?? (await readText(i.blob))) })))
+    // a file read ahead as the kind asked needs no text (buildCampaignRecord takes its reading)
+    const taken = (i: RecordWorkerInput, k: number) => readFirst[k]?.kind === i.kind && readFirst[k]?.name === i.name
+    const textOf = async (i: RecordWorkerInput & { blob: Blob }): Promise<string> => {
+      const bytes = held.get(i.serial)
+      return bytes ? new TextDecoder().decode(bytes) : (read.get(i.serial) ?? (await readText(i.blob)))
+    }
+    const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i, k) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : taken(i, k) ? '' : await textOf(i) })))
     read.clear()
+    held.clear()
     ahead.clear()
     expected.clear()
     let last = 0
