@@ -35,7 +35,8 @@ export interface SeriesOutput {
 export interface SeriesRunOptions extends SeriesSetup {
   /**
    * The sizer file's lines (without line breaks), one at a time or in batches (of strings, or of a chunk's lines
-   * as bytes: fileLinesFromBytes); the iterator is taken synchronously when the run starts.
+   * as bytes: fileLinesFromBytes, read before the next batch is asked for, since their chunk's buffer may be filled
+   * again then: fileChunks); the iterator is taken synchronously when the run starts.
    */
   lines: AsyncIterable<string | readonly string[] | ByteLines>
   fileName: string

@@ -1,14 +1,13 @@
 // motebench series SIZER --study FILE --sample NAME: one row of optics per time step of a sizer time series.
 // This module reads the arguments, the study and the file's header, and writes the summary; the rows go through
 // the pipeline in series-pipeline.ts (worker threads, blocks, output in input order).
-import { createReadStream } from 'node:fs'
 import { stat } from 'node:fs/promises'
 import { availableParallelism } from 'node:os'
 import { basename } from 'node:path'
 import { dryIndicesAt, resolveComposition, studyMaterials } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
-import { fileLinesFromBytes } from './file-lines.ts'
+import { fileChunks, fileLinesFromBytes } from './file-lines.ts'
 import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesWorkerCount } from './series-early.ts'
@@ -155,9 +154,7 @@ export async function runSeries(argv: string[]): Promise<number> {
     shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
   }
   const target = values.out !== undefined ? await atomicFileOutput(values.out, 'series') : undefined
-  // No await between opening the lines and iterating them (runSeriesPipeline takes the iterator at once):
-  // readline emits lines as soon as the file is read, and lines emitted before the iterator exists are lost.
-  const stream = createReadStream(file, { highWaterMark: 1 << 18 })
+  const stream = fileChunks(file)
   const lines = fileLinesFromBytes(stream)
   const bar = process.stderr.isTTY ? progressBar(size, () => stream.bytesRead) : undefined
   let summary: SeriesSummary
@@ -183,7 +180,7 @@ export async function runSeries(argv: string[]): Promise<number> {
     throw e
   } finally {
     bar?.clear()
-    stream.destroy()
+    await stream.close()
   }
   process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
   return summary.rowsSkippedByReader + summary.rowsSkippedByOptics + (optical?.extra.rowsLeftOut ?? 0) > 0 ? EXIT_SKIPPED : EXIT_OK

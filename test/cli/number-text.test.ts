@@ -1,11 +1,14 @@
 // The command line's fast number text (sevenDigits) against the expression it replaces, String(Number(v.toPrecision(7))),
 // and the series command's line splitting (fileLines) against node:readline's: faster paths that must give the
 // same text (the CSV output must not change by a character).
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { createInterface } from 'node:readline'
 import { Readable } from 'node:stream'
 import { describe, expect, it } from 'vitest'
 import { sevenDigits, writeSevenDigits } from '../../src-main/cli/number-text.ts'
-import { fileLines, fileLinesFromBytes } from '../../src-main/cli/file-lines.ts'
+import { fileChunks, fileLines, fileLinesFromBytes } from '../../src-main/cli/file-lines.ts'
 
 const reference = (v: number) => String(Number(v.toPrecision(7)))
 
@@ -83,6 +86,37 @@ describe('fileLines', () => {
   it('gives the same lines for a file without carriage returns (lines sliced from each chunk, joined across chunks)', async () => {
     const text = 'units: nm\n\ntime,10,20\n2024-01-01T00:00:00Z,1,2\n2024-01-01T00:01:00Z,3,4\n\nlast,5,6\n'
     expect(await sameLinesAsReadline(text, [1, 2, 3, 5, 7, 11, 1000])).toHaveLength(7)
+  })
+
+  it('gives the same lines from a file read into one buffer again and again (fileChunks), each batch read before the next', async () => {
+    const text = '\ufeffunits: µm\ntime,0.01 µm,0.02 µm\n' + Array.from({ length: 40 }, (_, i) => `2024-01-01T00:${String(i).padStart(2, '0')}:00Z,${i},${2 * i}`).join('\n') + '\nnoté,3,4\r\nlast ü'
+    const viaReadline: string[] = []
+    for await (const l of createInterface({ input: Readable.from([text]), crlfDelay: Infinity })) viaReadline.push(l)
+    const dir = mkdtempSync(join(tmpdir(), 'motebench-chunks-'))
+    try {
+      const path = join(dir, 'sizer.csv')
+      writeFileSync(path, text)
+      for (const size of [1, 2, 3, 7, 64, 100_000]) {
+        const chunks = fileChunks(path, size)
+        const lines: string[] = []
+        for await (const batch of fileLinesFromBytes(chunks)) {
+          if (Array.isArray(batch)) lines.push(...batch)
+          else for (let i = 0; i < batch.starts.length; i++) lines.push(batch.bytes.toString('utf8', batch.starts[i], batch.ends[i]))
+        }
+        expect(lines, `chunks of ${size}`).toEqual(viaReadline)
+        expect(chunks.bytesRead).toBe(Buffer.byteLength(text))
+      }
+      // closed before the end: no further chunk
+      const chunks = fileChunks(path, 8)
+      let seen = 0
+      for await (const c of chunks) {
+        seen += c.length
+        await chunks.close()
+      }
+      expect(seen).toBe(8)
+    } finally {
+      rmSync(dir, { recursive: true, force: true })
+    }
   })
 
   it('gives the same lines for text beyond ASCII (a byte-order mark, µm, a carriage return after such lines)', async () => {
