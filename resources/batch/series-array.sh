@@ -8,6 +8,8 @@
 #
 #   export SIZER=network-2019-2024.csv STUDY=station.mote SAMPLE="Coastal haze day" WAVELENGTHS=450,550,700nm
 #   export OUTDIR=parts MOTEBENCH="npx motebench"        # or "node /path/to/motebench/bin/motebench.mjs"
+#   export SCATTERING=neph.csv ABSORPTION=absorption.csv TRUNCATION=1   # optional: measured instruments beside
+#                                                      # the sizer (--scattering, --absorption, --truncation)
 #   mkdir -p parts
 #   sbatch --array=1-16 resources/batch/series-array.sh  # 16 parts: tasks 1..16 run --shard 1/16 .. 16/16
 #
@@ -18,7 +20,8 @@
 #
 # join refuses a missing part (a task that failed: run it again with sbatch --array=K), a part given twice and
 # parts of another run (other inputs or options). Each part reads the sizer file up to the end of its lines
-# (the lines before are only split, not parsed) and computes only its own rows. The array must be 1..N (the
+# (the lines before are only split, not parsed) and computes only its own rows; with measured instruments each
+# part also reads them, and the sizer's times, whole. The array must be 1..N (the
 # task numbers are the shard numbers). merge and uncertainty take --shard K/N the same way (see README).
 #
 #SBATCH --job-name=motebench-series
@@ -32,6 +35,9 @@ outdir=${OUTDIR:-.}
 workers=$(( ${SLURM_CPUS_PER_TASK:-2} > 1 ? ${SLURM_CPUS_PER_TASK:-2} - 1 : 1 ))
 extra=()
 [ -n "${WAVELENGTHS:-}" ] && extra+=(--wavelengths "$WAVELENGTHS")
+[ -n "${SCATTERING:-}" ] && extra+=(--scattering "$SCATTERING")
+[ -n "${ABSORPTION:-}" ] && extra+=(--absorption "$ABSORPTION")
+[ -n "${TRUNCATION:-}" ] && extra+=(--truncation)
 # part-K-of-N with K zero-padded, so the shell lists the parts in order (join orders them anyway)
 part=$(printf '%s/part-%05d-of-%05d.csv' "$outdir" "$k" "$n")
 status=0

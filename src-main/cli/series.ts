@@ -36,6 +36,7 @@ ${sizerHelp()}
 ${seriesOpticalHelp}
   --shard K/N           only the K-th of N contiguous parts of the file's lines (rows in one time per row
                         files); the output starts with a shard line, and "motebench join" puts the parts together
+                        (with --scattering or --absorption every part reads those files and the sizer's times whole)
 Output: CSV with time (ISO 8601; a label as written when the file's time column holds no dates), then per wavelength ext, sca, abs (Mm⁻¹), ssa, g, then dry number (cm⁻³), volume
 (µm³ cm⁻³) and mass (µg m⁻³); with measured files, their columns after these (the "#" lines that open the
 file say how they were made comparable). A summary goes to standard error; a progress bar too when it is a terminal.
@@ -147,11 +148,15 @@ export async function runSeries(argv: string[]): Promise<number> {
   const shardOf = readShard(values.shard, 'series')
   let shard: SeriesRunOptions['shard']
   if (shardOf) {
-    if (optical) throw new UsageError('series: --shard does not take the measured instruments (--scattering, --absorption) yet; run the comparison whole')
     const [from, to] = shardRange(await countLines(file), shardOf)
-    const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy }
+    // with measured instruments every part reads them whole and the sizer's times (the time base), so a row's
+    // measured cells and the head's notes are the single run's; the files and the options that change them count
+    const measured = [values.scattering, values.absorption].filter((f): f is string => f !== undefined)
+    const opticalOptions = optical ? { scattering: values.scattering !== undefined, absorption: values.absorption !== undefined, truncation: values.truncation, angles: values['neph-angles'], closure: values.closure, closureSd: values['closure-sd'] } : undefined
+    const options = { sample: sample.name, wavelengthsNm, tolerance, sizer, policy, ...(opticalOptions ? { optical: opticalOptions } : {}) }
+    const head = 1 + (optical?.extra.headerComments ?? []).reduce((n, c) => n + c.split('\n').length, 0)
     // the last part takes every line after its first (whatever the count missed)
-    shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study], options), 1) }
+    shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study, ...measured], options), head) }
   }
   const target = values.out !== undefined ? await atomicFileOutput(values.out, 'series') : undefined
   const stream = fileChunks(file)

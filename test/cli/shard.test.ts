@@ -8,7 +8,7 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { fileLines } from '../../src-main/cli/file-lines.ts'
 import { countLines, shardRange } from '../../src-main/cli/shard.ts'
-import { expectOneLine, run } from './helpers.ts'
+import { expectOneLine, repo, run } from './helpers.ts'
 import { MERGE, SERIES, shardedRun, uncertainStudy, uncertaintyArgs, wholeRun } from './shard-runs.ts'
 
 let dir: string
@@ -69,6 +69,34 @@ describe('shards joined equal the single run, byte for byte', () => {
     const three = await shardedRun(SERIES(file), dir, 'bad-3', 3)
     expect(three.text).toBe(whole.text)
     expect(three.codes.filter((c) => c === 1).length).toBe(1) // only the shard holding line 8
+  })
+
+  it('series with measured instruments (scattering corrected for truncation, absorption), on the invented campaign', { timeout: 120_000 }, async () => {
+    const field = (f: string) => join(repo, 'resources/field', f)
+    const args = (...more: string[]) => ['series', field('campaign-mobility.csv'), '--study', join(repo, 'resources/demo.mote'), '--sample', 'Winter wood smoke', '--wavelengths', '550nm', '--workers', '1', '--scattering', field('campaign-nephelometer.csv'), '--absorption', field('campaign-absorption.csv'), ...more]
+    const whole = await wholeRun(args('--truncation'), join(dir, 'optical-whole.csv'))
+    expect(whole.code).toBe(1) // rows left out: bad cells in the sizer file, a bad row in each instrument file
+    const lines = whole.text.trimEnd().split('\n')
+    expect(lines.filter((l) => l.startsWith('# ')).length).toBeGreaterThanOrEqual(3) // the notes of the comparison
+    expect(lines[lines.findIndex((l) => l.startsWith('time,'))]).toMatch(/sca_ratio_550nm.*abs_ratio_520nm/)
+    for (const n of [2, 3]) expect((await shardedRun(args('--truncation'), dir, `optical-${n}`, n)).text).toBe(whole.text)
+    // without the truncation correction it is another run (other cells, other notes): its shards do not join these
+    const other = await shardedRun(args(), dir, 'optical-other', 3)
+    const mixed = await run(['join', join(dir, 'optical-3-1.csv'), other.parts[1], join(dir, 'optical-3-3.csv'), '--out', join(dir, 'optical-mixed.csv')])
+    expect(mixed.code).toBe(2)
+    expect(mixed.stderr).toMatch(/is not of the same run/)
+    // nor does a part made with a nephelometer file changed in one cell (the same head, another fingerprint)
+    const neph = (await readFile(field('campaign-nephelometer.csv'), 'utf8')).split('\n')
+    const row = neph.findIndex((l) => /^2026-07-15T12:01/.test(l))
+    neph[row] = neph[row].replace(/,([0-9.]+)/, (_, v: string) => `,${(Number(v) * 1.01).toFixed(2)}`)
+    const changed = join(dir, 'campaign-nephelometer.csv')
+    await writeFile(changed, neph.join('\n'))
+    const part = join(dir, 'optical-changed-2.csv')
+    const r = await run([...args('--truncation').map((a) => (a === field('campaign-nephelometer.csv') ? changed : a)), '--shard', '2/3', '--out', part])
+    expect(r.code).toBeLessThanOrEqual(1)
+    const refused = await run(['join', join(dir, 'optical-3-1.csv'), part, join(dir, 'optical-3-3.csv'), '--out', join(dir, 'optical-mixed.csv')])
+    expect(refused.code).toBe(2)
+    expect(refused.stderr).toMatch(/is not of the same run/)
   })
 
   it('merge, on the demo field files', { timeout: 120_000 }, async () => {
