@@ -19,8 +19,8 @@
 #   # or by hand: npx motebench join parts/part-*.csv --out record.csv
 #
 # join refuses a missing part (a task that failed: run it again with sbatch --array=K), a part given twice and
-# parts of another run (other inputs or options). Each part reads the sizer file up to the end of its lines
-# (the lines before are only split, not parsed) and computes only its own rows; with measured instruments each
+# parts of another run (other inputs or options). Each part counts the sizer file's lines, reads its first lines
+# for the table, jumps to its own lines and computes only its own rows; with measured instruments each
 # part also reads them, and the sizer's times, whole. The array must be 1..N (the
 # task numbers are the shard numbers). merge and uncertainty take --shard K/N the same way (see README).
 #

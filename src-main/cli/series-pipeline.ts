@@ -38,7 +38,10 @@ export interface SeriesRunOptions extends SeriesSetup {
    * as bytes: fileLinesFromBytes, read before the next batch is asked for, since their chunk's buffer may be filled
    * again then: fileChunks); the iterator is taken synchronously when the run starts.
    */
-  lines: AsyncIterable<string | readonly string[] | ByteLines>
+  lines: AsyncIterable<string | readonly string[] | ByteLines> & {
+    /** From the next batch on, line `line` and those after it (false: this source cannot skip): skippingFileLines. */
+    skipTo?(line: number): boolean
+  }
   fileName: string
   sizer?: Pick<SizerOptions, 'diameterUnit' | 'quantity' | 'layout' | 'negatives' | 'dateOrder' | 'year'>
   onBadRow: 'skip' | 'stop'
@@ -77,6 +80,8 @@ export interface SeriesSummary {
   /** Where each worker's bins' kernels came from (integrated, or read from the cache of an earlier run). */
   kernels: KernelSource[]
   seconds: number
+  /** A shard: the lines before its own that were skipped unread (the table known from the file's first lines). */
+  linesSkipped: number
 }
 
 /** Splits an InputError message "where: problem. fix" back into its problem. */
@@ -298,6 +303,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
 
   let lineNo = 0
   let shardRecords = 0
+  let linesSkipped = 0
   const tick = o.onTick ? setInterval(o.onTick, 200) : undefined
   try {
     const comments = o.extra ? o.extra.headerComments.map((c) => `# ${c}\n`).join('') : ''
@@ -306,7 +312,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       lineNo++
       // a shard: lines before its part are blank once the header is known; after its part the reading stops
       if (o.shard && lineNo < o.shard.firstLine && reader.header) line = ''
-      reader.push(line)
+      reader.push(line, lineNo)
     }
     const last = o.shard?.lastLine ?? Infinity
     /** A line as bytes: read from them when the reader can (a plain row), else decoded. */
@@ -331,6 +337,11 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
           for (let i = 0; i < item.starts.length && (lineNo < last || !reader.header); i++) takeBytes(item.bytes, item.starts[i], item.ends[i])
         } else for (const line of item) if (lineNo < last || !reader.header) take(line)
         if (lineNo >= last && reader.header) break
+        // a shard whose lines are still ahead: once the table is known (one row per time), jump to its first line
+        if (o.shard && lineNo < o.shard.firstLine - 1 && reader.header?.layout === 'time-rows' && o.lines.skipTo?.(o.shard.firstLine)) {
+          linesSkipped += o.shard.firstLine - 1 - lineNo
+          lineNo = o.shard.firstLine - 1
+        }
         while (!failure && (nextId - nextWrite >= window || unwrittenChars > 4 * WRITE_CHARS)) await changed()
         if (failure) throw failure
       }
@@ -380,7 +391,8 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
       workers: o.workers,
       tolerance: o.tolerance,
       kernels,
-      seconds: (performance.now() - started) / 1000
+      seconds: (performance.now() - started) / 1000,
+      linesSkipped
     }
   } finally {
     if (tick) clearInterval(tick)

@@ -7,8 +7,8 @@ import { basename } from 'node:path'
 import { dryIndicesAt, resolveComposition, studyMaterials } from '../../src-core/index.ts'
 import { loadStudyFile } from '../files.ts'
 import { atomicFileOutput, EXIT_OK, EXIT_SKIPPED, findSample, readArgs, readTolerance, readWavelengthsNm, UsageError } from './common.ts'
-import { fileChunks, fileLinesFromBytes } from './file-lines.ts'
-import { countLines, readShard, runFingerprint, shardLine, shardRange } from './shard.ts'
+import { skippingFileLines } from './file-lines.ts'
+import { lineIndex, readShard, runFingerprint, shardLine, shardRange, type LineIndex } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesWorkerCount } from './series-early.ts'
 import { kernelCacheDir, type KernelSource } from './kernel-cache.ts'
@@ -147,8 +147,10 @@ export async function runSeries(argv: string[]): Promise<number> {
   const size = (await stat(file)).size
   const shardOf = readShard(values.shard, 'series')
   let shard: SeriesRunOptions['shard']
+  let index: LineIndex | undefined
   if (shardOf) {
-    const [from, to] = shardRange(await countLines(file), shardOf)
+    index = await lineIndex(file)
+    const [from, to] = shardRange(index.total, shardOf)
     // with measured instruments every part reads them whole and the sizer's times (the time base), so a row's
     // measured cells and the head's notes are the single run's; the files and the options that change them count
     const measured = [values.scattering, values.absorption].filter((f): f is string => f !== undefined)
@@ -159,9 +161,8 @@ export async function runSeries(argv: string[]): Promise<number> {
     shard = { firstLine: from + 1, lastLine: shardOf.k === shardOf.n ? Infinity : to, line: shardLine('series', shardOf, await runFingerprint('series', [file, values.study, ...measured], options), head) }
   }
   const target = values.out !== undefined ? await atomicFileOutput(values.out, 'series') : undefined
-  const stream = fileChunks(file)
-  const lines = fileLinesFromBytes(stream)
-  const bar = process.stderr.isTTY ? progressBar(size, () => stream.bytesRead) : undefined
+  const lines = skippingFileLines(file, index?.offsetOf)
+  const bar = process.stderr.isTTY ? progressBar(size, () => lines.bytesRead) : undefined
   let summary: SeriesSummary
   try {
     summary = await runSeriesPipeline({
@@ -185,9 +186,10 @@ export async function runSeries(argv: string[]): Promise<number> {
     throw e
   } finally {
     bar?.clear()
-    await stream.close()
+    await lines.close()
   }
-  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
+  const part = shardOf && shard && index ? `  shard ${shardOf.k}/${shardOf.n}: lines ${shard.firstLine}–${Math.min(shard.lastLine, index.total)} of ${index.total}${summary.linesSkipped > 0 ? `; lines ${shard.firstLine - summary.linesSkipped}–${shard.firstLine - 1} skipped unread (the table is read from the file's first lines)` : ''}\n` : ''
+  process.stderr.write(summaryText(file, summary, values.out, wavelengthsNm.length) + part + (optical ? optical.extra.summary().join('\n') + '\n' : ''))
   return summary.rowsSkippedByReader + summary.rowsSkippedByOptics + (optical?.extra.rowsLeftOut ?? 0) > 0 ? EXIT_SKIPPED : EXIT_OK
 }
 

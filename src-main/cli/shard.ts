@@ -63,22 +63,82 @@ export function parseShardLine(line: string): ShardInfo | undefined {
 }
 
 /**
- * Counts the lines of a file as node:readline splits them (a line ends at \n, \r\n or a lone \r; a last line
- * without a break counts), reading it as bytes.
+ * Calls `onBreak(after)` for each line break of the file from byte `start` on (a line ends at \n, \r\n or a lone
+ * \r, as node:readline splits it), in order, with the offset of the byte after the break, where the next line
+ * starts; `start` must be where a line starts, and `onBreak` returning false stops the reading. A chunk without a
+ * carriage return is searched for \n alone. Returns the file's last byte (10 when nothing was read).
  */
-export async function countLines(path: string): Promise<number> {
-  let n = 0
+async function eachBreak(path: string, start: number, onBreak: (after: number) => boolean | void): Promise<number> {
   let last = 10
   let pendingCr = false
-  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 })) {
+  let base = start
+  let go = true
+  const at = (after: number) => void (go &&= onBreak(after) !== false)
+  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20, start })) {
     const b = chunk as Buffer
     if (b.length === 0) continue
-    if (pendingCr && b[0] !== 10) n++ // a lone \r at the end of the previous chunk
-    for (let i = b.indexOf(10); i >= 0; i = b.indexOf(10, i + 1)) n++
-    for (let i = b.indexOf(13); i >= 0; i = b.indexOf(13, i + 1)) if (i + 1 < b.length && b[i + 1] !== 10) n++
-    pendingCr = b[b.length - 1] === 13
+    if (!pendingCr && b.indexOf(13) < 0) {
+      for (let i = b.indexOf(10); i >= 0 && go; i = b.indexOf(10, i + 1)) at(base + i + 1)
+    } else {
+      for (let i = 0; i < b.length && go; i++) {
+        const c = b[i]
+        if (pendingCr) {
+          pendingCr = false
+          if (c === 10) {
+            at(base + i + 1) // \r\n across or within a chunk
+            continue
+          }
+          at(base + i) // a lone \r
+        }
+        if (c === 10) at(base + i + 1)
+        else if (c === 13) pendingCr = true
+      }
+    }
+    if (!go) return -1
     last = b[b.length - 1]
+    base += b.length
   }
-  if (pendingCr) return n + 1
-  return last === 10 ? n : n + 1
+  if (pendingCr) at(base)
+  return last
+}
+
+/** Every LINE_STEP-th line's start is kept by lineIndex (for 10⁸ lines, 24,415 offsets). */
+const LINE_STEP = 4096
+
+/** A file's line count and where its lines start (lineIndex). */
+export interface LineIndex {
+  total: number
+  /** The byte offset where line `line` (1-based, at most total) starts: read from the nearest kept start on. */
+  offsetOf(line: number): Promise<number>
+}
+
+/**
+ * The lines of a file as node:readline splits them, counted in one pass over its bytes that keeps the start of every
+ * LINE_STEP-th line, so that where any line starts is found by reading at most LINE_STEP lines again (a shard that
+ * begins deep in a long file seeks there instead of splitting every line before it).
+ */
+export async function lineIndex(path: string): Promise<LineIndex> {
+  const starts = [0] // starts[m]: the offset of line 1 + m·LINE_STEP
+  let breaks = 0
+  const last = await eachBreak(path, 0, (after) => {
+    if (++breaks % LINE_STEP === 0) starts.push(after)
+  })
+  // a last line without a break counts; after a final break there is no further line
+  const total = last === 10 || last === 13 ? breaks : breaks + 1
+  return {
+    total,
+    async offsetOf(line: number): Promise<number> {
+      if (!(line >= 1 && line <= Math.max(1, total))) throw new Error(`lineIndex: line ${line} is not in 1..${total}`)
+      const m = Math.floor((line - 1) / LINE_STEP)
+      let toGo = line - 1 - m * LINE_STEP
+      if (toGo === 0) return starts[m]
+      let offset = -1
+      await eachBreak(path, starts[m], (after) => {
+        if (--toGo > 0) return true
+        offset = after
+        return false
+      })
+      return offset
+    }
+  }
 }

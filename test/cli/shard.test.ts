@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { fileLines } from '../../src-main/cli/file-lines.ts'
-import { countLines, shardRange } from '../../src-main/cli/shard.ts'
+import { lineIndex, shardRange } from '../../src-main/cli/shard.ts'
 import { expectOneLine, repo, run } from './helpers.ts'
 import { MERGE, SERIES, shardedRun, uncertainStudy, uncertaintyArgs, wholeRun } from './shard-runs.ts'
 
@@ -38,7 +38,7 @@ describe('shardRange', () => {
   })
 })
 
-describe('countLines', () => {
+describe('lineIndex', () => {
   it('counts the lines series reads (fileLines: \\n, \\r\\n or a lone \\r; a last line without a break)', async () => {
     const cases = ['a\nb\n', 'a\nb', 'a\r\nb\r\n', 'a\rb\rc', 'a\r', '', '\n\n', 'x\r\n\r\ny', 'a\n\rb']
     for (const [i, text] of cases.entries()) {
@@ -46,8 +46,27 @@ describe('countLines', () => {
       await writeFile(path, text)
       let n = 0
       for await (const batch of fileLines(createReadStream(path, { encoding: 'utf8', highWaterMark: 2 }))) n += batch.length
-      expect(await countLines(path), JSON.stringify(text)).toBe(n)
+      expect((await lineIndex(path)).total, JSON.stringify(text)).toBe(n)
     }
+  })
+
+  it('finds where each line starts (\\n, \\r\\n, a lone \\r), also far beyond the lines it keeps', async () => {
+    const breaks = ['\n', '\r\n', '\r', '\n', '\n\r']
+    const parts: string[] = []
+    for (let i = 0; i < 10_000; i++) parts.push(`row ${i}`, i % 997 === 0 ? breaks[(i / 997) % breaks.length] : i > 6000 && i % 3 === 0 ? '\r\n' : '\n')
+    const text = parts.join('') + 'last'
+    const path = join(dir, 'index.txt')
+    await writeFile(path, text)
+    // the reference: where node:readline's lines start, found a character at a time
+    const starts = [0]
+    for (let i = 0; i < text.length; i++) {
+      if (text[i] === '\n') starts.push(i + 1)
+      else if (text[i] === '\r') starts.push(text[i + 1] === '\n' ? ++i + 1 : i + 1)
+    }
+    const index = await lineIndex(path)
+    expect(index.total).toBe(starts.length)
+    const lines = [1, 2, 3, 997, 998, 4095, 4096, 4097, 4098, 6001, 8192, 8193, 8194, 9000, starts.length - 1, starts.length]
+    for (const line of lines) expect(await index.offsetOf(line), `line ${line}`).toBe(starts[line - 1])
   })
 })
 
@@ -97,6 +116,29 @@ describe('shards joined equal the single run, byte for byte', () => {
     const refused = await run(['join', join(dir, 'optical-3-1.csv'), part, join(dir, 'optical-3-3.csv'), '--out', join(dir, 'optical-mixed.csv')])
     expect(refused.code).toBe(2)
     expect(refused.stderr).toMatch(/is not of the same run/)
+  })
+
+  it('series on a file longer than a read, whose later parts skip the lines before theirs (\\n and \\r\\n, bad rows)', { timeout: 120_000 }, async () => {
+    const bins = Array.from({ length: 60 }, (_, i) => (10 * Math.pow(100, i / 59)).toPrecision(4))
+    const lines = ['units: nm', 'quantity: dN/dlogDp', ['time', ...bins].join(',')]
+    for (let i = 0; i < 3000; i++) {
+      const t = new Date(Date.UTC(2026, 6, 1) + i * 300_000).toISOString().replace('.000Z', 'Z')
+      const row = bins.map((d) => (3000 * Math.exp(-0.5 * (Math.log(Number(d) / (80 + (i % 40))) / 0.5) ** 2)).toPrecision(5))
+      if (i === 700 || i === 2300) row[7] = 'n/a'
+      lines.push([t, ...row].join(','))
+    }
+    for (const [name, brk] of [['long-lf', '\n'], ['long-crlf', '\r\n']]) {
+      const file = join(dir, `${name}.csv`)
+      await writeFile(file, lines.join(brk) + brk)
+      const whole = await wholeRun(SERIES(file), join(dir, `${name}-whole.csv`))
+      expect(whole.code).toBe(1)
+      const three = await shardedRun(SERIES(file), dir, `${name}-3`, 3)
+      expect(three.text).toBe(whole.text)
+      expect(three.codes).toEqual([1, 0, 1]) // each bad row (lines 704 and 2304) in the part that holds it
+      const third = await run([...SERIES(file), '--shard', '3/3', '--out', join(dir, `${name}-third.csv`)])
+      expect(third.stderr).toMatch(/shard 3\/3: lines 2003–3003 of 3003; lines \d+–2002 skipped unread/)
+      expect(third.stderr).toMatch(/line 2304 column 9: "n\/a"/) // the lines after the skip keep their numbers
+    }
   })
 
   it('merge, on the demo field files', { timeout: 120_000 }, async () => {
