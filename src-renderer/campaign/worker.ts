@@ -5,11 +5,10 @@
 // reading as of the text they decode to, without that text), as the kind the page guesses for it (kind.ts), while
 // the page's other files are still being read and while it adds the files and asks for the record; the bytes are
 // kept for the record asked of this worker next, which takes what was read as the kind it is asked for
-// (buildCampaignRecord's `ahead`), the same as reading it then, and decodes them only for another kind. The measured files are read by a partner worker
-// (reader.ts) while this one reads the sizer: the page says which to wait for (`expect`) and passes their
-// readings on (`partner`).
-import type { CampaignFileKind } from '../../src-core/index.ts'
-import { buildCampaignRecord, InputError, isSizerKind, readCampaignInstrument, readSizerBytes, unpackInstrument, type CampaignBuild, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
+// (buildCampaignRecord's `ahead`), the same as reading it then, and decodes them only for another kind. The
+// measured files are read by a partner worker (reader.ts) while this one reads the sizer: the page says which to
+// wait for (`expect`) and passes their readings on (`partner`).
+import { buildCampaignRecord, InputError, isSizerKind, readCampaignInstrument, readSizerBytes, unpackInstrument, type CampaignBuild, type CampaignFileKind, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
 import type { FromReader } from './reader.ts'
 
 /** A file as the page sends it: its text, or the file (read here unless its bytes came first); `serial` is the page's. */
