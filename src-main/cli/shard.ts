@@ -5,6 +5,7 @@
 // once, drops the shard lines and checks that the shards are all there, once each, and of the same run.
 import { createHash } from 'node:crypto'
 import { createReadStream } from 'node:fs'
+import { InputError } from '../../src-core/index.ts'
 import { UsageError } from './common.ts'
 
 export interface Shard {
@@ -66,7 +67,7 @@ export function parseShardLine(line: string): ShardInfo | undefined {
  * Calls `onBreak(after)` for each line break of the file from byte `start` on (a line ends at \n, \r\n or a lone
  * \r, as node:readline splits it), in order, with the offset of the byte after the break, where the next line
  * starts; `start` must be where a line starts, and `onBreak` returning false stops the reading. A chunk without a
- * carriage return is searched for \n alone. Returns the file's last byte (10 when nothing was read).
+ * carriage return is searched for \n alone. Returns the file's last byte (10 when nothing was read; -1 when stopped).
  */
 async function eachBreak(path: string, start: number, onBreak: (after: number) => boolean | void): Promise<number> {
   let last = 10
@@ -138,6 +139,7 @@ export async function lineIndex(path: string): Promise<LineIndex> {
         offset = after
         return false
       })
+      if (offset < 0) throw new InputError(path, `line ${line} is no longer in the file: it changed while it was read`, 'Run the part again once the file is complete.')
       return offset
     }
   }
