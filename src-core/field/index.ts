@@ -86,6 +86,9 @@ export {
   planWavelengths,
   instrumentWavelengths,
   instrumentKernels,
+  instrumentKernelsInputs,
+  instrumentKernelsLength,
+  packInstrumentKernels,
   comparisonColumns,
   absorptionAt,
   RowComparer

@@ -23,7 +23,7 @@
 import { retrieveRefractiveIndex } from '../closure/index.ts'
 import { InputError } from '../errors.ts'
 import { truncationQuadrature, type NephelometerGeometry, type TruncationQuadrature } from '../instruments/nephelometer.ts'
-import { binOpticsKernels, bulkOpticsAt, OpticsWorkspace, resolveComposition, rowDNdlogD, studyMaterials, type BinKernels, type BinLayout, type Conditions } from '../optics/index.ts'
+import { binKernelsInputs, binOpticsKernels, bulkOpticsAt, OpticsWorkspace, packBinKernels, resolveComposition, rowDNdlogD, studyMaterials, type BinKernels, type BinLayout, type Conditions } from '../optics/index.ts'
 import type { Sample, Study } from '../study/model.ts'
 import type { OpticalChannel, OpticalQuantity } from './optical-file.ts'
 import { stampTimeBase, stepOf, TimeAverager, type TimeBase } from './timebase.ts'
@@ -116,29 +116,48 @@ export interface InstrumentKernels {
   quadrature: TruncationQuadrature | null
 }
 
-/** Per-bin kernels of everything the comparison needs, for a sample's composition and humidity on a bin layout. */
+/** The wavelengths whose angular kernels instrumentKernels makes (scattering or backscattering), and their geometry; none without a truncation correction or backscattering. */
+function angularPlan(plan: ComparisonPlan): { wavelengthsNm: number[]; geometry: NephelometerGeometry } | null {
+  if (plan.truncation === null && planWavelengths(plan, 'backscattering').length === 0) return null
+  const wavelengthsNm = [...new Set([...planWavelengths(plan, 'scattering'), ...planWavelengths(plan, 'backscattering')])].sort((a, b) => a - b)
+  return { wavelengthsNm, geometry: plan.truncation ?? { lowDeg: DEFAULT_NEPHELOMETER_ANGLES[0], highDeg: DEFAULT_NEPHELOMETER_ANGLES[1] } }
+}
+
+/**
+ * Per-bin kernels of everything the comparison needs, for a sample's composition and humidity on a bin layout.
+ * `integrated`: the figures of an earlier call with the same inputs (packInstrumentKernels; a cache kept between
+ * runs, keyed by instrumentKernelsInputs), taken instead of integrating: the same kernels to the bit.
+ */
 export function instrumentKernels(
   sample: Pick<Sample, 'name' | 'composition' | 'rh_percent' | 'rh_history' | 'temperature_k'>,
   study: Pick<Study, 'user_materials'>,
   layout: BinLayout,
   plan: ComparisonPlan,
-  options: { tolerance?: number; workspace?: OpticsWorkspace } = {}
+  options: { tolerance?: number; workspace?: OpticsWorkspace; integrated?: Float64Array } = {}
 ): InstrumentKernels {
   const ws = options.workspace ?? new OpticsWorkspace()
   const wavelengths = instrumentWavelengths(plan)
-  const base = binOpticsKernels(sample, { user_materials: study.user_materials, wavelengths_nm: wavelengths }, layout, { tolerance: options.tolerance, workspace: ws })
-  const angularWl = [...new Set([...planWavelengths(plan, 'scattering'), ...planWavelengths(plan, 'backscattering')])].sort((a, b) => a - b)
-  const wantAngles = plan.truncation !== null || planWavelengths(plan, 'backscattering').length > 0
+  const given = options.integrated
+  const n = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+  if (given && given.length !== instrumentKernelsLength(layout, plan)) throw new Error(`integrated instrument kernels of ${given.length} values given where ${instrumentKernelsLength(layout, plan)} are needed`)
+  const baseLength = 4 * n * wavelengths.length
+  const base = binOpticsKernels(sample, { user_materials: study.user_materials, wavelengths_nm: wavelengths }, layout, { tolerance: options.tolerance, workspace: ws, integrated: given?.subarray(0, baseLength) })
   const angular: InstrumentKernels['angular'] = new Map()
-  if (!wantAngles) return { layout, base, angular, quadrature: null }
-  const geometry = plan.truncation ?? { lowDeg: DEFAULT_NEPHELOMETER_ANGLES[0], highDeg: DEFAULT_NEPHELOMETER_ANGLES[1] }
-  const q = truncationQuadrature(geometry)
+  const ap = angularPlan(plan)
+  if (!ap) return { layout, base, angular, quadrature: null }
+  const q = truncationQuadrature(ap.geometry)
+  if (given) {
+    ap.wavelengthsNm.forEach((wl, k) => {
+      const at = baseLength + 3 * n * k
+      angular.set(wl, { back: given.slice(at, at + n), seenTotal: given.slice(at + n, at + 2 * n), seenBack: given.slice(at + 2 * n, at + 3 * n) })
+    })
+    return { layout, base, angular, quadrature: q }
+  }
   const kind = resolveComposition(sample.composition, studyMaterials({ user_materials: study.user_materials, wavelengths_nm: wavelengths }), `sample "${sample.name}"`)
   const cond: Conditions = { rhPercent: sample.rh_percent, history: sample.rh_history, temperatureK: sample.temperature_k ?? 298.15 }
   const edges = base.edgesUm
-  const n = edges.length - 1
   const unit = () => 1 / Math.LN10 // dN/dlnD for dN/dlogD = 1
-  for (const wl of angularWl) {
+  for (const wl of ap.wavelengthsNm) {
     const j = base.wavelengthsNm.indexOf(wl)
     const back = new Float64Array(n)
     const seenTotal = new Float64Array(n)
@@ -166,6 +185,36 @@ export function instrumentKernels(
     angular.set(wl, { back, seenTotal, seenBack })
   }
   return { layout, base, angular, quadrature: q }
+}
+
+/** How many figures packInstrumentKernels gives for a layout and plan. */
+export function instrumentKernelsLength(layout: BinLayout, plan: ComparisonPlan): number {
+  const n = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+  return n * (4 * instrumentWavelengths(plan).length + 3 * (angularPlan(plan)?.wavelengthsNm.length ?? 0))
+}
+
+/** The kernels' integrated figures in one array (the bins' kernels as packBinKernels, then each angular wavelength's three), as instrumentKernels takes them back. */
+export function packInstrumentKernels(k: InstrumentKernels): Float64Array {
+  const base = packBinKernels(k.base)
+  const n = k.base.edgesUm.length - 1
+  const wls = [...k.angular.keys()].sort((a, b) => a - b)
+  const packed = new Float64Array(base.length + 3 * n * wls.length)
+  packed.set(base)
+  wls.forEach((wl, i) => {
+    const a = k.angular.get(wl)!
+    const at = base.length + 3 * n * i
+    packed.set(a.back, at)
+    packed.set(a.seenTotal, at + n)
+    packed.set(a.seenBack, at + 2 * n)
+  })
+  return packed
+}
+
+/** Everything instrumentKernels' figures depend on besides the code (binKernelsInputs at the instruments' wavelengths, and the angular wavelengths and geometry): equal texts, equal figures. */
+export function instrumentKernelsInputs(sample: Pick<Sample, 'composition' | 'rh_percent' | 'rh_history' | 'temperature_k'>, study: Pick<Study, 'user_materials'>, layout: BinLayout, plan: ComparisonPlan, tolerance: number | undefined): string {
+  const ap = angularPlan(plan)
+  const bins = binKernelsInputs(sample, { user_materials: study.user_materials, wavelengths_nm: instrumentWavelengths(plan) }, layout, tolerance)
+  return JSON.stringify({ instrument_kernels: 1, angular: ap ? { wavelengths_nm: ap.wavelengthsNm, low_deg: ap.geometry.lowDeg, high_deg: ap.geometry.highDeg } : null, bins })
 }
 
 /** Column names of the comparison, in the order `RowComparer.compare` fills them. */

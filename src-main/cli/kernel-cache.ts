@@ -1,4 +1,4 @@
-// The bins' kernels of `motebench series` kept on disk between runs. A monitoring network runs series on each
+// The bins' kernels of `motebench series` (and its measured instruments' kernels) kept on disk between runs. A monitoring network runs series on each
 // day's file with the same sizer bins, sample and wavelengths; the kernels (a few hundred size integrations, about
 // 0.1 s, and most of a short file's run) are then the same every time. Kept as the exact doubles
 // (packBinKernels), so a run with cached kernels writes the same numbers as one that integrates them.
@@ -107,6 +107,32 @@ export function readKernelCache(file: string, length: number): { values?: Float6
     // read-only: it is still used
   }
   return { values }
+}
+
+/**
+ * Kernels for `inputs` (a text naming everything they depend on): read from the cache when an earlier run kept them
+ * (`length` figures, given to `make` as its `integrated`), else made by `make()` and kept (`pack` gives their
+ * figures). Where they came from is in `source`, for the summary.
+ */
+export function keptKernels<K>(inputs: string, length: number, make: (integrated?: Float64Array) => K, pack: (k: K) => Float64Array): { kernels: K; source: KernelSource } {
+  const file = kernelCacheFile(inputs)
+  const cached = file ? readKernelCache(file, length) : {}
+  const kernels = make(cached.values)
+  const stored = file && !cached.values ? writeKernelCache(file, pack(kernels)) : undefined
+  return { kernels, source: { how: cached.values ? 'cache' : 'computed', file, note: stored ?? cached.note } }
+}
+
+/** The summary's line on where kernels came from (`what`: "bin kernels", ...), undefined for none. */
+export function kernelSourceLine(what: string, sources: KernelSource[]): string | undefined {
+  if (sources.length === 0) return undefined
+  const file = sources.find((k) => k.file)?.file
+  const notes = [...new Set(sources.map((k) => k.note).filter((n): n is string => n !== undefined))]
+  const head = sources.every((k) => k.how === 'cache')
+    ? `${what}: read from ${file} (kept by an earlier run with the same composition, humidity, wavelengths, bins and tolerance)`
+    : file
+      ? `${what}: integrated, and kept in ${file} for later runs with the same inputs`
+      : `${what}: integrated${kernelCacheDir() ? '' : ' (not kept: MOTEBENCH_CACHE_DIR is off)'}`
+  return [head, ...notes.map((n) => `  ${n}`)].join('\n  ')
 }
 
 /** Stores `values` in `file` (atomically); a note when it could not. Removes the oldest files beyond MAX_FILES. */

@@ -19,7 +19,10 @@ import {
   humidityComparisonNote,
   InputError,
   instrumentKernels,
+  instrumentKernelsInputs,
+  instrumentKernelsLength,
   instrumentWavelengths,
+  packInstrumentKernels,
   MeasuredAlignment,
   OpticsWorkspace,
   RatioCollector,
@@ -36,6 +39,7 @@ import {
   type OpticalRejection
 } from '../../src-core/index.ts'
 import { readPair, UsageError } from './common.ts'
+import { keptKernels, kernelSourceLine, type KernelSource } from './kernel-cache.ts'
 
 export const seriesOpticalHelp = `  --scattering FILE     measured scattering (and hemispheric backscattering) coefficients beside the sizer:
                         "# units: Mm-1", then a header time,scattering 450 nm,backscattering 450 nm,...
@@ -215,6 +219,7 @@ export async function prepareSeriesOptical(
   const collector = new RatioCollector(columns)
   let rowsWithData = 0
   let rowsWritten = 0
+  const kernelSources: KernelSource[] = []
 
   const extra: SeriesExtra = {
     columns,
@@ -222,7 +227,12 @@ export async function prepareSeriesOptical(
     cells(time, values, bins) {
       const out = new Float64Array(columns.length).fill(NaN)
       if (comparerBins !== bins || !comparer) {
-        comparer = new RowComparer(instrumentKernels(o.sample, { user_materials: o.userMaterials }, bins, plan, { tolerance: o.tolerance, workspace: ws }), plan)
+        // integrated once per layout (a few tenths of a second with the truncation's phase functions), or read from
+        // the kernels an earlier run with the same inputs kept (kernel-cache.ts)
+        const study = { user_materials: o.userMaterials }
+        const kept = keptKernels(instrumentKernelsInputs(o.sample, study, bins, plan, o.tolerance), instrumentKernelsLength(bins, plan), (integrated) => instrumentKernels(o.sample, study, bins, plan, { tolerance: o.tolerance, workspace: ws, integrated }), packInstrumentKernels)
+        kernelSources.push(kept.source)
+        comparer = new RowComparer(kept.kernels, plan)
         comparerBins = bins
       }
       const t = readInstrumentTime(time)
@@ -242,7 +252,9 @@ export async function prepareSeriesOptical(
       collector.add(cells)
     },
     summary() {
+      const kernels = kernelSourceLine('instrument kernels', kernelSources)
       const lines = [`  measured: ${pending.map((p) => `${p.name} (${alignment.used.get(p.name) ?? 0} records in sizer rows, ${alignment.outside.get(p.name) ?? 0} outside them)`).join(', ')}; ${rowsWithData} of ${rowsWritten} rows written have measured data; each row's interval ${intervalText}`]
+      if (kernels) lines.push(`  ${kernels}`)
       if (unstamped > 0) lines.push(`  ${unstamped} sizer row${unstamped === 1 ? '' : 's'} without a usable ISO 8601 time: no measured data aligned to ${unstamped === 1 ? 'it' : 'them'}`)
       for (const f of leftOut) {
         lines.push(`  ${f.name}: ${f.count} row${f.count === 1 ? '' : 's'} left out (bad time or cells)`)

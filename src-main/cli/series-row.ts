@@ -15,7 +15,7 @@ import {
 } from '../../src-core/index.ts'
 import { csvCell } from './common.ts'
 import { writeLatin1, writeSevenDigits } from './number-text.ts'
-import { kernelCacheFile, readKernelCache, writeKernelCache, type KernelSource } from './kernel-cache.ts'
+import { keptKernels, type KernelSource } from './kernel-cache.ts'
 
 /** What every row of a series shares: the sample (composition, humidity, layer), wavelengths and accuracy. */
 export interface SeriesSetup {
@@ -79,12 +79,10 @@ export class SeriesBlockComputer {
     try {
       const { sample, tolerance, wavelengthsNm } = this.setup
       const study = { wavelengths_nm: wavelengthsNm, user_materials: this.setup.userMaterials }
-      const file = kernelCacheFile(binKernelsInputs(sample, study, layout, tolerance))
       const bins = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
-      const cached = file ? readKernelCache(file, 4 * bins * wavelengthsNm.length) : {}
-      this.kernels = binOpticsKernels(sample, study, layout, { tolerance, integrated: cached.values })
-      const stored = file && !cached.values ? writeKernelCache(file, packBinKernels(this.kernels)) : undefined
-      this.kernelSource = { how: cached.values ? 'cache' : 'computed', file, note: stored ?? cached.note }
+      const kept = keptKernels(binKernelsInputs(sample, study, layout, tolerance), 4 * bins * wavelengthsNm.length, (integrated) => binOpticsKernels(sample, study, layout, { tolerance, integrated }), packBinKernels)
+      this.kernels = kept.kernels
+      this.kernelSource = kept.source
       this.evaluate = binnedRowEvaluator(this.kernels, layout)
       this.width = binnedRowWidth(this.kernels)
       this.figures = new Float64Array(this.width)

@@ -11,7 +11,7 @@ import { skippingFileLines } from './file-lines.ts'
 import { lineIndex, readShard, runFingerprint, shardLine, shardRange, type LineIndex } from './shard.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp } from './sizer-options.ts'
 import { seriesWorkerCount } from './series-early.ts'
-import { kernelCacheDir, type KernelSource } from './kernel-cache.ts'
+import { kernelSourceLine } from './kernel-cache.ts'
 import { prepareSeriesOptical, SERIES_OPTICAL_OPTIONS, seriesOpticalHelp } from './series-optical.ts'
 import { runSeriesPipeline, type SeriesOutput, type SeriesRunOptions, type SeriesSummary } from './series-pipeline.ts'
 
@@ -32,6 +32,7 @@ export const seriesHelp = `motebench series SIZER --study FILE.mote --sample NAM
                         for later runs with the same composition, humidity, wavelengths, bins and tolerance
                         (the same numbers, read instead of integrated): in $MOTEBENCH_CACHE_DIR, else
                         $XDG_CACHE_HOME/motebench or ~/.cache/motebench; MOTEBENCH_CACHE_DIR=off keeps none
+                        (the measured instruments' kernels, with --scattering or --absorption, are kept too)
 ${sizerHelp()}
 ${seriesOpticalHelp}
   --shard K/N           only the K-th of N contiguous parts of the file's lines (rows in one time per row
@@ -80,26 +81,13 @@ function summaryText(file: string, s: SeriesSummary, out: string | undefined, wa
       (skipped > 0 ? ` (${s.rowsSkippedByReader} with bad cells, ${s.rowsSkippedByOptics} whose distribution the optics could not use)` : ''),
     `  ${s.header.diameters.length - (s.header.edges ? 1 : 0)} bins (${s.header.quantity}), ${wavelengths} wavelength${wavelengths === 1 ? '' : 's'}; size-integration tolerance ${s.tolerance} (relative); ${s.workers} worker${s.workers === 1 ? '' : 's'}; ${s.seconds.toFixed(1)} s`
   ]
-  const kernels = kernelLine(s.kernels)
+  const kernels = kernelSourceLine('bin kernels', s.kernels)
   if (kernels) lines.push(`  ${kernels}`)
   for (const l of readingLines({ ...s.header, negativesZeroed: s.negativesZeroed })) lines.push(`  ${l}`)
   const show = s.skipped.slice(0, 20)
   for (const r of show) lines.push(`  line ${r.line}${r.column !== undefined ? ` column ${r.column}` : ''}: ${r.reason}${r.fix ? `\n    fix: ${r.fix}` : ''}`)
   if (s.skipped.length > show.length) lines.push(`  ... and ${s.skipped.length - show.length} more reasons not shown`)
   return lines.join('\n') + '\n'
-}
-
-/** Where the bins' kernels came from (kernel-cache.ts): read from an earlier run's, or integrated and kept. */
-function kernelLine(sources: KernelSource[]): string | undefined {
-  if (sources.length === 0) return undefined
-  const file = sources.find((k) => k.file)?.file
-  const notes = [...new Set(sources.map((k) => k.note).filter((n): n is string => n !== undefined))]
-  const head = sources.every((k) => k.how === 'cache')
-    ? `bin kernels: read from ${file} (kept by an earlier run with the same composition, humidity, wavelengths, bins and tolerance)`
-    : file
-      ? `bin kernels: integrated, and kept in ${file} for later runs with the same inputs`
-      : `bin kernels: integrated${kernelCacheDir() ? '' : ' (not kept: MOTEBENCH_CACHE_DIR is off)'}`
-  return [head, ...notes.map((n) => `  ${n}`)].join('\n  ')
 }
 
 export async function runSeries(argv: string[]): Promise<number> {

@@ -88,6 +88,28 @@ describe('series: bin kernels kept between runs', () => {
     expect(await kept()).toHaveLength(before + 2)
   })
 
+  it('with measured instruments, their kernels (truncation and backscattering included) are kept and read too: the same CSV', { timeout: 60_000 }, async () => {
+    const field = (f: string) => join(repo, 'resources/field', f)
+    const args = (cacheDir: string, ...more: string[]) =>
+      new Promise<Ran>((resolve) => {
+        const argv = [join(repo, 'bin/motebench.mjs'), 'series', field('campaign-mobility.csv'), '--study', demo, '--sample', 'Winter wood smoke', '--wavelengths', '550', '--scattering', field('campaign-nephelometer.csv'), '--absorption', field('campaign-absorption.csv'), ...more]
+        execFile(process.execPath, argv, { env: { ...process.env, MOTEBENCH_CACHE_DIR: cacheDir }, timeout: 120_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => resolve({ code: err ? ((err as { code?: number }).code ?? 1) : 0, stdout, stderr }))
+      })
+    const off = await args('off', '--truncation')
+    expect(off.stderr).toMatch(/instrument kernels: integrated \(not kept/)
+    const first = await args(cache, '--truncation')
+    expect(first.stderr).toMatch(/instrument kernels: integrated, and kept in .*\.bin/)
+    const second = await args(cache, '--truncation')
+    expect(second.stderr).toMatch(/instrument kernels: read from .*\.bin/)
+    expect(second.stdout).toMatch(/truncation_C_550nm/)
+    expect(first.stdout).toBe(off.stdout)
+    expect(second.stdout).toBe(off.stdout)
+    // other angles of the nephelometer are other kernels: a file of their own
+    const angles = await args(cache, '--truncation', '--neph-angles', '10:165')
+    expect(angles.stderr).toMatch(/instrument kernels: integrated, and kept in/)
+    expect(angles.stdout).not.toBe(off.stdout)
+  })
+
   it('a folder it cannot write says so and the run goes on', async () => {
     // a file where the folder should be
     const blocked = join(dir, 'not-a-folder')

@@ -4,8 +4,12 @@
 import { describe, expect, it } from 'vitest'
 import {
   absorptionAt,
+  comparisonColumns,
   computeSampleOptics,
   instrumentKernels,
+  instrumentKernelsInputs,
+  instrumentKernelsLength,
+  packInstrumentKernels,
   InputError,
   MeasuredAlignment,
   nephelometerTruncation,
@@ -123,6 +127,45 @@ describe('measured files made from the computed figures of a known distribution'
       expect(Math.abs(cell(`sca_ratio_${w}nm`) - 1)).toBeLessThan(1e-3)
       expect(Math.abs(cell(`bsca_ratio_${w}nm`) - 1)).toBeLessThan(2e-3)
     })
+  })
+})
+
+describe('instrument kernels kept between runs (packInstrumentKernels, instrumentKernelsInputs)', () => {
+  const chans = (q: 'scattering' | 'backscattering' | 'absorption', wls: number[]): MeasuredChannel[] => wls.map((wavelengthNm) => ({ quantity: q, wavelengthNm, file: `${q}.csv` }))
+  const full: ComparisonPlan = { channels: [...chans('scattering', SCA_WL), ...chans('backscattering', SCA_WL), ...chans('absorption', ABS_WL)], truncation: { lowDeg: 7, highDeg: 170 }, closure: null }
+  const bitsOf = (a: Float64Array) => Array.from(new BigUint64Array(a.buffer, a.byteOffset, a.length))
+
+  it('kernels made from their packed figures are the integrated ones, bit for bit; a packed array of another size is refused', () => {
+    for (const plan of [full, { ...full, truncation: null }, { ...full, channels: chans('absorption', ABS_WL), truncation: null }]) {
+      const made = instrumentKernels(SAMPLE, STUDY, LAYOUT, plan, { tolerance: 1e-4 })
+      const packed = packInstrumentKernels(made)
+      expect(packed.length).toBe(instrumentKernelsLength(LAYOUT, plan))
+      const back = instrumentKernels(SAMPLE, STUDY, LAYOUT, plan, { tolerance: 1e-4, integrated: packed })
+      expect(bitsOf(packInstrumentKernels(back))).toEqual(bitsOf(packed))
+      expect([...back.angular.keys()]).toEqual([...made.angular.keys()])
+      expect(back.quadrature?.anglesDeg).toEqual(made.quadrature?.anglesDeg)
+      // the same comparison of a row either way
+      const a = new Float64Array(comparisonColumns(plan).length)
+      const b = new Float64Array(a.length)
+      const measured = Float64Array.from(plan.channels, (_, i) => 10 + i)
+      new RowComparer(made, plan).compare(VALUES, measured, a)
+      new RowComparer(back, plan).compare(VALUES, measured, b)
+      expect(bitsOf(b)).toEqual(bitsOf(a))
+      expect(() => instrumentKernels(SAMPLE, STUDY, LAYOUT, plan, { integrated: packed.subarray(1) })).toThrow(/values given where/)
+    }
+  })
+
+  it('the inputs text changes with the angles, the angular wavelengths, the sample and the tolerance, and only with them', () => {
+    const key = (plan: ComparisonPlan, sample: Sample = SAMPLE, tolerance = 1e-4) => instrumentKernelsInputs(sample, STUDY, LAYOUT, plan, tolerance)
+    const base = key(full)
+    expect(key({ ...full, closure: { scatteringSd: 0.1, absorptionSd: 0.25 } })).toBe(base) // the closure is per row
+    expect(key({ ...full, channels: [...full.channels].reverse() })).toBe(base)
+    expect(key({ ...full, truncation: { lowDeg: 10, highDeg: 170 } })).not.toBe(base)
+    expect(key({ ...full, channels: full.channels.filter((c) => c.wavelengthNm !== 700 || c.quantity === 'absorption') })).not.toBe(base)
+    expect(key(full, { ...SAMPLE, rh_percent: 50 })).not.toBe(base)
+    expect(key(full, SAMPLE, 1e-3)).not.toBe(base)
+    // no truncation but backscattering: the default angles' kernels, the same as with those angles given
+    expect(key({ ...full, truncation: null })).toBe(key({ ...full, truncation: { lowDeg: 7, highDeg: 170 } }))
   })
 })
 
