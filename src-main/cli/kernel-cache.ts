@@ -1,7 +1,8 @@
-// The bins' kernels of `motebench series` (and its measured instruments' kernels) kept on disk between runs. A monitoring network runs series on each
-// day's file with the same sizer bins, sample and wavelengths; the kernels (a few hundred size integrations, about
-// 0.1 s, and most of a short file's run) are then the same every time. Kept as the exact doubles
-// (packBinKernels), so a run with cached kernels writes the same numbers as one that integrates them.
+// The bins' kernels of `motebench series` (and its measured instruments' kernels) kept on disk between runs. A
+// monitoring network runs series on each day's file with the same sizer bins, sample and wavelengths; the kernels
+// (a few hundred size integrations, about 0.1 s, and most of a short file's run) are then the same every time.
+// Kept as the exact doubles (packBinKernels), so a run with cached kernels writes the same numbers as one that
+// integrates them.
 //
 // A cached file is used only for the same inputs (binKernelsInputs: composition, humidity, materials, wavelengths,
 // bins, tolerance), the same build of the command line (out/cli/build-id, a hash of every built file, written by
@@ -122,13 +123,16 @@ export function keptKernels<K>(inputs: string, length: number, make: (integrated
   return { kernels, source: { how: cached.values ? 'cache' : 'computed', file, note: stored ?? cached.note } }
 }
 
-/** The summary's line on where kernels came from (`what`: "bin kernels", ...), undefined for none. */
-export function kernelSourceLine(what: string, sources: KernelSource[]): string | undefined {
+/**
+ * The summary's line on where kernels came from (`what`: "bin kernels", ...; `inputs`: what they depend on, in
+ * words), undefined for none.
+ */
+export function kernelSourceLine(what: string, sources: KernelSource[], inputs = 'composition, humidity, wavelengths, bins and tolerance'): string | undefined {
   if (sources.length === 0) return undefined
   const file = sources.find((k) => k.file)?.file
   const notes = [...new Set(sources.map((k) => k.note).filter((n): n is string => n !== undefined))]
   const head = sources.every((k) => k.how === 'cache')
-    ? `${what}: read from ${file} (kept by an earlier run with the same composition, humidity, wavelengths, bins and tolerance)`
+    ? `${what}: read from ${file} (kept by an earlier run with the same ${inputs})`
     : file
       ? `${what}: integrated, and kept in ${file} for later runs with the same inputs`
       : `${what}: integrated${kernelCacheDir() ? '' : ' (not kept: MOTEBENCH_CACHE_DIR is off)'}`

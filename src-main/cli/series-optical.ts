@@ -252,7 +252,7 @@ export async function prepareSeriesOptical(
       collector.add(cells)
     },
     summary() {
-      const kernels = kernelSourceLine('instrument kernels', kernelSources)
+      const kernels = kernelSourceLine('instrument kernels', kernelSources, 'composition, humidity, instrument wavelengths, nephelometer angles, bins and tolerance')
       const lines = [`  measured: ${pending.map((p) => `${p.name} (${alignment.used.get(p.name) ?? 0} records in sizer rows, ${alignment.outside.get(p.name) ?? 0} outside them)`).join(', ')}; ${rowsWithData} of ${rowsWritten} rows written have measured data; each row's interval ${intervalText}`]
       if (kernels) lines.push(`  ${kernels}`)
       if (unstamped > 0) lines.push(`  ${unstamped} sizer row${unstamped === 1 ? '' : 's'} without a usable ISO 8601 time: no measured data aligned to ${unstamped === 1 ? 'it' : 'them'}`)
