@@ -1,6 +1,7 @@
 // The Slurm array job of resources/batch/series-array.sh on a real single-node Slurm cluster started by
 // test/batch/slurm-cluster.sh (Debian's slurm-wlm and munge; a munge key made here, a minimal slurm.conf, no
-// cgroups). The array's three parts, put together by `motebench join`, must equal the single run byte for byte.
+// cgroups). The array's three parts, put together by `motebench join`, must equal the single run byte for byte; so
+// must the draws of resources/batch/uncertainty-array.sh's three parts, and the report made from them.
 // Needs root and the packages (.ci/run installs them); like the e2e tests with Chromium, it fails when they are
 // missing rather than skipping. The cluster's daemons and files go away in afterAll, even when the test fails.
 import { execFile } from 'node:child_process'
@@ -10,6 +11,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { repo, run } from '../cli/helpers.ts'
+import { uncertainStudy } from '../cli/shard-runs.ts'
 
 const cluster = join(repo, 'test/batch/slurm-cluster.sh')
 const TOOLS = ['/usr/sbin/slurmctld', '/usr/sbin/slurmd', '/usr/bin/sbatch', '/usr/sbin/munged']
@@ -90,4 +92,33 @@ it('a Slurm array job of three series shards (with measured instruments), joined
   expect(a.split('\n').filter((l) => /^\d{4}-/.test(l)).length).toBe(838) // the rows the single run writes
   expect(a).toMatch(/^# truncation: measured scattering multiplied/m)
   expect(a).toBe(b)
+})
+
+it('a Slurm array job of three uncertainty shards: the joined draws are the single run\'s, and so is the report from them', { timeout: 90_000 }, async () => {
+  if (setupError) throw setupError
+  const study = await uncertainStudy(dir)
+  const sample = 'Winter wood smoke'
+  const parts = join(dir, 'draw-parts')
+  await mkdir(parts)
+  const env = { ...process.env, SLURM_CONF: join(dir, 'cluster/slurm.conf'), STUDY: study, SAMPLE: sample, DRAWS: '12', SEED: '3', OUTDIR: parts, MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}` }
+  const job = await sh('sbatch', ['--wait', '--array=1-3', '--cpus-per-task=1', `--chdir=${dir}`, `--output=${join(dir, 'draws-task-%a.log')}`, join(repo, 'resources/batch/uncertainty-array.sh')], env, 80_000)
+  const logs = (await readdir(dir)).filter((f) => f.startsWith('draws-task-'))
+  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
+  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
+  const files = (await readdir(parts)).sort()
+  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
+  const joined = join(dir, 'draws.csv')
+  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
+  expect(j.code, j.stderr).toBe(0)
+  // the single run: its draws file, and its report
+  const args = ['uncertainty', study, '--sample', sample, '--draws', '12', '--seed', '3', '--precision', '0', '--json']
+  const single = join(dir, 'draws-single.csv')
+  const whole = await run([...args, '--save-draws', single])
+  expect(whole.code, whole.stderr).toBe(0)
+  const [a, b] = await Promise.all([readFile(joined, 'utf8'), readFile(single, 'utf8')])
+  expect(a.trimEnd().split('\n').length).toBe(2 + 12) // title, columns, 12 draws
+  expect(a).toBe(b)
+  const report = await run([...args, '--from-draws', joined])
+  expect(report.code, report.stderr).toBe(0)
+  expect(report.stdout).toBe(whole.stdout)
 })
