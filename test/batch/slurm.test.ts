@@ -1,7 +1,8 @@
 // The Slurm array job of resources/batch/series-array.sh on a real single-node Slurm cluster started by
 // test/batch/slurm-cluster.sh (Debian's slurm-wlm and munge; a munge key made here, a minimal slurm.conf, no
 // cgroups). The array's three parts, put together by `motebench join`, must equal the single run byte for byte; so
-// must the draws of resources/batch/uncertainty-array.sh's three parts, and the report made from them.
+// must the draws of resources/batch/uncertainty-array.sh's three parts, and the report made from them, and the
+// merged file of resources/batch/merge-array.sh's.
 // Needs root and the packages (.ci/run installs them); like the e2e tests with Chromium, it fails when they are
 // missing rather than skipping. The cluster's daemons and files go away in afterAll, even when the test fails.
 import { execFile } from 'node:child_process'
@@ -121,4 +122,28 @@ it('a Slurm array job of three uncertainty shards: the joined draws are the sing
   const report = await run([...args, '--from-draws', joined])
   expect(report.code, report.stderr).toBe(0)
   expect(report.stdout).toBe(whole.stdout)
+})
+
+it('a Slurm array job of three merge shards, joined, equals the single run byte for byte', { timeout: 90_000 }, async () => {
+  if (setupError) throw setupError
+  const mobility = join(repo, 'resources/field/valley-mobility.csv')
+  const aerodynamic = join(repo, 'resources/field/valley-aerodynamic.csv')
+  const parts = join(dir, 'merge-parts')
+  await mkdir(parts)
+  const env = { ...process.env, SLURM_CONF: join(dir, 'cluster/slurm.conf'), MOBILITY: mobility, AERODYNAMIC: aerodynamic, DENSITY: '1.8', MERGE_OPTIONS: '--shape-factor 1.1 --every 30min', OUTDIR: parts, MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}` }
+  const job = await sh('sbatch', ['--wait', '--array=1-3', `--chdir=${dir}`, `--output=${join(dir, 'merge-task-%a.log')}`, join(repo, 'resources/batch/merge-array.sh')], env, 80_000)
+  const logs = (await readdir(dir)).filter((f) => f.startsWith('merge-task-'))
+  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
+  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
+  const files = (await readdir(parts)).sort()
+  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
+  const joined = join(dir, 'merged.csv')
+  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
+  expect(j.code, j.stderr).toBe(0)
+  const single = join(dir, 'merged-single.csv')
+  const s = await run(['merge', '--mobility', mobility, '--aerodynamic', aerodynamic, '--density', '1.8', '--shape-factor', '1.1', '--every', '30min', '--out', single])
+  expect(s.code, s.stderr).toBeLessThanOrEqual(1)
+  const [a, b] = await Promise.all([readFile(joined, 'utf8'), readFile(single, 'utf8')])
+  expect(a.split('\n').filter((l) => /^\d{4}-/.test(l)).length).toBeGreaterThan(10)
+  expect(a).toBe(b)
 })
