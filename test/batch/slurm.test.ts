@@ -51,6 +51,28 @@ afterAll(async () => {
   if (dir) await rm(dir, { recursive: true, force: true })
 }, 30_000)
 
+/**
+ * Runs resources/batch/SCRIPT as a three-task array job (`sbatch --wait`) with `vars` in its environment, its parts
+ * written to a folder of their own, and joins them; the joined file's path.
+ */
+async function arrayJob(script: string, vars: Record<string, string>, extra: string[] = []): Promise<string> {
+  const name = script.replace(/\.sh$/, '')
+  const parts = join(dir, name)
+  await mkdir(parts)
+  const env = { ...process.env, ...vars, SLURM_CONF: join(dir, 'cluster/slurm.conf'), OUTDIR: parts, MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}` }
+  const job = await sh('sbatch', ['--wait', '--array=1-3', ...extra, `--chdir=${dir}`, `--output=${join(dir, `${name}-%a.log`)}`, join(repo, 'resources/batch', script)], env, 80_000)
+  const logs = (await readdir(dir)).filter((f) => f.startsWith(`${name}-`) && f.endsWith('.log'))
+  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
+  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
+  expect(job.stdout).toMatch(/Submitted batch job \d+/)
+  const files = (await readdir(parts)).sort()
+  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
+  const joined = join(dir, `${name}-joined.csv`)
+  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
+  expect(j.code, j.stderr).toBe(0)
+  return joined
+}
+
 it('a Slurm array job of three series shards (with measured instruments), joined, equals the single run byte for byte', { timeout: 90_000 }, async () => {
   if (setupError) throw setupError
   const sizer = join(repo, 'resources/field/campaign-mobility.csv')
@@ -58,34 +80,8 @@ it('a Slurm array job of three series shards (with measured instruments), joined
   const absorption = join(repo, 'resources/field/campaign-absorption.csv')
   const study = join(repo, 'resources/demo.mote')
   const sample = 'Winter wood smoke'
-  const parts = join(dir, 'parts')
-  await mkdir(parts)
-  const env = {
-    ...process.env,
-    SLURM_CONF: join(dir, 'cluster/slurm.conf'),
-    SIZER: sizer,
-    STUDY: study,
-    SAMPLE: sample,
-    WAVELENGTHS: '450,550,700nm',
-    SCATTERING: scattering,
-    ABSORPTION: absorption,
-    TRUNCATION: '1',
-    OUTDIR: parts,
-    MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}`
-  }
   // one processor a task, so two tasks run at once on the two-processor node
-  const job = await sh('sbatch', ['--wait', '--array=1-3', '--cpus-per-task=1', `--chdir=${dir}`, `--output=${join(dir, 'task-%a.log')}`, join(repo, 'resources/batch/series-array.sh')], env, 80_000)
-  const logs = (await readdir(dir)).filter((f) => f.startsWith('task-'))
-  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
-  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
-  expect(job.stdout).toMatch(/Submitted batch job \d+/)
-
-  const files = (await readdir(parts)).sort()
-  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
-  const joined = join(dir, 'record.csv')
-  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
-  expect(j.code, j.stderr).toBe(0)
-
+  const joined = await arrayJob('series-array.sh', { SIZER: sizer, STUDY: study, SAMPLE: sample, WAVELENGTHS: '450,550,700nm', SCATTERING: scattering, ABSORPTION: absorption, TRUNCATION: '1' }, ['--cpus-per-task=1'])
   const single = join(dir, 'single.csv')
   const s = await run(['series', sizer, '--study', study, '--sample', sample, '--wavelengths', '450,550,700nm', '--scattering', scattering, '--absorption', absorption, '--truncation', '--out', single])
   expect(s.code, s.stderr).toBe(1) // rows left out (bad cells in the sizer file, a bad row in each instrument file)
@@ -99,18 +95,7 @@ it('a Slurm array job of three uncertainty shards: the joined draws are the sing
   if (setupError) throw setupError
   const study = await uncertainStudy(dir)
   const sample = 'Winter wood smoke'
-  const parts = join(dir, 'draw-parts')
-  await mkdir(parts)
-  const env = { ...process.env, SLURM_CONF: join(dir, 'cluster/slurm.conf'), STUDY: study, SAMPLE: sample, DRAWS: '12', SEED: '3', OUTDIR: parts, MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}` }
-  const job = await sh('sbatch', ['--wait', '--array=1-3', '--cpus-per-task=1', `--chdir=${dir}`, `--output=${join(dir, 'draws-task-%a.log')}`, join(repo, 'resources/batch/uncertainty-array.sh')], env, 80_000)
-  const logs = (await readdir(dir)).filter((f) => f.startsWith('draws-task-'))
-  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
-  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
-  const files = (await readdir(parts)).sort()
-  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
-  const joined = join(dir, 'draws.csv')
-  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
-  expect(j.code, j.stderr).toBe(0)
+  const joined = await arrayJob('uncertainty-array.sh', { STUDY: study, SAMPLE: sample, DRAWS: '12', SEED: '3' }, ['--cpus-per-task=1'])
   // the single run: its draws file, and its report
   const args = ['uncertainty', study, '--sample', sample, '--draws', '12', '--seed', '3', '--precision', '0', '--json']
   const single = join(dir, 'draws-single.csv')
@@ -128,18 +113,7 @@ it('a Slurm array job of three merge shards, joined, equals the single run byte 
   if (setupError) throw setupError
   const mobility = join(repo, 'resources/field/valley-mobility.csv')
   const aerodynamic = join(repo, 'resources/field/valley-aerodynamic.csv')
-  const parts = join(dir, 'merge-parts')
-  await mkdir(parts)
-  const env = { ...process.env, SLURM_CONF: join(dir, 'cluster/slurm.conf'), MOBILITY: mobility, AERODYNAMIC: aerodynamic, DENSITY: '1.8', MERGE_OPTIONS: '--shape-factor 1.1 --every 30min', OUTDIR: parts, MOTEBENCH: `${process.execPath} ${join(repo, 'bin/motebench.mjs')}` }
-  const job = await sh('sbatch', ['--wait', '--array=1-3', `--chdir=${dir}`, `--output=${join(dir, 'merge-task-%a.log')}`, join(repo, 'resources/batch/merge-array.sh')], env, 80_000)
-  const logs = (await readdir(dir)).filter((f) => f.startsWith('merge-task-'))
-  const logText = (await Promise.all(logs.map((f) => readFile(join(dir, f), 'utf8')))).join('\n')
-  expect(job.code, `sbatch: ${job.stdout}${job.stderr}\n${logText}`).toBe(0)
-  const files = (await readdir(parts)).sort()
-  expect(files).toEqual(['part-00001-of-00003.csv', 'part-00002-of-00003.csv', 'part-00003-of-00003.csv'])
-  const joined = join(dir, 'merged.csv')
-  const j = await run(['join', ...files.map((f) => join(parts, f)), '--out', joined])
-  expect(j.code, j.stderr).toBe(0)
+  const joined = await arrayJob('merge-array.sh', { MOBILITY: mobility, AERODYNAMIC: aerodynamic, DENSITY: '1.8', MERGE_OPTIONS: '--shape-factor 1.1 --every 30min' })
   const single = join(dir, 'merged-single.csv')
   const s = await run(['merge', '--mobility', mobility, '--aerodynamic', aerodynamic, '--density', '1.8', '--shape-factor', '1.1', '--every', '30min', '--out', single])
   expect(s.code, s.stderr).toBeLessThanOrEqual(1)
