@@ -5,7 +5,9 @@
 // MOTEBENCH_CACHE_DIR=off) and, as `kernels_kept_*`, read from those an earlier run kept (src-main/cli/
 // kernel-cache.ts: later files of the same sizer); the same on a quarter of the rows, to show how memory goes with
 // the rows and what a row costs beyond the fixed start (process, worker threads, the bins' kernels); and, on this
-// thread, the one-off integration of the kernels and a row's figures and CSV line (in a 256-row block).
+// thread, the one-off integration of the kernels and a row's figures and CSV line (in a 256-row block). Also the
+// invented campaign's 840 rows with a nephelometer (truncation corrected) and an absorption file, the instruments'
+// kernels integrated and kept (`instruments_campaign_*`).
 // MOTEBENCH_BENCH_SERIES_ROWS sets another number of rows (e.g. for a quick look). Then a long file, 5 times the
 // rows (100,000, 73 MB; MOTEBENCH_BENCH_SERIES_LONG_ROWS, 0 for none), as a monitoring network's record: its rows per
 // second end to end and its peak memory (it rises from the quarter's to the long file's and then levels off:
@@ -71,13 +73,13 @@ await import(pathToFileURL(bin).href)
  * One timed run. `cache`: the folder where the bins' kernels are kept between runs (src-main/cli/kernel-cache.ts),
  * or 'off': integrated in the run, as on the first run on a bin layout.
  */
-function runCli(dir: string, file: string, cache: string): { seconds: number; peakMb: number } {
-  const args = [join(dir, 'measure.mjs'), join(root, 'bin/motebench.mjs'), 'series', file, '--study', join(root, 'resources/demo.mote'), '--sample', 'Coastal haze day', '--wavelengths', WAVELENGTHS_NM.join(','), '--out', join(dir, 'out.csv')]
+function runCli(dir: string, file: string, cache: string, seriesArgs = ['--sample', 'Coastal haze day', '--wavelengths', WAVELENGTHS_NM.join(',')]): { seconds: number; peakMb: number } {
+  const args = [join(dir, 'measure.mjs'), join(root, 'bin/motebench.mjs'), 'series', file, '--study', join(root, 'resources/demo.mote'), ...seriesArgs, '--out', join(dir, 'out.csv')]
   const t0 = performance.now()
   const r = spawnSync(process.execPath, args, { encoding: 'utf8', env: { ...timedEnv(), MOTEBENCH_CACHE_DIR: cache } })
   const seconds = (performance.now() - t0) / 1000
   const m = /peak-rss-kb (\d+)/.exec(r.stderr)
-  if (r.status !== 0 || !m) throw new Error(`motebench series failed: ${r.stderr}`)
+  if (r.status === null || r.status > 1 || !m) throw new Error(`motebench series failed: ${r.stderr}`)
   return { seconds, peakMb: Number(m[1]) / 1024 }
 }
 
@@ -114,6 +116,20 @@ export async function benchSeries(): Promise<void> {
       await writeSizerFile(file, longRows)
       for (let r = 0; r < RUNS; r++) long.push(runCli(dir, file, 'off'))
       rmSync(file)
+    }
+
+    // The invented campaign's sizer with its nephelometer (truncation corrected) and absorption files: the
+    // instruments' kernels (each bin's phase function on the nephelometer's angles) integrated, and kept (exit
+    // status 1: the files' few bad rows are left out)
+    const field = (f: string) => join(root, 'resources/field', f)
+    const withInstruments = ['--sample', 'Winter wood smoke', '--wavelengths', '550', '--scattering', field('campaign-nephelometer.csv'), '--absorption', field('campaign-absorption.csv'), '--truncation']
+    const instrumentsCache = join(dir, 'instrument-kernels')
+    runCli(dir, field('campaign-mobility.csv'), instrumentsCache, withInstruments)
+    const instruments: number[] = []
+    const instrumentsKept: number[] = []
+    for (let r = 0; r < RUNS; r++) {
+      instruments.push(runCli(dir, field('campaign-mobility.csv'), 'off', withInstruments).seconds)
+      instrumentsKept.push(runCli(dir, field('campaign-mobility.csv'), instrumentsCache, withInstruments).seconds)
     }
 
     // On this thread, without threads or I/O: the bins' kernels (once per series), then a 256-row block's figures and lines, per row.
@@ -154,6 +170,8 @@ export async function benchSeries(): Promise<void> {
             long_peak_rss_mb: Number(median(long.map((x) => x.peakMb)).toFixed(0))
           }
         : {}),
+      instruments_campaign_whole_process_s: Number(median(instruments).toFixed(2)),
+      instruments_campaign_kernels_kept_s: Number(median(instrumentsKept).toFixed(2)),
       kernel_setup_ms: Math.round(kernelMs),
       one_row_us_single_thread: Number((rowMs * 1000).toPrecision(3)),
       load_average_1min: Number(loadavg()[0].toFixed(2)),
