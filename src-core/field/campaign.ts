@@ -14,7 +14,7 @@
  * kernels and the same arithmetic, so the same numbers as a record computed whole.
  */
 import { InputError } from '../errors.ts'
-import { binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinKernels, type BinLayout } from '../optics/binKernels.ts'
+import { binCount, binnedRowEvaluator, binnedRowWidth, binOpticsKernels, type BinKernels, type BinLayout } from '../optics/binKernels.ts'
 import { OpticsWorkspace } from '../optics/workspace.ts'
 import type { Sample, Study } from '../study/model.ts'
 import { campaignProblems, isSizerKind, type CampaignFileKind, type CampaignSettings } from './campaign-settings.ts'
@@ -256,7 +256,7 @@ export function campaignRecord(read: CampaignFiles, settings: CampaignSettings, 
   if (sizers.length === 1 && sizers[0].summary.kind !== 'merged') sizers[0].summary.notes.push('one sizer: its diameters are taken as they are (merging converts to volume-equivalent diameters)')
   const zoned = sizers[0].zoned
   const n = rows.timesMs.length
-  const bins = rows.layout.edges ? rows.layout.diameters.length - 1 : rows.layout.diameters.length
+  const bins = binCount(rows.layout)
 
   // measured channels, in file order; one file per kind, so no channel repeats
   const channels: MeasuredChannel[] = []
@@ -470,6 +470,6 @@ function mapValues(layout: BinLayout, density: number, values: Float64Array, n: 
 
 /** Per bin, the factor that turns a value of the layout's quantity into dN/dlogD (binsFromMeasurement's own conversion). */
 function quantityFactors(layout: BinLayout, density: number): Float64Array {
-  const n = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+  const n = binCount(layout)
   return binsFromMeasurement({ diameters: layout.diameters, diameterKind: layout.edges ? 'edges' : 'midpoints', diameterUnit: layout.diameter_unit, quantity: layout.quantity, values: new Array(n).fill(1), density }).dNdlogD
 }

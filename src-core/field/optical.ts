@@ -23,7 +23,7 @@
 import { retrieveRefractiveIndex } from '../closure/index.ts'
 import { InputError } from '../errors.ts'
 import { truncationQuadrature, type NephelometerGeometry, type TruncationQuadrature } from '../instruments/nephelometer.ts'
-import { binKernelsInputs, binOpticsKernels, bulkOpticsAt, OpticsWorkspace, packBinKernels, resolveComposition, rowDNdlogD, studyMaterials, type BinKernels, type BinLayout, type Conditions } from '../optics/index.ts'
+import { binCount, binKernelsInputs, binKernelsLength, binOpticsKernels, bulkOpticsAt, OpticsWorkspace, packBinKernels, resolveComposition, rowDNdlogD, studyMaterials, type BinKernels, type BinLayout, type Conditions } from '../optics/index.ts'
 import type { Sample, Study } from '../study/model.ts'
 import type { OpticalChannel, OpticalQuantity } from './optical-file.ts'
 import { stampTimeBase, stepOf, TimeAverager, type TimeBase } from './timebase.ts'
@@ -138,9 +138,9 @@ export function instrumentKernels(
   const ws = options.workspace ?? new OpticsWorkspace()
   const wavelengths = instrumentWavelengths(plan)
   const given = options.integrated
-  const n = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+  const n = binCount(layout)
   if (given && given.length !== instrumentKernelsLength(layout, plan)) throw new Error(`integrated instrument kernels of ${given.length} values given where ${instrumentKernelsLength(layout, plan)} are needed`)
-  const baseLength = 4 * n * wavelengths.length
+  const baseLength = binKernelsLength(layout, wavelengths.length)
   const base = binOpticsKernels(sample, { user_materials: study.user_materials, wavelengths_nm: wavelengths }, layout, { tolerance: options.tolerance, workspace: ws, integrated: given?.subarray(0, baseLength) })
   const angular: InstrumentKernels['angular'] = new Map()
   const ap = angularPlan(plan)
@@ -189,8 +189,7 @@ export function instrumentKernels(
 
 /** How many figures packInstrumentKernels gives for a layout and plan. */
 export function instrumentKernelsLength(layout: BinLayout, plan: ComparisonPlan): number {
-  const n = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
-  return n * (4 * instrumentWavelengths(plan).length + 3 * (angularPlan(plan)?.wavelengthsNm.length ?? 0))
+  return binKernelsLength(layout, instrumentWavelengths(plan).length) + 3 * binCount(layout) * (angularPlan(plan)?.wavelengthsNm.length ?? 0)
 }
 
 /** The kernels' integrated figures in one array (the bins' kernels as packBinKernels, then each angular wavelength's three), as instrumentKernels takes them back. */

@@ -30,6 +30,12 @@ export interface BinKernels {
 /** A sizer's bins without their values: the same for every row of a series. */
 export type BinLayout = Omit<BinsSpec, 'values' | 'source'>
 
+/** The number of bins of a layout: one fewer than its diameters when they are edges, as many when midpoints. */
+export const binCount = (layout: Pick<BinLayout, 'diameters' | 'edges'>): number => (layout.edges ? layout.diameters.length - 1 : layout.diameters.length)
+
+/** How many figures packBinKernels gives for a layout at `wavelengths` wavelengths (binOpticsKernels' `integrated`). */
+export const binKernelsLength = (layout: Pick<BinLayout, 'diameters' | 'edges'>, wavelengths: number): number => 4 * binCount(layout) * wavelengths
+
 /**
  * Per-bin optical kernels of a sample's composition and humidity on a bin layout, at the study's wavelengths.
  * `integrated`: the integrated figures of an earlier call with the same inputs (packBinKernels; a cache kept
@@ -42,7 +48,7 @@ export function binOpticsKernels(
   layout: BinLayout,
   options: { tolerance?: number; workspace?: OpticsWorkspace; integrated?: Float64Array } = {}
 ): BinKernels {
-  const count = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
+  const count = binCount(layout)
   const edgesUm = binsFromMeasurement({
     diameters: layout.diameters,
     diameterKind: layout.edges ? 'edges' : 'midpoints',
@@ -64,7 +70,7 @@ export function binOpticsKernels(
   const unit = () => 1 / Math.LN10 // dN/dlnD for dN/dlogD = 1
   const given = options.integrated
   const ws = given ? undefined : (options.workspace ?? new OpticsWorkspace())
-  if (given && given.length !== 4 * n * study.wavelengths_nm.length) {
+  if (given && given.length !== binKernelsLength(layout, study.wavelengths_nm.length)) {
     throw new Error(`integrated figures of ${given.length} values given for ${n} bins at ${study.wavelengths_nm.length} wavelengths`)
   }
   for (const [j, wl] of study.wavelengths_nm.entries()) {

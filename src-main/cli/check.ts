@@ -3,7 +3,7 @@ import { createReadStream } from 'node:fs'
 import { readFile } from 'node:fs/promises'
 import { basename, extname } from 'node:path'
 import { createInterface } from 'node:readline'
-import { createSizerReader, InputError, parseStudy, type SizerOptions } from '../../src-core/index.ts'
+import { binCount, createSizerReader, InputError, parseStudy, type SizerOptions } from '../../src-core/index.ts'
 import { EXIT_BAD_INPUT, EXIT_OK, printJson, readArgs, UsageError } from './common.ts'
 import { readingLines, readSizerFlags, sizerFlags, sizerHelp, type SizerFlagValues } from './sizer-options.ts'
 
@@ -92,7 +92,7 @@ async function checkSizer(file: string, values: SizerFlagValues & { stop?: boole
       diameter_unit: summary.diameterUnit,
       quantity: summary.quantity,
       edges: summary.edges,
-      bins: summary.edges ? summary.diameters.length - 1 : summary.diameters.length,
+      bins: binCount(summary),
       diameters: summary.diameters,
       records: summary.recordCount,
       first_time: summary.firstTime,

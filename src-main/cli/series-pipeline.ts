@@ -5,7 +5,7 @@
 // of about a megabyte. At most a few blocks per worker are read ahead of the last block written: then reading waits
 // (backpressure). The command (series.ts) gives it the lines, the setup and the output.
 import type { Worker } from 'node:worker_threads'
-import { createSizerReader, InputError, type SizerHeader, type SizerOptions, type SizerRejection } from '../../src-core/index.ts'
+import { binCount, createSizerReader, InputError, type SizerHeader, type SizerOptions, type SizerRejection } from '../../src-core/index.ts'
 import { csvCell } from './common.ts'
 import { seriesColumns, type BinLayout, type SeriesSetup } from './series-row.ts'
 import type { FromWorker, ToWorker } from './workers/series-worker.ts'
@@ -286,7 +286,7 @@ export async function runSeriesPipeline(o: SeriesRunOptions): Promise<SeriesSumm
         const h = reader.header!
         const layout: BinLayout = { diameters: h.diameters.slice(), diameter_unit: h.diameterUnit, edges: h.edges, quantity: h.quantity }
         for (const w of workers) w.worker.postMessage({ type: 'layout', layout } satisfies ToWorker)
-        bins = h.edges ? h.diameters.length - 1 : h.diameters.length
+        bins = binCount(h)
         layoutForExtra = layout
       }
       if (!current) current = { id: nextId++, times: [], lines: [], values: new Float64Array(BLOCK_ROWS * bins), extras: o.extra ? [] : undefined }

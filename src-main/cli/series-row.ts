@@ -2,6 +2,7 @@
 // threads and the bench.
 import {
   binKernelsInputs,
+  binKernelsLength,
   binnedRowEvaluator,
   binnedRowWidth,
   binOpticsKernels,
@@ -79,8 +80,7 @@ export class SeriesBlockComputer {
     try {
       const { sample, tolerance, wavelengthsNm } = this.setup
       const study = { wavelengths_nm: wavelengthsNm, user_materials: this.setup.userMaterials }
-      const bins = layout.edges ? layout.diameters.length - 1 : layout.diameters.length
-      const kept = keptKernels(binKernelsInputs(sample, study, layout, tolerance), 4 * bins * wavelengthsNm.length, (integrated) => binOpticsKernels(sample, study, layout, { tolerance, integrated }), packBinKernels)
+      const kept = keptKernels(binKernelsInputs(sample, study, layout, tolerance), binKernelsLength(layout, wavelengthsNm.length), (integrated) => binOpticsKernels(sample, study, layout, { tolerance, integrated }), packBinKernels)
       this.kernels = kept.kernels
       this.kernelSource = kept.source
       this.evaluate = binnedRowEvaluator(this.kernels, layout)
