@@ -193,9 +193,20 @@ type RecordOptions = { tolerance?: number; workspace?: OpticsWorkspace; onProgre
 /**
  * A file read ahead, before the record was asked for (the app's worker reads the files it measured while the page
  * sets the record up): a sizer's lines (`readSizerPart`), or a measured file as `readCampaignInstrument` read it as
- * that kind. Taken once: the record takes over its arrays and summary.
+ * that kind. A record adds its notes to the summary it is given: to give the same reading to another record, give
+ * it `readingForAnotherRecord`'s copy.
  */
 export type ReadAhead = { kind: CampaignFileKind; name: string; part: SizerPart } | { kind: CampaignFileKind; name: string; instrument: ReturnType<typeof readCampaignInstrument> }
+
+/**
+ * A reading to give one more record, when a reader keeps its readings from one record to the next (the app's record
+ * worker does, so that a changed parameter does not read the files again). A record only reads a sizer's part and a
+ * measured file's records, but it adds its notes to a measured file's summary (and may refuse the file there): each
+ * record gets its own copy of that summary, and the arrays are shared.
+ */
+export function readingForAnotherRecord(a: ReadAhead): ReadAhead {
+  return 'part' in a ? a : { ...a, instrument: { ...a.instrument, summary: structuredClone(a.instrument.summary) } }
+}
 
 /**
  * The record of a campaign from its files' texts. A file that cannot be read is refused in its summary and left

@@ -137,6 +137,7 @@ export {
   type CampaignBuild,
   type CampaignFiles,
   type ReadAhead,
+  readingForAnotherRecord,
   figureColumns,
   buildCampaignRecord,
   checkCampaign,

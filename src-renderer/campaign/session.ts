@@ -192,6 +192,20 @@ function stopWorker(): void {
   worker = null
 }
 
+/**
+ * A worker whose record is done holds what it read of the files (worker.ts, `kept`): it becomes the spare, asked for
+ * the next record, which then reads no file again (a year of rows is most of a record's time). A spare started
+ * meanwhile, without those readings, gives way to it.
+ */
+function keepFinishedWorker(w: Worker): void {
+  if (worker === w) worker = null
+  // its handlers were this record's
+  w.onmessage = null
+  w.onerror = null
+  if (spare !== w) spare?.terminate()
+  spare = w
+}
+
 const newWorker = (): Worker => new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'motebench-record' })
 
 function spareWorker(): void {
@@ -321,7 +335,7 @@ async function start(force: boolean): Promise<void> {
     const m = e.data
     if (m.job !== mine) return
     if (m.type === 'progress') return session.set({ share: m.share })
-    stopWorker()
+    keepFinishedWorker(w)
     if (m.type === 'failed') return session.set({ running: false, failure: m.message })
     if (m.build.record) warmStretchNodes(m.build.record)
     session.set({ running: false, share: 1, build: m.build, ms: m.ms, failure: m.build.problem ? `${m.build.problem.message}. ${m.build.problem.fix}` : null, visible: null })
@@ -355,6 +369,9 @@ export function rebaseForSave(fromPath: string | undefined, toPath: string): boo
 /** Forgets the session's files (a new or another study). */
 export function resetSession(): void {
   stopWorker()
+  // the spare may hold the readings of the files forgotten here
+  spare?.terminate()
+  spare = null
   job++
   lastKey = ''
   session.set({ texts: {}, missing: {}, changed: {}, build: null, failure: null, running: false, share: 0, mark: null, visible: null })

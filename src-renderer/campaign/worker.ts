@@ -3,12 +3,20 @@
 // text), the record's typed arrays out (transferred, not copied). All the work is src-core's buildCampaignRecord.
 // A web page's sizer file is read here from its bytes as they come (`bytes`: src-core's readSizerBytes, the same
 // reading as of the text they decode to, without that text), as the kind the page guesses for it (kind.ts), while
-// the page's other files are still being read and while it adds the files and asks for the record; the bytes are
-// kept for the record asked of this worker next, which takes what was read as the kind it is asked for
-// (buildCampaignRecord's `ahead`), the same as reading it then, and decodes them only for another kind. The
-// measured files are read by a partner worker (reader.ts) while this one reads the sizer: the page says which to
-// wait for (`expect`) and passes their readings on (`partner`).
-import { buildCampaignRecord, InputError, isSizerKind, readCampaignInstrument, readSizerBytes, unpackInstrument, type CampaignBuild, type CampaignFileKind, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
+// the page's other files are still being read and while it adds the files and asks for the record; the record asked
+// of this worker next takes what was read as the kind it is asked for (buildCampaignRecord's `ahead`), the same as
+// reading it then, and reads the bytes again as another kind. The measured files are read by a partner worker
+// (reader.ts) while this one reads the sizer: the page says which to wait for (`expect`) and passes their readings
+// on (`partner`).
+//
+// The page keeps a worker whose record is done for the next record (session.ts), and the worker keeps what it read
+// of each file (`kept`, by the page's serial) and the files as they came (`sources`: a web page's bytes, the
+// desktop's texts): a changed parameter (the wavelength, the sample, the time step) then reads no measured file
+// again, and a sizer whose rows went to the page with the record is read again from its bytes, not from its blob
+// decoded. Each record is given its own copy of a kept reading's summary (readingForAnotherRecord). (The optics
+// workspace is not kept: a Mie node's last bit can depend on the order the nodes were found in, and a record's
+// figures should not depend on the records before it.)
+import { buildCampaignRecord, InputError, isSizerKind, readCampaignInstrument, readingForAnotherRecord, readSizerBytes, readSizerPart, unpackInstrument, type CampaignBuild, type CampaignFileKind, type CampaignInput, type CampaignSettings, type ReadAhead, type Study } from '../../src-core/index.ts'
 import type { FromReader } from './reader.ts'
 
 /** A file as the page sends it: its text, or the file (read here unless its bytes came first); `serial` is the page's. */
@@ -40,6 +48,8 @@ const read = new Map<number, string>()
 const held = new Map<number, Uint8Array>()
 /** Files read ahead (by the page's serial): as the kind guessed for them. */
 const ahead = new Map<number, ReadAhead>()
+/** What the last record read of each of its files (by the page's serial), for the next record. */
+let kept = new Map<number, ReadAhead>()
 /** Files the partner worker reads (by serial): settled when its reading has come. */
 const expected = new Map<number, { done: Promise<void>; settle: () => void }>()
 
@@ -59,12 +69,47 @@ function fromPartner(m: Extract<ToRecordWorker, { type: 'partner' }>): void {
 
 /** Reads a file ahead as the kind the page guessed for it; a fault here is left for the record's own reading to meet. */
 function readAhead(serial: number, name: string, kind: CampaignFileKind, bytes: Uint8Array): void {
+  const r = reading(kind, name, () => (isSizerKind(kind) ? readSizerBytes({ kind, name }, bytes) : new TextDecoder().decode(bytes)))
+  if (r) ahead.set(serial, r)
+  else ahead.delete(serial)
+}
+
+/**
+ * A file read as `kind` from its text (or a sizer's from its bytes, as a part), or undefined where the reading
+ * throws: the record's own reading then meets the fault and says it in the file's summary.
+ */
+function reading(kind: CampaignFileKind, name: string, from: () => string | ReturnType<typeof readSizerBytes>): ReadAhead | undefined {
   try {
-    ahead.set(serial, isSizerKind(kind) ? { kind, name, part: readSizerBytes({ kind, name }, bytes) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text: new TextDecoder().decode(bytes) }) })
+    const got = from()
+    if (typeof got !== 'string') return { kind, name, part: got }
+    return isSizerKind(kind) ? { kind, name, part: readSizerPart({ kind, name, text: got }) } : { kind, name, instrument: readCampaignInstrument({ kind, name, text: got }) }
   } catch {
-    ahead.delete(serial)
+    return undefined
   }
 }
+
+/**
+ * A record's arrays may be a kept reading's own (a single sizer's values are the record's values): those are moved to
+ * the page as they are, and the reading is made again from the file as it came (`sources`) when the next record asks
+ * for it. (Keeping a copy took 0.4 s of a year's record on the test machine, on the way to the page's charts; reading
+ * it again in the background while the page draws took processors from the page and the optics workers.)
+ */
+function dropMoved(moved: Set<ArrayBufferLike>): void {
+  for (const [serial, r] of kept) {
+    if (!('part' in r)) continue
+    const { values, timesMs, rh } = r.part
+    if (moved.has(values.buffer) || moved.has(timesMs.buffer) || (rh && moved.has(rh.buffer))) kept.delete(serial)
+  }
+}
+
+/** A file as the last record was given it: its bytes (a web page's), else its text. */
+type Source = { kind: CampaignFileKind; name: string; bytes?: Uint8Array; text?: string }
+/** The last record's files as they came (by serial), from which a reading moved to the page is made again. */
+let sources = new Map<number, Source>()
+
+/** What a file's reading is made from: a sizer's bytes as they are, else the text. */
+const contentOf = (s: Source): string | ReturnType<typeof readSizerBytes> => (s.bytes && isSizerKind(s.kind) ? readSizerBytes({ kind: s.kind, name: s.name }, s.bytes) : textOfSource(s))
+const textOfSource = (s: Source): string => s.text ?? new TextDecoder().decode(s.bytes)
 
 const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer)
 
@@ -82,14 +127,26 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
   const started = performance.now()
   try {
     await Promise.all(d.inputs.map((i) => expected.get(i.serial)?.done))
-    const readFirst = d.inputs.map((i) => ahead.get(i.serial))
-    // a file read ahead as the kind asked needs no text (buildCampaignRecord takes its reading)
-    const taken = (i: RecordWorkerInput, k: number) => readFirst[k]?.kind === i.kind && readFirst[k]?.name === i.name
-    const textOf = async (i: RecordWorkerInput & { blob: Blob }): Promise<string> => {
-      const bytes = held.get(i.serial)
-      return bytes ? new TextDecoder().decode(bytes) : (read.get(i.serial) ?? (await readText(i.blob)))
+    // a file read ahead, or by the last record, as the kind asked needs no text
+    const fits = (r: ReadAhead | undefined, i: RecordWorkerInput) => r?.kind === i.kind && r?.name === i.name
+    const known = (i: RecordWorkerInput) => [ahead.get(i.serial), kept.get(i.serial)].find((r) => fits(r, i))
+    // each file as it came, where that costs nothing (bytes or a text this worker holds); else, if it must be read,
+    // from its blob
+    const at = (i: RecordWorkerInput): Source | undefined => {
+      const bytes = held.get(i.serial) ?? sources.get(i.serial)?.bytes
+      const text = 'text' in i ? i.text : (read.get(i.serial) ?? sources.get(i.serial)?.text)
+      return bytes ? { kind: i.kind, name: i.name, bytes } : text !== undefined ? { kind: i.kind, name: i.name, text } : undefined
     }
-    const inputs: CampaignInput[] = await Promise.all(d.inputs.map(async (i, k) => ({ kind: i.kind, name: i.name, text: 'text' in i ? i.text : taken(i, k) ? '' : await textOf(i) })))
+    const given = await Promise.all(d.inputs.map(async (i) => at(i) ?? (known(i) || !('blob' in i) ? undefined : { kind: i.kind, name: i.name, text: await readText(i.blob) })))
+    const readings = d.inputs.map((i, k) => known(i) ?? (given[k] && reading(i.kind, i.name, () => contentOf(given[k]!))))
+    // a file that could not be read goes to the record as text: its own reading says what is wrong
+    const inputs: CampaignInput[] = d.inputs.map((i, k) => ({ kind: i.kind, name: i.name, text: readings[k] || !given[k] ? '' : textOfSource(given[k]) }))
+    kept = new Map()
+    sources = new Map()
+    d.inputs.forEach((i, k) => {
+      if (readings[k]) kept.set(i.serial, readings[k])
+      if (given[k]) sources.set(i.serial, given[k])
+    })
     read.clear()
     held.clear()
     ahead.clear()
@@ -98,7 +155,7 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
     // the figures at the wavelengths the charts draw; the export computes the others (recordCsv, completeRecord)
     const build = buildCampaignRecord(inputs, settings, study, {
       figures: 'charts',
-      ahead: readFirst,
+      ahead: readings.map((r) => r && readingForAnotherRecord(r)),
       onProgress: (share) => {
         const now = performance.now()
         if (now - last > 100) post({ job, type: 'progress', share })
@@ -109,6 +166,7 @@ self.onmessage = async (e: MessageEvent<ToRecordWorker>) => {
     // (a set: dNdlogD may be the values themselves, and a buffer listed twice cannot be transferred)
     const transfer = r ? [...new Set([r.times.buffer, r.present.buffer, r.values.buffer, r.dNdlogD.buffer, r.cells.buffer, r.measured.buffer])] : []
     post({ job, type: 'done', build, ms: performance.now() - started }, transfer as Transferable[])
+    dropMoved(new Set(transfer))
   } catch (err) {
     if (err instanceof InputError) post({ job, type: 'failed', message: err.message, fix: err.fix })
     else post({ job, type: 'failed', message: (err as Error)?.message ?? String(err), fix: 'This is a fault of the program; please report it with the files.' })

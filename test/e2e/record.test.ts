@@ -250,6 +250,46 @@ describe('station record', { timeout: 180_000 }, () => {
     expect(compared).toBeGreaterThan(1500) // both lines, nearly every row of the three days
   })
 
+  test('a changed parameter is computed by the worker that holds the files, which it reads no more than once: the record at the new wavelength', async () => {
+    const { page } = await session.open({ wait: false })
+    // the record workers the page starts, counted (worker.ts keeps what it read for the next record, so the page
+    // keeps a worker whose record is done for the next one: session.ts, keepFinishedWorker)
+    await page.evaluate(() => {
+      const w = window as unknown as { Worker: typeof Worker; recordWorkers: number }
+      const Real = w.Worker
+      w.recordWorkers = 0
+      w.Worker = class extends Real {
+        constructor(url: string | URL, options?: WorkerOptions) {
+          super(url, options)
+          if (options?.name === 'motebench-record') w.recordWorkers++
+        }
+      }
+    })
+    await page.locator('#tab-record').click()
+    await page.locator('[data-view="record"]').waitFor()
+    // one sizer (its rows go to the page with the record, so the worker reads them again from the bytes it keeps)
+    const files = ['campaign-mobility.csv', 'campaign-nephelometer.csv']
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByTestId('record-add-files').click()])
+    await chooser.setFiles(files.map(path))
+    await page.getByTestId('record-summary').waitFor({ timeout: 120_000 })
+    const csvAt = async () => {
+      const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('record-csv').click()])
+      return readFile((await download.path())!, 'utf8')
+    }
+    const inputs: CampaignInput[] = [{ kind: 'mobility', name: files[0], text: readFileSync(path(files[0]), 'utf8') }, { kind: 'scattering', name: files[1], text: readFileSync(path(files[1]), 'utf8') }]
+    const want = (wavelength_nm: number) => recordCsv(buildCampaignRecord(inputs, { files: [], sample: demoStudy().samples[0].name, wavelength_nm, shape_factor: 1 }, demoStudy()).record!)
+    expect(await csvAt()).toBe(want(550))
+    for (const wl of [700, 450]) {
+      await page.getByTestId('record-wavelength').fill(String(wl))
+      await page.getByTestId('record-wavelength').press('Enter')
+      await expect.poll(async () => (await page.locator('[data-chart="record-coefficients"]').evaluate((el) => (el as unknown as { plotted: { series: { label: string }[] } }).plotted.series[0].label)), { timeout: 120_000 }).toBe(`σext ${wl} nm`)
+      expect(await csvAt()).toBe(want(wl))
+      // the measured file's summary as a first record's: the note each record adds is there once, not once a record
+      expect((await page.getByTestId('record-file-summary').nth(1).textContent())!.match(/records inside the record's rows/g)?.length).toBe(1)
+    }
+    expect(await page.evaluate(() => (window as unknown as { recordWorkers: number }).recordWorkers)).toBe(1)
+  })
+
   test('no request leaves the machine', () => {
     expect(session.requests.length).toBeGreaterThan(0)
     expect(session.requests.filter((u) => !isLocal(u))).toEqual([])

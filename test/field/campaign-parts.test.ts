@@ -7,7 +7,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { finishSizer, partsJoin, readCampaignInstrument, readCampaignSizer, readSizerPart, sizerCut, type CampaignInput } from '../../src-core/field/campaign-read.ts'
 import { packInstrument, packSizerPart, unpackInstrument, unpackSizerPart } from '../../src-core/field/campaign-pack.ts'
-import { addCampaignFile, buildCampaignRecord, campaignRecord, demoStudy, type CampaignBuild, type CampaignFiles, type CampaignSettings, type ReadAhead } from '../../src-core/index.ts'
+import { addCampaignFile, buildCampaignRecord, campaignRecord, demoStudy, readingForAnotherRecord, type CampaignBuild, type CampaignFiles, type CampaignSettings, type ReadAhead } from '../../src-core/index.ts'
 import { repo } from '../cli/helpers.ts'
 
 const demo = (name: string): CampaignInput => ({ kind: 'mobility', name, text: readFileSync(join(repo, 'resources/field', name), 'utf8') })
@@ -205,5 +205,26 @@ describe('the record from files read in parts', () => {
     const refused = buildCampaignRecord([inputs[0], bad], settings, study, { figures: 'charts' })
     expect(buildCampaignRecord([inputs[0], bad], settings, study, { figures: 'charts', ahead: [undefined, { kind: 'absorption', name: bad.name, instrument: readCampaignInstrument(bad) }] }).files).toEqual(refused.files)
     expect(refused.files[1].ok).toBe(false)
+  })
+
+  it('is the same again from the same readings given to record after record (readingForAnotherRecord), at another wavelength too', () => {
+    const { study, settings, inputs, whole } = demoCampaign()
+    const readings: ReadAhead[] = [
+      { kind: 'mobility', name: inputs[0].name, part: readSizerPart(inputs[0]) },
+      { kind: 'scattering', name: inputs[1].name, instrument: readCampaignInstrument(inputs[1]) },
+      { kind: 'absorption', name: inputs[2].name, instrument: readCampaignInstrument(inputs[2]) }
+    ]
+    const before = structuredClone(readings)
+    const at700 = { ...settings, wavelength_nm: 700 }
+    const fresh700 = buildCampaignRecord(inputs, at700, study, { figures: 'charts' })
+    for (let i = 0; i < 3; i++) {
+      expectSameRecord(buildCampaignRecord(inputs, settings, study, { figures: 'charts', ahead: readings.map(readingForAnotherRecord) }), whole)
+      expectSameRecord(buildCampaignRecord(inputs, at700, study, { figures: 'charts', ahead: readings.map(readingForAnotherRecord) }), fresh700)
+    }
+    // the readings themselves as they were read: a record wrote its notes into its own copies
+    expect(readings).toEqual(before)
+    // given as they are, a second record's summaries would carry the first one's notes too
+    buildCampaignRecord(inputs, settings, study, { figures: 'charts', ahead: readings })
+    expect(buildCampaignRecord(inputs, settings, study, { figures: 'charts', ahead: readings }).files).not.toEqual(whole.files)
   })
 })

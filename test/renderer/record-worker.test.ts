@@ -1,7 +1,9 @@
 // The station record's worker (src-renderer/campaign/worker.ts) driven in Node by the messages a web page sends it:
 // a sizer file's bytes come first and are read ahead as the kind the page guessed (readSizerBytes); the record asked
-// for then takes that reading, or, when the file is asked for as another kind, decodes the bytes it kept and reads
-// them as that kind; either way the record is the one src-core builds from the files' texts.
+// for then takes that reading, or, when the file is asked for as another kind, reads the bytes it kept as that kind;
+// either way the record is the one src-core builds from the files' texts. The next record on the same worker (a
+// parameter changed) reads no file from its blob: it takes the measured files' readings it kept and reads the sizer
+// again from its bytes.
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
@@ -83,10 +85,44 @@ describe('the record worker', () => {
 
   it('reads the held bytes again for a sizer asked for as another kind: the record of the texts read as that kind', { timeout: 60_000 }, async () => {
     const done = await recordAs('merged', 20, 2)
-    expect(done.decoded).toContain(done.size)
+    expect(done.decoded).not.toContain(done.size) // read from the bytes, not decoded whole
     const want = expected('merged')
     expect(done.build.files[0].notes.join(' ')).toMatch(/merged size distribution: 62 bins/)
     expect(done.build.files).toEqual(want.files)
     expect(recordCsv(done.build.record!)).toBe(recordCsv(want.record!))
+  })
+
+  it('asked for the next record (another wavelength, then another kind of sizer), reads no file from its blob: the records of the texts', { timeout: 60_000 }, async () => {
+    await recordAs('mobility', 30, 3)
+    const again = async (job: number, kind: CampaignFileKind, s: CampaignSettings) => {
+      const inputs = [
+        { kind, name: 'campaign-mobility.csv', serial: 30, blob: unread },
+        { kind: 'scattering' as const, name: 'campaign-nephelometer.csv', serial: 31, blob: unread },
+        { kind: 'absorption' as const, name: 'campaign-absorption.csv', serial: 32, blob: unread }
+      ]
+      const decoded = await decodedDuring(() => send({ type: 'record', job, settings: s, study, inputs }))
+      const done = posted.find((m) => m.job === job && m.type !== 'progress')
+      if (done?.type !== 'done') throw new Error(`the record failed: ${JSON.stringify(done)}`)
+      return { build: done.build, decoded }
+    }
+    const at700 = { ...settings, wavelength_nm: 700 }
+    const want = (kind: CampaignFileKind, s: CampaignSettings) => buildCampaignRecord(
+      [
+        { kind, name: 'campaign-mobility.csv', text: text('campaign-mobility.csv') },
+        { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') },
+        { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }
+      ],
+      s,
+      study
+    )
+    const size = readFileSync(file('campaign-mobility.csv')).byteLength
+    for (const [job, kind, s] of [[4, 'mobility', at700], [5, 'mobility', settings], [6, 'merged', at700]] as const) {
+      const done = await again(job, kind, s)
+      expect(done.decoded).not.toContain(size)
+      const w = want(kind, s)
+      // the summaries as a first record's: the notes a record adds are not carried into the next
+      expect(done.build.files).toEqual(w.files)
+      expect(recordCsv(done.build.record!)).toBe(recordCsv(w.record!))
+    }
   })
 })
