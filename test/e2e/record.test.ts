@@ -31,6 +31,31 @@ async function addCampaign(page: Page): Promise<void> {
   await page.getByTestId('record-file').nth(3).waitFor()
 }
 
+/**
+ * Wraps the page's Worker before the view starts any: counts the workers started, by name (`window.started`), and
+ * starts the one named `failing` as a worker that throws on its first message, counting its errors (`window.failures`).
+ */
+async function watchWorkers(page: Page, failing?: string): Promise<void> {
+  await page.evaluate((failing) => {
+    const w = window as unknown as { Worker: typeof Worker; started: Record<string, number>; failures: number }
+    const Real = w.Worker
+    w.started = {}
+    w.failures = 0
+    w.Worker = class extends Real {
+      constructor(url: string | URL, options?: WorkerOptions) {
+        const name = options?.name ?? ''
+        w.started[name] = (w.started[name] ?? 0) + 1
+        if (name !== failing) {
+          super(url, options)
+          return
+        }
+        super(URL.createObjectURL(new Blob(["self.onmessage = () => { throw new Error('the worker failed (test)') }"], { type: 'text/javascript' })))
+        this.addEventListener('error', () => w.failures++)
+      }
+    }
+  }, failing)
+}
+
 /** The same record computed here from the same files, for the checks (src-core, as the page runs it). */
 function expected() {
   const kinds: CampaignInput['kind'][] = ['mobility', 'aerodynamic', 'scattering', 'absorption']
@@ -205,21 +230,7 @@ describe('station record', { timeout: 180_000 }, () => {
     const { page } = await session.open({ wait: false })
     // the partner (reader.ts, the worker named motebench-reader) replaced, before the view starts it, by one that
     // fails on the first file it is sent, as a fault in its reading would
-    await page.evaluate(() => {
-      const w = window as unknown as { Worker: typeof Worker; partnerFailures: number }
-      const Real = w.Worker
-      w.partnerFailures = 0
-      w.Worker = class extends Real {
-        constructor(url: string | URL, options?: WorkerOptions) {
-          if (options?.name !== 'motebench-reader') {
-            super(url, options)
-            return
-          }
-          super(URL.createObjectURL(new Blob(["self.onmessage = () => { throw new Error('the partner failed (test)') }"], { type: 'text/javascript' })))
-          this.addEventListener('error', () => w.partnerFailures++)
-        }
-      }
-    })
+    await watchWorkers(page, 'motebench-reader')
     await page.locator('#tab-record').click()
     await page.locator('[data-view="record"]').waitFor()
     await addCampaign(page)
@@ -227,7 +238,7 @@ describe('station record', { timeout: 180_000 }, () => {
     await page.getByTestId('record-density').press('Enter')
     await page.getByTestId('record-summary').waitFor({ timeout: 120_000 })
     // the partner was sent a measured file and failed (so this record's measured files were not its reading)
-    expect(await page.evaluate(() => (window as unknown as { partnerFailures: number }).partnerFailures)).toBeGreaterThan(0)
+    expect(await page.evaluate(() => (window as unknown as { failures: number }).failures)).toBeGreaterThan(0)
     // the measured files' summaries, as in the first test
     const summaries = page.getByTestId('record-file-summary')
     expect(await summaries.nth(2).getByTestId('record-file-rows').textContent()).toMatch(/^863 rows, scattering 450 nm/)
@@ -254,17 +265,7 @@ describe('station record', { timeout: 180_000 }, () => {
     const { page } = await session.open({ wait: false })
     // the record workers the page starts, counted (worker.ts keeps what it read for the next record, so the page
     // keeps a worker whose record is done for the next one: session.ts, keepFinishedWorker)
-    await page.evaluate(() => {
-      const w = window as unknown as { Worker: typeof Worker; recordWorkers: number }
-      const Real = w.Worker
-      w.recordWorkers = 0
-      w.Worker = class extends Real {
-        constructor(url: string | URL, options?: WorkerOptions) {
-          super(url, options)
-          if (options?.name === 'motebench-record') w.recordWorkers++
-        }
-      }
-    })
+    await watchWorkers(page)
     await page.locator('#tab-record').click()
     await page.locator('[data-view="record"]').waitFor()
     // one sizer (its rows go to the page with the record, so the worker reads them again from the bytes it keeps)
@@ -287,7 +288,7 @@ describe('station record', { timeout: 180_000 }, () => {
       // the measured file's summary as a first record's: the note each record adds is there once, not once a record
       expect((await page.getByTestId('record-file-summary').nth(1).textContent())!.match(/records inside the record's rows/g)?.length).toBe(1)
     }
-    expect(await page.evaluate(() => (window as unknown as { recordWorkers: number }).recordWorkers)).toBe(1)
+    expect(await page.evaluate(() => (window as unknown as { started: Record<string, number> }).started['motebench-record'])).toBe(1)
   })
 
   test('no request leaves the machine', () => {
