@@ -193,9 +193,9 @@ function stopWorker(): void {
 }
 
 /**
- * A worker whose record is done holds what it read of the files (worker.ts, `kept`): it becomes the spare, asked for
- * the next record, which then reads no file again (a year of rows is most of a record's time). A spare started
- * meanwhile, without those readings, gives way to it.
+ * A worker whose record is done holds what it read of the files and the files as they came (worker.ts, `kept` and
+ * `sources`): it becomes the spare, asked for the next record, which then reads no file from its blob again (a year
+ * of rows is most of a record's time). A spare started meanwhile, without those readings, gives way to it.
  */
 function keepFinishedWorker(w: Worker): void {
   if (worker === w) worker = null

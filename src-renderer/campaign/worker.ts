@@ -67,9 +67,18 @@ function fromPartner(m: Extract<ToRecordWorker, { type: 'partner' }>): void {
   expected.get(m.serial)?.settle()
 }
 
+/** A file as the last record was given it: its bytes (a web page's), else its text. */
+type Source = { kind: CampaignFileKind; name: string; bytes?: Uint8Array; text?: string }
+/** The last record's files as they came (by serial), from which a reading moved to the page is made again. */
+let sources = new Map<number, Source>()
+
+/** What a file's reading is made from: a sizer's bytes as they are, else the text. */
+const contentOf = (s: Source): string | ReturnType<typeof readSizerBytes> => (s.bytes && isSizerKind(s.kind) ? readSizerBytes({ kind: s.kind, name: s.name }, s.bytes) : textOfSource(s))
+const textOfSource = (s: Source): string => s.text ?? new TextDecoder().decode(s.bytes)
+
 /** Reads a file ahead as the kind the page guessed for it; a fault here is left for the record's own reading to meet. */
 function readAhead(serial: number, name: string, kind: CampaignFileKind, bytes: Uint8Array): void {
-  const r = reading(kind, name, () => (isSizerKind(kind) ? readSizerBytes({ kind, name }, bytes) : new TextDecoder().decode(bytes)))
+  const r = reading(kind, name, () => contentOf({ kind, name, bytes }))
   if (r) ahead.set(serial, r)
   else ahead.delete(serial)
 }
@@ -101,15 +110,6 @@ function dropMoved(moved: Set<ArrayBufferLike>): void {
     if (moved.has(values.buffer) || moved.has(timesMs.buffer) || (rh && moved.has(rh.buffer))) kept.delete(serial)
   }
 }
-
-/** A file as the last record was given it: its bytes (a web page's), else its text. */
-type Source = { kind: CampaignFileKind; name: string; bytes?: Uint8Array; text?: string }
-/** The last record's files as they came (by serial), from which a reading moved to the page is made again. */
-let sources = new Map<number, Source>()
-
-/** What a file's reading is made from: a sizer's bytes as they are, else the text. */
-const contentOf = (s: Source): string | ReturnType<typeof readSizerBytes> => (s.bytes && isSizerKind(s.kind) ? readSizerBytes({ kind: s.kind, name: s.name }, s.bytes) : textOfSource(s))
-const textOfSource = (s: Source): string => s.text ?? new TextDecoder().decode(s.bytes)
 
 const post = (m: FromRecordWorker, transfer: Transferable[] = []) => (self as unknown as Worker).postMessage(m, transfer)
 

@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { buildCampaignRecord, demoStudy, recordCsv, type CampaignFileKind, type CampaignSettings } from '../../src-core/index.ts'
-import type { FromRecordWorker, ToRecordWorker } from '../../src-renderer/campaign/worker.ts'
+import type { FromRecordWorker, RecordWorkerInput, ToRecordWorker } from '../../src-renderer/campaign/worker.ts'
 import { repo } from '../cli/helpers.ts'
 
 const posted: FromRecordWorker[] = []
@@ -43,34 +43,34 @@ async function decodedDuring(f: () => Promise<void>): Promise<number[]> {
   return lengths
 }
 
+/** Asks the worker for a record; its message, and the lengths of what TextDecoder decoded meanwhile. */
+async function askRecord(job: number, s: CampaignSettings, inputs: RecordWorkerInput[]): Promise<Extract<FromRecordWorker, { type: 'done' }> & { decoded: number[] }> {
+  const decoded = await decodedDuring(() => send({ type: 'record', job, settings: s, study, inputs }))
+  const done = posted.find((m) => m.job === job && m.type !== 'progress')
+  if (done?.type !== 'done') throw new Error(`the record failed: ${JSON.stringify(done)}`)
+  return { ...done, decoded }
+}
+
 async function recordAs(kind: CampaignFileKind, serial: number, job: number): Promise<Extract<FromRecordWorker, { type: 'done' }> & { decoded: number[]; size: number }> {
   const bytes = new Uint8Array(readFileSync(file('campaign-mobility.csv'))).buffer
   const size = bytes.byteLength
   await send({ type: 'bytes', serial, name: 'campaign-mobility.csv', kind: 'mobility', bytes })
-  const decoded = await decodedDuring(() => send({
-    type: 'record',
-    job,
-    settings,
-    study,
-    inputs: [
-      { kind, name: 'campaign-mobility.csv', serial, blob: unread },
-      { kind: 'scattering', name: 'campaign-nephelometer.csv', serial: serial + 1, text: text('campaign-nephelometer.csv') },
-      { kind: 'absorption', name: 'campaign-absorption.csv', serial: serial + 2, text: text('campaign-absorption.csv') }
-    ]
-  }))
-  const done = posted.find((m) => m.job === job && m.type !== 'progress')
-  if (done?.type !== 'done') throw new Error(`the record failed: ${JSON.stringify(done)}`)
-  return { ...done, decoded, size }
+  const done = await askRecord(job, settings, [
+    { kind, name: 'campaign-mobility.csv', serial, blob: unread },
+    { kind: 'scattering', name: 'campaign-nephelometer.csv', serial: serial + 1, text: text('campaign-nephelometer.csv') },
+    { kind: 'absorption', name: 'campaign-absorption.csv', serial: serial + 2, text: text('campaign-absorption.csv') }
+  ])
+  return { ...done, size }
 }
 
-const expected = (kind: CampaignFileKind) =>
+const expected = (kind: CampaignFileKind, s = settings) =>
   buildCampaignRecord(
     [
       { kind, name: 'campaign-mobility.csv', text: text('campaign-mobility.csv') },
       { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') },
       { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }
     ],
-    settings,
+    s,
     study
   )
 
@@ -94,32 +94,19 @@ describe('the record worker', () => {
 
   it('asked for the next record (another wavelength, then another kind of sizer), reads no file from its blob: the records of the texts', { timeout: 60_000 }, async () => {
     await recordAs('mobility', 30, 3)
-    const again = async (job: number, kind: CampaignFileKind, s: CampaignSettings) => {
-      const inputs = [
+    // the same serials, every file now as a blob that must not be read
+    const again = (job: number, kind: CampaignFileKind, s: CampaignSettings) =>
+      askRecord(job, s, [
         { kind, name: 'campaign-mobility.csv', serial: 30, blob: unread },
-        { kind: 'scattering' as const, name: 'campaign-nephelometer.csv', serial: 31, blob: unread },
-        { kind: 'absorption' as const, name: 'campaign-absorption.csv', serial: 32, blob: unread }
-      ]
-      const decoded = await decodedDuring(() => send({ type: 'record', job, settings: s, study, inputs }))
-      const done = posted.find((m) => m.job === job && m.type !== 'progress')
-      if (done?.type !== 'done') throw new Error(`the record failed: ${JSON.stringify(done)}`)
-      return { build: done.build, decoded }
-    }
+        { kind: 'scattering', name: 'campaign-nephelometer.csv', serial: 31, blob: unread },
+        { kind: 'absorption', name: 'campaign-absorption.csv', serial: 32, blob: unread }
+      ])
     const at700 = { ...settings, wavelength_nm: 700 }
-    const want = (kind: CampaignFileKind, s: CampaignSettings) => buildCampaignRecord(
-      [
-        { kind, name: 'campaign-mobility.csv', text: text('campaign-mobility.csv') },
-        { kind: 'scattering', name: 'campaign-nephelometer.csv', text: text('campaign-nephelometer.csv') },
-        { kind: 'absorption', name: 'campaign-absorption.csv', text: text('campaign-absorption.csv') }
-      ],
-      s,
-      study
-    )
     const size = readFileSync(file('campaign-mobility.csv')).byteLength
     for (const [job, kind, s] of [[4, 'mobility', at700], [5, 'mobility', settings], [6, 'merged', at700]] as const) {
       const done = await again(job, kind, s)
       expect(done.decoded).not.toContain(size)
-      const w = want(kind, s)
+      const w = expected(kind, s)
       // the summaries as a first record's: the notes a record adds are not carried into the next
       expect(done.build.files).toEqual(w.files)
       expect(recordCsv(done.build.record!)).toBe(recordCsv(w.record!))
